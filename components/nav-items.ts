@@ -1,0 +1,14 @@
+import type { Permission } from "@/lib/auth/permissions";
+
+/** The shell's navigation; each entry shows only to callers who hold its permission. */
+export interface NavItem {
+  href: string;
+  label: string;
+  permission: Permission;
+}
+
+export const NAV_ITEMS: NavItem[] = [
+  { href: "/today", label: "Today", permission: "today.view" },
+  { href: "/people", label: "People", permission: "people.view" },
+  { href: "/syllabus", label: "Syllabus", permission: "syllabus.view" },
+];

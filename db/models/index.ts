@@ -1,0 +1,5 @@
+// Every model, initialised at module top level so each bundle that imports this sees them ready.
+export * from "./school";
+export * from "./person";
+export * from "./course";
+export * from "./cohort";

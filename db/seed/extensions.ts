@@ -1,0 +1,24 @@
+import type { Transaction } from "sequelize";
+
+export interface SeedContext {
+  t: Transaction;
+  schoolId: string;
+  courseId: string;
+  revisionId: string;
+  people: { chief: string; instructor: string; priya: string; rafael: string; sponsor: string };
+  /** student e-mail → person id */
+  students: Record<string, string>;
+  cohorts: { a: string; b: string };
+  /** calendar date `offset` days from today, "yyyy-MM-dd" */
+  day: (offset: number) => string;
+}
+
+/**
+ * Each capability adds its own demo data here (aircraft profiles, briefings, sessions, checks…),
+ * through its own services, in the same transaction as the foundation's scenario.
+ */
+const extensions: { name: string; run: (ctx: SeedContext) => Promise<void> }[] = [];
+
+export async function runSeedExtensions(ctx: SeedContext): Promise<void> {
+  for (const ext of extensions) await ext.run(ctx);
+}

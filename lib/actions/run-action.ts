@@ -1,0 +1,105 @@
+import "server-only";
+import { QueryTypes, type Transaction } from "sequelize";
+import { z } from "zod";
+import { sequelize } from "@/db/index";
+import { HttpError, requirePermission } from "@/lib/auth/guard";
+import type { CurrentUser } from "@/lib/auth/session";
+import type { Permission } from "@/lib/auth/permissions";
+
+export type ActionFailure = {
+  ok: false;
+  status: 400 | 401 | 403 | 404 | 409 | 422;
+  message: string;
+  fieldErrors?: Record<string, string[]>;
+};
+export type ActionResult<T> = { ok: true; data: T; replayed?: boolean } | ActionFailure;
+
+export interface ActionContext {
+  user: CurrentUser;
+  t: Transaction;
+}
+
+const idempotencyKey = z.string().min(8).max(100).regex(/^[A-Za-z0-9_-]+$/);
+
+function fieldErrorsOf(err: z.ZodError): Record<string, string[]> {
+  const out: Record<string, string[]> = {};
+  for (const issue of err.issues) {
+    const key = issue.path.map(String).join(".") || "form";
+    (out[key] ??= []).push(issue.message);
+  }
+  return out;
+}
+
+/**
+ * The one way a server action runs: permission first, then zod, then the work in one
+ * transaction. Expected failures come back as `{ ok: false, status, message, fieldErrors }`;
+ * nothing is written unless everything succeeds. With `idempotent: "scope"`, an input field
+ * `idempotencyKey` makes a retried submit return the first result instead of creating twice.
+ */
+export async function runAction<S extends z.ZodType, T>(
+  permission: Permission,
+  schema: S,
+  input: unknown,
+  work: (data: z.output<S>, ctx: ActionContext) => Promise<T>,
+  options: { idempotent?: string } = {},
+): Promise<ActionResult<T>> {
+  let user: CurrentUser;
+  try {
+    user = await requirePermission(permission);
+  } catch (e) {
+    if (e instanceof HttpError) return { ok: false, status: e.status as 401 | 403, message: e.message };
+    throw e;
+  }
+  const parsed = schema.safeParse(input);
+  if (!parsed.success) {
+    const fieldErrors = fieldErrorsOf(parsed.error);
+    const first = Object.entries(fieldErrors)[0];
+    return { ok: false, status: 400, message: first ? `${first[0]}: ${first[1][0]}` : "Invalid input", fieldErrors };
+  }
+  let key: string | null = null;
+  if (options.idempotent) {
+    const raw = (input as { idempotencyKey?: unknown } | null)?.idempotencyKey;
+    if (raw !== undefined) {
+      const k = idempotencyKey.safeParse(raw);
+      if (!k.success) return { ok: false, status: 400, message: "idempotencyKey: invalid", fieldErrors: { idempotencyKey: ["invalid"] } };
+      key = k.data;
+    }
+  }
+  try {
+    return await sequelize.transaction(async (t) => {
+      if (key) {
+        // Serialise retries of the same key; the second waits and then sees the first result.
+        await sequelize.query(`SELECT pg_advisory_xact_lock(hashtext(:k))`, { replacements: { k: `${user.id}:${key}` }, transaction: t });
+        const [prior] = await sequelize.query<{ result: { data: T }; scope: string }>(
+          `SELECT result, scope FROM idempotency_keys WHERE person_id = :p AND key = :k`,
+          { replacements: { p: user.id, k: key }, type: QueryTypes.SELECT, transaction: t },
+        );
+        if (prior) {
+          if (prior.scope !== options.idempotent) throw new HttpError(409, "idempotencyKey: already used for another action", "idempotencyKey");
+          return { ok: true as const, data: prior.result.data, replayed: true };
+        }
+      }
+      const data = await work(parsed.data, { user, t });
+      if (key) {
+        await sequelize.query(
+          `INSERT INTO idempotency_keys (person_id, key, scope, result) VALUES (:p, :k, :s, :r::jsonb)`,
+          { replacements: { p: user.id, k: key, s: options.idempotent, r: JSON.stringify({ data: data ?? null }) }, transaction: t },
+        );
+      }
+      return { ok: true as const, data };
+    });
+  } catch (e) {
+    if (e instanceof HttpError) {
+      return {
+        ok: false,
+        status: e.status as ActionFailure["status"],
+        message: e.message,
+        ...(e.field ? { fieldErrors: { [e.field]: [e.message] } } : {}),
+      };
+    }
+    if (e instanceof z.ZodError) {
+      return { ok: false, status: 400, message: "Invalid input", fieldErrors: fieldErrorsOf(e) };
+    }
+    throw e;
+  }
+}

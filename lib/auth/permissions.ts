@@ -1,0 +1,46 @@
+import type { Role } from "./roles";
+
+/**
+ * Permissions as data: the one place that says which roles may do what.
+ * Code asks for a permission (`requirePermission("records.sign")`), never for a role name.
+ */
+export const PERMISSIONS = {
+  "today.view": { roles: ["chief", "instructor", "student", "sponsor"], description: "See one's own Today page" },
+  "people.view": { roles: ["chief", "instructor"], description: "See the school's people and rosters" },
+  "people.manage": { roles: ["chief"], description: "Create people, change roles, deactivate accounts" },
+  "people.unlock": { roles: ["chief"], description: "Lift a sign-in lock on an account" },
+  "syllabus.view": { roles: ["chief", "instructor", "student"], description: "Read the syllabus" },
+  "syllabus.edit": { roles: ["chief"], description: "Make syllabus revisions and move enrolments between them" },
+  "roster.manage": { roles: ["chief", "instructor"], description: "Add students, import rosters, move students between cohorts" },
+  "airframes.view": { roles: ["chief", "instructor"], description: "See aircraft profiles" },
+  "airframes.edit": { roles: ["chief", "instructor"], description: "Create, edit, duplicate and retire aircraft profiles" },
+  "demos.edit": { roles: ["chief", "instructor"], description: "Build, save and delete demos in Curve Lab" },
+  "demos.view": { roles: ["chief", "instructor", "student"], description: "Open demos (students: only those assigned)" },
+  "demos.call": { roles: ["student"], description: "Make a Call it first prediction on an assigned demo" },
+  "briefings.edit": { roles: ["chief", "instructor"], description: "Write briefings and upload handouts" },
+  "briefings.view": { roles: ["chief", "instructor", "student"], description: "Read briefings (students: only those scheduled or assigned)" },
+  "timetable.view": { roles: ["chief", "instructor", "student"], description: "See the Timetable (each sees what concerns them)" },
+  "timetable.schedule": { roles: ["chief", "instructor"], description: "Schedule, reschedule and cancel sessions" },
+  "attendance.record": { roles: ["chief", "instructor"], description: "Record attendance and credited minutes" },
+  "groundlog.view": { roles: ["chief", "instructor", "student", "sponsor"], description: "See a Ground log (scoped to the caller)" },
+  "assignments.manage": { roles: ["chief", "instructor"], description: "Assign briefings and demos" },
+  "assignments.complete": { roles: ["student"], description: "Mark one's own assignments done" },
+  "checks.record": { roles: ["chief", "instructor"], description: "Record oral checks" },
+  "checks.acknowledge": { roles: ["student"], description: "Acknowledge the debrief of one's own oral check" },
+  "records.sign": { roles: ["chief", "instructor"], description: "Sign off syllabus items" },
+  "records.amend": { roles: ["chief", "instructor"], description: "Amend or withdraw one's signed records" },
+  "stagechecks.conduct": { roles: ["chief", "instructor"], description: "Conduct stage checks (designated check instructors and the chief)" },
+  "stagechecks.designate": { roles: ["chief"], description: "Designate check instructors and override examiner rules" },
+  "register.view": { roles: ["chief"], description: "See the Sign-off register and watch notes" },
+  "audit.verify": { roles: ["chief"], description: "Verify the audit trail's hash chain" },
+  "progress.view": { roles: ["chief", "instructor", "student", "sponsor"], description: "See a Progress map (scoped to the caller)" },
+  "mail.tray": { roles: ["chief"], description: "See captured mail (Mail tray) and outbox states" },
+  "settings.edit": { roles: ["chief"], description: "Change school settings: mail sender, reminder lead time, letter day, limits" },
+} as const satisfies Record<string, { roles: readonly Role[]; description: string }>;
+
+export type Permission = keyof typeof PERMISSIONS;
+
+export function rolesAllow(roles: readonly Role[], permission: Permission): boolean {
+  const allowed: readonly Role[] = PERMISSIONS[permission].roles;
+  return roles.some((r) => allowed.includes(r));
+}
