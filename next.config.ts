@@ -19,6 +19,8 @@ const csp = [
 const nextConfig: NextConfig = {
   serverExternalPackages: ["sequelize", "pg", "pg-hstore", "pg-boss", "nodemailer", "bcryptjs"],
   poweredByHeader: false,
+  // Lets parallel checkouts or test runs build side by side without sharing .next.
+  distDir: process.env.CHALKWING_DIST_DIR || ".next",
   experimental: { authInterrupts: true },
   async headers() {
     return [

@@ -1,0 +1,57 @@
+import type { Metadata } from "next";
+import { requirePagePermission } from "@/lib/auth/guard";
+import { getSyllabusRevision, listCoursesWithLatestRevision } from "@/db/access/syllabus";
+import { getActiveEnrolment } from "@/db/access/cohorts";
+
+export const metadata: Metadata = { title: "Syllabus" };
+export const dynamic = "force-dynamic";
+
+const LEVEL_LABEL = { rote: "Rote", understanding: "Understanding", application: "Application", correlation: "Correlation" } as const;
+
+export default async function SyllabusPage() {
+  const user = await requirePagePermission("syllabus.view", "/syllabus");
+  let revisionIds: string[];
+  if (user.roles.includes("chief") || user.roles.includes("instructor")) {
+    revisionIds = (await listCoursesWithLatestRevision(user.schoolId)).flatMap((c) => (c.revisionId ? [c.revisionId] : []));
+  } else {
+    const e = await getActiveEnrolment(user.id);
+    revisionIds = e ? [e.revisionId] : [];
+  }
+  const revisions = (await Promise.all(revisionIds.map((id) => getSyllabusRevision(user.schoolId, id)))).filter((r) => r !== null);
+  return (
+    <div className="space-y-6">
+      <h1 className="text-display">Syllabus</h1>
+      {revisions.length === 0 && <p className="text-ink-soft">No syllabus to show.</p>}
+      {revisions.map((rev) => (
+        <section key={rev.revisionId} className="space-y-4">
+          <header>
+            <h2>{rev.course.code} · {rev.course.title}</h2>
+            <p className="text-caption text-ink-soft">
+              Revision {rev.number} · approved {rev.approvedOn ?? "—"} · effective from {rev.effectiveFrom ?? "—"} · minimum ground time {rev.course.minGroundMinutes / 60} h
+            </p>
+          </header>
+          {rev.stages.map((s) => (
+            <section key={s.id} className="card" aria-labelledby={`st-${s.id}`}>
+              <h3 id={`st-${s.id}`} className="font-semibold">{s.code} · {s.title}</h3>
+              <div className="mt-2 overflow-x-auto">
+                <table className="data-table">
+                  <thead><tr><th scope="col">Item</th><th scope="col">Objective</th><th scope="col">Completion standard</th><th scope="col">Level</th></tr></thead>
+                  <tbody>
+                    {s.items.map((i) => (
+                      <tr key={i.id}>
+                        <td><span className="num font-semibold">{i.code}</span> {i.title}</td>
+                        <td>{i.objective}</td>
+                        <td>{i.completionStandard}</td>
+                        <td>{LEVEL_LABEL[i.requiredLevel]}</td>
+                      </tr>
+                    ))}
+                  </tbody>
+                </table>
+              </div>
+            </section>
+          ))}
+        </section>
+      ))}
+    </div>
+  );
+}

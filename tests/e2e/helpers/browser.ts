@@ -1,0 +1,57 @@
+import { mkdtempSync, rmSync, mkdirSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import { chromium, type BrowserContext, type Page } from "playwright-core";
+
+export const BASE_URL = process.env.E2E_BASE_URL ?? "http://127.0.0.1:3000";
+export const DEMO_PASSWORD = "chalkwing-demo";
+export const SCREENSHOT_DIR = path.join(process.cwd(), "tests", "artifacts", "screenshots");
+
+const FLAGS = [
+  "--headless",
+  "--no-sandbox",
+  "--disable-gpu",
+  "--disable-quic",
+  "--no-first-run",
+  "--disable-background-networking",
+  "--disable-component-update",
+  "--disable-sync",
+];
+
+export interface Browser {
+  context: BrowserContext;
+  close(): Promise<void>;
+}
+
+/** Debian's Chromium, driven by playwright-core, with a fresh profile each time. */
+export async function launchBrowser(viewport = { width: 1280, height: 800 }): Promise<Browser> {
+  const dir = mkdtempSync(path.join(tmpdir(), "chalkwing-chromium-"));
+  const context = await chromium.launchPersistentContext(dir, {
+    executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
+    headless: true,
+    args: FLAGS,
+    viewport,
+    baseURL: BASE_URL,
+  });
+  return {
+    context,
+    async close() {
+      await context.close();
+      rmSync(dir, { recursive: true, force: true });
+    },
+  };
+}
+
+export async function signIn(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
+  await page.goto("/sign-in");
+  await page.fill("#email", email);
+  await page.fill("#password", password);
+  await Promise.all([page.waitForURL((u) => !u.pathname.startsWith("/sign-in"), { timeout: 15_000 }).catch(() => undefined), page.click("button[type=submit]")]);
+}
+
+export async function screenshot(page: Page, name: string): Promise<string> {
+  mkdirSync(SCREENSHOT_DIR, { recursive: true });
+  const file = path.join(SCREENSHOT_DIR, `${name}.png`);
+  await page.screenshot({ path: file, fullPage: true });
+  return file;
+}
