@@ -6,7 +6,7 @@ import nextJest from "next/jest.js";
 const createJestConfig = nextJest({ dir: "./" });
 
 const shared = {
-  moduleNameMapper: { "^@/(.*)$": "<rootDir>/$1" },
+  moduleNameMapper: { "^server-only$": "<rootDir>/tests/setup/empty.ts", "^@/(.*)$": "<rootDir>/$1" },
   testPathIgnorePatterns: ["/node_modules/", "/.next/"],
 };
 

@@ -20,6 +20,12 @@ export const SESSION_COOKIES = ["__Secure-next-auth.session-token", "next-auth.s
  * sign-out, a password or role change, or deactivation end old sessions at once.
  */
 export const getCurrentUser = cache(async (): Promise<CurrentUser | null> => {
+  // Integration tests (jest, NODE_ENV=test) call actions in-process as a given person; a
+  // production build never takes this branch.
+  if (process.env.NODE_ENV === "test") {
+    const override = (globalThis as { __chalkwingTestUser?: CurrentUser | null }).__chalkwingTestUser;
+    if (override !== undefined) return override;
+  }
   const jar = await cookies();
   const raw = SESSION_COOKIES.map((n) => jar.get(n)?.value).find(Boolean);
   if (!raw) return null;
