@@ -17,8 +17,27 @@ export interface HarnessResponse {
   headers: Headers;
 }
 
-/** Ids looked up from the seeded end-to-end database (see fixtures.ts); areas add what they need. */
-export type Fixtures = Record<string, string>;
+/**
+ * Ids looked up from the seeded end-to-end database (see fixtures.ts); areas add what they need.
+ * The foundation's names are typed as `string`; an area's own names may be added here too
+ * (one line each), otherwise they read as `string | undefined`. Unknown names throw at run time.
+ */
+export interface Fixtures {
+  [name: string]: string;
+  school: string;
+  chief: string;
+  instructor: string;
+  otherInstructor: string;
+  student: string;
+  cohortmate: string;
+  otherStudent: string;
+  sponsor: string;
+  kestrelCohort: string;
+  merlinCohort: string;
+  course: string;
+  syllabusRevision: string;
+  lockedPerson: string;
+}
 
 export interface EndpointRequest {
   /** values for the dynamic segments, e.g. { briefingId: fx.briefing } */
@@ -45,3 +64,11 @@ export interface EndpointCase {
   /** identifiers/strings that a refused call must never echo back (target's name, e-mail, ids) */
   secrets?: (fx: Fixtures) => string[];
 }
+
+/** An endpoint the harness deliberately does not call, with a one-line reason (tested elsewhere). */
+export interface SkippedEndpoint {
+  skip: string;
+}
+
+/** The table: every derived endpoint key maps to a case or a skip. */
+export type AuthzTable = Record<string, EndpointCase | SkippedEndpoint>;

@@ -1,0 +1,114 @@
+// The authorisation table: for every endpoint derived from the code (see derive.ts) and every
+// caller, the expected answer. The harness (harness.test.ts) fails when an endpoint is missing
+// here, or when a row names an endpoint that no longer exists.
+//
+// How to add a row (one per route-handler method and per server action):
+//   "GET /api/<area>/[id]": {
+//     request: (fx) => ({ params: { id: fx.somethingOfTheStudent }, query: "a=1" }),
+//     expect: { signedOut: 401, chief: { status: 200, check: (res, fx) => ... }, instructor: 200, student: 403, sponsor: 403 },
+//     secrets: (fx) => [fx.somethingOfTheStudent, "Ada Quill"],   // must never come back in a refused answer
+//   },
+//   "action app/(app)/<area>/actions.ts#doThingAction": {
+//     request: (fx, caller) => ({ args: [{ thingId: fx.thing }] }),
+//     expect: { signedOut: 401, chief: 200, instructor: 200, student: 403, sponsor: 403 },
+//     mutates: true,   // the allowed calls change rows by design
+//   },
+// Keys: route handlers are "<METHOD> <app-dir path>" (route groups dropped, dynamic segments kept,
+// e.g. "POST /api/briefings/[briefingId]/handouts"); actions are "action <file>#<exportedName>".
+// An action's answer maps to a status: { ok: true } → 200, { ok: false, status } → status.
+// Positive cells (2xx) should check the caller gets their own data: use `check`, which may throw
+// (jest expect works). Refused cells are checked automatically for "no rows changed" and "no
+// uuid the caller was not given, no `secrets` string" in the body.
+// Fixture ids (fx.*) come from fixtures.ts: add a lookup there for anything new you need.
+// Other areas: add your rows in your own block below, marked with your area's name.
+import type { AuthzTable, HarnessResponse } from "./types";
+
+function rowsOf(res: HarnessResponse): { id: string; primary: string }[] {
+  const j = res.json as { rows?: { id: string; primary: string }[] } | undefined;
+  if (!j || !Array.isArray(j.rows)) throw new Error(`expected { rows: [...] }, got ${res.text.slice(0, 200)}`);
+  return j.rows;
+}
+function ids(res: HarnessResponse): string[] {
+  return rowsOf(res).map((r) => r.id);
+}
+
+export const TABLE: AuthzTable = {
+  // ---- foundation ----
+  "GET /api/auth/[...nextauth]": { skip: "next-auth's own endpoints; covered by tests/e2e/sign-in.test.ts" },
+  "POST /api/auth/[...nextauth]": { skip: "next-auth's own endpoints; covered by tests/e2e/sign-in.test.ts" },
+
+  "GET /api/health": {
+    expect: {
+      signedOut: { status: 200, check: (res) => expect(res.json).toEqual({ status: "ok", database: "ok" }) },
+      chief: 200,
+      instructor: 200,
+      student: 200,
+      sponsor: 200,
+    },
+  },
+
+  "GET /api/today": {
+    expect: {
+      signedOut: 401,
+      chief: {
+        status: 200,
+        check: (res, fx) => {
+          // the chief sees every cohort of the school
+          expect(ids(res)).toEqual(expect.arrayContaining([fx.kestrelCohort, fx.merlinCohort]));
+        },
+      },
+      instructor: {
+        status: 200,
+        check: (res, fx) => {
+          // the Kestrel cohort's lead sees its students, not the Merlin cohort's
+          expect(ids(res)).toContain(fx.student);
+          expect(ids(res)).not.toContain(fx.otherStudent);
+        },
+      },
+      student: {
+        status: 200,
+        check: (res, fx) => {
+          // the items of the student's current stage, and nobody's person id
+          expect(rowsOf(res).map((r) => r.primary)).toContain("AER-03 Total drag and the minimum-drag speed");
+          expect(res.text).not.toContain(fx.otherStudent);
+          expect(res.text).not.toContain(fx.cohortmate);
+        },
+      },
+      sponsor: {
+        status: 200,
+        check: (res, fx) => {
+          // only the linked student
+          expect(ids(res)).toEqual([fx.student]);
+        },
+      },
+    },
+  },
+
+  "action app/(app)/today/actions.ts#unlockAccountAction": {
+    request: (fx) => ({ args: [{ personId: fx.lockedPerson }] }),
+    expect: {
+      signedOut: 401,
+      chief: { status: 200, check: (res) => expect(res.json).toMatchObject({ ok: true, data: { unlocked: 1 } }) },
+      instructor: 403,
+      student: 403,
+      sponsor: 403,
+    },
+    mutates: true,
+    secrets: (fx) => [fx.lockedPerson, "locked.harness@chalkwing.test"],
+  },
+
+  "POST /api/people/[personId]/unlock": {
+    request: (fx) => ({ params: { personId: fx.lockedPerson2 ?? "" }, body: {} }),
+    expect: {
+      signedOut: 401,
+      chief: { status: 200, check: (res) => expect(res.json).toEqual({ unlocked: 1 }) },
+      instructor: 403,
+      student: 403,
+      sponsor: 403,
+    },
+    mutates: true,
+    secrets: (fx) => [fx.lockedPerson2 ?? "", "locked2.harness@chalkwing.test"],
+  },
+
+  // ---- other areas: add your blocks below ----
+};

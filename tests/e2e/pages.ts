@@ -1,0 +1,26 @@
+// The pages the accessibility crawler (a11y.test.ts) visits, for each role allowed.
+// How to add a page: one entry with a stable `name` (used in screenshot file names), the path
+// (a function of the fixtures for pages with ids, e.g. (fx) => `/briefings/${fx.briefing}`), the
+// callers who may open it, and `waitFor`: a selector that appears once the page's data is shown.
+// `status` is the expected HTTP status of the document (default 200), for the 403 and 404 pages.
+import type { Caller, Fixtures } from "./authz/types";
+
+export interface CrawlPage {
+  name: string;
+  path: string | ((fx: Fixtures) => string);
+  roles: Caller[];
+  waitFor?: string;
+  status?: number;
+}
+
+export const PAGES: CrawlPage[] = [
+  // ---- foundation ----
+  { name: "today", path: "/today", roles: ["chief", "instructor", "student", "sponsor"], waitFor: "main h1" },
+  { name: "people", path: "/people", roles: ["chief", "instructor"], waitFor: "main h1" },
+  { name: "syllabus", path: "/syllabus", roles: ["chief", "instructor", "student"], waitFor: "main h1" },
+  { name: "sign-in", path: "/sign-in", roles: ["signedOut"], waitFor: "form" },
+  { name: "forbidden", path: "/people", roles: ["student"], waitFor: "h1", status: 403 },
+  { name: "not-found", path: "/no-such-page", roles: ["signedOut", "student"], waitFor: "h1", status: 404 },
+
+  // ---- other areas: add your pages below ----
+];
