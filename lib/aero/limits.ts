@@ -60,7 +60,7 @@ export const LIMITS = Object.freeze({
   speedChangeMs: limit("speedChangeMs", -MAX_SPEED_MS, MAX_SPEED_MS, "m/s", false),
   ratio: limit("ratio", 1e-6, 1e6, "", true),
   /** Plain unit conversions accept any sign; the bound only keeps the result finite. */
-  value: limit("value", -1e15, 1e15, "", false),
+  value: limit("value", -1e300, 1e300, "", false),
 });
 
 function formatBound(x: number): string {

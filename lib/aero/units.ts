@@ -2,8 +2,8 @@ import { LIMITS, checked } from "./limits";
 
 /**
  * Unit conversions with the exact defined factors. Each converter accepts any
- * finite number with magnitude up to 1e15 (signs allowed, e.g. negative
- * altitudes) and throws AeroInputError (field "value") otherwise.
+ * finite number with magnitude up to 1e300 (signs allowed, e.g. negative
+ * altitudes; the bound keeps every result finite) and throws AeroInputError (field "value") otherwise.
  */
 
 /** Standard acceleration of gravity, m/s^2 (exact, by definition). */
