@@ -3,7 +3,7 @@
 # runs every test layer (unit, integration, end-to-end), prints the time of each phase and
 # ends with one line: "tests: N passed, N failed".
 #   npm test                       everything
-#   npm test -- --only unit        one layer (unit | integration | e2e), extra args go to jest
+#   npm test -- --only unit        one layer (static | unit | integration | e2e), extra args go to jest
 # Parallel runs on one machine: set CHALKWING_TEST_NAME (databases, build folder, port).
 set -uo pipefail
 . "$(dirname "${BASH_SOURCE[0]}")/common.sh"
@@ -19,13 +19,16 @@ E2E_PORT="${E2E_PORT:-3100}"
 export E2E_BASE_URL="http://127.0.0.1:$E2E_PORT"
 SMTP_TEST_PORT="${SMTP_TEST_PORT:-2625}"
 FAILED_PHASES=()
+NON_JEST=0 # failures outside jest (type check, lint, build, server start): one each
+fail_phase() { FAILED_PHASES+=("$1"); NON_JEST=$((NON_JEST + 1)); }
 
 phase_start() { PHASE="$1"; PHASE_T0=$(date +%s); echo; echo "=== phase: $PHASE"; }
 phase_end() { echo "=== phase: $PHASE took $(( $(date +%s) - PHASE_T0 ))s"; }
 want() { [ -z "$ONLY" ] || [ "$ONLY" = "$1" ]; }
 
 summary() {
-  node "$ROOT/lib/ops/summarise-results.mjs" "$RESULTS" "${#FAILED_PHASES[@]}"
+  [ ${#FAILED_PHASES[@]} -gt 0 ] && echo "failed phases: ${FAILED_PHASES[*]}"
+  CHALKWING_NON_JEST_FAILURES="$NON_JEST" node "$ROOT/lib/ops/summarise-results.mjs" "$RESULTS" "${#FAILED_PHASES[@]}"
 }
 cleanup() { stop_pidfile "e2e-web-$NAME"; stop_test_services 2>/dev/null || true; }
 trap cleanup EXIT
@@ -41,8 +44,15 @@ phase_end
 
 run_jest() { # run_jest PROJECT [jest args]
   local project="$1"; shift
-  node node_modules/jest/bin/jest.js --selectProjects "$project" --json --outputFile="$RESULTS/$project.json" "$@" "${JEST_EXTRA[@]}" || FAILED_PHASES+=("$project")
+  node node_modules/jest/bin/jest.js --selectProjects "$project" --json --outputFile="$RESULTS/$project.json" "$@" "${JEST_EXTRA[@]}" || { FAILED_PHASES+=("$project"); [ -f "$RESULTS/$project.json" ] || NON_JEST=$((NON_JEST + 1)); }
 }
+
+if want static; then
+  phase_start "static checks (TypeScript, ESLint)"
+  node node_modules/typescript/bin/tsc --noEmit -p tsconfig.json || fail_phase typescript
+  node node_modules/eslint/bin/eslint.js . || fail_phase eslint
+  phase_end
+fi
 
 if want unit; then
   phase_start "unit tests"
@@ -55,7 +65,7 @@ if want integration; then
   bash db/cluster.sh create-db "chalkwing_${NAME}_int" --fresh >/dev/null
   db_urls "chalkwing_${NAME}_int"
   export NEXTAUTH_SECRET NEXTAUTH_URL="http://127.0.0.1:$E2E_PORT"
-  tsx_run db/cli.ts migrate && run_jest integration --runInBand
+  if tsx_run db/cli.ts migrate; then run_jest integration --runInBand; else fail_phase migrate; fi
   phase_end
 fi
 
@@ -64,7 +74,7 @@ if want e2e; then
   bash db/cluster.sh create-db "chalkwing_${NAME}_e2e" --fresh >/dev/null
   db_urls "chalkwing_${NAME}_e2e"
   export NEXTAUTH_URL="$E2E_BASE_URL" CHALKWING_MAIL_TRAY=on
-  tsx_run db/cli.ts migrate && tsx_run db/cli.ts seed
+  tsx_run db/cli.ts migrate && tsx_run db/cli.ts seed || fail_phase seed
   if node node_modules/next/dist/bin/next build > "$RESULTS/build.log" 2>&1; then
     phase_end
     phase_start "end-to-end tests (headless Chromium against the production build)"
@@ -75,12 +85,12 @@ if want e2e; then
     if wait_http "$E2E_BASE_URL/api/health" 60; then
       run_jest e2e --runInBand
     else
-      tail -n 30 "$RESULTS/web.log"; FAILED_PHASES+=("e2e-server")
+      tail -n 30 "$RESULTS/web.log"; fail_phase e2e-server
     fi
     stop_pidfile "e2e-web-$NAME"
     phase_end
   else
-    tail -n 40 "$RESULTS/build.log"; FAILED_PHASES+=("build"); phase_end
+    tail -n 40 "$RESULTS/build.log"; fail_phase build; phase_end
   fi
 fi
 
