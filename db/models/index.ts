@@ -3,3 +3,5 @@ export * from "./school";
 export * from "./person";
 export * from "./course";
 export * from "./cohort";
+export * from "./briefing";
+export * from "./assignment";
