@@ -3,5 +3,7 @@ export * from "./school";
 export * from "./person";
 export * from "./course";
 export * from "./cohort";
+export * from "./airframe";
+export * from "./demo";
 export * from "./briefing";
 export * from "./assignment";
