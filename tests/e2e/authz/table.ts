@@ -98,7 +98,7 @@ export const TABLE: AuthzTable = {
   },
 
   "POST /api/people/[personId]/unlock": {
-    request: (fx) => ({ params: { personId: fx.lockedPerson2 ?? "" }, body: {} }),
+    request: (fx) => ({ params: { personId: fx.lockedPerson2 }, body: {} }),
     expect: {
       signedOut: 401,
       chief: { status: 200, check: (res) => expect(res.json).toEqual({ unlocked: 1 }) },
@@ -107,7 +107,7 @@ export const TABLE: AuthzTable = {
       sponsor: 403,
     },
     mutates: true,
-    secrets: (fx) => [fx.lockedPerson2 ?? "", "locked2.harness@chalkwing.test"],
+    secrets: (fx) => [fx.lockedPerson2, "locked2.harness@chalkwing.test"],
   },
 
   // ---- other areas: add your blocks below ----

@@ -5,6 +5,7 @@
 //   route handlers:  "GET /api/today", "POST /api/briefings/[briefingId]/handouts" (the app-dir path)
 //   server actions:  "action app/(app)/today/actions.ts#unlockAccountAction"
 // An action's answer is mapped to a status: `{ ok: true }` → 200, `{ ok: false, status }` → that status.
+// A redirect to /sign-in (proxy.ts, for signed-out callers of actions on signed-in pages) counts as 401.
 
 export type Caller = "signedOut" | "chief" | "instructor" | "student" | "sponsor";
 export const CALLERS: Caller[] = ["signedOut", "chief", "instructor", "student", "sponsor"];
@@ -37,6 +38,7 @@ export interface Fixtures {
   course: string;
   syllabusRevision: string;
   lockedPerson: string;
+  lockedPerson2: string;
 }
 
 export interface EndpointRequest {

@@ -1,0 +1,47 @@
+// A direct PostgreSQL connection to the end-to-end database as the owner role (DATABASE_OWNER_URL,
+// exported by lib/ops/test.sh), for fixtures and for "no rows changed" fingerprints.
+import { Client } from "pg";
+
+export async function ownerClient(): Promise<Client> {
+  const url = process.env.DATABASE_OWNER_URL;
+  if (!url) throw new Error("DATABASE_OWNER_URL is not set: run the e2e layer through `npm test -- --only e2e`");
+  const c = new Client({ connectionString: url });
+  await c.connect();
+  return c;
+}
+
+/**
+ * Tables left out of the fingerprint, each with its reason. Keep this list short: a table
+ * here is no longer checked for "a refused call changed nothing".
+ */
+export const FINGERPRINT_EXCLUDE: Record<string, string> = {
+  "public.schema_migrations": "written only by migrations",
+};
+/** Schemas left out: pg-boss keeps its job queue in its own schema, which a background worker changes. */
+const SCHEMA_EXCLUDE = ["pg_catalog", "information_schema", "pg_toast", "pgboss"];
+
+/** Per table: row count and an md5 of all rows in a stable order. */
+export async function fingerprint(c: Client): Promise<Record<string, string>> {
+  const { rows: tables } = await c.query<{ schema: string; name: string }>(
+    `SELECT schemaname AS schema, tablename AS name FROM pg_tables
+      WHERE schemaname <> ALL($1::text[]) AND schemaname NOT LIKE 'pg_temp%' ORDER BY 1, 2`,
+    [SCHEMA_EXCLUDE],
+  );
+  const wanted = tables.filter((t) => !(`${t.schema}.${t.name}` in FINGERPRINT_EXCLUDE));
+  if (wanted.length === 0) return {};
+  const q = (s: string) => `"${s.replace(/"/g, '""')}"`;
+  const sql = wanted
+    .map(
+      (t) =>
+        `SELECT '${t.schema}.${t.name}' AS t, count(*)::text || ':' || coalesce(md5(string_agg(x::text, '|' ORDER BY x::text)), '') AS fp FROM ${q(t.schema)}.${q(t.name)} x`,
+    )
+    .join(" UNION ALL ");
+  const { rows } = await c.query<{ t: string; fp: string }>(sql);
+  return Object.fromEntries(rows.map((r) => [r.t, r.fp]));
+}
+
+/** The tables whose fingerprint differs between two snapshots. */
+export function changedTables(before: Record<string, string>, after: Record<string, string>): string[] {
+  const names = new Set([...Object.keys(before), ...Object.keys(after)]);
+  return [...names].filter((n) => before[n] !== after[n]).sort();
+}
