@@ -1,0 +1,104 @@
+import { z } from "zod";
+
+// The Timetable's and the Ground log's input schemas, shared by the client forms and the server
+// (server actions and route handlers parse with the same schema).
+
+export const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "a date as yyyy-mm-dd").refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), "not a real date");
+export const wallTime = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, "a time as hh:mm (24-hour)");
+const uuid = z.string().uuid("not a valid id");
+
+export const scheduleSessionSchema = z
+  .object({
+    briefingId: z.string().uuid("choose a briefing"),
+    date: isoDate,
+    time: wallTime,
+    durationMinutes: z.coerce.number().int("whole minutes").min(15, "at least 15 minutes").max(480, "at most 480 minutes"),
+    room: z.string().trim().min(1, "required").max(100, "at most 100 characters"),
+    instructorId: z.string().uuid("choose an instructor"),
+    cohortId: z.union([z.literal(""), uuid]).optional().default(""),
+    studentIds: z.array(uuid).max(200).optional().default([]),
+  })
+  .refine((v) => v.cohortId !== "" || v.studentIds.length > 0, { message: "choose a cohort or at least one student", path: ["cohortId"] });
+export type ScheduleSessionInput = z.input<typeof scheduleSessionSchema>;
+
+export const rescheduleSessionSchema = z.object({
+  sessionId: uuid,
+  date: isoDate,
+  time: wallTime,
+  durationMinutes: z.coerce.number().int("whole minutes").min(15, "at least 15 minutes").max(480, "at most 480 minutes"),
+  room: z.string().trim().min(1, "required").max(100, "at most 100 characters"),
+  instructorId: z.string().uuid("choose an instructor"),
+});
+
+export const cancelSessionSchema = z.object({
+  sessionId: uuid,
+  reason: z.string().trim().min(3, "say why, in a few words").max(500, "at most 500 characters"),
+});
+
+export const ATTENDANCE_STATUSES = ["attended", "late", "left_early", "absent_excused", "absent"] as const;
+export type AttendanceStatusName = (typeof ATTENDANCE_STATUSES)[number];
+export const ATTENDANCE_LABELS: Record<AttendanceStatusName, string> = {
+  attended: "Attended",
+  late: "Late",
+  left_early: "Left early",
+  absent_excused: "Absent (excused)",
+  absent: "Absent",
+};
+
+const minutes = z.coerce.number().int("whole minutes").min(0, "not negative").max(720, "at most 720");
+
+export const attendanceLineSchema = z.object({
+  studentId: uuid,
+  status: z.enum(ATTENDANCE_STATUSES, "choose attended, late, left early or absent"),
+  lateMinutes: minutes.optional().default(0),
+  earlyMinutes: minutes.optional().default(0),
+  /** when given, overrides the computed credit (never above the session's length) */
+  creditedMinutes: z.union([z.literal(""), minutes]).optional(),
+});
+export type AttendanceLine = z.output<typeof attendanceLineSchema>;
+
+export const recordAttendanceSchema = z.object({
+  sessionId: uuid,
+  lines: z.array(attendanceLineSchema).min(1, "record at least one student").max(200),
+});
+
+export const amendEntrySchema = attendanceLineSchema.omit({ studentId: true }).extend({
+  entryId: uuid,
+  reason: z.string().trim().min(3, "say what was wrong, in a few words").max(500),
+});
+
+export const makeupCloseSchema = z.object({
+  itemId: uuid,
+  how: z.enum(["one_to_one", "oral_check"], "choose a one-to-one briefing or an oral check"),
+  note: z.string().trim().max(500).optional().default(""),
+});
+export const makeupScheduleSchema = z.object({ itemId: uuid, sessionId: uuid });
+export const makeupWaiveSchema = z.object({ itemId: uuid, reason: z.string().trim().min(3, "say why, in a few words").max(500) });
+
+export const SESSION_SORTS = ["starts_at", "briefing", "room", "instructor", "cohort"] as const;
+
+/** GET /api/sessions and the list view's query string. Unknown parameters are refused by the caller. */
+export const sessionsQuerySchema = z.object({
+  from: isoDate.optional(),
+  to: isoDate.optional(),
+  instructor: uuid.optional(),
+  cohort: uuid.optional(),
+  room: z.string().trim().min(1).max(100).optional(),
+  mine: z.enum(["1", "0"], "1 or 0").optional(),
+  status: z.enum(["scheduled", "cancelled", "all"], "scheduled, cancelled or all").default("all"),
+  sort: z.enum(SESSION_SORTS, `one of ${SESSION_SORTS.join(", ")}`).default("starts_at"),
+  dir: z.enum(["asc", "desc"], "asc or desc").default("asc"),
+  page: z.coerce.number("a whole number").int("a whole number").min(1, "at least 1").max(10_000).default(1),
+  pageSize: z.coerce.number("a whole number").int("a whole number").min(1, "at least 1").max(100, "at most 100").default(20),
+});
+export type SessionsQuery = z.output<typeof sessionsQuerySchema>;
+export const SESSIONS_QUERY_KEYS = Object.keys(sessionsQuerySchema.shape);
+
+/** The week view's query string. */
+export const weekQuerySchema = z.object({
+  week: isoDate.optional(),
+  instructor: uuid.optional(),
+  cohort: uuid.optional(),
+  room: z.string().trim().min(1).max(100).optional(),
+  mine: z.enum(["1", "0"], "1 or 0").optional(),
+});
