@@ -1,0 +1,103 @@
+import "server-only";
+import { QueryTypes, type Transaction } from "sequelize";
+import { sequelize } from "../index";
+import { now } from "@/lib/clock";
+import type { CurrentUser } from "@/lib/auth/session";
+
+/**
+ * The append-only audit trail. Each row is linked into its school's hash chain by the
+ * database itself (trigger `audit_events_chain`, under a per-school transaction lock):
+ * hash = sha256(previous hash | canonical row text). Rows can only be inserted.
+ */
+export interface AuditInput {
+  schoolId: string;
+  actor: Pick<CurrentUser, "id" | "roles"> | null;
+  action: string;
+  recordType: string;
+  recordId: string;
+  before?: unknown;
+  after?: unknown;
+  occurredAt?: Date;
+}
+
+export async function writeAudit(t: Transaction, e: AuditInput): Promise<{ id: string; chainPos: number; hash: string }> {
+  const [row] = await sequelize.query<{ id: string; chainPos: string; hash: string }>(
+    `INSERT INTO audit_events (school_id, actor_id, actor_roles, action, record_type, record_id, before, after, occurred_at, chain_pos, prev_hash, hash, seq)
+     VALUES (:schoolId, :actorId, :roles::text[], :action, :recordType, :recordId, :before::jsonb, :after::jsonb, :occurredAt, 0, '', '', 0)
+     RETURNING id, chain_pos AS "chainPos", hash`,
+    {
+      transaction: t,
+      type: QueryTypes.SELECT,
+      replacements: {
+        schoolId: e.schoolId,
+        actorId: e.actor?.id ?? null,
+        roles: `{${(e.actor?.roles ?? []).join(",")}}`,
+        action: e.action,
+        recordType: e.recordType,
+        recordId: e.recordId,
+        before: e.before === undefined ? null : JSON.stringify(e.before),
+        after: e.after === undefined ? null : JSON.stringify(e.after),
+        occurredAt: e.occurredAt ?? now(),
+      },
+    },
+  );
+  if (!row) throw new Error("audit event not written");
+  return { id: row.id, chainPos: Number(row.chainPos), hash: row.hash };
+}
+
+export interface ChainVerification {
+  ok: boolean;
+  /** rows checked before the first broken link (all rows when ok) */
+  checked: number;
+  /** hash of the last good row (the head when ok) */
+  headHash: string;
+  broken: { position: number; seq: number; id: string; problem: string } | null;
+}
+
+/** Walks the school's chain in the database and reports the first broken link. */
+export async function verifyChain(schoolId: string): Promise<ChainVerification> {
+  const [r] = await sequelize.query<{ ok: boolean; checked: string; head_hash: string; broken_pos: string | null; broken_seq: string | null; broken_id: string | null; problem: string | null }>(
+    `SELECT * FROM audit_verify(:schoolId)`,
+    { replacements: { schoolId }, type: QueryTypes.SELECT },
+  );
+  if (!r) throw new Error("audit_verify returned nothing");
+  return {
+    ok: r.ok,
+    checked: Number(r.checked),
+    headHash: r.head_hash,
+    broken: r.ok ? null : { position: Number(r.broken_pos), seq: Number(r.broken_seq), id: r.broken_id ?? "", problem: r.problem ?? "" },
+  };
+}
+
+/** The newest row's hash and position: printed on every export. */
+export async function chainHead(schoolId: string): Promise<{ hash: string; position: number; at: Date | null }> {
+  const [r] = await sequelize.query<{ hash: string; chain_pos: string; occurred_at: Date }>(
+    `SELECT hash, chain_pos, occurred_at FROM audit_events WHERE school_id = :schoolId ORDER BY chain_pos DESC LIMIT 1`,
+    { replacements: { schoolId }, type: QueryTypes.SELECT },
+  );
+  return r ? { hash: r.hash, position: Number(r.chain_pos), at: r.occurred_at } : { hash: "0".repeat(64), position: 0, at: null };
+}
+
+export interface AuditRow {
+  id: string;
+  position: number;
+  action: string;
+  recordType: string;
+  recordId: string;
+  actorName: string | null;
+  occurredAt: Date;
+  hash: string;
+}
+
+export async function listAuditEvents(schoolId: string, opts: { recordId?: string; limit?: number } = {}): Promise<AuditRow[]> {
+  return (
+    await sequelize.query<AuditRow & { position: string }>(
+      `SELECT e.id, e.chain_pos AS position, e.action, e.record_type AS "recordType", e.record_id AS "recordId",
+              p.name AS "actorName", e.occurred_at AS "occurredAt", e.hash
+         FROM audit_events e LEFT JOIN people p ON p.id = e.actor_id
+        WHERE e.school_id = :schoolId AND (:recordId::uuid IS NULL OR e.record_id = :recordId::uuid)
+        ORDER BY e.chain_pos DESC LIMIT :limit`,
+      { replacements: { schoolId, recordId: opts.recordId ?? null, limit: opts.limit ?? 50 }, type: QueryTypes.SELECT },
+    )
+  ).map((r) => ({ ...r, position: Number(r.position) }));
+}

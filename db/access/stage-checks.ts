@@ -1,0 +1,184 @@
+import "server-only";
+import { createHash } from "node:crypto";
+import { QueryTypes, type Transaction } from "sequelize";
+import { sequelize } from "../index";
+import type { CurrentUser } from "@/lib/auth/session";
+import { HttpError } from "@/lib/http/errors";
+import { now } from "@/lib/clock";
+import type { QuestionOutcome } from "@/lib/records/outcome";
+import { writeAudit } from "./audit";
+import { getSchool } from "./school";
+import { requireStudentFor, itemsOfRevision, openMakeupItemIds, passedStageIds, isCheckInstructor, tableExists, RecordRefusal, type StudentRef } from "./records";
+import { currentSignOffs } from "./sign-offs";
+
+export interface StageReadiness {
+  stageId: string;
+  code: string;
+  title: string;
+  position: number;
+  itemCount: number;
+  signedCount: number;
+  openMakeups: number;
+  passed: boolean;
+  attempts: { id: string; attempt: number; result: "pass" | "fail"; occurredAt: Date; examinerName: string }[];
+  ready: boolean;
+  /** when the stage became ready: the newest sign-off of its items */
+  readySince: Date | null;
+  /** why it is not ready (when not passed) */
+  waitingFor: string | null;
+}
+
+export async function stageReadiness(student: StudentRef, t?: Transaction): Promise<StageReadiness[]> {
+  const items = await itemsOfRevision(student.revisionId, t);
+  const signed = new Map((await currentSignOffs(student.id, t)).map((s) => [s.itemId, s]));
+  const makeups = await openMakeupItemIds(student.id, t);
+  const passed = await passedStageIds(student.id, student.enrolmentId, t);
+  const attempts = await sequelize.query<{ id: string; stage_id: string; attempt: number; result: "pass" | "fail"; occurred_at: Date; examiner: string }>(
+    `SELECT s.id, s.stage_id, s.attempt, s.result, s.occurred_at, p.name AS examiner FROM stage_checks s JOIN people p ON p.id = s.examiner_id
+      WHERE s.student_id = :id AND s.enrolment_id = :e ORDER BY s.attempt`,
+    { replacements: { id: student.id, e: student.enrolmentId }, type: QueryTypes.SELECT, transaction: t },
+  );
+  const stages = [...new Map(items.map((i) => [i.stageId, i])).values()];
+  return stages.map((s) => {
+    const its = items.filter((i) => i.stageId === s.stageId);
+    const signedCount = its.filter((i) => signed.has(i.id)).length;
+    const openMakeups = its.filter((i) => makeups.has(i.id)).length;
+    const prev = stages.find((x) => x.stagePosition === s.stagePosition - 1);
+    const isPassed = passed.has(s.stageId);
+    let waitingFor: string | null = null;
+    if (!isPassed) {
+      if (prev && !passed.has(prev.stageId)) waitingFor = `the stage check of ${prev.stageCode}`;
+      else if (signedCount < its.length) waitingFor = `${its.length - signedCount} item${its.length - signedCount === 1 ? "" : "s"} to sign off`;
+      else if (openMakeups > 0) waitingFor = `${openMakeups} open make-up item${openMakeups === 1 ? "" : "s"}`;
+    }
+    const ready = !isPassed && waitingFor === null;
+    const times = its.map((i) => signed.get(i.id)?.signedAt).filter((d): d is Date => !!d);
+    return {
+      stageId: s.stageId,
+      code: s.stageCode,
+      title: s.stageTitle,
+      position: s.stagePosition,
+      itemCount: its.length,
+      signedCount,
+      openMakeups,
+      passed: isPassed,
+      attempts: attempts.filter((a) => a.stage_id === s.stageId).map((a) => ({ id: a.id, attempt: a.attempt, result: a.result, occurredAt: a.occurred_at, examinerName: a.examiner })),
+      ready,
+      readySince: ready && times.length ? new Date(Math.max(...times.map((d) => new Date(d).getTime()))) : null,
+      waitingFor,
+    };
+  });
+}
+
+export interface StageCheckInput {
+  studentId: string;
+  stageId: string;
+  result: "pass" | "fail";
+  oralOutcomes: { itemId: string; outcome: QuestionOutcome; note?: string | undefined }[];
+  writtenScorePercent?: number | null | undefined;
+  remarks: string;
+  occurredAt: Date;
+  overrideReason?: string | undefined;
+}
+
+/**
+ * Records a stage check. The examiner is the chief or a designated check instructor, and not
+ * the student's lead instructor (the chief may override with a reason, which raises a watch
+ * note). A fail opens remedial make-up items; a recheck is possible once they are closed.
+ */
+export async function conductStageCheck(t: Transaction, user: CurrentUser, input: StageCheckInput) {
+  const isChief = user.roles.includes("chief");
+  if (!isChief && !(await isCheckInstructor(user.id, t))) {
+    throw new RecordRefusal("examiner_not_allowed", "examiner: only the chief instructor or a designated check instructor may conduct stage checks", "examiner");
+  }
+  const { student } = await requireStudentFor(user, input.studentId, "examiner", t);
+  const override = input.overrideReason?.trim() || null;
+  if (student.leadInstructorId === user.id) {
+    if (!isChief) throw new RecordRefusal("examiner_is_lead", "examiner: you are this student's lead instructor; another examiner must conduct the stage check", "examiner");
+    if (!override) throw new RecordRefusal("examiner_is_lead", "overrideReason: you are this student's lead instructor; give a reason to examine anyway", "overrideReason");
+  }
+  const stages = await stageReadiness(student, t);
+  const stage = stages.find((s) => s.stageId === input.stageId);
+  if (!stage) throw new HttpError(400, "stageId: not a stage of the student's syllabus revision", "stageId");
+  if (!stage.ready) throw new RecordRefusal("not_ready", `stageId: ${stage.code} is not ready for its stage check${stage.passed ? " (already passed)" : `: waiting for ${stage.waitingFor}`}`, "stageId");
+  const items = (await itemsOfRevision(student.revisionId, t)).filter((i) => i.stageId === stage.stageId);
+  for (const o of input.oralOutcomes) {
+    if (!items.some((i) => i.id === o.itemId)) throw new HttpError(400, "oralOutcomes: an item is not in this stage", "oralOutcomes");
+  }
+  const school = await getSchool(user.schoolId);
+  const passMark = school.settings.stageCheckPassMarkPercent;
+  const written = input.writtenScorePercent ?? null;
+  if (input.result === "pass") {
+    if (written !== null && written < passMark) throw new RecordRefusal("written_below_pass_mark", `writtenScorePercent: ${written} % is below the pass mark of ${passMark} %`, "writtenScorePercent");
+    if (input.oralOutcomes.some((o) => o.outcome === "not_yet")) throw new HttpError(422, "result: an oral outcome is Not yet; the result cannot be a pass", "result");
+  }
+  const at = now();
+  const attempt = stage.attempts.length + 1;
+  const fields = { studentId: student.id, stageId: stage.stageId, attempt, examinerId: user.id, result: input.result, written, passMark, occurredAt: input.occurredAt.toISOString(), recordedAt: at.toISOString() };
+  const signatureHash = createHash("sha256").update(JSON.stringify(Object.entries(fields).sort())).digest("hex");
+  const [row] = await sequelize.query<{ id: string }>(
+    `INSERT INTO stage_checks (school_id, student_id, enrolment_id, stage_id, attempt, examiner_id, lead_instructor_id, override_reason, result,
+                               oral_outcomes, written_score_percent, pass_mark_percent, remarks, occurred_at, recorded_at, signature_hash)
+     VALUES (:schoolId, :studentId, :enrolmentId, :stageId, :attempt, :examiner, :lead, :override, :result, :oral::jsonb, :written, :passMark, :remarks, :occurredAt, :recordedAt, :hash)
+     ON CONFLICT (student_id, stage_id, attempt) DO NOTHING RETURNING id`,
+    {
+      transaction: t,
+      type: QueryTypes.SELECT,
+      replacements: {
+        schoolId: user.schoolId,
+        studentId: student.id,
+        enrolmentId: student.enrolmentId,
+        stageId: stage.stageId,
+        attempt,
+        examiner: user.id,
+        lead: student.leadInstructorId,
+        override: student.leadInstructorId === user.id ? override : null,
+        result: input.result,
+        oral: JSON.stringify(input.oralOutcomes.map((o) => ({ ...o, code: items.find((i) => i.id === o.itemId)?.code }))),
+        written,
+        passMark,
+        remarks: input.remarks.trim(),
+        occurredAt: input.occurredAt,
+        recordedAt: at,
+        hash: signatureHash,
+      },
+    },
+  );
+  if (!row) throw new HttpError(409, "stageId: another stage check of this attempt was just recorded", "stageId");
+  let makeups = 0;
+  if (input.result === "fail" && (await tableExists("makeup_items", t))) {
+    const weak = input.oralOutcomes.filter((o) => o.outcome !== "solid").map((o) => o.itemId);
+    const targets = weak.length > 0 ? weak : items.map((i) => i.id);
+    for (const itemId of targets) {
+      await sequelize.query(
+        `INSERT INTO makeup_items (school_id, student_id, syllabus_item_id, source_kind, source_id, state, note)
+         VALUES (:schoolId, :studentId, :itemId, 'stage_check', :source, 'open', :note) ON CONFLICT DO NOTHING`,
+        { replacements: { schoolId: user.schoolId, studentId: student.id, itemId, source: row.id, note: `Remedial work after the ${stage.code} stage check` }, transaction: t },
+      );
+      makeups++;
+    }
+  }
+  await writeAudit(t, {
+    schoolId: user.schoolId,
+    actor: user,
+    action: input.result === "pass" ? "stagecheck.passed" : "stagecheck.failed",
+    recordType: "stage_check",
+    recordId: row.id,
+    after: { ...fields, stageCode: stage.code, oralOutcomes: input.oralOutcomes, overrideReason: student.leadInstructorId === user.id ? override : null, makeupItemsOpened: makeups, signatureHash },
+    occurredAt: at,
+  });
+  return { id: row.id, result: input.result, attempt, makeupItemsOpened: makeups };
+}
+
+/** The chief designates (or stops designating) a check instructor. */
+export async function designateCheckInstructor(t: Transaction, user: CurrentUser, input: { personId: string; checkInstructor: boolean }) {
+  const [p] = await sequelize.query<{ id: string; before: boolean }>(
+    `SELECT p.id, bool_or(q.check_instructor) AS before FROM people p JOIN instructor_qualifications q ON q.person_id = p.id
+      WHERE p.id = :id AND p.school_id = :schoolId AND 'instructor' = ANY(p.roles) GROUP BY p.id`,
+    { replacements: { id: input.personId, schoolId: user.schoolId }, type: QueryTypes.SELECT, transaction: t },
+  );
+  if (!p) throw new HttpError(404, "personId: no such instructor", "personId");
+  await sequelize.query(`UPDATE instructor_qualifications SET check_instructor = :v WHERE person_id = :id`, { replacements: { v: input.checkInstructor, id: p.id }, transaction: t });
+  await writeAudit(t, { schoolId: user.schoolId, actor: user, action: "checkinstructor.designated", recordType: "person", recordId: p.id, before: { checkInstructor: p.before }, after: { checkInstructor: input.checkInstructor } });
+  return { personId: p.id, checkInstructor: input.checkInstructor };
+}
