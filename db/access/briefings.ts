@@ -259,8 +259,20 @@ export async function briefingAsInput(viewer: Viewer, briefingId: string, t?: Tr
 }
 
 function sameContent(a: BriefingInput, b: BriefingInput): boolean {
+  // A fixed key order, so the comparison does not depend on how the input object was built.
   const norm = (x: BriefingInput) =>
-    JSON.stringify({ ...x, changeNote: "", syllabusItemIds: [...x.syllabusItemIds].sort(), elements: x.elements.map((e) => ({ ...e })) });
+    JSON.stringify([
+      x.courseId,
+      x.syllabusRevisionId,
+      x.title,
+      x.objective,
+      [...x.syllabusItemIds].sort(),
+      x.elements.map((e) => [e.title, e.instructorActions, e.studentActions, e.minutes]),
+      x.equipment,
+      x.demoRevisionIds,
+      x.completionStandard,
+      x.handoutIds,
+    ]);
   return norm(a) === norm(b);
 }
 

@@ -1,0 +1,35 @@
+"use server";
+import { revalidatePath } from "next/cache";
+import { runAction } from "@/lib/actions/run-action";
+import { createAssignments, setAssignmentDone } from "@/db/access/assignments";
+import { assignmentSchema, completionSchema } from "./schema";
+
+/** Assigns a briefing or a demo to a cohort or to students; each student gets an `assignment.new` mail in the same transaction. */
+export async function createAssignmentAction(input: unknown) {
+  const result = await runAction(
+    "assignments.manage",
+    assignmentSchema,
+    input,
+    async (data, { user, t }) =>
+      createAssignments(
+        user,
+        { kind: data.kind, briefingId: data.briefingId, demoId: data.demoId, cohortId: data.cohortId, studentIds: data.studentIds, dueOn: data.dueOn, note: data.note },
+        t,
+      ),
+    { idempotent: "assignment.create" },
+  );
+  if (result.ok) revalidatePath("/assignments");
+  return result;
+}
+
+/** A student marks one of their own assignments done, or not done again. */
+export async function setAssignmentDoneAction(input: unknown) {
+  const result = await runAction("assignments.complete", completionSchema, input, async ({ assignmentId, done }, { user, t }) =>
+    setAssignmentDone(user, assignmentId, done, t),
+  );
+  if (result.ok) {
+    revalidatePath("/assignments");
+    revalidatePath("/today");
+  }
+  return result;
+}

@@ -1,0 +1,35 @@
+import { z } from "zod";
+
+// The syllabus revision form's schema, shared by the editor and the server action.
+
+const uuid = z.string().uuid();
+const code = z.string().trim().min(1, "Give a code").max(20, "At most 20 characters").regex(/^[A-Za-z0-9-]+$/, "Letters, digits and dashes only");
+const optionalDate = z.preprocess(
+  (v) => (v === "" || v === undefined ? null : v),
+  z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Choose a date").nullable(),
+);
+
+export const syllabusItemSchema = z.object({
+  code,
+  title: z.string().trim().min(1, "Give the item a title").max(200, "At most 200 characters"),
+  objective: z.string().trim().min(1, "State the objective").max(2000, "At most 2000 characters"),
+  completionStandard: z.string().trim().min(1, "State the completion standard").max(2000, "At most 2000 characters"),
+  requiredLevel: z.enum(["rote", "understanding", "application", "correlation"]),
+});
+
+export const syllabusStageSchema = z.object({
+  code,
+  title: z.string().trim().min(1, "Give the stage a title").max(200, "At most 200 characters"),
+  items: z.array(syllabusItemSchema).min(1, "A stage needs at least one item").max(100),
+});
+
+export const syllabusRevisionSchema = z.object({
+  courseId: uuid,
+  approvedOn: optionalDate,
+  effectiveFrom: optionalDate,
+  changeNote: z.string().trim().min(1, "Say what changed").max(500, "At most 500 characters"),
+  stages: z.array(syllabusStageSchema).min(1, "Add at least one stage").max(30),
+});
+export type SyllabusRevisionFormInput = z.input<typeof syllabusRevisionSchema>;
+
+export const moveEnrolmentSchema = z.object({ enrolmentId: uuid, revisionId: uuid });
