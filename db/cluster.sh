@@ -5,9 +5,11 @@
 set -euo pipefail
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 PGPORT="${CHALKWING_PG_PORT:-54329}"
-DATA="$ROOT/.data/pg/data"
-SOCK="$ROOT/.data/pg/socket"
-LOG="$ROOT/.data/pg/server.log"
+# CHALKWING_PG_DIR: where the cluster lives (data, socket, log); default .data/pg in the checkout.
+PGDIR="${CHALKWING_PG_DIR:-$ROOT/.data/pg}"
+DATA="$PGDIR/data"
+SOCK="$PGDIR/socket"
+LOG="$PGDIR/server.log"
 OWNER_ROLE="${CHALKWING_DB_OWNER:-chalkwing_owner}"
 APP_ROLE="${CHALKWING_DB_APP:-chalkwing_app}"
 OWNER_PW="${CHALKWING_DB_OWNER_PASSWORD:-chalkwing-owner-local}"
@@ -38,8 +40,8 @@ psql_su() { as_pg "$BIN/psql" -h "$SOCK" -p "$PGPORT" -U postgres -v ON_ERROR_ST
 
 start() {
   ensure_installed
-  mkdir -p "$ROOT/.data/pg" "$SOCK"
-  chown postgres:postgres "$ROOT/.data/pg" "$SOCK"
+  mkdir -p "$PGDIR" "$SOCK"
+  chown postgres:postgres "$PGDIR" "$SOCK"
   if [ ! -f "$DATA/PG_VERSION" ]; then
     mkdir -p "$DATA"; chown postgres:postgres "$DATA"; chmod 700 "$DATA"
     as_pg "$BIN/initdb" -D "$DATA" -U postgres -E UTF8 --locale=C.UTF-8 --auth-local=trust --auth-host=scram-sha-256 --no-sync >/dev/null
@@ -85,6 +87,11 @@ stop() {
   BIN=$(find_bin)
   [ -n "$BIN" ] && [ -f "$DATA/PG_VERSION" ] || { echo "[db] not running" >&2; return 0; }
   as_pg "$BIN/pg_ctl" -D "$DATA" -m fast -w -t 60 stop >/dev/null 2>&1 || echo "[db] not running" >&2
+  if as_pg "$BIN/pg_ctl" -D "$DATA" status >/dev/null 2>&1; then
+    echo "[db] PostgreSQL is still running after stop; see $LOG" >&2
+    return 1
+  fi
+  # only a stale file of a server that is gone (e.g. after kill -9) is removed here
   rm -f "$DATA/postmaster.pid"
 }
 
