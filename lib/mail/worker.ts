@@ -1,0 +1,71 @@
+// The mail worker, run beside the web server by the start command (`tsx lib/mail/worker.ts`
+// with the react-server condition). Each tick: the producers write what is due by the clock
+// (reminders, overdue reminders, Weekly letters) into the outbox, then due outbox rows move into
+// the pg-boss queue; the queue's handler sends each over SMTP (retries with backoff).
+import type PgBoss from "pg-boss";
+import { sequelize } from "@/db/index";
+import { now } from "@/lib/clock";
+import { mailConfig } from "./config";
+import { deliverOutboxMail } from "./deliver";
+import { MAIL_QUEUE, moveDueToQueue, startBoss, type MailJob } from "./queue";
+import { runDueWork } from "./producers";
+import { smtpTransport } from "./transport";
+
+process.env.CHALKWING_MAIL_WORKER_PROCESS = "1";
+
+async function main() {
+  const cfg = mailConfig();
+  const transport = smtpTransport();
+  const boss = await startBoss(cfg);
+  let stopping = false;
+
+  await boss.work<MailJob>(
+    MAIL_QUEUE,
+    { batchSize: 1, pollingIntervalSeconds: Math.max(0.5, Math.min(2, cfg.CHALKWING_MAIL_TICK_SECONDS)), includeMetadata: true },
+    async (jobs: PgBoss.JobWithMetadata<MailJob>[]) => {
+      for (const job of jobs) {
+        const outcome = await deliverOutboxMail(job.data.outboxId, { transport, final: job.retryCount >= job.retryLimit });
+        console.log(`[mail-worker] ${job.data.outboxId} ${outcome}`);
+      }
+    },
+  );
+
+  let running = false;
+  const tick = async () => {
+    if (running || stopping) return;
+    running = true;
+    try {
+      const at = now();
+      if (cfg.CHALKWING_MAIL_PRODUCERS === "on") {
+        const made = await runDueWork(at);
+        if (made.total > 0) console.log(`[mail-worker] wrote ${made.total} mail(s): ${JSON.stringify(made)}`);
+      }
+      const moved = await moveDueToQueue(boss, at, cfg);
+      if (moved > 0) console.log(`[mail-worker] queued ${moved} mail(s)`);
+    } catch (e) {
+      console.error("[mail-worker] tick failed:", e instanceof Error ? e.message : e);
+    } finally {
+      running = false;
+    }
+  };
+  await tick();
+  const timer = setInterval(() => void tick(), cfg.CHALKWING_MAIL_TICK_SECONDS * 1000);
+  console.log(`[mail-worker] running: tick ${cfg.CHALKWING_MAIL_TICK_SECONDS}s, SMTP ${process.env.SMTP_HOST ?? "127.0.0.1"}:${process.env.SMTP_PORT ?? 2525}`);
+
+  const stop = async () => {
+    if (stopping) return;
+    stopping = true;
+    clearInterval(timer);
+    await boss.stop({ graceful: true, wait: true, timeout: 10_000 }).catch(() => undefined);
+    transport.close();
+    await sequelize.close().catch(() => undefined);
+    process.exit(0);
+  };
+  process.on("SIGTERM", () => void stop());
+  process.on("SIGINT", () => void stop());
+}
+
+main().catch((e) => {
+  console.error("[mail-worker] could not start:", e instanceof Error ? e.message : e);
+  process.exit(1);
+});
