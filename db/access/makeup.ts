@@ -5,6 +5,7 @@ import { sequelize } from "../index";
 import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";
 import type { CurrentUser } from "@/lib/auth/session";
+import { rolesAllow } from "@/lib/auth/permissions";
 import type { makeupCloseSchema, makeupScheduleSchema, makeupWaiveSchema } from "@/lib/timetable/schemas";
 
 /** An absence opens one make-up item per syllabus item the session covered (once per item and session). */
@@ -109,6 +110,7 @@ export async function closeMakeup(user: CurrentUser, input: z.output<typeof make
 
 /** The chief instructor waives a make-up item, with a reason. */
 export async function waiveMakeup(user: CurrentUser, input: z.output<typeof makeupWaiveSchema>, t: Transaction) {
+  if (!rolesAllow(user.roles, "makeup.waive")) throw new HttpError(403, "Only the chief instructor waives make-up items");
   const m = await lockItem(user, input.itemId, t);
   if (m.state === "done" || m.state === "waived") throw new HttpError(409, `itemId: the item is already ${m.state}`, "itemId");
   await sequelize.query(
