@@ -22,6 +22,7 @@ export const PERMISSIONS = {
   "timetable.view": { roles: ["chief", "instructor", "student"], description: "See the Timetable (each sees what concerns them)" },
   "timetable.schedule": { roles: ["chief", "instructor"], description: "Schedule, reschedule and cancel sessions" },
   "attendance.record": { roles: ["chief", "instructor"], description: "Record attendance and credited minutes" },
+  "makeup.waive": { roles: ["chief"], description: "Waive a student's make-up item, with a reason" },
   "groundlog.view": { roles: ["chief", "instructor", "student", "sponsor"], description: "See a Ground log (scoped to the caller)" },
   "assignments.manage": { roles: ["chief", "instructor"], description: "Assign briefings and demos" },
   "assignments.complete": { roles: ["student"], description: "Mark one's own assignments done" },
