@@ -213,13 +213,12 @@ export function standardTemperature(altitudeM: number): number {
   return standardTemperatureUnchecked(checked(LIMITS.altitudeM, altitudeM));
 }
 
-/** Validated altitude and ISA deviation from a conditions-like object. */
-export function atmosphereInputs(
+/** Validated density ratio sigma for a conditions-like object (altitudeM, optional isaDeviationK). */
+export function densityRatioOf(
   conditions: { altitudeM: number; isaDeviationK?: number | undefined },
-  path?: readonly (string | number)[],
-): { altitudeM: number; isaDeviationK: number } {
-  return {
-    altitudeM: checked(LIMITS.altitudeM, conditions.altitudeM, "altitudeM", path ? [...path, "altitudeM"] : undefined),
-    isaDeviationK: checkedOptional(LIMITS.isaDeviationK, conditions.isaDeviationK, 0, path ? [...path, "isaDeviationK"] : undefined),
-  };
+  prefix?: readonly (string | number)[],
+): number {
+  const h = checked(LIMITS.altitudeM, conditions.altitudeM, "altitudeM", prefix);
+  const dT = checkedOptional(LIMITS.isaDeviationK, conditions.isaDeviationK, 0, prefix);
+  return densityRatioUnchecked(h, dT);
 }

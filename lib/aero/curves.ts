@@ -1,7 +1,7 @@
 import { SEA_LEVEL_DENSITY_KG_M3 } from "./atmosphere";
 import { AeroInputError } from "./errors";
 import { LIMITS, checked, requireObject } from "./limits";
-import { levelFlightState } from "./polar";
+import { levelFlightState, type LevelFlightState } from "./polar";
 import { FOURTH_ROOT_OF_THREE } from "./speeds";
 import type { Aircraft, LevelFlightConditions } from "./types";
 
@@ -167,8 +167,15 @@ export function sampleCurves(
   speeds[n - 1] = max;
 
   for (let c = 0; c < caseCount; c++) {
-    const input = requireObject(cases[c], "cases", ["cases", c]) as unknown as CurveCase;
-    const s = levelFlightState(input.aircraft, input, ["cases", c]);
+    let s: LevelFlightState;
+    try {
+      const input = requireObject(cases[c], "case") as unknown as CurveCase;
+      s = levelFlightState(input.aircraft, input);
+    } catch (error) {
+      // Locate the bad field in the case list (built only on failure, so valid calls allocate nothing here).
+      if (error instanceof AeroInputError) throw new AeroInputError(error.field, error.message, error.value, ["cases", c, ...error.path]);
+      throw error;
+    }
     const out = set.cases[c] as CaseCurves<Float64Array>;
 
     const toTas = axis === "true" ? 1 : s.tasPerEas;

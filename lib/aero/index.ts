@@ -59,7 +59,7 @@ export {
   massToWeightN,
 } from "./units";
 
-export { aspectRatio, inducedDragFactor, dragAt, validateAircraft, type DragBreakdown } from "./polar";
+export { aspectRatio, inducedDragFactor, dragAt, validateAircraft, assertAircraft, type DragBreakdown } from "./polar";
 
 export {
   FOURTH_ROOT_OF_THREE,

@@ -84,16 +84,17 @@ export function describeProblem(lim: NumberLimit, value: unknown, field: string 
 
 /**
  * Returns `value` as a number when it satisfies `lim`, otherwise throws an
- * AeroInputError naming the field. `path` locates the field inside a larger
- * input (e.g. one case of a curve set).
+ * AeroInputError naming the field. `prefix` locates the field inside a
+ * larger input (the error's path is [...prefix, field]); nothing is
+ * allocated unless the check fails.
  */
-export function checked(lim: NumberLimit, value: unknown, field: string = lim.field, path?: readonly (string | number)[]): number {
-  // Fast path first: the common valid case costs three comparisons.
+export function checked(lim: NumberLimit, value: unknown, field: string = lim.field, prefix?: readonly (string | number)[]): number {
+  // Fast path first: the common valid case costs a few comparisons.
   if (typeof value === "number" && value >= lim.min && value <= lim.max && (lim.integer !== true || Number.isInteger(value))) {
     if (!lim.positive || value > 0) return value;
   }
   const message = describeProblem(lim, value, field);
-  throw new AeroInputError(field, message ?? `${field} is invalid`, value, path ?? [field]);
+  throw new AeroInputError(field, message ?? `${field} is invalid`, value, prefix ? [...prefix, field] : [field]);
 }
 
 /** Like `checked`, for optional inputs: undefined gives `fallback`. */
@@ -101,9 +102,9 @@ export function checkedOptional(
   lim: NumberLimit,
   value: unknown,
   fallback: number,
-  path?: readonly (string | number)[],
+  prefix?: readonly (string | number)[],
 ): number {
-  return value === undefined ? fallback : checked(lim, value, lim.field, path);
+  return value === undefined ? fallback : checked(lim, value, lim.field, prefix);
 }
 
 /** Aspect-ratio message shared by the runtime check and the zod schema. */
@@ -115,9 +116,9 @@ export function describeAspectRatioProblem(wingSpanM: number, wingAreaM2: number
 }
 
 /** Throws AeroInputError(field "conditions" / "aircraft" …) unless `value` is a plain object. */
-export function requireObject(value: unknown, field: string, path?: readonly (string | number)[]): Record<string, unknown> {
+export function requireObject(value: unknown, field: string, prefix?: readonly (string | number)[]): Record<string, unknown> {
   if (typeof value !== "object" || value === null || Array.isArray(value)) {
-    throw new AeroInputError(field, `${field} must be an object`, value, path ?? [field]);
+    throw new AeroInputError(field, `${field} must be an object`, value, prefix ? [...prefix, field] : [field]);
   }
   return value as Record<string, unknown>;
 }

@@ -1,4 +1,4 @@
-import { atmosphereInputs, SEA_LEVEL_DENSITY_KG_M3, densityRatioUnchecked } from "./atmosphere";
+import { SEA_LEVEL_DENSITY_KG_M3, densityRatioOf } from "./atmosphere";
 import { AeroInputError } from "./errors";
 import { LIMITS, checked, checkedOptional, describeAspectRatioProblem, requireObject } from "./limits";
 import type { Aircraft, LevelFlightConditions, SpeedConditions } from "./types";
@@ -18,33 +18,29 @@ export function inducedDragFactor(aspectRatioValue: number, oswaldEfficiency: nu
   return 1 / (Math.PI * e * ar);
 }
 
-function sub(path: readonly (string | number)[] | undefined, field: string): readonly (string | number)[] | undefined {
-  return path ? [...path, field] : undefined;
+/**
+ * Checks every field of an aircraft in place (no copy); throws AeroInputError
+ * naming the first bad field. `prefix` locates the aircraft in a larger input.
+ */
+export function assertAircraft(aircraft: unknown, prefix?: readonly (string | number)[]): asserts aircraft is Aircraft {
+  const a = requireObject(aircraft, "aircraft", prefix);
+  checked(LIMITS.massKg, a.massKg, "massKg", prefix);
+  const wingAreaM2 = checked(LIMITS.wingAreaM2, a.wingAreaM2, "wingAreaM2", prefix);
+  const wingSpanM = checked(LIMITS.wingSpanM, a.wingSpanM, "wingSpanM", prefix);
+  checked(LIMITS.zeroLiftDragCoefficient, a.zeroLiftDragCoefficient, "zeroLiftDragCoefficient", prefix);
+  checked(LIMITS.oswaldEfficiency, a.oswaldEfficiency, "oswaldEfficiency", prefix);
+  checked(LIMITS.maxLiftCoefficient, a.maxLiftCoefficient, "maxLiftCoefficient", prefix);
+  const ar = (wingSpanM * wingSpanM) / wingAreaM2;
+  if (!(ar >= LIMITS.aspectRatio.min && ar <= LIMITS.aspectRatio.max)) {
+    const message = describeAspectRatioProblem(wingSpanM, wingAreaM2) ?? "wingSpanM gives an invalid aspect ratio";
+    throw new AeroInputError("wingSpanM", message, wingSpanM, prefix ? [...prefix, "wingSpanM"] : ["wingSpanM"]);
+  }
 }
 
-/** Validates every field of an aircraft; throws AeroInputError naming the first bad field. */
-export function validateAircraft(aircraft: unknown, path?: readonly (string | number)[]): Aircraft {
-  const a = requireObject(aircraft, "aircraft", path);
-  const massKg = checked(LIMITS.massKg, a.massKg, "massKg", sub(path, "massKg"));
-  const wingAreaM2 = checked(LIMITS.wingAreaM2, a.wingAreaM2, "wingAreaM2", sub(path, "wingAreaM2"));
-  const wingSpanM = checked(LIMITS.wingSpanM, a.wingSpanM, "wingSpanM", sub(path, "wingSpanM"));
-  const zeroLiftDragCoefficient = checked(
-    LIMITS.zeroLiftDragCoefficient,
-    a.zeroLiftDragCoefficient,
-    "zeroLiftDragCoefficient",
-    sub(path, "zeroLiftDragCoefficient"),
-  );
-  const oswaldEfficiency = checked(LIMITS.oswaldEfficiency, a.oswaldEfficiency, "oswaldEfficiency", sub(path, "oswaldEfficiency"));
-  const maxLiftCoefficient = checked(
-    LIMITS.maxLiftCoefficient,
-    a.maxLiftCoefficient,
-    "maxLiftCoefficient",
-    sub(path, "maxLiftCoefficient"),
-  );
-  const arProblem = describeAspectRatioProblem(wingSpanM, wingAreaM2);
-  if (arProblem !== null) {
-    throw new AeroInputError("wingSpanM", arProblem, wingSpanM, sub(path, "wingSpanM") ?? ["wingSpanM"]);
-  }
+/** Validates every field of an aircraft and returns a clean copy; throws AeroInputError naming the first bad field. */
+export function validateAircraft(aircraft: unknown): Aircraft {
+  assertAircraft(aircraft);
+  const { massKg, wingAreaM2, wingSpanM, zeroLiftDragCoefficient, oswaldEfficiency, maxLiftCoefficient } = aircraft;
   return { massKg, wingAreaM2, wingSpanM, zeroLiftDragCoefficient, oswaldEfficiency, maxLiftCoefficient };
 }
 
@@ -76,13 +72,13 @@ export interface LevelFlightState {
 export function levelFlightState(
   aircraft: unknown,
   conditions: unknown,
-  path?: readonly (string | number)[],
+  prefix?: readonly (string | number)[],
 ): LevelFlightState {
-  const a = validateAircraft(aircraft, path);
-  const c = requireObject(conditions, "conditions", path) as unknown as LevelFlightConditions;
-  const { altitudeM, isaDeviationK } = atmosphereInputs(c, path);
-  const n = checkedOptional(LIMITS.loadFactor, c.loadFactor, 1, sub(path, "loadFactor"));
-  const sigma = densityRatioUnchecked(altitudeM, isaDeviationK);
+  assertAircraft(aircraft, prefix);
+  const a = aircraft;
+  const c = requireObject(conditions, "conditions", prefix) as unknown as LevelFlightConditions;
+  const sigma = densityRatioOf(c, prefix);
+  const n = checkedOptional(LIMITS.loadFactor, c.loadFactor, 1, prefix);
   const ar = (a.wingSpanM * a.wingSpanM) / a.wingAreaM2;
   const kIdeal = 1 / (Math.PI * ar);
   const kIncrement = kIdeal * (1 / a.oswaldEfficiency - 1);
