@@ -1,0 +1,27 @@
+// GET /api/handouts/[handoutId]: a handout's file, to people who may read its briefing, as an attachment.
+import { route, uuidParam } from "@/lib/http/api";
+import { HttpError } from "@/lib/http/errors";
+import { getHandoutFile } from "@/db/access/briefings";
+import { contentDisposition } from "../_lib/files";
+
+export const dynamic = "force-dynamic";
+
+export const GET = route<{ handoutId: string }>("briefings.view", async ({ user, params }) => {
+  if (!uuidParam.safeParse(params.handoutId).success) throw new HttpError(400, "handoutId: not a valid id", "handoutId");
+  const file = await getHandoutFile(user, params.handoutId);
+  if (file.status !== "ok") {
+    if (file.status === "forbidden") throw new HttpError(403, "You do not have access to this handout");
+    throw new HttpError(404, "handoutId: no such handout", "handoutId");
+  }
+  return new Response(new Uint8Array(file.content), {
+    status: 200,
+    headers: {
+      "Content-Type": file.contentType,
+      "Content-Length": String(file.content.length),
+      "Content-Disposition": contentDisposition(file.fileName, file.contentType),
+      "X-Content-Type-Options": "nosniff",
+      "Content-Security-Policy": "sandbox; default-src 'none'",
+      "Cache-Control": "private, no-store",
+    },
+  });
+});
