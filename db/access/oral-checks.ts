@@ -11,8 +11,7 @@ import { generateQuestion, QuestionInputError, REFERENCE_AIRCRAFT, type Aircraft
 import { isAeroInputError } from "@/lib/aero";
 import { writeAudit } from "./audit";
 import { enqueueMail } from "./outbox";
-import { getSchool } from "./school";
-import { requireStudentFor, itemsOfRevision, assertStageOpen, tableExists, type ItemRef } from "./records";
+import { requireStudentFor, itemsOfRevision, assertStageOpen, tableExists, type ItemRef, schoolFor } from "./records";
 
 export interface QuestionInput {
   syllabusItemId: string;
@@ -218,7 +217,7 @@ export async function recordOralCheck(t: Transaction, user: CurrentUser, input: 
   const notYetCodes = [...new Set(questions.filter((q) => q.outcome === "not_yet").map((q) => q.item.code))];
   let notYetMailed = false;
   if (notYetCodes.length > 0) {
-    const school = await getSchool(user.schoolId);
+    const school = await schoolFor(user.schoolId, t);
     const mail = composeMail("check.notyet", { name: student.name, itemCodes: notYetCodes, checkedOn: dateInZone(input.occurredAt, school.timeZone) }, { name: school.name, timeZone: school.timeZone, senderName: school.settings.mailSenderName });
     notYetMailed = await enqueueMail(t, { schoolId: user.schoolId, kind: "check.notyet", idempotencyKey: `check.notyet:${check.id}:${student.id}`, recipientId: student.id, to: student.email, ...mail });
   }

@@ -4,6 +4,8 @@ import { sequelize } from "../index";
 import type { CurrentUser } from "@/lib/auth/session";
 import { HttpError } from "@/lib/http/errors";
 import type { LevelOfLearning } from "@/lib/records/outcome";
+import { School } from "../models";
+import { DEFAULT_SETTINGS } from "./school";
 
 // Shared lookups of the Records area, and the read side: the Progress map, the Sign-off
 // register with its watch notes, the chief's summary and the training record.
@@ -183,4 +185,11 @@ export async function isCheckInstructor(personId: string, t?: Transaction): Prom
     { replacements: { p: personId }, type: QueryTypes.SELECT, transaction: t },
   );
   return !!r?.ok;
+}
+
+/** The school with its settings, read inside the caller's transaction (no second connection). */
+export async function schoolFor(schoolId: string, t?: Transaction) {
+  const s = await School.findByPk(schoolId, { transaction: t });
+  if (!s) throw new Error("School not found");
+  return { id: s.id, name: s.name, timeZone: s.timeZone, settings: { ...DEFAULT_SETTINGS, ...s.settings } };
 }

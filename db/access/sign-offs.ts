@@ -12,8 +12,7 @@ import { composeMail } from "@/lib/mail/compose";
 import { LEVEL_LABEL, levelReaches, type ItemOutcome, type LevelOfLearning } from "@/lib/records/outcome";
 import { writeAudit } from "./audit";
 import { enqueueMail } from "./outbox";
-import { getSchool } from "./school";
-import { requireStudentFor, itemsOfRevision, assertStageOpen, openMakeupItemIds, RecordRefusal, type ItemRef, type StudentRef } from "./records";
+import { requireStudentFor, itemsOfRevision, assertStageOpen, openMakeupItemIds, RecordRefusal, type ItemRef, type StudentRef, schoolFor } from "./records";
 
 export interface SignOffInput {
   studentId: string;
@@ -92,7 +91,7 @@ export async function planSignOff(user: CurrentUser, input: Omit<SignOffInput, "
   const all = await itemsOfRevision(student.revisionId, t);
   const item = all.find((i) => i.id === input.itemId);
   if (!item) throw new HttpError(400, "itemId: not an item of the student's syllabus revision", "itemId");
-  const school = await getSchool(user.schoolId);
+  const school = await schoolFor(user.schoolId, t);
   const today = dateInZone(now(), school.timeZone);
   const signedOn = input.signedOn ?? today;
   if (signedOn > today) throw new HttpError(400, "signedOn: cannot be in the future", "signedOn");
@@ -217,7 +216,7 @@ export async function signOff(t: Transaction, user: CurrentUser, input: SignOffI
   if (latest && !latest.withdrawn) throw new RecordRefusal("already_signed", `itemId: ${plan.item.code} is already signed off for this student`, "itemId");
   await confirmPassword(user, input.password, t);
   const result = await insertSignOff(t, user, plan, (latest?.generation ?? 0) + 1, null);
-  const school = await getSchool(user.schoolId);
+  const school = await schoolFor(user.schoolId, t);
   const mail = composeMail(
     "record.signed",
     { name: plan.student.name, itemCode: plan.item.code, itemTitle: plan.item.title, signerName: user.name, signedOn: plan.signedOn },

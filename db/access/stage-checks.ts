@@ -7,8 +7,7 @@ import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";
 import type { QuestionOutcome } from "@/lib/records/outcome";
 import { writeAudit } from "./audit";
-import { getSchool } from "./school";
-import { requireStudentFor, itemsOfRevision, openMakeupItemIds, passedStageIds, isCheckInstructor, tableExists, RecordRefusal, type StudentRef } from "./records";
+import { requireStudentFor, itemsOfRevision, openMakeupItemIds, passedStageIds, isCheckInstructor, tableExists, RecordRefusal, type StudentRef, schoolFor } from "./records";
 import { currentSignOffs } from "./sign-offs";
 
 export interface StageReadiness {
@@ -105,7 +104,7 @@ export async function conductStageCheck(t: Transaction, user: CurrentUser, input
   for (const o of input.oralOutcomes) {
     if (!items.some((i) => i.id === o.itemId)) throw new HttpError(400, "oralOutcomes: an item is not in this stage", "oralOutcomes");
   }
-  const school = await getSchool(user.schoolId);
+  const school = await schoolFor(user.schoolId, t);
   const passMark = school.settings.stageCheckPassMarkPercent;
   const written = input.writtenScorePercent ?? null;
   if (input.result === "pass") {
