@@ -13,15 +13,19 @@ export type CrashPoint = "before-send" | "after-accept" | "after-commit";
  * CHALKWING_MAIL_CRASH_AT=<point>, it kills itself (SIGKILL, no clean-up) at that point.
  * Only a worker process started by `lib/mail/worker.ts` can crash; never the web server.
  */
-function crashIfAsked(point: CrashPoint): void {
+function crashIfAsked(point: CrashPoint, idempotencyKey: string): void {
   if (process.env.CHALKWING_MAIL_WORKER_PROCESS !== "1") return;
   if (process.env.CHALKWING_MAIL_CRASH_AT !== point) return;
+  // optional: crash only on the mails whose key starts with this (a test's own mail)
+  const only = process.env.CHALKWING_MAIL_CRASH_KEY;
+  if (only && !idempotencyKey.startsWith(only)) return;
   console.error(`[mail-worker] crashing at ${point} as asked`);
   process.kill(process.pid, "SIGKILL");
 }
 
 interface OutboxRow {
   id: string;
+  idempotency_key: string;
   state: string;
   to_address: string;
   subject: string;
@@ -47,11 +51,11 @@ export type DeliveryOutcome = "sent" | "skipped";
  * On an SMTP failure the attempt and error are recorded; `final` marks the row failed.
  */
 export async function deliverOutboxMail(outboxId: string, opts: { transport: Transporter; final: boolean }): Promise<DeliveryOutcome> {
-  let outcome: DeliveryOutcome;
+  let outcome: { state: DeliveryOutcome; key: string };
   try {
     outcome = await sequelize.transaction(async (t) => {
       const [row] = await sequelize.query<OutboxRow>(
-        `SELECT o.id, o.state, o.to_address, o.subject, o.body_text, o.body_html, o.headers, o.message_id, o.attempts,
+        `SELECT o.id, o.idempotency_key, o.state, o.to_address, o.subject, o.body_text, o.body_html, o.headers, o.message_id, o.attempts,
                 s.name AS school_name, s.settings->>'mailSenderName' AS sender_name
            FROM outbox o JOIN schools s ON s.id = o.school_id
           WHERE o.id = :id FOR UPDATE OF o SKIP LOCKED`,
@@ -63,11 +67,11 @@ export async function deliverOutboxMail(outboxId: string, opts: { transport: Tra
           type: QueryTypes.SELECT,
           transaction: t,
         });
-        if (!exists) return "skipped" as const; // gone: nothing to send
+        if (!exists) return { state: "skipped" as const, key: "" }; // gone: nothing to send
         throw new Error("outbox row is being sent by another worker"); // retried later
       }
-      if (row.state !== "queued") return "skipped" as const;
-      crashIfAsked("before-send");
+      if (row.state !== "queued") return { state: "skipped" as const, key: row.idempotency_key };
+      crashIfAsked("before-send", row.idempotency_key);
       const senderName = oneLine(row.sender_name?.trim() || row.school_name);
       const info = await opts.transport.sendMail({
         from: { name: senderName, address: env().MAIL_FROM_ADDRESS },
@@ -79,7 +83,7 @@ export async function deliverOutboxMail(outboxId: string, opts: { transport: Tra
         date: now(),
         headers: { "Auto-Submitted": "auto-generated", ...row.headers },
       });
-      crashIfAsked("after-accept");
+      crashIfAsked("after-accept", row.idempotency_key);
       await sequelize.query(`UPDATE outbox SET state = 'sent', sent_at = :at, attempts = attempts + 1, last_error = NULL WHERE id = :id`, {
         replacements: { id: row.id, at: now() },
         transaction: t,
@@ -88,7 +92,7 @@ export async function deliverOutboxMail(outboxId: string, opts: { transport: Tra
         `INSERT INTO mail_deliveries (outbox_id, message_id, smtp_response, attempts) VALUES (:id, :mid, :resp, :attempts)`,
         { replacements: { id: row.id, mid: row.message_id, resp: String(info.response ?? "").slice(0, 500), attempts: row.attempts + 1 }, transaction: t },
       );
-      return "sent" as const;
+      return { state: "sent" as const, key: row.idempotency_key };
     });
   } catch (e) {
     const message = e instanceof Error ? e.message : String(e);
@@ -101,6 +105,6 @@ export async function deliverOutboxMail(outboxId: string, opts: { transport: Tra
     }
     throw e;
   }
-  if (outcome === "sent") crashIfAsked("after-commit");
-  return outcome;
+  if (outcome.state === "sent") crashIfAsked("after-commit", outcome.key);
+  return outcome.state;
 }
