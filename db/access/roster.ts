@@ -1,6 +1,7 @@
 import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { z } from "zod";
+import { addStudentSchema, moveStudentSchema } from "@/lib/timetable/schemas";
 import { sequelize } from "../index";
 import { createPerson } from "./people";
 import { addToCohort, enrol, linkSponsor, moveStudentToCohort } from "./cohorts";
@@ -20,21 +21,8 @@ export const ROSTER_MAX_ROWS = 2000;
 
 const email = z.string().trim().toLowerCase().email();
 
-export const addStudentSchema = z.object({
-  name: z.string().trim().min(1, "required").max(200),
-  email: z.string().trim().toLowerCase().email("not a valid e-mail address"),
-  cohortId: z.string().uuid("choose a cohort"),
-  sponsorName: z.string().trim().max(200).optional().default(""),
-  sponsorEmail: z.union([z.literal(""), z.string().trim().toLowerCase().email("not a valid e-mail address")]).optional().default(""),
-}).refine((v) => !v.sponsorEmail || v.sponsorName, { message: "required when a sponsor e-mail is given", path: ["sponsorName"] })
-  .refine((v) => !v.sponsorName || v.sponsorEmail, { message: "required when a sponsor name is given", path: ["sponsorEmail"] });
+export { addStudentSchema, moveStudentSchema };
 export type AddStudentInput = z.output<typeof addStudentSchema>;
-
-export const moveStudentSchema = z.object({
-  studentId: z.string().uuid(),
-  toCohortId: z.string().uuid("choose a cohort"),
-  onDate: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "a date as yyyy-mm-dd"),
-});
 
 export interface RosterCohort {
   id: string;

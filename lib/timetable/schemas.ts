@@ -102,3 +102,21 @@ export const weekQuerySchema = z.object({
   room: z.string().trim().min(1).max(100).optional(),
   mine: z.enum(["1", "0"], "1 or 0").optional(),
 });
+
+// ---- rosters
+
+export const addStudentSchema = z.object({
+  name: z.string().trim().min(1, "required").max(200),
+  email: z.string().trim().toLowerCase().email("not a valid e-mail address"),
+  cohortId: z.string().uuid("choose a cohort"),
+  sponsorName: z.string().trim().max(200).optional().default(""),
+  sponsorEmail: z.union([z.literal(""), z.string().trim().toLowerCase().email("not a valid e-mail address")]).optional().default(""),
+}).refine((v) => !v.sponsorEmail || v.sponsorName, { message: "required when a sponsor e-mail is given", path: ["sponsorName"] })
+  .refine((v) => !v.sponsorName || v.sponsorEmail, { message: "required when a sponsor name is given", path: ["sponsorEmail"] });
+
+export const moveStudentSchema = z.object({
+  studentId: z.string().uuid(),
+  toCohortId: z.string().uuid("choose a cohort"),
+  onDate: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "a date as yyyy-mm-dd"),
+});
+

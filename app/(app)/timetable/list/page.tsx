@@ -1,0 +1,33 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { requirePagePermission, can } from "@/lib/auth/guard";
+import { schedulingChoices } from "@/db/access/sessions";
+import { getSchool } from "@/db/access/school";
+import { SessionsTable } from "../_components/sessions-table";
+
+export const metadata: Metadata = { title: "Timetable: list" };
+export const dynamic = "force-dynamic";
+
+export default async function TimetableListPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+  const user = await requirePagePermission("timetable.view", "/timetable/list");
+  const school = await getSchool(user.schoolId);
+  const staff = can(user, "timetable.schedule");
+  const choices = staff ? await schedulingChoices(user) : { instructors: [], cohorts: [], rooms: [] };
+  const raw = await searchParams;
+  const initial = Object.fromEntries(Object.entries(raw).filter((e): e is [string, string] => typeof e[1] === "string"));
+  return (
+    <div className="space-y-6">
+      <header className="flex flex-wrap items-end justify-between gap-3">
+        <div>
+          <p className="text-caption font-semibold uppercase tracking-wide text-ink-soft">List view · times in {school.timeZone}</p>
+          <h1 className="text-display">Timetable</h1>
+        </div>
+        <nav aria-label="Timetable views" className="flex flex-wrap gap-2">
+          <Link href="/timetable" className="btn-quiet">Week view</Link>
+          {staff && <Link href="/timetable/new" className="btn-primary">Schedule a session</Link>}
+        </nav>
+      </header>
+      <SessionsTable staff={staff} initial={initial} instructors={choices.instructors} cohorts={choices.cohorts} rooms={choices.rooms} />
+    </div>
+  );
+}
