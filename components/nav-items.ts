@@ -11,4 +11,7 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/today", label: "Today", permission: "today.view" },
   { href: "/people", label: "People", permission: "people.view" },
   { href: "/syllabus", label: "Syllabus", permission: "syllabus.view" },
+  { href: "/timetable", label: "Timetable", permission: "timetable.view" },
+  { href: "/roster", label: "Roster", permission: "roster.manage" },
+  { href: "/ground-log", label: "Ground log", permission: "groundlog.view" },
 ];

@@ -5,6 +5,8 @@ import { ChiefToday } from "./_components/chief-today";
 import { InstructorToday } from "./_components/instructor-today";
 import { StudentToday } from "./_components/student-today";
 import { SponsorToday } from "./_components/sponsor-today";
+import { AttendanceDue } from "./_components/attendance-due";
+import { NextSessions } from "./_components/next-sessions";
 import { getSchool } from "@/db/access/school";
 import { formatInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
@@ -24,7 +26,9 @@ export default async function TodayPage() {
       </header>
       {user.roles.includes("chief") && <ChiefToday user={user} />}
       {user.roles.includes("instructor") && <InstructorToday user={user} />}
+      {user.roles.includes("instructor") && <AttendanceDue user={user} />}
       {user.roles.includes("student") && <StudentToday user={user} />}
+      {user.roles.includes("student") && <NextSessions user={user} />}
       {user.roles.includes("sponsor") && <SponsorToday user={user} />}
       <FocusList />
     </div>

@@ -1,0 +1,69 @@
+import type { Metadata } from "next";
+import { requirePagePermission } from "@/lib/auth/guard";
+import { listCohorts } from "@/db/access/cohorts";
+import { listRoster, cohortsManagedBy } from "@/db/access/roster";
+import { getSchool } from "@/db/access/school";
+import { dateInZone } from "@/lib/time";
+import { now } from "@/lib/clock";
+import { AddStudentForm } from "./_components/add-student-form";
+import { RosterImport } from "./_components/roster-import";
+import { MoveStudent } from "./_components/move-student";
+
+export const metadata: Metadata = { title: "Roster" };
+export const dynamic = "force-dynamic";
+
+export default async function RosterPage() {
+  const user = await requirePagePermission("roster.manage", "/roster");
+  const school = await getSchool(user.schoolId);
+  const isChief = user.roles.includes("chief");
+  const cohorts = await listCohorts(user.schoolId, isChief ? {} : { leadInstructorId: user.id });
+  const managed = await cohortsManagedBy(user);
+  const allCohorts = (await listCohorts(user.schoolId)).map((c) => ({ id: c.id, name: c.name }));
+  const students = await listRoster(user);
+  const today = dateInZone(now(), school.timeZone);
+  return (
+    <div className="space-y-6">
+      <header>
+        <h1 className="text-display">Roster</h1>
+        <p className="text-ink-soft">{isChief ? "Every cohort of the school." : "The cohorts you lead."} Students keep their whole cohort history when they move.</p>
+      </header>
+      {cohorts.map((c) => {
+        const members = students.filter((s) => s.cohortId === c.id);
+        return (
+          <section key={c.id} className="card" aria-labelledby={`c-${c.id}`}>
+            <h2 id={`c-${c.id}`}>
+              {c.name} <span className="text-caption font-normal text-ink-soft">· {c.courseCode} · lead instructor {c.leadInstructorName} · from {c.startsOn} · <span className="num">{members.length}</span> students</span>
+            </h2>
+            <div className="mt-2 overflow-x-auto">
+              <table className="data-table">
+                <thead>
+                  <tr><th scope="col">Student</th><th scope="col">E-mail</th><th scope="col">Cohort history</th><th scope="col">Sponsor</th><th scope="col">Move</th></tr>
+                </thead>
+                <tbody>
+                  {members.map((m) => (
+                    <tr key={m.studentId}>
+                      <td>{m.name}</td>
+                      <td className="break-all">{m.email}</td>
+                      <td className="text-caption">
+                        {m.history.map((h) => (
+                          <span key={`${h.cohortName}-${h.fromDate}`} className="block num">{h.cohortName}: {h.fromDate} – {h.toDate ?? "now"}</span>
+                        ))}
+                      </td>
+                      <td>{m.sponsors.length ? m.sponsors.join(", ") : "—"}</td>
+                      <td><MoveStudent studentId={m.studentId} studentName={m.name} currentCohortId={c.id} cohorts={allCohorts.filter((x) => managed.some((y) => y.id === x.id))} today={today} /></td>
+                    </tr>
+                  ))}
+                  {members.length === 0 && <tr><td colSpan={5} className="text-ink-soft">No students in this cohort now.</td></tr>}
+                </tbody>
+              </table>
+            </div>
+          </section>
+        );
+      })}
+      <div className="grid gap-6 lg:grid-cols-2">
+        <AddStudentForm cohorts={managed.map((c) => ({ id: c.id, name: c.name }))} />
+        <RosterImport />
+      </div>
+    </div>
+  );
+}
