@@ -1,4 +1,5 @@
 import ical from "node-ical";
+import { QueryTypes } from "sequelize";
 import { NextRequest } from "next/server";
 import { sequelize } from "@/db/index";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
@@ -27,7 +28,7 @@ async function fetchFeed(path: string) {
 }
 
 function events(text: string) {
-  return Object.values(ical.sync.parseICS(text)).filter((c): c is ical.VEvent => c.type === "VEVENT");
+  return Object.values(ical.sync.parseICS(text)).filter((c): c is ical.VEvent => c?.type === "VEVENT");
 }
 
 describe("the personal iCalendar feed", () => {
@@ -75,7 +76,7 @@ describe("the personal iCalendar feed", () => {
     expect((await fetchFeed(second.path)).status).toBe(200);
     expect((await fetchFeed("/api/calendar/not-a-token.ics")).status).toBe(404);
     expect((await fetchFeed(second.path.replace(".ics", ""))).status).toBe(404);
-    const [row] = await sequelize.query<{ token_hash: string }>(`SELECT token_hash FROM calendar_feeds WHERE person_id = :p`, { replacements: { p: s.people.instructor.id }, type: sequelize.QueryTypes.SELECT });
+    const [row] = await sequelize.query<{ token_hash: string }>(`SELECT token_hash FROM calendar_feeds WHERE person_id = :p`, { replacements: { p: s.people.instructor.id }, type: QueryTypes.SELECT });
     expect(row!.token_hash).toMatch(/^[0-9a-f]{64}$/);
     expect(row!.token_hash).not.toContain(second.token);
   });
