@@ -11,6 +11,10 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/today", label: "Today", permission: "today.view" },
   { href: "/people", label: "People", permission: "people.view" },
   { href: "/syllabus", label: "Syllabus", permission: "syllabus.view" },
+  { href: "/briefings", label: "Briefings", permission: "briefings.view" },
+  // one page, two audiences: staff manage, students complete (no role holds both)
+  { href: "/assignments", label: "Assignments", permission: "assignments.manage" },
+  { href: "/assignments", label: "Assignments", permission: "assignments.complete" },
   { href: "/timetable", label: "Timetable", permission: "timetable.view" },
   { href: "/roster", label: "Roster", permission: "roster.manage" },
   { href: "/ground-log", label: "Ground log", permission: "groundlog.view" },

@@ -2,6 +2,7 @@ import { getActiveEnrolment } from "@/db/access/cohorts";
 import type { CurrentUser } from "@/lib/auth/session";
 import { hoursLabel } from "@/lib/time";
 import { creditedMinutesFor } from "@/db/access/ground-hours";
+import { AssignmentsThisWeek } from "./assignments-this-week";
 
 export async function StudentToday({ user }: { user: CurrentUser }) {
   const enrolment = await getActiveEnrolment(user.id);
@@ -24,6 +25,7 @@ export async function StudentToday({ user }: { user: CurrentUser }) {
           <div className="h-full bg-wing-500" style={{ width: `${pct}%` }} />
         </div>
       </div>
+      <AssignmentsThisWeek user={user} />
     </section>
   );
 }

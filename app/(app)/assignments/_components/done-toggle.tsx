@@ -1,0 +1,30 @@
+"use client";
+import { useState, useTransition } from "react";
+import { useRouter } from "next/navigation";
+import { setAssignmentDoneAction } from "../actions";
+
+export function DoneToggle({ assignmentId, done, title }: { assignmentId: string; done: boolean; title: string }) {
+  const [pending, start] = useTransition();
+  const [error, setError] = useState<string | null>(null);
+  const router = useRouter();
+  return (
+    <span className="inline-flex flex-wrap items-center gap-2">
+      <button
+        type="button"
+        className={done ? "btn-quiet" : "btn-primary"}
+        disabled={pending}
+        aria-label={done ? `Mark “${title}” not done` : `Mark “${title}” done`}
+        onClick={() =>
+          start(async () => {
+            const r = await setAssignmentDoneAction({ assignmentId, done: !done });
+            setError(r.ok ? null : r.message);
+            router.refresh();
+          })
+        }
+      >
+        {done ? "Not done yet" : "Mark done"}
+      </button>
+      {error && <span role="alert" className="field-error">{error}</span>}
+    </span>
+  );
+}

@@ -1,0 +1,86 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { requirePagePermission, can } from "@/lib/auth/guard";
+import { getCurrentUser } from "@/lib/auth/session";
+import { assignmentChoices, listAssignmentsForStaff, listAssignmentsForStudent, schoolToday } from "@/db/access/assignments";
+import { uuidParam } from "@/lib/http/api";
+import { AssignmentForm } from "./_components/assignment-form";
+import { DoneToggle } from "./_components/done-toggle";
+import { StatusBadge } from "./_components/status-badge";
+import { formatDueOn } from "./_components/format";
+
+export const metadata: Metadata = { title: "Assignments" };
+export const dynamic = "force-dynamic";
+
+export default async function AssignmentsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+  const signedIn = await getCurrentUser();
+  // Students complete, staff manage: either permission opens the page.
+  const user = await requirePagePermission(signedIn && can(signedIn, "assignments.manage") ? "assignments.manage" : "assignments.complete", "/assignments");
+  const today = await schoolToday(user.schoolId);
+  const briefingParam = (await searchParams).briefing;
+  const initialBriefingId = typeof briefingParam === "string" && uuidParam.safeParse(briefingParam).success ? briefingParam : undefined;
+
+  if (can(user, "assignments.manage")) {
+    const [rows, choices] = await Promise.all([listAssignmentsForStaff(user), assignmentChoices(user)]);
+    return (
+      <div className="space-y-6">
+        <h1 className="text-display">Assignments</h1>
+        <section className="card" aria-labelledby="h-new">
+          <h2 id="h-new">New assignment</h2>
+          <div className="mt-3"><AssignmentForm choices={choices} initialBriefingId={initialBriefingId} today={today} /></div>
+        </section>
+        <section className="card" aria-labelledby="h-set">
+          <h2 id="h-set">Set so far</h2>
+          {rows.length === 0 ? <p className="mt-2 text-ink-soft">Nothing assigned yet.</p> : (
+            <div className="mt-2 overflow-x-auto">
+              <table className="data-table" data-testid="staff-assignments">
+                <thead><tr><th scope="col">What</th><th scope="col">For</th><th scope="col">Due</th><th scope="col">Done</th><th scope="col">Overdue</th><th scope="col">Set by</th></tr></thead>
+                <tbody>
+                  {rows.map((a) => (
+                    <tr key={a.id}>
+                      <td><Link href={`/assignments/${a.id}`} className="font-semibold">{a.title}</Link> <span className="text-caption text-ink-soft">· {a.kind === "briefing" ? "briefing" : "demo"}</span></td>
+                      <td>{a.target}</td>
+                      <td className="num">{formatDueOn(a.dueOn)}</td>
+                      <td className="num">{a.done} of {a.students}</td>
+                      <td className="num">{a.overdue}</td>
+                      <td>{a.assignedByName}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </div>
+          )}
+        </section>
+      </div>
+    );
+  }
+
+  const mine = await listAssignmentsForStudent(user.schoolId, user.id);
+  return (
+    <div className="space-y-6">
+      <h1 className="text-display">Assignments</h1>
+      <section className="card" aria-labelledby="h-mine">
+        <h2 id="h-mine">Yours</h2>
+        {mine.length === 0 ? <p className="mt-2 text-ink-soft">Nothing assigned to you.</p> : (
+          <ul className="mt-2 divide-y divide-paper-edge" data-testid="my-assignments">
+            {mine.map((a) => (
+              <li key={a.id} id={`a-${a.id}`} className="flex flex-wrap items-center justify-between gap-3 py-3">
+                <div className="min-w-0">
+                  <p className="font-semibold">
+                    {a.kind === "briefing" && a.briefingId ? <Link href={`/briefings/${a.briefingId}`}>{a.title}</Link> : a.demoId ? <Link href={`/curve-lab/demos/${a.demoId}`}>{a.title}</Link> : a.title}
+                    <span className="text-caption font-normal text-ink-soft"> · {a.kind === "briefing" ? "briefing" : "demo"}</span>
+                  </p>
+                  <p className="text-caption text-ink-soft">Due {formatDueOn(a.dueOn)} · from {a.assignedByName}{a.note ? ` · “${a.note}”` : ""}</p>
+                </div>
+                <div className="flex flex-wrap items-center gap-3">
+                  <StatusBadge done={a.done} overdue={a.overdue} />
+                  <DoneToggle assignmentId={a.id} done={a.done} title={a.title} />
+                </div>
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
+    </div>
+  );
+}
