@@ -11,6 +11,7 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/today", label: "Today", permission: "today.view" },
   { href: "/people", label: "People", permission: "people.view" },
   { href: "/syllabus", label: "Syllabus", permission: "syllabus.view" },
+  { href: "/curve-lab", label: "Curve Lab", permission: "demos.view" },
   { href: "/briefings", label: "Briefings", permission: "briefings.view" },
   // one page, two audiences: staff manage, students complete (no role holds both)
   { href: "/assignments", label: "Assignments", permission: "assignments.manage" },

@@ -1,4 +1,5 @@
 import type { Transaction } from "sequelize";
+import { seedCurveLab } from "./curve-lab";
 
 export interface SeedContext {
   t: Transaction;
@@ -17,7 +18,9 @@ export interface SeedContext {
  * Each capability adds its own demo data here (aircraft profiles, briefings, sessions, checks…),
  * through its own services, in the same transaction as the foundation's scenario.
  */
-const extensions: { name: string; run: (ctx: SeedContext) => Promise<void> }[] = [];
+const extensions: { name: string; run: (ctx: SeedContext) => Promise<void> }[] = [
+  { name: "curve-lab", run: seedCurveLab },
+];
 
 export async function runSeedExtensions(ctx: SeedContext): Promise<void> {
   for (const ext of extensions) await ext.run(ctx);

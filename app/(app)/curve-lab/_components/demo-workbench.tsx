@@ -1,0 +1,456 @@
+"use client";
+import { useCallback, useMemo, useRef, useState } from "react";
+import { useRouter } from "next/navigation";
+import type { Chart } from "chart.js";
+import { CurveChart, CASE_COLOURS, CURVE_DASH, type Concealment } from "@/components/charts/curve-chart";
+import {
+  CALL_PROMPTS,
+  CONFIGURATION_KEYS,
+  CONFIGURATION_LABELS,
+  CURVE_KEYS,
+  CURVE_LABELS,
+  MARKER_KEYS,
+  MARKER_LABELS,
+  callAnswer,
+  formatSpeed,
+  speedFromUnit,
+  speedInUnit,
+  speedUnitLabel,
+  type AirframeSnapshot,
+  type CallKind,
+  type ConfigurationKey,
+  type DemoCase,
+  type DemoSpec,
+} from "@/components/charts/demo-spec";
+import { caseFigures, whatIf, GUST_ABOVE_VMD, GUST_BELOW_VMD, AXIS_ASSUMPTION } from "@/components/charts/readouts";
+import { kgToLb, mToFt, ftToM } from "@/lib/aero";
+import { deleteDemoAction, duplicateDemoAction, makeCallAction, renameDemoAction, saveDemoAction } from "../actions";
+
+export interface WorkbenchProps {
+  mode: "builder" | "student";
+  demoId: string | null;
+  demoRevisionId: string | null;
+  revisionNumber: number | null;
+  name: string;
+  initialSpec: DemoSpec;
+  /** builder: profiles to build from */
+  airframes?: AirframeSnapshot[];
+  canChange?: boolean;
+  inUse?: boolean;
+}
+
+const fmt = (n: number, d = 0) => n.toLocaleString("en-GB", { maximumFractionDigits: d, minimumFractionDigits: d });
+
+function clamp(x: number, lo: number, hi: number) {
+  return Math.min(hi, Math.max(lo, x));
+}
+
+/** The builder (instructors) and the student's view of a demo: sliders, the live chart, readouts. */
+export function DemoWorkbench(props: WorkbenchProps) {
+  const { mode } = props;
+  const router = useRouter();
+  const [spec, setSpec] = useState<DemoSpec>(props.initialSpec);
+  const [name, setName] = useState(props.name);
+  const [focus, setFocus] = useState(0);
+  const [status, setStatus] = useState<{ kind: "ok" | "error"; text: string } | null>(null);
+  const [busy, setBusy] = useState(false);
+  const chartRef = useRef<Chart | null>(null);
+
+  // Call it first (students): conceal the answer until the call is made.
+  const callKind: CallKind | null = mode === "student" ? spec.callKind : null;
+  const [guessMs, setGuessMs] = useState<number | null>(null);
+  const [answer, setAnswer] = useState<{ actualMs: number; errorMs: number } | null>(null);
+  const calling = callKind !== null && answer === null;
+  const conceal = useMemo<Concealment | null>(() => {
+    if (!calling) return null;
+    if (callKind === "vmd") return { regions: true, markers: ["vmd", "vmp", "bestGlide"], curves: ["total", "liftToDrag", "power"] };
+    if (callKind === "stall") return { regions: false, markers: ["stall"], curves: [] };
+    return { regions: true, markers: ["vmd", "vmp", "bestGlide"], curves: [] };
+  }, [calling, callKind]);
+  const callSpec = useMemo<DemoSpec>(() => (callKind === "gust" ? { ...spec, markers: { ...spec.markers, chosen: true } } : spec), [spec, callKind]);
+
+  const unit = spec.axis.unit;
+  const u = speedUnitLabel(unit);
+  const focused = spec.cases[focus] ?? spec.cases[0]!;
+  const figures = useMemo(() => caseFigures(spec.airframe, focused, spec.axis.speed), [spec.airframe, focused, spec.axis.speed]);
+  const whatIfLines = useMemo(() => whatIf(spec, Math.min(focus, spec.cases.length - 1)), [spec, focus]);
+
+  const updateCase = useCallback((i: number, patch: Partial<DemoCase>) => {
+    setSpec((s) => ({ ...s, cases: s.cases.map((c, j) => (j === i ? { ...c, ...patch } : c)) }));
+  }, []);
+
+  const locked = calling; // the call is about the saved first case: sliders wait for the reveal
+  const configs = CONFIGURATION_KEYS.filter((k) => k === "clean" || spec.airframe.configurations[k] !== null);
+
+  function chooseAirframe(id: string) {
+    const a = props.airframes?.find((x) => x.id === id);
+    if (!a) return;
+    setSpec((s) => ({
+      ...s,
+      airframe: a,
+      cases: s.cases.map((c) => ({
+        ...c,
+        massKg: clamp(c.massKg, a.emptyMassKg, a.maxMassKg),
+        configuration: c.configuration === "clean" || a.configurations[c.configuration] !== null ? c.configuration : "clean",
+      })),
+    }));
+  }
+
+  function addCase() {
+    setSpec((s) => {
+      if (s.cases.length >= 4) return s;
+      const last = s.cases[s.cases.length - 1]!;
+      const massKg = clamp(Math.round((s.airframe.emptyMassKg + s.airframe.maxMassKg) / 2), s.airframe.emptyMassKg, s.airframe.maxMassKg);
+      return { ...s, cases: [...s.cases, { ...last, label: `Case ${s.cases.length + 1}`, massKg }] };
+    });
+  }
+  function removeCase(i: number) {
+    setSpec((s) => (s.cases.length <= 1 ? s : { ...s, cases: s.cases.filter((_, j) => j !== i) }));
+    setFocus(0);
+  }
+
+  async function save() {
+    setBusy(true);
+    setStatus(null);
+    const r = await saveDemoAction({ demoId: props.demoId, name, spec });
+    setBusy(false);
+    if (!r.ok) {
+      setStatus({ kind: "error", text: r.message });
+      return;
+    }
+    const d = r.data;
+    setStatus({ kind: "ok", text: d.newRevision && props.demoId ? `Saved as revision ${d.revisionNumber}: students keep the revision they were given.` : `Saved (revision ${d.revisionNumber}).` });
+    if (!props.demoId) router.replace(`/curve-lab/demos/${d.demoId}`);
+    else router.refresh();
+  }
+  async function rename() {
+    if (!props.demoId) return;
+    setBusy(true);
+    const r = await renameDemoAction({ demoId: props.demoId, name });
+    setBusy(false);
+    setStatus(r.ok ? { kind: "ok", text: `Renamed to "${r.data.name}".` } : { kind: "error", text: r.message });
+    if (r.ok) router.refresh();
+  }
+  async function duplicate() {
+    if (!props.demoId) return;
+    setBusy(true);
+    const r = await duplicateDemoAction({ demoId: props.demoId });
+    setBusy(false);
+    if (!r.ok) return setStatus({ kind: "error", text: r.message });
+    router.push(`/curve-lab/demos/${r.data.demoId}`);
+  }
+  async function remove() {
+    if (!props.demoId || !window.confirm(`Delete the demo "${name}"?`)) return;
+    setBusy(true);
+    const r = await deleteDemoAction({ demoId: props.demoId });
+    setBusy(false);
+    if (!r.ok) return setStatus({ kind: "error", text: r.message });
+    router.push("/curve-lab");
+  }
+
+  async function makeCall() {
+    if (guessMs === null || !props.demoRevisionId || !callKind) return;
+    setBusy(true);
+    const r = await makeCallAction({ demoRevisionId: props.demoRevisionId, kind: callKind, predictedMs: guessMs });
+    setBusy(false);
+    if (!r.ok) return setStatus({ kind: "error", text: r.message });
+    setAnswer({ actualMs: r.data.actualMs, errorMs: r.data.errorMs });
+  }
+
+  function exportPng() {
+    const ch = chartRef.current;
+    if (!ch) return;
+    const a = document.createElement("a");
+    a.href = ch.toBase64Image("image/png", 1);
+    a.download = `${name || "demo"}.png`.replace(/[^\w .-]+/g, "_");
+    a.click();
+  }
+  async function exportCsv() {
+    const [{ toCsv }, { sampleCurves }, { curveCaseFor }] = await Promise.all([import("@/lib/csv"), import("@/lib/aero"), import("@/components/charts/demo-spec")]);
+    const set = sampleCurves(spec.cases.map((c) => curveCaseFor(spec.airframe, c)), { minSpeedMs: spec.range.minSpeedMs, maxSpeedMs: spec.range.maxSpeedMs, points: 400, speedAxis: spec.axis.speed }, { arrays: "plain" });
+    const axis = spec.axis.speed === "true" ? "TAS" : "EAS";
+    const header = [`${axis} (${u})`];
+    for (const c of spec.cases) header.push(`${c.label}: zero-lift drag (N)`, `${c.label}: lift-dependent drag (N)`, `${c.label}: ideal induced drag (N)`, `${c.label}: lift-dependent increment (N)`, `${c.label}: total drag (N)`, `${c.label}: power required (kW)`, `${c.label}: L/D`);
+    const rows = set.speedsMs.map((v, i) => {
+      const row: (string | number)[] = [speedInUnit(v, unit).toFixed(2)];
+      for (const c of set.cases) row.push(c.zeroLiftDragN[i]!.toFixed(1), c.liftDependentDragN[i]!.toFixed(1), c.idealInducedDragN[i]!.toFixed(1), c.liftDependentIncrementN[i]!.toFixed(1), c.totalDragN[i]!.toFixed(1), (c.powerRequiredW[i]! / 1000).toFixed(3), c.liftToDrag[i]!.toFixed(3));
+      return row;
+    });
+    const blob = new Blob([toCsv(header, rows)], { type: "text/csv;charset=utf-8" });
+    const a = document.createElement("a");
+    a.href = URL.createObjectURL(blob);
+    a.download = `${name || "demo"}.csv`.replace(/[^\w .-]+/g, "_");
+    a.click();
+    setTimeout(() => URL.revokeObjectURL(a.href), 1000);
+  }
+
+  const rangeMin = speedInUnit(spec.range.minSpeedMs, unit);
+  const rangeMax = speedInUnit(spec.range.maxSpeedMs, unit);
+  const step = unit === "kt" ? 1 : 0.5;
+
+  return (
+    <div className="space-y-4">
+      {mode === "builder" && (
+        <section aria-label="Demo" className="card flex flex-wrap items-end gap-3">
+          <div className="min-w-56 flex-1">
+            <label htmlFor="demo-name" className="field-label">Demo name</label>
+            <input id="demo-name" className="field-input" value={name} maxLength={120} onChange={(e) => setName(e.target.value)} />
+          </div>
+          {props.airframes && (
+            <div className="min-w-56">
+              <label htmlFor="demo-airframe" className="field-label">Airframe</label>
+              <select id="demo-airframe" className="field-input" value={spec.airframe.id ?? ""} onChange={(e) => chooseAirframe(e.target.value)}>
+                {spec.airframe.id && !props.airframes.some((a) => a.id === spec.airframe.id) && <option value={spec.airframe.id}>{spec.airframe.name} (as saved)</option>}
+                {props.airframes.map((a) => (
+                  <option key={a.id} value={a.id ?? ""}>{a.name}</option>
+                ))}
+              </select>
+            </div>
+          )}
+          {props.canChange !== false && (
+            <button type="button" className="btn-primary" onClick={save} disabled={busy} data-testid="save-demo">Save</button>
+          )}
+          {props.demoId && props.canChange !== false && <button type="button" className="btn-quiet" onClick={rename} disabled={busy}>Rename</button>}
+          {props.demoId && <button type="button" className="btn-quiet" onClick={duplicate} disabled={busy}>Duplicate</button>}
+          {props.demoId && props.canChange !== false && (
+            <button type="button" className="btn-quiet" onClick={remove} disabled={busy || props.inUse} title={props.inUse ? "In use: kept for the students and briefings that use it" : undefined}>Delete</button>
+          )}
+          {props.demoId && <a className="btn-quiet" href={`/curve-lab/demos/${props.demoId}/projector`}>Projector view</a>}
+          <p aria-live="polite" className="basis-full text-caption" data-testid="demo-status">
+            {status && <span className={status.kind === "error" ? "font-semibold text-notyet-800" : "text-solid-800"}>{status.text}</span>}
+            {!status && props.inUse && props.revisionNumber !== null && <span className="text-ink-soft">Revision {props.revisionNumber}, in use: saving makes a new revision so students keep what was taught.</span>}
+          </p>
+        </section>
+      )}
+
+      {mode === "student" && callKind !== null && (
+        <section aria-labelledby="call-h" className="card space-y-3 border-wing-500" data-testid="call-it-first">
+          <h2 id="call-h">Call it first</h2>
+          <p>{CALL_PROMPTS[callKind]} Place your marker: drag the slider, type a speed, or click on the chart.</p>
+          <div className="flex flex-wrap items-end gap-3">
+            <div className="min-w-64 flex-1">
+              <label htmlFor="call-slider" className="field-label">Your call ({u})</label>
+              <input id="call-slider" type="range" className="mt-2 block min-h-touch w-full" min={rangeMin} max={rangeMax} step={step} disabled={!calling}
+                value={guessMs === null ? (rangeMin + rangeMax) / 2 : speedInUnit(guessMs, unit)}
+                onChange={(e) => setGuessMs(speedFromUnit(Number(e.target.value), unit))} />
+            </div>
+            <div className="w-32">
+              <label htmlFor="call-number" className="field-label">Speed ({u})</label>
+              <input id="call-number" type="number" className="field-input num" min={rangeMin} max={rangeMax} step={step} disabled={!calling}
+                value={guessMs === null ? "" : Number(speedInUnit(guessMs, unit).toFixed(1))}
+                onChange={(e) => setGuessMs(e.target.value === "" ? null : speedFromUnit(Number(e.target.value), unit))} />
+            </div>
+            <button type="button" className="btn-primary" disabled={!calling || guessMs === null || busy} onClick={makeCall} data-testid="make-call">Call it and reveal</button>
+          </div>
+          <div aria-live="polite" data-testid="call-result">
+            {answer && (
+              <p className="text-lead">
+                Your call <span className="num font-semibold">{formatSpeed(answer.actualMs + answer.errorMs, unit)}</span> · answer{" "}
+                <span className="num font-semibold">{formatSpeed(answer.actualMs, unit)}</span> · you were{" "}
+                <span className="num font-semibold">{fmt(Math.abs(speedInUnit(answer.errorMs, unit)), 1)} {u} {answer.errorMs >= 0 ? "fast" : "slow"}</span>.
+              </p>
+            )}
+          </div>
+        </section>
+      )}
+
+      <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_20rem]">
+        <section aria-label="Chart" className="space-y-2 rounded-card bg-board-900 p-3 text-chalk">
+          <CurveChart
+            spec={callSpec}
+            focus={Math.min(focus, spec.cases.length - 1)}
+            variant="desk"
+            conceal={conceal}
+            guessMs={callKind ? guessMs : null}
+            answerMs={answer ? answer.actualMs : null}
+            onPickSpeed={calling ? setGuessMs : undefined}
+            chartRef={chartRef}
+            className="h-[26rem] w-full"
+            label={`Drag against ${spec.axis.speed === "true" ? "TAS" : "EAS"} for ${spec.cases.map((c) => c.label).join(", ")}`}
+          />
+          <ul className="flex flex-wrap gap-x-4 gap-y-1 text-caption" aria-label="Legend">
+            {spec.cases.map((c, i) =>
+              CURVE_KEYS.filter((k) => spec.curves[k] && !(conceal?.curves.includes(k) ?? false)).map((k) => (
+                <li key={`${i}-${k}`} className="flex items-center gap-2">
+                  <svg width="28" height="8" aria-hidden="true"><line x1="0" y1="4" x2="28" y2="4" stroke={CASE_COLOURS[i]} strokeWidth={k === "total" ? 3.5 : 2.5} strokeDasharray={CURVE_DASH[k].join(" ")} /></svg>
+                  {c.label}: {CURVE_LABELS[k]}
+                </li>
+              )),
+            )}
+          </ul>
+          <p className="text-caption text-chalk-dim">{AXIS_ASSUMPTION}</p>
+        </section>
+
+        <aside className="space-y-3" aria-label="Readouts">
+          {!calling ? (
+            <section className="card space-y-1" aria-labelledby="readouts-h">
+              <h2 id="readouts-h">{focused.label}</h2>
+              <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 num">
+                <dt>Vmd</dt><dd data-testid="readout-vmd">{formatSpeed(figures.vmdMs, unit)}</dd>
+                <dt>Vmp</dt><dd data-testid="readout-vmp">{formatSpeed(figures.vmpMs, unit)}</dd>
+                <dt>Stall</dt><dd data-testid="readout-stall">{formatSpeed(figures.stallMs, unit)} ({CONFIGURATION_LABELS[focused.configuration].toLowerCase()})</dd>
+                <dt>(L/D)max</dt><dd>{fmt(figures.maxLiftToDrag, 1)}</dd>
+                <dt>Best glide</dt><dd>{formatSpeed(figures.bestGlideMs, unit)}, {fmt(figures.glideRatio, 1)}:1</dd>
+              </dl>
+              <p className="text-caption text-ink-soft">Speeds as {spec.axis.speed === "true" ? "TAS" : "EAS (IAS = CAS = EAS here)"}.</p>
+            </section>
+          ) : (
+            <section className="card"><p>Readouts appear after your call.</p></section>
+          )}
+          {!calling && (
+            <section className="card space-y-1" aria-labelledby="whatif-h">
+              <h2 id="whatif-h">What if</h2>
+              <ul className="list-disc space-y-1 pl-5" data-testid="what-if">{whatIfLines.map((l) => <li key={l}>{l}</li>)}</ul>
+            </section>
+          )}
+          {!calling && (
+            <section className="space-y-2" aria-label="What a gust does">
+              <p className="rounded-md border-l-4 border-unstable-500 bg-unstable-100 p-2 text-caption"><strong>Below Vmd: speed-unstable.</strong> {GUST_BELOW_VMD.replace(/^Below Vmd \(speed-unstable\), /, "")}</p>
+              <p className="rounded-md border-l-4 border-stable-500 bg-stable-100 p-2 text-caption"><strong>Above Vmd: speed-stable.</strong> {GUST_ABOVE_VMD.replace(/^Above Vmd \(speed-stable\), /, "")}</p>
+            </section>
+          )}
+        </aside>
+      </div>
+
+      <section aria-labelledby="cases-h" className="card space-y-3">
+        <div className="flex flex-wrap items-center justify-between gap-2">
+          <h2 id="cases-h">Cases</h2>
+          {mode === "builder" && <button type="button" className="btn-quiet" onClick={addCase} disabled={spec.cases.length >= 4}>Add case</button>}
+        </div>
+        {locked && <p className="text-caption text-ink-soft">The sliders unlock after your call.</p>}
+        <div className="grid gap-3 md:grid-cols-2">
+          {spec.cases.map((c, i) => (
+            <fieldset key={i} className="space-y-2 rounded-md border border-paper-edge p-3" data-testid={`case-${i}`}>
+              <legend className="px-1 font-semibold">
+                <span aria-hidden="true" className="mr-2 inline-block h-3 w-3 rounded-full align-middle" style={{ background: CASE_COLOURS[i], outline: "1px solid #414a5c" }} />
+                Case {i + 1}
+              </legend>
+              <div className="flex flex-wrap items-end gap-2">
+                <label className="flex min-h-touch items-center gap-2 text-caption">
+                  <input type="radio" name="focus" checked={focus === i} onChange={() => setFocus(i)} className="h-5 w-5" /> Focus (readouts, regions)
+                </label>
+                {mode === "builder" && spec.cases.length > 1 && <button type="button" className="btn-quiet" onClick={() => removeCase(i)}>Remove case {i + 1}</button>}
+              </div>
+              {mode === "builder" && (
+                <div>
+                  <label htmlFor={`label-${i}`} className="field-label">Label</label>
+                  <input id={`label-${i}`} className="field-input" maxLength={40} value={c.label} onChange={(e) => updateCase(i, { label: e.target.value })} />
+                </div>
+              )}
+              <div>
+                <label htmlFor={`mass-${i}`} className="field-label">Mass, case {i + 1}: <span className="num">{fmt(c.massKg)} kg ({fmt(kgToLb(c.massKg))} lb)</span></label>
+                <input id={`mass-${i}`} data-testid={`mass-${i}`} type="range" className="mt-1 block min-h-touch w-full" disabled={locked}
+                  min={Math.floor(spec.airframe.emptyMassKg)} max={Math.ceil(spec.airframe.maxMassKg)} step={1} value={c.massKg}
+                  aria-valuetext={`${fmt(c.massKg)} kg (${fmt(kgToLb(c.massKg))} lb)`}
+                  onChange={(e) => updateCase(i, { massKg: clamp(Number(e.target.value), spec.airframe.emptyMassKg, spec.airframe.maxMassKg) })} />
+              </div>
+              <div>
+                <label htmlFor={`alt-${i}`} className="field-label">Pressure altitude, case {i + 1}: <span className="num">{fmt(mToFt(c.altitudeM))} ft</span></label>
+                <input id={`alt-${i}`} type="range" className="mt-1 block min-h-touch w-full" disabled={locked} min={0} max={14000} step={100}
+                  value={Math.round(mToFt(c.altitudeM) / 100) * 100} aria-valuetext={`${fmt(mToFt(c.altitudeM))} ft`}
+                  onChange={(e) => updateCase(i, { altitudeM: ftToM(Number(e.target.value)) })} />
+              </div>
+              <div>
+                <label htmlFor={`isa-${i}`} className="field-label">ISA deviation, case {i + 1}: <span className="num">{c.isaDeviationK > 0 ? "+" : ""}{fmt(c.isaDeviationK)} K</span></label>
+                <input id={`isa-${i}`} type="range" className="mt-1 block min-h-touch w-full" disabled={locked} min={-30} max={30} step={1} value={c.isaDeviationK}
+                  onChange={(e) => updateCase(i, { isaDeviationK: Number(e.target.value) })} />
+              </div>
+              <div>
+                <label htmlFor={`conf-${i}`} className="field-label">Configuration, case {i + 1}</label>
+                <select id={`conf-${i}`} className="field-input" disabled={locked} value={c.configuration} onChange={(e) => updateCase(i, { configuration: e.target.value as ConfigurationKey })}>
+                  {configs.map((k) => <option key={k} value={k}>{CONFIGURATION_LABELS[k]}</option>)}
+                </select>
+              </div>
+            </fieldset>
+          ))}
+        </div>
+      </section>
+
+      <section aria-labelledby="show-h" className="card space-y-3">
+        <h2 id="show-h">What the chart shows</h2>
+        <div className="grid gap-4 md:grid-cols-3">
+          <fieldset>
+            <legend className="field-label">Curves</legend>
+            {CURVE_KEYS.map((k) => (
+              <label key={k} className="flex min-h-touch items-center gap-2">
+                <input type="checkbox" className="h-5 w-5" checked={spec.curves[k] ?? false} disabled={locked} onChange={(e) => setSpec((s) => ({ ...s, curves: { ...s.curves, [k]: e.target.checked } }))} />
+                {CURVE_LABELS[k]}
+              </label>
+            ))}
+          </fieldset>
+          <fieldset>
+            <legend className="field-label">Markers</legend>
+            {MARKER_KEYS.map((k) => (
+              <label key={k} className="flex min-h-touch items-center gap-2">
+                <input type="checkbox" className="h-5 w-5" checked={spec.markers[k] ?? false} disabled={locked} onChange={(e) => setSpec((s) => ({ ...s, markers: { ...s.markers, [k]: e.target.checked } }))} />
+                {MARKER_LABELS[k]}
+              </label>
+            ))}
+          </fieldset>
+          <div className="space-y-2">
+            <fieldset>
+              <legend className="field-label">Speed axis</legend>
+              <div className="flex flex-wrap gap-3">
+                {(["equivalent", "true"] as const).map((v) => (
+                  <label key={v} className="flex min-h-touch items-center gap-2">
+                    <input type="radio" name="axis-speed" className="h-5 w-5" checked={spec.axis.speed === v} disabled={locked} onChange={() => setSpec((s) => ({ ...s, axis: { ...s.axis, speed: v } }))} />
+                    {v === "true" ? "TAS" : "IAS/EAS"}
+                  </label>
+                ))}
+                {(["kt", "ms"] as const).map((v) => (
+                  <label key={v} className="flex min-h-touch items-center gap-2">
+                    <input type="radio" name="axis-unit" className="h-5 w-5" checked={spec.axis.unit === v} disabled={locked} onChange={() => setSpec((s) => ({ ...s, axis: { ...s.axis, unit: v } }))} />
+                    {speedUnitLabel(v)}
+                  </label>
+                ))}
+              </div>
+            </fieldset>
+            <div className="grid grid-cols-2 gap-2">
+              <div>
+                <label htmlFor="range-min" className="field-label">From ({u})</label>
+                <input id="range-min" type="number" className="field-input num" disabled={locked} min={1} step={step} value={Number(rangeMin.toFixed(1))}
+                  onChange={(e) => { const v = speedFromUnit(Number(e.target.value), unit); if (v >= 1 && v < spec.range.maxSpeedMs) setSpec((s) => ({ ...s, range: { ...s.range, minSpeedMs: v } })); }} />
+              </div>
+              <div>
+                <label htmlFor="range-max" className="field-label">To ({u})</label>
+                <input id="range-max" type="number" className="field-input num" disabled={locked} step={step} value={Number(rangeMax.toFixed(1))}
+                  onChange={(e) => { const v = speedFromUnit(Number(e.target.value), unit); if (v > spec.range.minSpeedMs && v <= 500) setSpec((s) => ({ ...s, range: { ...s.range, maxSpeedMs: v } })); }} />
+              </div>
+            </div>
+            <div>
+              <label htmlFor="chosen" className="field-label">Chosen speed: <span className="num">{formatSpeed(spec.chosenSpeedMs, unit)}</span></label>
+              <input id="chosen" type="range" className="mt-1 block min-h-touch w-full" disabled={locked} min={rangeMin} max={rangeMax} step={step} value={speedInUnit(spec.chosenSpeedMs, unit)}
+                onChange={(e) => setSpec((s) => ({ ...s, chosenSpeedMs: speedFromUnit(Number(e.target.value), unit) }))} />
+            </div>
+          </div>
+        </div>
+        {mode === "builder" && (
+          <div className="grid gap-3 md:grid-cols-[16rem_1fr]">
+            <div>
+              <label htmlFor="call-kind" className="field-label">Call it first (students)</label>
+              <select id="call-kind" className="field-input" value={spec.callKind ?? ""} onChange={(e) => setSpec((s) => ({ ...s, callKind: e.target.value === "" ? null : (e.target.value as CallKind) }))}>
+                <option value="">No call</option>
+                <option value="vmd">Where is Vmd?</option>
+                <option value="stall">Where is the stall speed?</option>
+                <option value="gust">Where does the speed settle after a gust?</option>
+              </select>
+              {spec.callKind && <p className="mt-1 text-caption text-ink-soft">Answer for case 1 now: <span className="num">{formatSpeed(callAnswer(spec, spec.callKind), unit)}</span></p>}
+            </div>
+            <div>
+              <label htmlFor="notes" className="field-label">Teaching notes</label>
+              <textarea id="notes" className="field-input min-h-24 py-2" maxLength={4000} value={spec.notes} onChange={(e) => setSpec((s) => ({ ...s, notes: e.target.value }))} />
+            </div>
+          </div>
+        )}
+        {mode === "student" && spec.notes && (
+          <div><h3 className="field-label">Notes from your instructor</h3><p className="whitespace-pre-wrap">{spec.notes}</p></div>
+        )}
+        <div className="flex flex-wrap gap-2">
+          <button type="button" className="btn-quiet" onClick={exportPng} disabled={calling}>Export chart (PNG)</button>
+          <button type="button" className="btn-quiet" onClick={exportCsv} disabled={calling}>Export data (CSV)</button>
+        </div>
+      </section>
+    </div>
+  );
+}
+

@@ -1,0 +1,103 @@
+"use client";
+import { useEffect, useMemo, useRef, useState } from "react";
+import { CurveChart, CASE_COLOURS } from "@/components/charts/curve-chart";
+import { CURVE_LABELS, formatSpeed, MARKER_KEYS, type CurveKey, type DemoSpec } from "@/components/charts/demo-spec";
+import { caseFigures, AXIS_ASSUMPTION } from "@/components/charts/readouts";
+import { Caution } from "@/components/caution";
+
+const CURVE_SHORTCUTS: [string, CurveKey][] = [
+  ["t", "total"],
+  ["z", "zeroLift"],
+  ["l", "liftDependent"],
+  ["i", "idealInduced"],
+  ["n", "increment"],
+  ["p", "power"],
+  ["g", "liftToDrag"],
+];
+
+/** Full-screen teaching view: the board, big type, thick lines, keyboard only, no editing chrome. */
+export function ProjectorView({ name, spec: saved, backHref }: { name: string; spec: DemoSpec; backHref: string }) {
+  const [focus, setFocus] = useState(0);
+  const [allCases, setAllCases] = useState(true);
+  const [curves, setCurves] = useState(saved.curves);
+  const [markers, setMarkers] = useState(true);
+  const [regions, setRegions] = useState(true);
+  const root = useRef<HTMLDivElement>(null);
+
+  const spec = useMemo<DemoSpec>(() => {
+    const cases = allCases ? saved.cases : [saved.cases[focus] ?? saved.cases[0]!];
+    return { ...saved, cases, curves };
+  }, [saved, allCases, focus, curves]);
+  const chartFocus = allCases ? focus : 0;
+  const conceal = useMemo(() => (markers && regions ? null : { regions: !regions, markers: markers ? [] : [...MARKER_KEYS], curves: [] }), [markers, regions]);
+
+  useEffect(() => {
+    root.current?.focus();
+    const onKey = (e: KeyboardEvent) => {
+      if (e.altKey || e.ctrlKey || e.metaKey) return;
+      const k = e.key.toLowerCase();
+      const n = saved.cases.length;
+      if (k === "arrowright" || k === " ") setFocus((f) => (f + 1) % n);
+      else if (k === "arrowleft") setFocus((f) => (f - 1 + n) % n);
+      else if (/^[1-4]$/.test(k) && Number(k) <= n) setFocus(Number(k) - 1);
+      else if (k === "a") setAllCases((v) => !v);
+      else if (k === "m") setMarkers((v) => !v);
+      else if (k === "r") setRegions((v) => !v);
+      else if (k === "f") {
+        if (document.fullscreenElement) void document.exitFullscreen();
+        else void root.current?.requestFullscreen?.().catch(() => undefined);
+      } else if (k === "q") window.location.assign(backHref);
+      else {
+        const hit = CURVE_SHORTCUTS.find(([key]) => key === k);
+        if (!hit) return;
+        setCurves((c) => ({ ...c, [hit[1]]: !c[hit[1]] }));
+      }
+      e.preventDefault();
+    };
+    window.addEventListener("keydown", onKey);
+    return () => window.removeEventListener("keydown", onKey);
+  }, [saved.cases.length, backHref]);
+
+  const c = saved.cases[focus] ?? saved.cases[0]!;
+  const fig = caseFigures(saved.airframe, c, saved.axis.speed);
+  const unit = saved.axis.unit;
+
+  return (
+    <div ref={root} tabIndex={-1} data-testid="projector" className="fixed inset-0 z-50 flex flex-col gap-3 overflow-auto bg-board-950 p-6 text-[28px] leading-snug text-chalk outline-none">
+      <header className="flex flex-wrap items-baseline justify-between gap-x-8 gap-y-2">
+        <h1 className="text-[40px] font-bold">{name}</h1>
+        <p className="flex flex-wrap items-baseline gap-x-6" data-testid="projector-readout">
+          <span><span aria-hidden="true" className="mr-2 inline-block h-5 w-5 rounded-full align-middle" style={{ background: CASE_COLOURS[focus] }} />{c.label}</span>
+          <span className="num">Vmd {formatSpeed(fig.vmdMs, unit)}</span>
+          <span className="num">Vmp {formatSpeed(fig.vmpMs, unit)}</span>
+          <span className="num">stall {formatSpeed(fig.stallMs, unit)}</span>
+          <span className="num">(L/D)max {fig.maxLiftToDrag.toFixed(1)}</span>
+        </p>
+      </header>
+      <CurveChart spec={spec} focus={chartFocus} variant="projector" conceal={conceal} className="min-h-[26rem] flex-1" label={`Drag against speed, ${name}`} />
+      <footer className="grid gap-3 lg:grid-cols-[1fr_auto]">
+        <div className="space-y-1">
+          <p><strong className="text-[#f2c27a]">Below Vmd, speed-unstable:</strong> a gust&apos;s speed change grows.</p>
+          <p><strong className="text-[#8fe0d4]">Above Vmd, speed-stable:</strong> the speed comes back.</p>
+          <p className="text-chalk-dim">{AXIS_ASSUMPTION}</p>
+          <Caution className="text-[28px]! leading-snug!" />
+        </div>
+        <section aria-label="Keys" className="rounded-card border-2 border-board-600 p-3" data-testid="key-legend">
+          <h2 className="sr-only">Keys</h2>
+          <dl className="grid grid-cols-[auto_1fr] gap-x-4">
+            <dt className="font-mono">← →</dt><dd>step through the cases</dd>
+            <dt className="font-mono">1–4</dt><dd>go to a case</dd>
+            <dt className="font-mono">A</dt><dd>all cases / this case only</dd>
+            {CURVE_SHORTCUTS.map(([k, curve]) => (
+              <div key={k} className="contents"><dt className="font-mono">{k.toUpperCase()}</dt><dd>{CURVE_LABELS[curve]} {curves[curve] ? "on" : "off"}</dd></div>
+            ))}
+            <dt className="font-mono">M</dt><dd>markers {markers ? "on" : "off"}</dd>
+            <dt className="font-mono">R</dt><dd>stable/unstable regions {regions ? "on" : "off"}</dd>
+            <dt className="font-mono">F</dt><dd>full screen</dd>
+            <dt className="font-mono">Q</dt><dd>leave the Projector view</dd>
+          </dl>
+        </section>
+      </footer>
+    </div>
+  );
+}

@@ -1,0 +1,34 @@
+"use client";
+import { useState } from "react";
+import { useRouter } from "next/navigation";
+import { duplicateAirframeAction, retireAirframeAction } from "../actions";
+
+/** Duplicate and retire (or bring back) buttons on a profile page. */
+export function AirframeButtons({ airframeId, retired }: { airframeId: string; retired: boolean }) {
+  const router = useRouter();
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+  async function duplicate() {
+    setBusy(true);
+    const r = await duplicateAirframeAction({ airframeId });
+    setBusy(false);
+    if (!r.ok) return setError(r.message);
+    router.push(`/curve-lab/airframes/${r.data.id}/edit`);
+  }
+  async function retire() {
+    setBusy(true);
+    const r = await retireAirframeAction({ airframeId, retired: !retired });
+    setBusy(false);
+    if (!r.ok) return setError(r.message);
+    router.refresh();
+  }
+  return (
+    <div className="flex flex-wrap items-center gap-2">
+      {!retired && <a href={`/curve-lab/airframes/${airframeId}/edit`} className="btn-quiet">Edit</a>}
+      <button type="button" className="btn-quiet" onClick={duplicate} disabled={busy}>Duplicate</button>
+      <button type="button" className="btn-quiet" onClick={retire} disabled={busy}>{retired ? "Return to service" : "Retire"}</button>
+      {!retired && <a href={`/curve-lab/demos/new?airframe=${airframeId}`} className="btn-primary">Build a demo</a>}
+      <p aria-live="polite" className="field-error">{error}</p>
+    </div>
+  );
+}

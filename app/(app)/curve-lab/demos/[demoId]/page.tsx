@@ -1,0 +1,87 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { requirePagePermission, can } from "@/lib/auth/guard";
+import { Caution } from "@/components/caution";
+import { formatSpeed } from "@/components/charts/demo-spec";
+import { listAirframes, snapshotOf } from "@/db/access/airframes";
+import { getDemo, getDemoRevision, listCallsForDemo } from "@/db/access/demos";
+import { DemoWorkbench } from "../../_components/demo-workbench";
+import { assignedRevisionFor } from "../../_lib/student-access";
+
+export const metadata: Metadata = { title: "Demo · Curve Lab" };
+export const dynamic = "force-dynamic";
+
+const KIND_LABEL = { vmd: "Vmd", stall: "Stall speed", gust: "Speed after a gust" } as const;
+
+export default async function DemoPage({ params }: { params: Promise<{ demoId: string }> }) {
+  const { demoId } = await params;
+  const user = await requirePagePermission("demos.view", `/curve-lab/demos/${demoId}`);
+
+  if (!can(user, "demos.edit")) {
+    // A student opens only a demo assigned to them, at the revision they were given.
+    const revisionId = await assignedRevisionFor(user.schoolId, demoId, user.id).catch(() => null);
+    const revision = revisionId ? await getDemoRevision(user.schoolId, revisionId) : null;
+    if (!revision) notFound();
+    return (
+      <div className="space-y-4">
+        <nav aria-label="Breadcrumb" className="text-caption"><Link href="/curve-lab">Curve Lab</Link> / {revision.demoName}</nav>
+        <h1 className="text-display">{revision.demoName}</h1>
+        <Caution />
+        <DemoWorkbench mode="student" demoId={demoId} demoRevisionId={revision.id} revisionNumber={revision.number} name={revision.demoName} initialSpec={revision.spec} />
+      </div>
+    );
+  }
+
+  const demo = await getDemo(user.schoolId, demoId);
+  if (!demo) notFound();
+  const airframes = (await listAirframes(user.schoolId)).map(snapshotOf);
+  const calls = await listCallsForDemo(user, demoId);
+  const canChange = demo.ownerId === user.id || user.roles.includes("chief");
+  const unit = demo.revision.spec.axis.unit;
+  return (
+    <div className="space-y-4">
+      <nav aria-label="Breadcrumb" className="text-caption"><Link href="/curve-lab">Curve Lab</Link> / {demo.name}</nav>
+      <h1 className="text-display">{demo.name}</h1>
+      <p className="text-caption text-ink-soft">Revision {demo.revision.number} · built by {demo.ownerName}{canChange ? "" : " · duplicate it to change your own copy"}</p>
+      <Caution />
+      <DemoWorkbench
+        key={demo.revision.id}
+        mode="builder"
+        demoId={demo.id}
+        demoRevisionId={demo.revision.id}
+        revisionNumber={demo.revision.number}
+        name={demo.name}
+        initialSpec={demo.revision.spec}
+        airframes={airframes}
+        canChange={canChange}
+        inUse={demo.inUse}
+      />
+      <section aria-labelledby="calls-h" className="card space-y-2">
+        <h2 id="calls-h">Call it first: students&apos; calls</h2>
+        {calls.length === 0 ? (
+          <p className="text-ink-soft">No calls from your students yet.</p>
+        ) : (
+          <div className="overflow-x-auto">
+            <table className="data-table" data-testid="calls-table">
+              <thead><tr><th scope="col">Student</th><th scope="col">Call</th><th scope="col">Revision</th><th scope="col">Their call</th><th scope="col">Answer</th><th scope="col">Error</th><th scope="col">When</th></tr></thead>
+              <tbody>
+                {calls.map((c) => (
+                  <tr key={c.id}>
+                    <td>{c.studentName}</td>
+                    <td>{KIND_LABEL[c.markerKind]}</td>
+                    <td className="num">{c.revisionNumber}</td>
+                    <td className="num">{formatSpeed(c.predictedMs, unit)} {c.speedAxis === "true" ? "TAS" : "EAS"}</td>
+                    <td className="num">{formatSpeed(c.actualMs, unit)}</td>
+                    <td className="num">{c.errorMs >= 0 ? "+" : "−"}{formatSpeed(Math.abs(c.errorMs), unit)}</td>
+                    <td className="num">{new Date(c.createdAt).toISOString().slice(0, 16).replace("T", " ")} UTC</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        )}
+      </section>
+    </div>
+  );
+}

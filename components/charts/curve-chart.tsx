@@ -1,0 +1,335 @@
+"use client";
+import { memo, useLayoutEffect, useRef, useState, type MutableRefObject } from "react";
+import { Chart as ChartJS, LineController, LineElement, PointElement, LinearScale, type Chart, type ChartDataset, type ChartOptions, type Plugin } from "chart.js";
+import { Chart as ReactChart } from "react-chartjs-2";
+import { CURVE_KEYS, CURVE_LABELS, speedFromUnit, speedInUnit, speedUnitLabel, type CurveKey, type DemoSpec, type MarkerKey } from "./demo-spec";
+import { MAX_CASES, datasetIndex, fillFrame, newFrame, type Frame } from "./curve-frame";
+import type { CurveSet } from "@/lib/aero";
+
+ChartJS.register(LineController, LineElement, PointElement, LinearScale);
+
+/** Chart colours on the slate board (our own palette; see tailwind.config.ts). */
+export const BOARD = { bg: "#152033", grid: "rgba(244,241,232,0.14)", chalk: "#f4f1e8", dim: "#c9cdd6", stable: "#1f9c8c", unstable: "#d48a16" };
+/** One colour per case, and a dash pattern per curve, so neither colour nor dash alone carries the meaning (the legend names both). */
+export const CASE_COLOURS = ["#f4f1e8", "#7fd1ff", "#ffb3c7", "#c8f07a"] as const;
+export const CURVE_DASH: Record<CurveKey, number[]> = {
+  total: [],
+  zeroLift: [10, 6],
+  liftDependent: [3, 5],
+  idealInduced: [14, 4, 3, 4],
+  increment: [2, 3],
+  power: [18, 6],
+  liftToDrag: [6, 3, 6, 9],
+};
+
+export type ChartVariant = "desk" | "projector";
+
+export interface Concealment {
+  regions: boolean;
+  markers: MarkerKey[];
+  curves: CurveKey[];
+}
+
+interface Overlay {
+  spec: DemoSpec;
+  frame: Frame;
+  focus: number;
+  conceal: Concealment | null;
+  guessMs: number | null;
+  answerMs: number | null;
+  fontPx: number;
+  lineWidth: number;
+}
+
+export interface CurveChartProps {
+  spec: DemoSpec;
+  /** the case whose Vmd splits the chart into speed-unstable and speed-stable */
+  focus: number;
+  variant: ChartVariant;
+  /** hidden until the Call it first reveal */
+  conceal?: Concealment | null;
+  /** the student's call and the answer, on the axis, m/s */
+  guessMs?: number | null;
+  answerMs?: number | null;
+  /** a click on the chart picks a speed (m/s on the axis) */
+  onPickSpeed?: (ms: number) => void;
+  /** receives the one chart instance (for PNG export and the bench) */
+  chartRef?: MutableRefObject<Chart | null>;
+  label: string;
+  className?: string;
+}
+
+let hatch: CanvasPattern | null = null;
+function hatchPattern(ctx: CanvasRenderingContext2D): CanvasPattern | null {
+  if (hatch || typeof document === "undefined") return hatch;
+  const c = document.createElement("canvas");
+  c.width = 12;
+  c.height = 12;
+  const g = c.getContext("2d");
+  if (!g) return null;
+  g.strokeStyle = "rgba(244,241,232,0.45)";
+  g.lineWidth = 2;
+  g.beginPath();
+  g.moveTo(0, 12);
+  g.lineTo(12, 0);
+  g.moveTo(-3, 3);
+  g.lineTo(3, -3);
+  g.moveTo(9, 15);
+  g.lineTo(15, 9);
+  g.stroke();
+  hatch = ctx.createPattern(c, "repeat");
+  return hatch;
+}
+
+function fmt(n: number, digits = 0): string {
+  return n.toLocaleString("en-GB", { maximumFractionDigits: digits, minimumFractionDigits: digits });
+}
+
+/**
+ * The board plugin: background, speed-stability regions either side of the focused case's Vmd
+ * (amber "speed-unstable" below, teal "speed-stable" above), stall hatched, Vmd as a solid rule
+ * with a diamond at minimum drag, Vmp dashed, best glide, the chosen speed and the student's call.
+ */
+function boardPlugin(overlay: MutableRefObject<Overlay>): Plugin<"line"> {
+  return {
+    id: "curveLabBoard",
+    beforeDraw(chart) {
+      const { ctx, width, height } = chart;
+      ctx.save();
+      ctx.fillStyle = BOARD.bg;
+      ctx.fillRect(0, 0, width, height);
+      ctx.restore();
+    },
+    beforeDatasetsDraw(chart) {
+      const o = overlay.current;
+      const c = o.frame.cases[o.focus] ?? o.frame.cases[0];
+      if (!c) return;
+      const { ctx, chartArea: a } = chart;
+      const x = chart.scales.x!;
+      const unit = o.spec.axis.unit;
+      const px = (ms: number) => Math.min(a.right, Math.max(a.left, x.getPixelForValue(speedInUnit(ms, unit))));
+      const conceal = o.conceal;
+      ctx.save();
+      ctx.font = `600 ${o.fontPx}px sans-serif`;
+      ctx.textBaseline = "top";
+      if (!conceal?.regions) {
+        const xv = px(c.vmdMs);
+        ctx.fillStyle = "rgba(212,138,22,0.20)";
+        ctx.fillRect(a.left, a.top, xv - a.left, a.bottom - a.top);
+        ctx.fillStyle = "rgba(31,156,140,0.20)";
+        ctx.fillRect(xv, a.top, a.right - xv, a.bottom - a.top);
+        ctx.fillStyle = "#f2c27a";
+        ctx.textAlign = "right";
+        if (xv - a.left > o.fontPx * 6) ctx.fillText("speed-unstable", xv - 8, a.top + 6);
+        ctx.fillStyle = "#8fe0d4";
+        ctx.textAlign = "left";
+        if (a.right - xv > o.fontPx * 6) ctx.fillText("speed-stable", xv + 8, a.top + 6);
+      }
+      if (o.spec.markers.stall && !conceal?.markers.includes("stall")) {
+        const xs = px(c.stallMs);
+        const pattern = hatchPattern(ctx);
+        if (pattern && xs > a.left) {
+          ctx.fillStyle = pattern;
+          ctx.fillRect(a.left, a.top, xs - a.left, a.bottom - a.top);
+        }
+        ctx.fillStyle = BOARD.chalk;
+        ctx.textAlign = "left";
+        ctx.textBaseline = "bottom";
+        if (xs > a.left) ctx.fillText(`stall ${fmt(speedInUnit(c.stallMs, unit))}`, Math.max(a.left + 4, xs - o.fontPx * 5), a.bottom - 6);
+      }
+      ctx.restore();
+    },
+    afterDatasetsDraw(chart) {
+      const o = overlay.current;
+      const c = o.frame.cases[o.focus] ?? o.frame.cases[0];
+      if (!c) return;
+      const { ctx, chartArea: a } = chart;
+      const x = chart.scales.x!;
+      const y = chart.scales.y!;
+      const unit = o.spec.axis.unit;
+      const u = speedUnitLabel(unit);
+      const inside = (ms: number) => {
+        const v = speedInUnit(ms, unit);
+        return v >= x.min && v <= x.max;
+      };
+      const px = (ms: number) => x.getPixelForValue(speedInUnit(ms, unit));
+      const hidden = (m: MarkerKey) => !o.spec.markers[m] || (o.conceal?.markers.includes(m) ?? false);
+      const lw = o.lineWidth;
+      const rule = (ms: number, dash: number[], colour: string, text: string, row: number) => {
+        const xp = px(ms);
+        ctx.save();
+        ctx.strokeStyle = colour;
+        ctx.lineWidth = lw;
+        ctx.setLineDash(dash);
+        ctx.beginPath();
+        ctx.moveTo(xp, a.top);
+        ctx.lineTo(xp, a.bottom);
+        ctx.stroke();
+        ctx.setLineDash([]);
+        ctx.font = `600 ${o.fontPx}px sans-serif`;
+        ctx.fillStyle = colour;
+        ctx.textBaseline = "top";
+        const w = ctx.measureText(text).width;
+        const tx = xp + 6 + w > a.right ? xp - 6 - w : xp + 6;
+        ctx.fillText(text, tx, a.top + 6 + row * (o.fontPx + 8));
+        ctx.restore();
+      };
+      if (!hidden("vmp") && inside(c.vmpMs)) rule(c.vmpMs, [lw * 3, lw * 2], BOARD.dim, `Vmp ${fmt(speedInUnit(c.vmpMs, unit))} ${u}`, 2);
+      if (!hidden("vmd") && inside(c.vmdMs)) {
+        rule(c.vmdMs, [], BOARD.chalk, `Vmd ${fmt(speedInUnit(c.vmdMs, unit))} ${u}`, 1);
+        // diamond at the bottom of the total-drag bucket
+        const xp = px(c.vmdMs);
+        const yp = Math.min(a.bottom, Math.max(a.top, y.getPixelForValue(c.minDragN)));
+        const r = lw * 3;
+        ctx.save();
+        ctx.fillStyle = BOARD.chalk;
+        ctx.strokeStyle = BOARD.bg;
+        ctx.lineWidth = 2;
+        ctx.beginPath();
+        ctx.moveTo(xp, yp - r);
+        ctx.lineTo(xp + r, yp);
+        ctx.lineTo(xp, yp + r);
+        ctx.lineTo(xp - r, yp);
+        ctx.closePath();
+        ctx.fill();
+        ctx.stroke();
+        ctx.restore();
+      }
+      if (!hidden("bestGlide") && inside(c.vmdMs)) {
+        const xp = px(c.vmdMs);
+        ctx.save();
+        ctx.font = `${o.fontPx}px sans-serif`;
+        ctx.fillStyle = BOARD.dim;
+        ctx.textBaseline = "bottom";
+        ctx.fillText(`best glide ≈ Vmd, ${fmt(c.maxLiftToDrag, 1)}:1`, xp + 6, a.bottom - o.fontPx - 14);
+        ctx.restore();
+      }
+      if (!hidden("chosen") && inside(o.spec.chosenSpeedMs)) {
+        const drag = c.chosenDragN === null ? "" : ` · drag ${fmt(c.chosenDragN)} N`;
+        rule(o.spec.chosenSpeedMs, [lw, lw * 2], "#c8f07a", `${fmt(speedInUnit(o.spec.chosenSpeedMs, unit))} ${u}${drag}`, 3);
+      }
+      if (o.guessMs !== null && inside(o.guessMs)) rule(o.guessMs, [lw * 4, lw * 2, lw, lw * 2], "#ffb3c7", `your call ${fmt(speedInUnit(o.guessMs, unit))} ${u}`, 4);
+      if (o.answerMs !== null && inside(o.answerMs)) rule(o.answerMs, [], "#7fd1ff", `answer ${fmt(speedInUnit(o.answerMs, unit))} ${u}`, 5);
+    },
+    afterRender(chart) {
+      // Counters the bench and the tests read: one redraw per slider input, same instance.
+      const canvas = chart.canvas;
+      canvas.dataset.renders = String(Number(canvas.dataset.renders ?? "0") + 1);
+      canvas.dataset.chartId = String(chart.id);
+    },
+  };
+}
+
+function effectiveSpec(spec: DemoSpec, conceal: Concealment | null): DemoSpec {
+  if (!conceal || conceal.curves.length === 0) return spec;
+  const curves = { ...spec.curves };
+  for (const k of conceal.curves) curves[k] = false;
+  return { ...spec, curves };
+}
+
+function CurveChartInner({ spec, focus, variant, conceal = null, guessMs = null, answerMs = null, onPickSpeed, chartRef, label, className }: CurveChartProps) {
+  const projector = variant === "projector";
+  const fontPx = projector ? 28 : 13;
+  const lineWidth = projector ? 4 : 2.5;
+  const chart = useRef<Chart<"line", { x: number; y: number }[]> | null>(null);
+  const cache = useRef<{ set?: CurveSet<Float64Array> }>({});
+  const pick = useRef(onPickSpeed);
+  pick.current = onPickSpeed;
+  const [frame] = useState(() => fillFrame(newFrame(), effectiveSpec(spec, conceal), cache.current));
+  const overlay = useRef<Overlay>({ spec, frame, focus, conceal, guessMs, answerMs, fontPx, lineWidth });
+
+  // Built once: the chart instance is never recreated; later changes mutate it in place.
+  const [setup] = useState(() => {
+    const datasets: ChartDataset<"line", { x: number; y: number }[]>[] = [];
+    for (let c = 0; c < MAX_CASES; c++) {
+      for (const k of CURVE_KEYS) {
+        const d = datasetIndex(c, k);
+        datasets.push({
+          label: `${CURVE_LABELS[k]}, case ${c + 1}`,
+          data: frame.points[d]!,
+          hidden: !frame.visible[d],
+          parsing: false,
+          normalized: true,
+          borderColor: CASE_COLOURS[c],
+          backgroundColor: CASE_COLOURS[c],
+          borderWidth: k === "total" ? lineWidth + (projector ? 1 : 1) : lineWidth,
+          borderDash: CURVE_DASH[k].map((v) => v * (projector ? 1.6 : 1)),
+          pointRadius: 0,
+          pointHoverRadius: 0,
+          tension: 0,
+          spanGaps: true,
+          yAxisID: k === "power" ? "power" : k === "liftToDrag" ? "ld" : "y",
+        });
+      }
+    }
+    const tick = { color: BOARD.dim, font: { size: fontPx } };
+    const title = (text: string) => ({ display: true, text, color: BOARD.chalk, font: { size: fontPx, weight: 600 as const } });
+    const grid = { color: BOARD.grid, lineWidth: projector ? 1.5 : 1 };
+    const options: ChartOptions<"line"> = {
+      animation: false,
+      responsive: true,
+      maintainAspectRatio: false,
+      events: ["click"],
+      plugins: { legend: { display: false }, tooltip: { enabled: false } },
+      onClick: (e, _els, ch) => {
+        const xScale = ch.scales.x;
+        if (!xScale || e.x === null || e.x === undefined) return;
+        const v = xScale.getValueForPixel(e.x);
+        if (v !== undefined && Number.isFinite(v) && v > 0) pick.current?.(speedFromUnit(v, overlay.current.spec.axis.unit));
+      },
+      scales: {
+        x: { type: "linear", min: frame.xMin, max: frame.xMax, ticks: tick, grid, title: title("") },
+        y: { type: "linear", position: "left", min: 0, max: frame.yMaxDragN, ticks: tick, grid, title: title("Drag (N)") },
+        power: { type: "linear", position: "right", min: 0, max: frame.yMaxPowerKw, display: false, ticks: tick, grid: { drawOnChartArea: false }, title: title("Power required (kW)") },
+        ld: { type: "linear", position: "right", min: 0, max: frame.yMaxLiftToDrag, display: false, ticks: tick, grid: { drawOnChartArea: false }, title: title("L/D") },
+      },
+    };
+    return { data: { datasets }, options, plugins: [boardPlugin(overlay)] };
+  });
+
+  useLayoutEffect(() => {
+    const ch = chart.current;
+    if (chartRef) chartRef.current = ch as unknown as Chart;
+    if (!ch) return;
+    const eff = effectiveSpec(spec, conceal);
+    fillFrame(frame, eff, cache.current);
+    overlay.current = { spec: eff, frame, focus, conceal, guessMs, answerMs, fontPx, lineWidth };
+    const datasets = ch.data.datasets;
+    let power = false;
+    let ld = false;
+    for (let d = 0; d < datasets.length; d++) {
+      const visible = frame.visible[d] ?? false;
+      datasets[d]!.hidden = !visible;
+      if (visible && d % CURVE_KEYS.length === CURVE_KEYS.indexOf("power")) power = true;
+      if (visible && d % CURVE_KEYS.length === CURVE_KEYS.indexOf("liftToDrag")) ld = true;
+    }
+    const scales = ch.options.scales as Record<string, { min?: number; max?: number; display?: boolean; title?: { text?: string } }>;
+    scales.x!.min = frame.xMin;
+    scales.x!.max = frame.xMax;
+    scales.x!.title!.text = `${eff.axis.speed === "true" ? "TAS" : "EAS (= IAS = CAS here)"} (${speedUnitLabel(eff.axis.unit)})`;
+    scales.y!.max = frame.yMaxDragN;
+    scales.power!.max = frame.yMaxPowerKw;
+    scales.power!.display = power;
+    scales.ld!.max = frame.yMaxLiftToDrag;
+    scales.ld!.display = ld;
+    ch.update("none");
+  }, [spec, focus, conceal, guessMs, answerMs, frame, fontPx, lineWidth, chartRef]);
+
+  return (
+    <div className={className} style={{ position: "relative" }}>
+      <ReactChart
+        ref={chart}
+        type="line"
+        data={setup.data}
+        options={setup.options}
+        plugins={setup.plugins}
+        role="img"
+        aria-label={label}
+        data-testid="curve-chart"
+      />
+    </div>
+  );
+}
+
+/** The drag chart: one chart.js instance for the component's life, redrawn in place on every change. */
+export const CurveChart = memo(CurveChartInner);

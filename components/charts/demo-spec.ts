@@ -1,0 +1,220 @@
+import { z } from "zod";
+import {
+  aircraftSchema,
+  atmosphereConditionsSchema,
+  msToKt,
+  ktToMs,
+  minimumDragSpeed,
+  stallSpeed,
+  speedChangeResponse,
+  equivalentToTrue,
+  type Aircraft,
+  type CurveCase,
+} from "@/lib/aero";
+
+/**
+ * A demo's spec: what one demo revision shows. Pure (zod + lib/aero), shared by the builder in
+ * the browser, the server actions that save it, the Projector view and the bench.
+ * Speeds are stored in m/s; the axis unit only changes what is shown.
+ */
+
+export const CONFIGURATION_KEYS = ["clean", "gearDown", "flaps1", "flaps2"] as const;
+export type ConfigurationKey = (typeof CONFIGURATION_KEYS)[number];
+export const CONFIGURATION_LABELS: Record<ConfigurationKey, string> = {
+  clean: "Clean",
+  gearDown: "Gear down",
+  flaps1: "Flaps 1",
+  flaps2: "Flaps 2",
+};
+
+const A = aircraftSchema.shape;
+
+const configurationValues = z.object({
+  /** Zero-lift drag increment over clean (0 for clean). */
+  cd0Increment: z.number().min(0, "cd0Increment must be 0 or more").max(0.5, "cd0Increment must be at most 0.5"),
+  maxLiftCoefficient: A.maxLiftCoefficient,
+});
+export type ConfigurationValues = z.infer<typeof configurationValues>;
+
+/** The airframe's numbers as the demo revision saw them (SI). */
+export const airframeSnapshotSchema = z
+  .object({
+    id: z.string().uuid().nullable(),
+    name: z.string().trim().min(1, "name: enter a name").max(120, "name: at most 120 characters"),
+    emptyMassKg: A.massKg,
+    maxMassKg: A.massKg,
+    wingAreaM2: A.wingAreaM2,
+    wingSpanM: A.wingSpanM,
+    oswaldEfficiency: A.oswaldEfficiency,
+    zeroLiftDragCoefficient: A.zeroLiftDragCoefficient,
+    configurations: z.object({
+      clean: configurationValues,
+      gearDown: configurationValues.nullable(),
+      flaps1: configurationValues.nullable(),
+      flaps2: configurationValues.nullable(),
+    }),
+  })
+  .superRefine((a, ctx) => {
+    if (a.maxMassKg < a.emptyMassKg) ctx.addIssue({ code: "custom", path: ["maxMassKg"], message: "maxMassKg must be at least the empty mass" });
+  });
+export type AirframeSnapshot = z.infer<typeof airframeSnapshotSchema>;
+
+export const caseSchema = z.object({
+  label: z.string().trim().min(1, "label: enter a label").max(40, "label: at most 40 characters"),
+  massKg: A.massKg,
+  altitudeM: atmosphereConditionsSchema.shape.altitudeM,
+  isaDeviationK: z.number().min(-50, "isaDeviationK must be between -50 and 50 K").max(50, "isaDeviationK must be between -50 and 50 K"),
+  configuration: z.enum(CONFIGURATION_KEYS),
+});
+export type DemoCase = z.infer<typeof caseSchema>;
+
+export const CURVE_KEYS = ["zeroLift", "liftDependent", "idealInduced", "increment", "total", "power", "liftToDrag"] as const;
+export type CurveKey = (typeof CURVE_KEYS)[number];
+export const CURVE_LABELS: Record<CurveKey, string> = {
+  zeroLift: "Zero-lift drag",
+  liftDependent: "Lift-dependent drag",
+  idealInduced: "Ideal induced drag",
+  increment: "Lift-dependent increment",
+  total: "Total drag",
+  power: "Power required",
+  liftToDrag: "L/D",
+};
+
+export const MARKER_KEYS = ["vmd", "vmp", "stall", "bestGlide", "chosen"] as const;
+export type MarkerKey = (typeof MARKER_KEYS)[number];
+export const MARKER_LABELS: Record<MarkerKey, string> = {
+  vmd: "Vmd",
+  vmp: "Vmp",
+  stall: "Stall speed",
+  bestGlide: "Best glide",
+  chosen: "Chosen speed",
+};
+
+export const CALL_KINDS = ["vmd", "stall", "gust"] as const;
+export type CallKind = (typeof CALL_KINDS)[number];
+
+export const demoSpecSchema = z
+  .object({
+    version: z.literal(1),
+    airframe: airframeSnapshotSchema,
+    cases: z.array(caseSchema).min(1, "cases: add at least one case").max(4, "cases: at most four cases"),
+    curves: z.record(z.enum(CURVE_KEYS), z.boolean()),
+    markers: z.record(z.enum(MARKER_KEYS), z.boolean()),
+    axis: z.object({ speed: z.enum(["equivalent", "true"]), unit: z.enum(["kt", "ms"]) }),
+    range: z.object({ minSpeedMs: z.number().min(1, "range.minSpeedMs must be at least 1 m/s").max(400), maxSpeedMs: z.number().min(2).max(500, "range.maxSpeedMs must be at most 500 m/s") }),
+    chosenSpeedMs: z.number().min(1, "chosenSpeedMs must be at least 1 m/s").max(500, "chosenSpeedMs must be at most 500 m/s"),
+    /** Call it first: which answer the student places before the reveal (null: no call). */
+    callKind: z.enum(CALL_KINDS).nullable(),
+    notes: z.string().max(4000, "notes: at most 4000 characters"),
+  })
+  .superRefine((s, ctx) => {
+    if (!(s.range.maxSpeedMs > s.range.minSpeedMs)) {
+      ctx.addIssue({ code: "custom", path: ["range", "maxSpeedMs"], message: "range.maxSpeedMs must be greater than the minimum speed" });
+    }
+    s.cases.forEach((c, i) => {
+      if (c.configuration !== "clean" && s.airframe.configurations[c.configuration] === null) {
+        ctx.addIssue({ code: "custom", path: ["cases", i, "configuration"], message: `${CONFIGURATION_LABELS[c.configuration]} is not a configuration of this airframe` });
+      }
+      if (c.massKg < s.airframe.emptyMassKg * 0.999 || c.massKg > s.airframe.maxMassKg * 1.001) {
+        ctx.addIssue({ code: "custom", path: ["cases", i, "massKg"], message: "massKg must be within the airframe's empty to maximum mass" });
+      }
+    });
+  });
+export type DemoSpec = z.infer<typeof demoSpecSchema>;
+
+export const SAMPLE_POINTS = 400;
+
+/** The library's Aircraft for a case: clean numbers plus the configuration's increment and CLmax. */
+export function aircraftFor(airframe: AirframeSnapshot, c: Pick<DemoCase, "massKg" | "configuration">): Aircraft {
+  const conf = airframe.configurations[c.configuration] ?? airframe.configurations.clean;
+  return {
+    massKg: c.massKg,
+    wingAreaM2: airframe.wingAreaM2,
+    wingSpanM: airframe.wingSpanM,
+    oswaldEfficiency: airframe.oswaldEfficiency,
+    zeroLiftDragCoefficient: airframe.zeroLiftDragCoefficient + (c.configuration === "clean" ? 0 : conf.cd0Increment),
+    maxLiftCoefficient: conf.maxLiftCoefficient,
+  };
+}
+
+export function curveCaseFor(airframe: AirframeSnapshot, c: DemoCase): CurveCase {
+  return { aircraft: aircraftFor(airframe, c), altitudeM: c.altitudeM, isaDeviationK: c.isaDeviationK };
+}
+
+/** A speed on the chosen axis (EAS or TAS, m/s) shown in the chosen unit. */
+export function speedInUnit(ms: number, unit: "kt" | "ms"): number {
+  return unit === "kt" ? msToKt(ms) : ms;
+}
+export function speedFromUnit(value: number, unit: "kt" | "ms"): number {
+  return unit === "kt" ? ktToMs(value) : value;
+}
+export function speedUnitLabel(unit: "kt" | "ms"): string {
+  return unit === "kt" ? "kt" : "m/s";
+}
+export function formatSpeed(ms: number, unit: "kt" | "ms"): string {
+  return `${speedInUnit(ms, unit).toFixed(unit === "kt" ? 0 : 1)} ${speedUnitLabel(unit)}`;
+}
+
+/** Vmd of a case on the spec's speed axis, m/s (EAS or TAS). */
+export function vmdOnAxis(spec: Pick<DemoSpec, "airframe" | "axis">, c: DemoCase): number {
+  const v = minimumDragSpeed(aircraftFor(spec.airframe, c), { altitudeM: c.altitudeM, isaDeviationK: c.isaDeviationK });
+  return spec.axis.speed === "true" ? v.trueAirspeedMs : v.equivalentAirspeedMs;
+}
+
+export function stallOnAxis(spec: Pick<DemoSpec, "airframe" | "axis">, c: DemoCase): number {
+  const v = stallSpeed(aircraftFor(spec.airframe, c), { altitudeM: c.altitudeM, isaDeviationK: c.isaDeviationK });
+  return spec.axis.speed === "true" ? v.trueAirspeedMs : v.equivalentAirspeedMs;
+}
+
+/**
+ * Where the speed settles, thrust held, after a gust adds a little speed to an aeroplane trimmed
+ * at `trimmedMs` (on the spec's axis). Above Vmd (speed-stable) it returns to the trimmed speed.
+ * Below Vmd (speed-unstable) it keeps accelerating until the drag again equals the thrust, at
+ * the other speed of the same drag: with D = aV^2 + b/V^2 the two roots of D = T satisfy
+ * V1 V2 = sqrt(b/a) = Vmd^2, so V1 = Vmd^2 / V0 (the same ratio holds for EAS and TAS).
+ * lib/aero's speedChangeResponse says which way the disturbance goes.
+ */
+export function speedAfterGust(spec: Pick<DemoSpec, "airframe" | "axis">, c: DemoCase, trimmedMs: number): number {
+  const aircraft = aircraftFor(spec.airframe, c);
+  const conditions = { altitudeM: c.altitudeM, isaDeviationK: c.isaDeviationK };
+  const trimmedTas = spec.axis.speed === "true" ? trimmedMs : equivalentToTrue(trimmedMs, c.altitudeM, c.isaDeviationK);
+  const response = speedChangeResponse(aircraft, { ...conditions, trueAirspeedMs: trimmedTas }, Math.max(0.05, trimmedTas * 0.01));
+  if (response.dragCurveTendency !== "diverges") return trimmedMs;
+  const vmd = vmdOnAxis(spec, c);
+  return (vmd * vmd) / trimmedMs;
+}
+
+/** The answer of a Call it first on the spec's first case, on its speed axis, m/s. */
+export function callAnswer(spec: DemoSpec, kind: CallKind): number {
+  const c = spec.cases[0];
+  if (!c) throw new Error("spec has no case");
+  if (kind === "vmd") return vmdOnAxis(spec, c);
+  if (kind === "stall") return stallOnAxis(spec, c);
+  return speedAfterGust(spec, c, spec.chosenSpeedMs);
+}
+
+export const CALL_PROMPTS: Record<CallKind, string> = {
+  vmd: "Where is Vmd, the speed of least drag, for the first case?",
+  stall: "Where is the stall speed for the first case?",
+  gust: "Trimmed at the chosen speed with thrust left alone, a gust adds a few knots. Where does the speed settle?",
+};
+
+/** A default spec for an airframe: one case at maximum mass, clean, sea level ISA. */
+export function defaultSpec(airframe: AirframeSnapshot): DemoSpec {
+  const mass = airframe.maxMassKg;
+  const c: DemoCase = { label: "Max mass", massKg: mass, altitudeM: 0, isaDeviationK: 0, configuration: "clean" };
+  const vmd = minimumDragSpeed(aircraftFor(airframe, c), { altitudeM: 0 }).equivalentAirspeedMs;
+  const vs = stallSpeed(aircraftFor(airframe, c), { altitudeM: 0 }).equivalentAirspeedMs;
+  return {
+    version: 1,
+    airframe,
+    cases: [c],
+    curves: { zeroLift: true, liftDependent: true, idealInduced: false, increment: false, total: true, power: false, liftToDrag: false },
+    markers: { vmd: true, vmp: true, stall: true, bestGlide: false, chosen: false },
+    axis: { speed: "equivalent", unit: "kt" },
+    range: { minSpeedMs: Math.max(5, Math.floor(vs * 0.7)), maxSpeedMs: Math.ceil(vmd * 2.4) },
+    chosenSpeedMs: Math.round(vmd * 0.85),
+    callKind: null,
+    notes: "",
+  };
+}
