@@ -5,7 +5,7 @@ import { addStudentSchema, moveStudentSchema } from "@/lib/timetable/schemas";
 import { sequelize } from "../index";
 import { createPerson } from "./people";
 import { addToCohort, enrol, linkSponsor, moveStudentToCohort } from "./cohorts";
-import { getSchool } from "./school";
+import { schoolInTx } from "./sessions";
 import { enqueueMail } from "./outbox";
 import { createSetPasswordLink } from "./set-password";
 import { composeMail } from "@/lib/mail/compose";
@@ -217,9 +217,9 @@ async function sendInvitation(
   t: Transaction,
   p: { schoolId: string; personId: string; name: string; email: string; invitedBy: string; role: "student" | "sponsor" },
 ): Promise<void> {
-  const school = await getSchool(p.schoolId);
+  const school = await schoolInTx(p.schoolId, t);
   const link = await createSetPasswordLink(t, p.personId);
-  const mail = composeMail("invitation", { name: p.name, setPasswordUrl: link.url, expiresAt: link.expiresAt }, { name: school.name, timeZone: school.timeZone, senderName: school.settings.mailSenderName });
+  const mail = composeMail("invitation", { name: p.name, setPasswordUrl: link.url, expiresAt: link.expiresAt }, school);
   await enqueueMail(t, { schoolId: p.schoolId, kind: "invitation", idempotencyKey: `invitation:${p.personId}:1`, recipientId: p.personId, to: p.email, ...mail });
 }
 
@@ -235,7 +235,7 @@ export async function addStudentTx(
 ): Promise<{ studentId: string; sponsorId: string | null; invitations: number }> {
   const cohort = (await cohortsManagedBy(user, t)).find((c) => c.id === input.cohortId);
   if (!cohort) throw new HttpError(404, "cohortId: no such cohort that you may add to", "cohortId");
-  const school = await getSchool(user.schoolId);
+  const school = await schoolInTx(user.schoolId, t);
   const today = dateInZone(now(), school.timeZone);
   const student = await createPerson({ schoolId: user.schoolId, name: input.name, email: input.email, roles: ["student"] }, t).catch((e) => {
     if (e instanceof HttpError) throw new HttpError(409, "e-mail: already belongs to an account", "email");

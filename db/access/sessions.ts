@@ -15,6 +15,16 @@ import type { scheduleSessionSchema, rescheduleSessionSchema, cancelSessionSchem
 
 type Db = { transaction?: Transaction };
 
+/** The school's name, time zone and mail sender, read inside the caller's transaction (the seed creates the school in it). */
+export async function schoolInTx(schoolId: string, t?: Transaction): Promise<{ name: string; timeZone: string; senderName?: string }> {
+  const [row] = await sequelize.query<{ name: string; timeZone: string; senderName: string | null }>(
+    `SELECT name, time_zone AS "timeZone", settings->>'mailSenderName' AS "senderName" FROM schools WHERE id = :id`,
+    { replacements: { id: schoolId }, type: QueryTypes.SELECT, transaction: t },
+  );
+  if (!row) throw new Error("School not found");
+  return { name: row.name, timeZone: row.timeZone, senderName: row.senderName ?? undefined };
+}
+
 function isChief(user: CurrentUser) {
   return user.roles.includes("chief");
 }
@@ -135,7 +145,7 @@ export interface ScheduledSession {
  * double-booking of the instructor, the room or a student.
  */
 export async function scheduleSession(user: CurrentUser, input: z.output<typeof scheduleSessionSchema>, t: Transaction): Promise<ScheduledSession> {
-  const school = await getSchool(user.schoolId);
+  const school = await schoolInTx(user.schoolId, t);
   const [briefing] = await sequelize.query<{ id: string; revisionId: string | null; courseId: string }>(
     `SELECT id, current_revision_id AS "revisionId", course_id AS "courseId" FROM briefings WHERE id = :id AND school_id = :s`,
     { replacements: { id: input.briefingId, s: user.schoolId }, type: QueryTypes.SELECT, transaction: t },
@@ -217,7 +227,7 @@ async function attendeesToTell(sessionId: string, t: Transaction) {
  * through the outbox in the same transaction; the mail's key carries the new sequence.
  */
 export async function rescheduleSession(user: CurrentUser, input: z.output<typeof rescheduleSessionSchema>, t: Transaction) {
-  const school = await getSchool(user.schoolId);
+  const school = await schoolInTx(user.schoolId, t);
   const s = await lockSessionForChange(user, input.sessionId, t);
   if (s.status !== "scheduled") throw new HttpError(409, "sessionId: a cancelled session cannot be moved; schedule a new one", "sessionId");
   const instructor = await requireInstructor(user.schoolId, input.instructorId, t);
@@ -233,7 +243,7 @@ export async function rescheduleSession(user: CurrentUser, input: z.output<typeo
     );
     return row!.sequence;
   });
-  const mailSchool = { name: school.name, timeZone: school.timeZone, senderName: school.settings.mailSenderName };
+  const mailSchool = school;
   for (const a of attendees) {
     const mail = composeMail(
       "session.rescheduled",
@@ -247,7 +257,7 @@ export async function rescheduleSession(user: CurrentUser, input: z.output<typeo
 
 /** Cancels a session with a reason; it stays (and stays in calendar feeds) as cancelled, and blocks nothing. */
 export async function cancelSession(user: CurrentUser, input: z.output<typeof cancelSessionSchema>, t: Transaction) {
-  const school = await getSchool(user.schoolId);
+  const school = await schoolInTx(user.schoolId, t);
   const s = await lockSessionForChange(user, input.sessionId, t);
   if (s.status !== "scheduled") throw new HttpError(409, "sessionId: the session is already cancelled", "sessionId");
   const [recorded] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM ground_log_entries WHERE session_id = :id`, {
@@ -264,7 +274,7 @@ export async function cancelSession(user: CurrentUser, input: z.output<typeof ca
     replacements: { id: s.id }, transaction: t,
   });
   const attendees = await attendeesToTell(s.id, t);
-  const mailSchool = { name: school.name, timeZone: school.timeZone, senderName: school.settings.mailSenderName };
+  const mailSchool = school;
   for (const a of attendees) {
     const mail = composeMail("session.cancelled", { name: a.name, briefingTitle: s.title, startsAt: new Date(s.startsAt), room: s.room, reason: input.reason }, mailSchool);
     await enqueueMail(t, { schoolId: user.schoolId, kind: "session.cancelled", idempotencyKey: `session.cancelled:${s.id}:${sequence}:${a.id}`, recipientId: a.id, to: a.email, ...mail });

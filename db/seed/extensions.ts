@@ -1,4 +1,5 @@
 import type { Transaction } from "sequelize";
+import { seedTimetable } from "./timetable";
 import { seedCurveLab } from "./curve-lab";
 
 export interface SeedContext {
@@ -20,6 +21,8 @@ export interface SeedContext {
  */
 const extensions: { name: string; run: (ctx: SeedContext) => Promise<void> }[] = [
   { name: "curve-lab", run: seedCurveLab },
+  // the Timetable schedules the briefings: keep it after the briefings seed
+  { name: "timetable", run: seedTimetable },
 ];
 
 export async function runSeedExtensions(ctx: SeedContext): Promise<void> {
