@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
-import { requirePagePermission } from "@/lib/auth/guard";
+import Link from "next/link";
+import { requirePagePermission, can } from "@/lib/auth/guard";
 import { getSyllabusRevision, listCoursesWithLatestRevision } from "@/db/access/syllabus";
 import { getActiveEnrolment } from "@/db/access/cohorts";
 
@@ -20,7 +21,10 @@ export default async function SyllabusPage() {
   const revisions = (await Promise.all(revisionIds.map((id) => getSyllabusRevision(user.schoolId, id)))).filter((r) => r !== null);
   return (
     <div className="space-y-6">
-      <h1 className="text-display">Syllabus</h1>
+      <header className="flex flex-wrap items-end justify-between gap-3">
+        <h1 className="text-display">Syllabus</h1>
+        {can(user, "syllabus.edit") && <Link href="/syllabus/revisions" className="btn-quiet">Revisions and enrolments</Link>}
+      </header>
       {revisions.length === 0 && <p className="text-ink-soft">No syllabus to show.</p>}
       {revisions.map((rev) => (
         <section key={rev.revisionId} className="space-y-4">
