@@ -1,6 +1,7 @@
 import type { Transaction } from "sequelize";
 import { seedTimetable } from "./timetable";
 import { seedCurveLab } from "./curve-lab";
+import { seedBriefings } from "./briefings";
 
 export interface SeedContext {
   t: Transaction;
@@ -21,6 +22,8 @@ export interface SeedContext {
  */
 const extensions: { name: string; run: (ctx: SeedContext) => Promise<void> }[] = [
   { name: "curve-lab", run: seedCurveLab },
+  // briefings use Curve Lab's demos: keep it after curve-lab
+  { name: "briefings", run: seedBriefings },
   // the Timetable schedules the briefings: keep it after the briefings seed
   { name: "timetable", run: seedTimetable },
 ];

@@ -23,4 +23,12 @@ export const PAGES: CrawlPage[] = [
   { name: "not-found", path: "/no-such-page", roles: ["signedOut", "student"], waitFor: "h1", status: 404 },
 
   // ---- other areas: add your pages below ----
+  // ---- mail ----
+  { name: "mail-tray", path: "/mail", roles: ["chief"], waitFor: "main h1" },
+  { name: "mail-outbox", path: "/mail/outbox", roles: ["chief"], waitFor: "main h1" },
+  { name: "mail-notes", path: "/mail/notes", roles: ["chief", "instructor"], waitFor: "main h1" },
+  { name: "mail-tray-forbidden", path: "/mail", roles: ["instructor"], waitFor: "h1", status: 403 },
+  { name: "settings", path: "/settings", roles: ["chief"], waitFor: "main h1" },
+  { name: "set-password-invalid", path: "/set-password/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },
+  { name: "unsubscribe-invalid", path: "/unsubscribe/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },
 ];

@@ -111,4 +111,48 @@ export const TABLE: AuthzTable = {
   },
 
   // ---- other areas: add your blocks below ----
+
+  // ---- mail ----
+  // Public by design (the signed token is the credential): a forged token is refused for everyone.
+  "POST /api/unsubscribe": {
+    request: () => ({ query: "token=djE6Zm9yZ2Vk.AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA", body: {} }),
+    expect: { signedOut: 400, chief: 400, instructor: 400, student: 400, sponsor: 400 },
+  },
+  // Public by design (the one-time token is the credential): an unknown token changes nothing.
+  "action app/(public)/set-password/[token]/actions.ts#setPasswordAction": {
+    request: () => ({ args: [{ token: "x".repeat(43), password: "a-long-enough-password", confirm: "a-long-enough-password" }] }),
+    expect: { signedOut: 400, chief: 400, instructor: 400, student: 400, sponsor: 400 },
+  },
+  "action app/(app)/settings/actions.ts#saveSchoolSettingsAction": {
+    // the seeded values, so the positive call changes nothing other tests rely on
+    request: () => ({
+      args: [{ mailSenderName: "Larkhollow Flying School", reminderLeadHours: 24, weeklyLetterDay: 5, checkValidityDays: 60, stageCheckPassMarkPercent: 80, lateEntryDays: 7, authority: "Larkhollow regional training standard (fictional)" }],
+    }),
+    expect: {
+      signedOut: 401,
+      chief: { status: 200, check: (res) => expect(res.json).toMatchObject({ ok: true, data: { saved: true } }) },
+      instructor: 403,
+      student: 403,
+      sponsor: 403,
+    },
+    mutates: true,
+  },
+  "action app/(app)/mail/actions.ts#retryMailAction": {
+    // no failed mail with this id in the chief's school: 404 after the permission check
+    request: () => ({ args: [{ outboxId: "00000000-0000-4000-8000-000000000000" }] }),
+    expect: { signedOut: 401, chief: 404, instructor: 403, student: 403, sponsor: 403 },
+  },
+  "action app/(app)/mail/actions.ts#addSponsorNoteAction": {
+    // the chief writes about the sponsored student; the Kestrel lead may not write about a Merlin student
+    request: (fx, caller) => ({ args: [{ studentId: caller === "instructor" ? fx.otherStudent : fx.student, body: "Harness note for the sponsor." }] }),
+    expect: {
+      signedOut: 401,
+      chief: { status: 200, check: (res) => expect(res.json).toMatchObject({ ok: true }) },
+      instructor: 404,
+      student: 403,
+      sponsor: 403,
+    },
+    mutates: true,
+    secrets: (fx) => [fx.otherStudent],
+  },
 };
