@@ -19,4 +19,8 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/timetable", label: "Timetable", permission: "timetable.view" },
   { href: "/roster", label: "Roster", permission: "roster.manage" },
   { href: "/ground-log", label: "Ground log", permission: "groundlog.view" },
+  // mail
+  { href: "/mail", label: "Mail tray", permission: "mail.tray" },
+  { href: "/mail/notes", label: "Notes for sponsors", permission: "sponsornotes.write" },
+  { href: "/settings", label: "Settings", permission: "settings.edit" },
 ];

@@ -36,6 +36,7 @@ export const PERMISSIONS = {
   "audit.verify": { roles: ["chief"], description: "Verify the audit trail's hash chain" },
   "progress.view": { roles: ["chief", "instructor", "student", "sponsor"], description: "See a Progress map (scoped to the caller)" },
   "mail.tray": { roles: ["chief"], description: "See captured mail (Mail tray) and outbox states" },
+  "sponsornotes.write": { roles: ["chief", "instructor"], description: "Write a note for a student's sponsors, carried by the next Weekly letter" },
   "settings.edit": { roles: ["chief"], description: "Change school settings: mail sender, reminder lead time, letter day, limits" },
 } as const satisfies Record<string, { roles: readonly Role[]; description: string }>;
 

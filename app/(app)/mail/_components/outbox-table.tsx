@@ -1,0 +1,55 @@
+import type { OutboxListRow, OutboxState } from "@/db/access/mail";
+import { formatInZone } from "@/lib/time";
+import { RetryButton } from "./retry-button";
+
+const STATE_STYLE: Record<OutboxState, string> = {
+  queued: "bg-wing-50 text-wing-800",
+  sent: "bg-solid-100 text-solid-800",
+  failed: "bg-notyet-100 text-notyet-800",
+  cancelled: "bg-paper-deep text-ink-soft",
+};
+
+export function StateBadge({ state }: { state: OutboxState }) {
+  return <span className={`inline-block rounded px-2 py-0.5 text-caption font-semibold ${STATE_STYLE[state]}`}>{state}</span>;
+}
+
+/** The outbox as a table: state in words (never colour alone), attempts, error, and a retry for failed mail. */
+export function OutboxTable({ rows, timeZone }: { rows: OutboxListRow[]; timeZone: string }) {
+  if (rows.length === 0) return <p className="text-ink-soft">No mail here.</p>;
+  const when = (d: Date | null) => (d ? formatInZone(new Date(d), timeZone, "d MMM HH:mm") : "—");
+  return (
+    <div className="overflow-x-auto">
+      <table className="data-table" data-testid="outbox-table">
+        <thead>
+          <tr>
+            <th scope="col">State</th>
+            <th scope="col">Kind</th>
+            <th scope="col">To</th>
+            <th scope="col">Subject</th>
+            <th scope="col">Due</th>
+            <th scope="col">Sent</th>
+            <th scope="col">Attempts</th>
+            <th scope="col">Last error</th>
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map((r) => (
+            <tr key={r.id}>
+              <td><StateBadge state={r.state} /></td>
+              <td className="whitespace-nowrap">{r.kind}</td>
+              <td className="break-all">{r.to}</td>
+              <td>{r.subject}</td>
+              <td className="num whitespace-nowrap">{when(r.dueAt)}</td>
+              <td className="num whitespace-nowrap">{when(r.sentAt)}</td>
+              <td className="num">{r.attempts}</td>
+              <td className="text-caption">
+                {r.lastError ?? "—"}
+                {r.state === "failed" && <div className="mt-1"><RetryButton outboxId={r.id} /></div>}
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}

@@ -1,0 +1,21 @@
+"use server";
+import { revalidatePath } from "next/cache";
+import { runAction } from "@/lib/actions/run-action";
+import { retryMailSchema, sponsorNoteSchema } from "@/lib/mail/schemas";
+import { addSponsorNote, retryFailedMail } from "@/db/access/mail";
+
+/** Puts a failed mail of the caller's school back in the queue. */
+export async function retryMailAction(input: unknown) {
+  const res = await runAction("mail.tray", retryMailSchema, input, (data, { user, t }) => retryFailedMail(user.schoolId, data.outboxId, t));
+  if (res.ok) revalidatePath("/mail/outbox");
+  return res;
+}
+
+/** A note for a student's sponsors; the next Weekly letter carries it. Instructors: their cohorts' students only. */
+export async function addSponsorNoteAction(input: unknown) {
+  const res = await runAction("sponsornotes.write", sponsorNoteSchema, input, (data, { user, t }) => addSponsorNote(user, data, t), {
+    idempotent: "sponsor-note.add",
+  });
+  if (res.ok) revalidatePath("/mail/notes");
+  return res;
+}
