@@ -274,8 +274,11 @@ export async function addStudentTx(
 
 /** Moves a student to another cohort from a date; the old membership is kept with its end date. */
 export async function moveStudent(user: CurrentUser, input: z.output<typeof moveStudentSchema>, t: Transaction) {
-  const managed = await cohortsManagedBy(user, t);
-  if (!managed.some((c) => c.id === input.toCohortId)) throw new HttpError(404, "toCohortId: no such cohort that you may move to", "toCohortId");
+  // the target may be any cohort of the school (the student moves to another lead); the caller must lead the current one
+  const [target] = await sequelize.query<{ id: string }>(`SELECT id FROM cohorts WHERE id = :c AND school_id = :s`, {
+    replacements: { c: input.toCohortId, s: user.schoolId }, type: QueryTypes.SELECT, transaction: t,
+  });
+  if (!target) throw new HttpError(404, "toCohortId: no such cohort", "toCohortId");
   const [current] = await sequelize.query<{ cohortId: string; fromDate: string; leadInstructorId: string; schoolId: string }>(
     `SELECT m.cohort_id AS "cohortId", m.from_date AS "fromDate", c.lead_instructor_id AS "leadInstructorId", c.school_id AS "schoolId"
        FROM cohort_memberships m JOIN cohorts c ON c.id = m.cohort_id

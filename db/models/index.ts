@@ -7,3 +7,5 @@ export * from "./airframe";
 export * from "./demo";
 export * from "./briefing";
 export * from "./assignment";
+export * from "./session";
+export * from "./ground-log";

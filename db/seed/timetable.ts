@@ -89,8 +89,9 @@ export async function seedTimetable(ctx: SeedContext): Promise<void> {
     );
     await recordAttendance(chief, recordAttendanceSchema.parse({ sessionId: s.id, lines: attendees.map((a, i) => lineFor(n, i, a.id)) }), ctx.t);
   }
-  // Taught three days ago, attendance not yet recorded: shows on Tomasz's Today.
+  // Taught two and three days ago, attendance not yet recorded: shows on Tomasz's and Priya's Today.
   await schedule(plan(1), ctx.day(-3), "14:00", 60, HANGAR, ctx.people.instructor, ctx.cohorts.a);
+  await schedule(plan(0), ctx.day(-2), "10:00", 60, ROOM2, ctx.people.priya, ctx.cohorts.b);
 
   // Upcoming: this week and next, both cohorts; one cancelled so the Timetable and feeds show it.
   const upcoming: [number, string, string, number, string, string, string][] = [

@@ -23,6 +23,15 @@ export const PAGES: CrawlPage[] = [
   { name: "not-found", path: "/no-such-page", roles: ["signedOut", "student"], waitFor: "h1", status: 404 },
 
   // ---- other areas: add your pages below ----
+  // ---- timetable, rosters, Ground log ----
+  { name: "timetable-week", path: "/timetable", roles: ["chief", "instructor", "student"], waitFor: "main h1" },
+  { name: "timetable-list", path: "/timetable/list", roles: ["chief", "instructor", "student"], waitFor: "[data-testid=sessions-table] tbody tr" },
+  { name: "timetable-new", path: "/timetable/new", roles: ["chief", "instructor"], waitFor: "form" },
+  { name: "timetable-session", path: (fx) => `/timetable/${fx.kestrelSessionSoon}`, roles: ["chief", "instructor", "student"], waitFor: "main h1" },
+  { name: "timetable-attendance", path: (fx) => `/timetable/${fx.kestrelSessionRecorded}`, roles: ["chief", "instructor"], waitFor: "[data-testid=attendance-recorded]" },
+  { name: "timetable-forbidden", path: "/timetable", roles: ["sponsor"], waitFor: "h1", status: 403 },
+  { name: "roster", path: "/roster", roles: ["chief", "instructor"], waitFor: "main h1" },
+  { name: "ground-log", path: "/ground-log", roles: ["chief", "instructor", "student", "sponsor"], waitFor: "main h1" },
   // ---- mail ----
   { name: "mail-tray", path: "/mail", roles: ["chief"], waitFor: "main h1" },
   { name: "mail-outbox", path: "/mail/outbox", roles: ["chief"], waitFor: "main h1" },

@@ -50,7 +50,7 @@ export default async function RosterPage() {
                         ))}
                       </td>
                       <td>{m.sponsors.length ? m.sponsors.join(", ") : "—"}</td>
-                      <td><MoveStudent studentId={m.studentId} studentName={m.name} currentCohortId={c.id} cohorts={allCohorts.filter((x) => managed.some((y) => y.id === x.id))} today={today} /></td>
+                      <td><MoveStudent studentId={m.studentId} studentName={m.name} currentCohortId={c.id} cohorts={allCohorts} today={today} /></td>
                     </tr>
                   ))}
                   {members.length === 0 && <tr><td colSpan={5} className="text-ink-soft">No students in this cohort now.</td></tr>}

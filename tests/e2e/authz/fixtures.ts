@@ -6,6 +6,7 @@
 // position. Add the name to the `Fixtures` interface in types.ts to have it typed as `string`.
 import type { Client } from "pg";
 import type { Fixtures } from "./types";
+import { TIMETABLE_LOOKUPS } from "./timetable-fixtures";
 
 const person = (email: string) => ({ sql: `SELECT id FROM people WHERE lower(email) = lower($1)`, params: [email] });
 
@@ -31,6 +32,8 @@ export const LOOKUPS: Record<string, { sql: string; params?: unknown[] }> = {
   lockedPerson2: person("locked2.harness@chalkwing.test"),
 
   // ---- other areas: add your lookups below ----
+  // ---- timetable ----
+  ...TIMETABLE_LOOKUPS,
 };
 
 export async function loadFixtures(c: Client): Promise<Fixtures> {

@@ -22,6 +22,7 @@
 // Fixture ids (fx.*) come from fixtures.ts: add a lookup there for anything new you need.
 // Other areas: add your rows in your own block below, marked with your area's name.
 import type { AuthzTable, HarnessResponse } from "./types";
+import { TIMETABLE_TABLE } from "./timetable-table";
 
 function rowsOf(res: HarnessResponse): { id: string; primary: string }[] {
   const j = res.json as { rows?: { id: string; primary: string }[] } | undefined;
@@ -111,6 +112,8 @@ export const TABLE: AuthzTable = {
   },
 
   // ---- other areas: add your blocks below ----
+  // ---- timetable, rosters, attendance, Ground log (timetable-table.ts) ----
+  ...TIMETABLE_TABLE,
 
   // ---- mail ----
   // Public by design (the signed token is the credential): a forged token is refused for everyone.
