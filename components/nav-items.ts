@@ -19,6 +19,10 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/timetable", label: "Timetable", permission: "timetable.view" },
   { href: "/roster", label: "Roster", permission: "roster.manage" },
   { href: "/ground-log", label: "Ground log", permission: "groundlog.view" },
+  // records
+  { href: "/records", label: "Records", permission: "checks.record" },
+  { href: "/progress", label: "Progress map", permission: "progress.view" },
+  { href: "/register", label: "Sign-off register", permission: "register.view" },
   // mail
   { href: "/mail", label: "Mail tray", permission: "mail.tray" },
   { href: "/mail/notes", label: "Notes for sponsors", permission: "sponsornotes.write" },

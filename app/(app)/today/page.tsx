@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { FocusList } from "./_components/focus-list";
 import { ChiefToday } from "./_components/chief-today";
+import { RecordsToday } from "./_components/records-today";
 import { InstructorToday } from "./_components/instructor-today";
 import { StudentToday } from "./_components/student-today";
 import { SponsorToday } from "./_components/sponsor-today";
@@ -25,6 +26,7 @@ export default async function TodayPage() {
         <p className="text-ink-soft">{formatInZone(now(), school.timeZone, "EEEE d MMMM yyyy")}</p>
       </header>
       {user.roles.includes("chief") && <ChiefToday user={user} />}
+      {user.roles.includes("chief") && <RecordsToday user={user} />}
       {user.roles.includes("instructor") && <InstructorToday user={user} />}
       {user.roles.includes("instructor") && <AttendanceDue user={user} />}
       {user.roles.includes("student") && <StudentToday user={user} />}

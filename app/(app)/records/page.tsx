@@ -1,0 +1,61 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { QueryTypes } from "sequelize";
+import { requirePagePermission, can } from "@/lib/auth/guard";
+import { progressStudentsFor } from "@/db/access/records";
+import { sequelize } from "@/db/index";
+import { DesignateToggle } from "./_components/designate-toggle";
+
+export const metadata: Metadata = { title: "Records" };
+export const dynamic = "force-dynamic";
+
+export default async function RecordsPage() {
+  const user = await requirePagePermission("checks.record", "/records");
+  const students = await progressStudentsFor({ ...user, roles: user.roles.filter((r) => r === "chief" || r === "instructor") });
+  const byCohort = new Map<string, typeof students>();
+  for (const s of students) byCohort.set(s.cohortName ?? "No cohort", [...(byCohort.get(s.cohortName ?? "No cohort") ?? []), s]);
+  const instructors = can(user, "stagechecks.designate")
+    ? await sequelize.query<{ id: string; name: string; check_instructor: boolean }>(
+        `SELECT p.id, p.name, bool_or(q.check_instructor) AS check_instructor FROM people p JOIN instructor_qualifications q ON q.person_id = p.id
+          WHERE p.school_id = :s AND 'instructor' = ANY(p.roles) AND p.active GROUP BY p.id, p.name ORDER BY p.name`,
+        { replacements: { s: user.schoolId }, type: QueryTypes.SELECT },
+      )
+    : [];
+  return (
+    <div className="space-y-6">
+      <header>
+        <h1 className="text-display">Records</h1>
+        <p className="text-ink-soft">Choose a student to record an oral check, sign off items or conduct a stage check.</p>
+      </header>
+      {students.length === 0 && <p className="text-ink-soft">No students to show.</p>}
+      {[...byCohort.entries()].map(([cohort, list]) => (
+        <section key={cohort} className="card" aria-labelledby={`c-${cohort}`}>
+          <h2 id={`c-${cohort}`}>{cohort}</h2>
+          <ul className="mt-2 grid gap-2 sm:grid-cols-2 lg:grid-cols-3">
+            {list.map((s) => (
+              <li key={s.id}>
+                <Link href={`/records/${s.id}`} className="btn-quiet w-full justify-start" data-testid="record-student">
+                  {s.name}
+                </Link>
+              </li>
+            ))}
+          </ul>
+        </section>
+      ))}
+      {instructors.length > 0 && (
+        <section className="card" aria-labelledby="check-instructors">
+          <h2 id="check-instructors">Check instructors</h2>
+          <p className="text-caption text-ink-soft">Designated check instructors may conduct stage checks, except for students they lead.</p>
+          <ul className="mt-2 space-y-2">
+            {instructors.map((i) => (
+              <li key={i.id} className="flex flex-wrap items-center justify-between gap-2">
+                <span>{i.name}</span>
+                <DesignateToggle personId={i.id} name={i.name} designated={i.check_instructor} />
+              </li>
+            ))}
+          </ul>
+        </section>
+      )}
+    </div>
+  );
+}

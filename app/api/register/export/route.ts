@@ -1,0 +1,40 @@
+// GET /api/register/export: the Sign-off register as CSV (same filters as the page), with the audit chain's head hash.
+import { route, parseQuery } from "@/lib/http/api";
+import { signOffRegister } from "@/db/access/records";
+import { chainHead } from "@/db/access/audit";
+import { registerQuerySchema, toFilter } from "@/lib/records/register-query";
+import { toCsv } from "@/lib/csv";
+import { now } from "@/lib/clock";
+
+export const GET = route("register.view", async ({ req, user }) => {
+  const q = parseQuery(req, registerQuerySchema);
+  const { rows } = await signOffRegister(user, toFilter(q));
+  const head = await chainHead(user.schoolId);
+  const header = ["kind", "date", "student", "cohort", "stage", "item", "title", "signer or examiner", "basis", "state", "reason", "watch notes", "recorded at", "signature hash"];
+  const body = rows.map((r) => [
+    r.kind === "sign_off" ? "sign-off" : "stage check",
+    r.date,
+    r.studentName,
+    r.cohortName ?? "",
+    r.stageCode,
+    r.itemCode ?? "",
+    r.itemTitle ?? "",
+    r.signerName,
+    r.basis,
+    r.state,
+    r.reason ?? "",
+    r.notes.map((n) => `${n.label}: ${n.detail}`).join(" | "),
+    r.recordedAt.toISOString(),
+    r.signatureHash,
+  ]);
+  const trailer = [[], ["audit chain head hash", head.hash], ["audit chain length", String(head.position)], ["exported at", now().toISOString()]];
+  const csv = toCsv(header, [...body, ...trailer]);
+  return new Response(csv, {
+    headers: {
+      "Content-Type": "text/csv; charset=utf-8",
+      "Content-Disposition": `attachment; filename="sign-off-register-${now().toISOString().slice(0, 10)}.csv"`,
+      "Cache-Control": "no-store",
+      "X-Audit-Head": head.hash,
+    },
+  });
+});
