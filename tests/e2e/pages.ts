@@ -23,6 +23,17 @@ export const PAGES: CrawlPage[] = [
   { name: "not-found", path: "/no-such-page", roles: ["signedOut", "student"], waitFor: "h1", status: 404 },
 
   // ---- other areas: add your pages below ----
+  // ---- Curve Lab ----
+  { name: "curve-lab", path: "/curve-lab", roles: ["chief", "instructor", "student"], waitFor: "[data-testid=demo-list] tbody tr" },
+  { name: "curve-lab-forbidden", path: "/curve-lab", roles: ["sponsor"], waitFor: "h1", status: 403 },
+  { name: "curve-lab-demo", path: (fx) => `/curve-lab/demos/${fx.curveLabBucketDemo}`, roles: ["chief", "instructor", "student"], waitFor: "[data-testid=curve-chart]" },
+  { name: "curve-lab-projector", path: (fx) => `/curve-lab/demos/${fx.curveLabBucketDemo}/projector`, roles: ["chief", "instructor", "student"], waitFor: "[data-testid=key-legend]" },
+  { name: "curve-lab-demo-new", path: "/curve-lab/demos/new", roles: ["chief", "instructor"], waitFor: "[data-testid=curve-chart]" },
+  { name: "curve-lab-airframes", path: "/curve-lab/airframes", roles: ["chief", "instructor"], waitFor: "[data-testid=airframe-list] tbody tr" },
+  { name: "curve-lab-airframes-forbidden", path: "/curve-lab/airframes", roles: ["student"], waitFor: "h1", status: 403 },
+  { name: "curve-lab-airframe", path: (fx) => `/curve-lab/airframes/${fx.curveLabWrenAirframe}`, roles: ["chief", "instructor"], waitFor: "[data-testid=derived-figures]" },
+  { name: "curve-lab-airframe-new", path: "/curve-lab/airframes/new", roles: ["chief", "instructor"], waitFor: "[data-testid=airframe-form]" },
+  { name: "curve-lab-airframe-edit", path: (fx) => `/curve-lab/airframes/${fx.curveLabWrenAirframe}/edit`, roles: ["chief", "instructor"], waitFor: "[data-testid=airframe-form]" },
   // ---- timetable, rosters, Ground log ----
   { name: "timetable-week", path: "/timetable", roles: ["chief", "instructor", "student"], waitFor: "main h1" },
   { name: "timetable-list", path: "/timetable/list", roles: ["chief", "instructor", "student"], waitFor: "[data-testid=sessions-table] tbody tr" },

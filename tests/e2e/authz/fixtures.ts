@@ -6,6 +6,7 @@
 // position. Add the name to the `Fixtures` interface in types.ts to have it typed as `string`.
 import type { Client } from "pg";
 import type { Fixtures } from "./types";
+import { CURVE_LAB_LOOKUPS } from "./curve-lab-fixtures";
 import { TIMETABLE_LOOKUPS } from "./timetable-fixtures";
 
 const person = (email: string) => ({ sql: `SELECT id FROM people WHERE lower(email) = lower($1)`, params: [email] });
@@ -32,6 +33,8 @@ export const LOOKUPS: Record<string, { sql: string; params?: unknown[] }> = {
   lockedPerson2: person("locked2.harness@chalkwing.test"),
 
   // ---- other areas: add your lookups below ----
+  // ---- Curve Lab ----
+  ...CURVE_LAB_LOOKUPS,
   // ---- timetable ----
   ...TIMETABLE_LOOKUPS,
 };

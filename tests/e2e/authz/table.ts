@@ -22,6 +22,7 @@
 // Fixture ids (fx.*) come from fixtures.ts: add a lookup there for anything new you need.
 // Other areas: add your rows in your own block below, marked with your area's name.
 import type { AuthzTable, HarnessResponse } from "./types";
+import { CURVE_LAB_TABLE } from "./curve-lab-table";
 import { TIMETABLE_TABLE } from "./timetable-table";
 
 function rowsOf(res: HarnessResponse): { id: string; primary: string }[] {
@@ -112,6 +113,8 @@ export const TABLE: AuthzTable = {
   },
 
   // ---- other areas: add your blocks below ----
+  // ---- Curve Lab (curve-lab-table.ts) ----
+  ...CURVE_LAB_TABLE,
   // ---- timetable, rosters, attendance, Ground log (timetable-table.ts) ----
   ...TIMETABLE_TABLE,
 

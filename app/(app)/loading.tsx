@@ -1,3 +1,0 @@
-export default function Loading() {
-  return <p role="status" className="text-ink-soft">Loading…</p>;
-}
