@@ -4,6 +4,7 @@ import { requirePagePermission } from "@/lib/auth/guard";
 import { listPeople } from "@/db/access/people";
 import { listCohorts, listCohortMembers } from "@/db/access/cohorts";
 import { ROLES, ROLE_LABELS } from "@/lib/auth/roles";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 export const metadata: Metadata = { title: "People" };
 export const dynamic = "force-dynamic";
@@ -25,7 +26,7 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
       {rosters.map(({ cohort, members }) => (
         <section key={cohort.id} className="card" aria-labelledby={`c-${cohort.id}`}>
           <h2 id={`c-${cohort.id}`}>{cohort.name} <span className="text-caption font-normal text-ink-soft">· lead {cohort.leadInstructorName} · from {cohort.startsOn}</span></h2>
-          <div className="mt-2 overflow-x-auto">
+          <ScrollArea label={`${cohort.name} roster`} className="mt-2">
             <table className="data-table">
               <thead><tr><th scope="col">Student</th><th scope="col">E-mail</th><th scope="col">Member from</th><th scope="col">to</th></tr></thead>
               <tbody>
@@ -34,7 +35,7 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
                 ))}
               </tbody>
             </table>
-          </div>
+          </ScrollArea>
         </section>
       ))}
       {isChief && (
@@ -54,7 +55,7 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
             </div>
             <button type="submit" className="btn-quiet">Filter</button>
           </form>
-          <div className="mt-3 overflow-x-auto">
+          <ScrollArea label="Everyone at the school" className="mt-3">
             <table className="data-table">
               <thead><tr><th scope="col">Name</th><th scope="col">E-mail</th><th scope="col">Roles</th><th scope="col">Status</th></tr></thead>
               <tbody>
@@ -63,7 +64,7 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
                 ))}
               </tbody>
             </table>
-          </div>
+          </ScrollArea>
         </section>
       )}
     </div>

@@ -3,6 +3,7 @@ import Link from "next/link";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { getSyllabusRevision, listCoursesWithLatestRevision } from "@/db/access/syllabus";
 import { getActiveEnrolment } from "@/db/access/cohorts";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 export const metadata: Metadata = { title: "Syllabus" };
 export const dynamic = "force-dynamic";
@@ -37,7 +38,7 @@ export default async function SyllabusPage() {
           {rev.stages.map((s) => (
             <section key={s.id} className="card" aria-labelledby={`st-${s.id}`}>
               <h3 id={`st-${s.id}`} className="font-semibold">{s.code} · {s.title}</h3>
-              <div className="mt-2 overflow-x-auto">
+              <ScrollArea label={`${s.code} items`} className="mt-2">
                 <table className="data-table">
                   <thead><tr><th scope="col">Item</th><th scope="col">Objective</th><th scope="col">Completion standard</th><th scope="col">Level</th></tr></thead>
                   <tbody>
@@ -51,7 +52,7 @@ export default async function SyllabusPage() {
                     ))}
                   </tbody>
                 </table>
-              </div>
+              </ScrollArea>
             </section>
           ))}
         </section>
