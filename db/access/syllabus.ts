@@ -173,3 +173,13 @@ export async function moveEnrolmentToRevision(schoolId: string, enrolmentId: str
   await sequelize.query(`UPDATE enrolments SET revision_id = :revisionId WHERE id = :enrolmentId`, { replacements: { revisionId, enrolmentId }, transaction: t });
   return { moved: true, revisionNumber: target.number };
 }
+
+/** The course most students are on (then by code): what course pickers show first. */
+export async function defaultCourseId(schoolId: string): Promise<string | null> {
+  const [row] = await sequelize.query<{ id: string }>(
+    `SELECT c.id FROM courses c LEFT JOIN enrolments e ON e.course_id = c.id AND e.status = 'active'
+      WHERE c.school_id = :schoolId GROUP BY c.id, c.code ORDER BY count(e.id) DESC, c.code LIMIT 1`,
+    { replacements: { schoolId }, type: QueryTypes.SELECT },
+  );
+  return row?.id ?? null;
+}

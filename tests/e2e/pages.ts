@@ -43,6 +43,17 @@ export const PAGES: CrawlPage[] = [
   { name: "timetable-forbidden", path: "/timetable", roles: ["sponsor"], waitFor: "h1", status: 403 },
   { name: "roster", path: "/roster", roles: ["chief", "instructor"], waitFor: "main h1" },
   { name: "ground-log", path: "/ground-log", roles: ["chief", "instructor", "student", "sponsor"], waitFor: "main h1" },
+  // ---- briefings, assignments, syllabus revisions ----
+  { name: "briefings", path: "/briefings", roles: ["chief", "instructor", "student"], waitFor: "[data-testid=briefings-table] tbody tr" },
+  { name: "briefing", path: (fx) => `/briefings/${fx.briefingVmd}`, roles: ["chief", "instructor", "student"], waitFor: "#briefing-title" },
+  { name: "briefing-new", path: "/briefings/new", roles: ["chief", "instructor"], waitFor: "form" },
+  { name: "briefing-edit", path: (fx) => `/briefings/${fx.briefingVmd}/edit`, roles: ["chief", "instructor"], waitFor: "form" },
+  { name: "briefings-forbidden", path: "/briefings", roles: ["sponsor"], waitFor: "h1", status: 403 },
+  { name: "assignments", path: "/assignments", roles: ["chief", "instructor", "student"], waitFor: "main h1" },
+  { name: "assignment", path: (fx) => `/assignments/${fx.assignmentVmdKestrel}`, roles: ["chief", "instructor"], waitFor: "[data-testid=completion-table]" },
+  { name: "assignments-forbidden", path: "/assignments", roles: ["sponsor"], waitFor: "h1", status: 403 },
+  { name: "syllabus-revisions", path: "/syllabus/revisions", roles: ["chief"], waitFor: "[data-testid=syllabus-revisions]" },
+  { name: "syllabus-revision-new", path: "/syllabus/revisions/new", roles: ["chief"], waitFor: "form" },
   // ---- mail ----
   { name: "mail-tray", path: "/mail", roles: ["chief"], waitFor: "main h1" },
   { name: "mail-outbox", path: "/mail/outbox", roles: ["chief"], waitFor: "main h1" },

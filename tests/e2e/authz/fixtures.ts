@@ -8,6 +8,7 @@ import type { Client } from "pg";
 import type { Fixtures } from "./types";
 import { CURVE_LAB_LOOKUPS } from "./curve-lab-fixtures";
 import { TIMETABLE_LOOKUPS } from "./timetable-fixtures";
+import { BRIEFINGS_LOOKUPS } from "./briefings/fixtures";
 
 const person = (email: string) => ({ sql: `SELECT id FROM people WHERE lower(email) = lower($1)`, params: [email] });
 
@@ -37,6 +38,8 @@ export const LOOKUPS: Record<string, { sql: string; params?: unknown[] }> = {
   ...CURVE_LAB_LOOKUPS,
   // ---- timetable ----
   ...TIMETABLE_LOOKUPS,
+  // ---- briefings, assignments, syllabus revisions ----
+  ...BRIEFINGS_LOOKUPS,
 };
 
 export async function loadFixtures(c: Client): Promise<Fixtures> {

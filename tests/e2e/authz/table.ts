@@ -24,6 +24,7 @@
 import type { AuthzTable, HarnessResponse } from "./types";
 import { CURVE_LAB_TABLE } from "./curve-lab-table";
 import { TIMETABLE_TABLE } from "./timetable-table";
+import { BRIEFINGS_TABLE } from "./briefings/table";
 
 function rowsOf(res: HarnessResponse): { id: string; primary: string }[] {
   const j = res.json as { rows?: { id: string; primary: string }[] } | undefined;
@@ -117,6 +118,9 @@ export const TABLE: AuthzTable = {
   ...CURVE_LAB_TABLE,
   // ---- timetable, rosters, attendance, Ground log (timetable-table.ts) ----
   ...TIMETABLE_TABLE,
+
+  // ---- briefings, handouts, assignments, syllabus revisions (briefings/table.ts) ----
+  ...BRIEFINGS_TABLE,
 
   // ---- mail ----
   // Public by design (the signed token is the credential): a forged token is refused for everyone.

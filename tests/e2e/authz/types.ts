@@ -39,6 +39,13 @@ export interface Fixtures {
   syllabusRevision: string;
   lockedPerson: string;
   lockedPerson2: string;
+  // briefings, handouts, assignments, syllabus revisions (authz/briefings/fixtures.ts)
+  briefingVmd: string;
+  briefingSources: string;
+  handoutVmd: string;
+  assignmentVmdKestrel: string;
+  studentEnrolment: string;
+  harnessCourse: string;
 }
 
 export interface EndpointRequest {

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { editorChoices } from "@/db/access/briefings";
+import { defaultCourseId } from "@/db/access/syllabus";
 import { BriefingEditor } from "../_components/briefing-editor";
 
 export const metadata: Metadata = { title: "New briefing" };
@@ -9,7 +10,8 @@ export const dynamic = "force-dynamic";
 export default async function NewBriefingPage() {
   const user = await requirePagePermission("briefings.edit", "/briefings/new");
   const choices = await editorChoices(user.schoolId);
-  const course = choices.courses[0];
+  const preferred = await defaultCourseId(user.schoolId);
+  const course = choices.courses.find((c) => c.id === preferred) ?? choices.courses[0];
   const latest = choices.syllabusRevisions.find((r) => r.courseId === course?.id);
   return (
     <div className="space-y-6">

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { listActiveEnrolments, listCoursesWithLatestRevision, listSyllabusRevisions } from "@/db/access/syllabus";
+import { defaultCourseId, listActiveEnrolments, listCoursesWithLatestRevision, listSyllabusRevisions } from "@/db/access/syllabus";
 import { getSchool } from "@/db/access/school";
 import { formatInZone } from "@/lib/time";
 import { uuidParam } from "@/lib/http/api";
@@ -15,7 +15,7 @@ export default async function SyllabusRevisionsPage({ searchParams }: { searchPa
   const user = await requirePagePermission("syllabus.edit", "/syllabus/revisions");
   const courses = await listCoursesWithLatestRevision(user.schoolId);
   const param = (await searchParams).course;
-  const courseId = typeof param === "string" && uuidParam.safeParse(param).success ? param : courses[0]?.id;
+  const courseId = typeof param === "string" && uuidParam.safeParse(param).success ? param : await defaultCourseId(user.schoolId);
   const course = courses.find((c) => c.id === courseId);
   if (!course) notFound();
   const [revisions, enrolments, school] = await Promise.all([listSyllabusRevisions(user.schoolId, course.id), listActiveEnrolments(user.schoolId, course.id), getSchool(user.schoolId)]);

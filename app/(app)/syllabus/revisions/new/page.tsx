@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { getSyllabusRevision, listCoursesWithLatestRevision } from "@/db/access/syllabus";
+import { defaultCourseId, getSyllabusRevision, listCoursesWithLatestRevision } from "@/db/access/syllabus";
 import { uuidParam } from "@/lib/http/api";
 import { RevisionEditor } from "../../_components/revision-editor";
 
@@ -12,7 +12,8 @@ export default async function NewSyllabusRevisionPage({ searchParams }: { search
   const user = await requirePagePermission("syllabus.edit", "/syllabus/revisions/new");
   const courses = await listCoursesWithLatestRevision(user.schoolId);
   const param = (await searchParams).course;
-  const course = courses.find((c) => c.id === (typeof param === "string" && uuidParam.safeParse(param).success ? param : courses[0]?.id));
+  const wanted = typeof param === "string" && uuidParam.safeParse(param).success ? param : await defaultCourseId(user.schoolId);
+  const course = courses.find((c) => c.id === wanted);
   if (!course) notFound();
   const current = course.revisionId ? await getSyllabusRevision(user.schoolId, course.revisionId) : null;
   return (
