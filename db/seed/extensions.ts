@@ -2,6 +2,7 @@ import type { Transaction } from "sequelize";
 import { seedTimetable } from "./timetable";
 import { seedCurveLab } from "./curve-lab";
 import { seedBriefings } from "./briefings";
+import { seedRecords } from "./records";
 
 export interface SeedContext {
   t: Transaction;
@@ -26,6 +27,8 @@ const extensions: { name: string; run: (ctx: SeedContext) => Promise<void> }[] =
   { name: "briefings", run: seedBriefings },
   // the Timetable schedules the briefings: keep it after the briefings seed
   { name: "timetable", run: seedTimetable },
+  // records sign off items that the timetable's attendance and make-up items may touch: keep it last
+  { name: "records", run: seedRecords },
 ];
 
 export async function runSeedExtensions(ctx: SeedContext): Promise<void> {
