@@ -1,7 +1,7 @@
 "use client";
 import { useState } from "react";
 import { useRouter } from "next/navigation";
-import { useForm } from "react-hook-form";
+import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
 import { assignmentSchema } from "../schema";
@@ -19,7 +19,7 @@ export function AssignmentForm({ choices, initialBriefingId, today }: { choices:
   const {
     register,
     handleSubmit,
-    watch,
+    control,
     setError,
     setValue,
     reset,
@@ -28,7 +28,7 @@ export function AssignmentForm({ choices, initialBriefingId, today }: { choices:
     resolver: zodResolver(assignmentSchema),
     defaultValues: { kind: "briefing", briefingId: initialBriefingId ?? "", demoId: "", cohortId: choices.cohorts[0]?.id ?? "", studentIds: [], dueOn: "", note: "" },
   });
-  const kind = watch("kind");
+  const kind = useWatch({ control, name: "kind" });
 
   const onSubmit = handleSubmit(async (data) => {
     setStatus(null);

@@ -1,7 +1,7 @@
 "use client";
 import { useMemo, useState } from "react";
 import { useRouter } from "next/navigation";
-import { useFieldArray, useForm } from "react-hook-form";
+import { useFieldArray, useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
 import { briefingSchema } from "../schema";
@@ -31,14 +31,13 @@ export function BriefingEditor({ briefingId, nextNumber, initial, choices, hando
     register,
     control,
     handleSubmit,
-    watch,
     setError,
     formState: { errors, isSubmitting },
   } = useForm<FormIn, unknown, FormOut>({ resolver: zodResolver(briefingSchema), defaultValues: initial });
   const elements = useFieldArray({ control, name: "elements" });
-  const courseId = watch("courseId");
-  const syllabusRevisionId = watch("syllabusRevisionId");
-  const minutes = (watch("elements") ?? []).reduce((sum, e) => sum + (Number(e?.minutes) || 0), 0);
+  const courseId = useWatch({ control, name: "courseId" });
+  const syllabusRevisionId = useWatch({ control, name: "syllabusRevisionId" });
+  const minutes = (useWatch({ control, name: "elements" }) ?? []).reduce((sum, e) => sum + (Number(e?.minutes) || 0), 0);
   const revisions = useMemo(() => choices.syllabusRevisions.filter((r) => r.courseId === courseId), [choices, courseId]);
   const items = revisions.find((r) => r.id === syllabusRevisionId)?.items ?? [];
 

@@ -31,7 +31,6 @@ export function extensionOf(name: string): string {
 
 /** The last path segment of an uploaded name with control characters removed; never empty. */
 export function baseName(name: string): string {
-  // eslint-disable-next-line no-control-regex -- removing control characters is the point
   const cleaned = name.replace(/[\u0000-\u001f\u007f]/g, "");
   const last = cleaned.split(/[\\/]/).pop() ?? "";
   const trimmed = last.replace(/^[.\s]+/, "").trim();
