@@ -105,4 +105,22 @@ export async function seedRecords(ctx: SeedContext): Promise<void> {
   ], "correlation");
   for (const code of ["AER-01", "AER-02", "AER-03", "AER-04"]) await sign(tomasz, mateo, code);
   await sign(chief, mateo, "AER-05");
+
+  // Targets for the authorisation harness and the screens: Saoirse has a meeting check on every
+  // AER item with four of them signed; Beatriz has a meeting check on AER-01, not signed; Ivo has a
+  // check recorded by the chief instructor.
+  const saoirse = st("saoirse.dunleavy@chalkwing.test");
+  await check(tomasz, saoirse, ["AER-01", "AER-02", "AER-03", "AER-04", "AER-05"], 6, [
+    q("AER-01", "What makes up zero-lift drag?", "solid"),
+    q("AER-02", "What does weight do to lift-dependent drag?", "solid"),
+    q("AER-03", "", "solid", { questionText: undefined, generated: { kind: "glide_distance", aircraft: { kind: "reference", id: "lt-2" }, inputs: { heightFt: 3000 } }, studentFigure: 5.6 }),
+    q("AER-04", "What happens after a gust slows you below Vmd with thrust held?", "solid"),
+    q("AER-05", "Why is Vmp used for endurance?", "solid"),
+  ], "correlation");
+  await sign(tomasz, saoirse, "AER-02");
+  await sign(chief, saoirse, "AER-03");
+  await sign(tomasz, saoirse, "AER-04");
+  await sign(chief, saoirse, "AER-05");
+  await check(tomasz, st("beatriz.solano@chalkwing.test"), ["AER-01"], 1, [q("AER-01", "Which part of zero-lift drag does a wheel fairing reduce?", "solid")], "understanding");
+  await check(chief, st("ivo.petrak@chalkwing.test"), ["AER-01"], 1, [q("AER-01", "Why does zero-lift drag grow with the square of speed?", "solid")], "understanding");
 }

@@ -54,6 +54,17 @@ export const PAGES: CrawlPage[] = [
   { name: "assignments-forbidden", path: "/assignments", roles: ["sponsor"], waitFor: "h1", status: 403 },
   { name: "syllabus-revisions", path: "/syllabus/revisions", roles: ["chief"], waitFor: "[data-testid=syllabus-revisions]" },
   { name: "syllabus-revision-new", path: "/syllabus/revisions/new", roles: ["chief"], waitFor: "form" },
+  // ---- records: oral checks, sign-offs, Progress map, Sign-off register ----
+  { name: "records", path: "/records", roles: ["chief", "instructor"], waitFor: "[data-testid=record-student]" },
+  { name: "records-forbidden", path: "/records", roles: ["student", "sponsor"], waitFor: "h1", status: 403 },
+  { name: "records-student", path: (fx) => `/records/${fx.student}`, roles: ["chief", "instructor"], waitFor: "[data-testid=outcome-preview]" },
+  { name: "records-student-not-theirs", path: (fx) => `/records/${fx.otherStudent}`, roles: ["instructor"], waitFor: "h1", status: 404 },
+  { name: "progress", path: "/progress", roles: ["chief", "instructor"], waitFor: "main h1" },
+  { name: "progress-student", path: (fx) => `/progress/${fx.student}`, roles: ["chief", "instructor", "student", "sponsor"], waitFor: "[data-testid=progress-grid]" },
+  { name: "progress-not-theirs", path: (fx) => `/progress/${fx.cohortmate}`, roles: ["student", "sponsor"], waitFor: "h1", status: 404 },
+  { name: "register", path: "/register", roles: ["chief"], waitFor: "[data-testid=register-table]" },
+  { name: "register-chain", path: "/register/chain", roles: ["chief"], waitFor: "[data-testid=chain-result]" },
+  { name: "register-forbidden", path: "/register", roles: ["instructor"], waitFor: "h1", status: 403 },
   // ---- mail ----
   { name: "mail-tray", path: "/mail", roles: ["chief"], waitFor: "main h1" },
   { name: "mail-outbox", path: "/mail/outbox", roles: ["chief"], waitFor: "main h1" },

@@ -9,6 +9,7 @@ import type { Fixtures } from "./types";
 import { CURVE_LAB_LOOKUPS } from "./curve-lab-fixtures";
 import { TIMETABLE_LOOKUPS } from "./timetable-fixtures";
 import { BRIEFINGS_LOOKUPS } from "./briefings/fixtures";
+import { RECORDS_LOOKUPS } from "./records/fixtures";
 
 const person = (email: string) => ({ sql: `SELECT id FROM people WHERE lower(email) = lower($1)`, params: [email] });
 
@@ -40,9 +41,12 @@ export const LOOKUPS: Record<string, { sql: string; params?: unknown[] }> = {
   ...TIMETABLE_LOOKUPS,
   // ---- briefings, assignments, syllabus revisions ----
   ...BRIEFINGS_LOOKUPS,
+  // ---- records ----
+  ...RECORDS_LOOKUPS,
 };
 
 export async function loadFixtures(c: Client): Promise<Fixtures> {
+  await prepareHarnessTargets(c);
   const out: Record<string, string> = {};
   for (const [name, { sql, params }] of Object.entries(LOOKUPS)) {
     const { rows } = await c.query<{ id: string }>(sql, params ?? []);

@@ -25,6 +25,7 @@ import type { AuthzTable, HarnessResponse } from "./types";
 import { CURVE_LAB_TABLE } from "./curve-lab-table";
 import { TIMETABLE_TABLE } from "./timetable-table";
 import { BRIEFINGS_TABLE } from "./briefings/table";
+import { RECORDS_TABLE } from "./records/table";
 
 function rowsOf(res: HarnessResponse): { id: string; primary: string }[] {
   const j = res.json as { rows?: { id: string; primary: string }[] } | undefined;
@@ -121,6 +122,9 @@ export const TABLE: AuthzTable = {
 
   // ---- briefings, handouts, assignments, syllabus revisions (briefings/table.ts) ----
   ...BRIEFINGS_TABLE,
+
+  // ---- records: oral checks, sign-offs, stage checks, register, Progress map (records/table.ts) ----
+  ...RECORDS_TABLE,
 
   // ---- mail ----
   // Public by design (the signed token is the credential): a forged token is refused for everyone.

@@ -1,5 +1,5 @@
 "use client";
-import { useMemo, useState, useTransition } from "react";
+import { useState, useTransition } from "react";
 import { useRouter } from "next/navigation";
 import { useFieldArray, useForm, useWatch, type Control } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
@@ -86,10 +86,12 @@ export function CheckForm({ studentId, items, aircraft }: { studentId: string; i
   const level = useWatch({ control, name: "levelShown" });
   const qs = useWatch({ control, name: "questions" }) ?? [];
   const chosenItems = items.filter((i) => chosen.includes(i.id));
-  const preview = useMemo(
-    () => evaluateCheck({ levelShown: level, items: chosenItems.map((i) => ({ id: i.id, code: i.code, requiredLevel: i.requiredLevel })), questions: qs.map((q) => ({ syllabusItemId: q.syllabusItemId, outcome: q.outcome, required: q.required })) }),
-    [level, chosenItems, qs],
-  );
+  const preview = evaluateCheck({
+    levelShown: level,
+    items: chosenItems.map((i) => ({ id: i.id, code: i.code, requiredLevel: i.requiredLevel })),
+    questions: qs.map((q) => ({ syllabusItemId: q.syllabusItemId, outcome: q.outcome, required: q.required })),
+  });
+
 
   const onSubmit = (v: FormValues) =>
     start(async () => {
