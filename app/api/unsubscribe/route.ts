@@ -23,7 +23,8 @@ export async function POST(req: NextRequest): Promise<Response> {
     if (!token) return apiError(400, "token: missing", "token");
     const ok = await applyUnsubscribe(token);
     if (!ok) return apiError(400, "token: not a valid unsubscribe link", "token");
-    if (fromForm) return NextResponse.redirect(new URL(`/unsubscribe/${encodeURIComponent(token)}?done=1`, req.url), 303);
+    // a relative Location keeps the browser on the origin it used (the page's CSP allows form-action 'self' only)
+    if (fromForm) return new Response(null, { status: 303, headers: { Location: `/unsubscribe/${encodeURIComponent(token)}?done=1` } });
     return NextResponse.json({ unsubscribed: true });
   } catch (e) {
     return errorResponse(e);
