@@ -134,7 +134,7 @@ export const TABLE: AuthzTable = {
   },
   // Public by design (the one-time token is the credential): an unknown token changes nothing.
   "action app/(public)/set-password/[token]/actions.ts#setPasswordAction": {
-    request: () => ({ args: [{ token: "x".repeat(43), password: "a-long-enough-password", confirm: "a-long-enough-password" }] }),
+    request: () => ({ params: { token: "x".repeat(43) }, args: [{ token: "x".repeat(43), password: "a-long-enough-password", confirm: "a-long-enough-password" }] }),
     expect: { signedOut: 400, chief: 400, instructor: 400, student: 400, sponsor: 400 },
   },
   "action app/(app)/settings/actions.ts#saveSchoolSettingsAction": {
