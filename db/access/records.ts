@@ -225,8 +225,8 @@ export interface ProgressMap {
  * cohorts, the chief, or a sponsor the student shares progress with. Remarks reach staff only;
  * a sponsor sees outcomes but not the questions and answers. Anyone else: 404.
  */
-export async function progressFor(viewer: CurrentUser, studentId: string): Promise<ProgressMap> {
-  const { student, access } = await requireStudentFor(viewer, studentId, "view");
+export async function progressFor(viewer: CurrentUser, studentId: string, opts: { asExaminer?: boolean } = {}): Promise<ProgressMap> {
+  const { student, access } = await requireStudentFor(viewer, studentId, opts.asExaminer ? "examiner" : "view");
   const school = await schoolFor(viewer.schoolId);
   const items = await itemsOfRevision(student.revisionId);
   const stages = await stageReadiness(student);

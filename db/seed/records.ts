@@ -6,7 +6,7 @@ import type { Role } from "@/lib/auth/roles";
 import { recordOralCheck, type QuestionInput } from "../access/oral-checks";
 import { signOff, withdrawSignOff } from "../access/sign-offs";
 import { RecordRefusal } from "../access/records";
-import { now } from "@/lib/clock";
+import { now, setClock, resetClock } from "@/lib/clock";
 import { DEMO_PASSWORD } from "./scenario";
 import type { LevelOfLearning } from "@/lib/records/outcome";
 
@@ -48,11 +48,25 @@ export async function seedRecords(ctx: SeedContext): Promise<void> {
     correctiveGiven: outcome === "not_yet",
     ...extra,
   });
-  const check = (user: CurrentUser, studentId: string, codes: string[], daysAgo: number, questions: QuestionInput[], level: LevelOfLearning = "correlation", remarks = "") =>
-    recordOralCheck(t, user, { studentId, itemIds: codes.map(item), levelShown: level, remarks, durationMinutes: 12, occurredAt: new Date(now().getTime() - daysAgo * DAY), questions });
-  const sign = async (user: CurrentUser, studentId: string, code: string) => {
+  // Records are written as if entered shortly after they happened (the clock is moved for the
+  // write), so that only the deliberate late entry below raises a watch note.
+  const start = now();
+  const at = async <T>(when: Date, fn: () => Promise<T>): Promise<T> => {
+    setClock(() => when);
     try {
-      return await signOff(t, user, { studentId, itemId: item(code), password: DEMO_PASSWORD });
+      return await fn();
+    } finally {
+      resetClock();
+    }
+  };
+  const ago = (days: number, plusMinutes = 0) => new Date(start.getTime() - days * DAY + plusMinutes * 60_000);
+  const check = (user: CurrentUser, studentId: string, codes: string[], daysAgo: number, questions: QuestionInput[], level: LevelOfLearning = "correlation", remarks = "", enteredLate = false) => {
+    const write = () => recordOralCheck(t, user, { studentId, itemIds: codes.map(item), levelShown: level, remarks, durationMinutes: 12, occurredAt: ago(daysAgo), questions });
+    return enteredLate ? write() : at(ago(daysAgo, 25), write);
+  };
+  const sign = async (user: CurrentUser, studentId: string, code: string, daysAgo: number) => {
+    try {
+      return await at(ago(daysAgo, 60), () => signOff(t, user, { studentId, itemId: item(code), password: DEMO_PASSWORD }));
     } catch (e) {
       // another area's demo data may leave a make-up item open on this item: then it stays unsigned
       if (e instanceof RecordRefusal) {
@@ -84,15 +98,15 @@ export async function seedRecords(ctx: SeedContext): Promise<void> {
   // Kofi Mensah: AER-03 signed, withdrawn with a reason, then signed again on a fresh check.
   const kofi = st("kofi.mensah@chalkwing.test");
   await check(tomasz, kofi, ["AER-03"], 20, [q("AER-03", "Where is Vmd on the total-drag curve, and why?", "solid")], "application");
-  const first = await sign(tomasz, kofi, "AER-03");
+  const first = await sign(tomasz, kofi, "AER-03", 20);
   if (first) {
-    await withdrawSignOff(t, tomasz, { signOffId: first.id, reason: "Signed against a check of another student's session; re-checked below." });
+    await at(ago(4), () => withdrawSignOff(t, tomasz, { signOffId: first.id, reason: "Signed against a check of another student's session; re-checked below." }));
     await check(tomasz, kofi, ["AER-03"], 3, [q("AER-03", "What does 15 % more mass do to Vmd?", "solid")], "application");
-    await sign(tomasz, kofi, "AER-03");
+    await sign(tomasz, kofi, "AER-03", 3);
   }
 
   // Elin Haugen: a check entered ten days after it happened (a late-entry watch note).
-  await check(tomasz, st("elin.haugen@chalkwing.test"), ["AER-01"], 10, [q("AER-01", "What is skin-friction drag?", "solid")], "understanding", "Entered late from paper notes.");
+  await check(tomasz, st("elin.haugen@chalkwing.test"), ["AER-01"], 10, [q("AER-01", "What is skin-friction drag?", "solid")], "understanding", "Entered late from paper notes.", true);
 
   // Mateo Ferreira: every AER item signed: ready for the AER stage check.
   const mateo = st("mateo.ferreira@chalkwing.test");
@@ -103,8 +117,8 @@ export async function seedRecords(ctx: SeedContext): Promise<void> {
     q("AER-04", "", "solid", { questionText: undefined, generated: { kind: "stability_side", aircraft: { kind: "reference", id: "lt-2" }, inputs: { massKg: 1050, altitudeFt: 2000, speedKt: 60 } } }),
     q("AER-05", "Where is Vmp relative to Vmd?", "solid"),
   ], "correlation");
-  for (const code of ["AER-01", "AER-02", "AER-03", "AER-04"]) await sign(tomasz, mateo, code);
-  await sign(chief, mateo, "AER-05");
+  for (const code of ["AER-01", "AER-02", "AER-03", "AER-04"]) await sign(tomasz, mateo, code, 4);
+  await sign(chief, mateo, "AER-05", 3);
 
   // Targets for the authorisation harness and the screens: Saoirse has a meeting check on every
   // AER item with four of them signed; Beatriz has a meeting check on AER-01, not signed; Ivo has a
@@ -117,10 +131,10 @@ export async function seedRecords(ctx: SeedContext): Promise<void> {
     q("AER-04", "What happens after a gust slows you below Vmd with thrust held?", "solid"),
     q("AER-05", "Why is Vmp used for endurance?", "solid"),
   ], "correlation");
-  await sign(tomasz, saoirse, "AER-02");
-  await sign(chief, saoirse, "AER-03");
-  await sign(tomasz, saoirse, "AER-04");
-  await sign(chief, saoirse, "AER-05");
+  await sign(tomasz, saoirse, "AER-02", 6);
+  await sign(chief, saoirse, "AER-03", 6);
+  await sign(tomasz, saoirse, "AER-04", 6);
+  await sign(chief, saoirse, "AER-05", 6);
   await check(tomasz, st("beatriz.solano@chalkwing.test"), ["AER-01"], 1, [q("AER-01", "Which part of zero-lift drag does a wheel fairing reduce?", "solid")], "understanding");
   await check(chief, st("ivo.petrak@chalkwing.test"), ["AER-01"], 1, [q("AER-01", "Why does zero-lift drag grow with the square of speed?", "solid")], "understanding");
 }

@@ -1,6 +1,12 @@
 import { z } from "zod";
 
-const date = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "must be a date (yyyy-mm-dd)");
+const date = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, "must be a date (yyyy-mm-dd)")
+  .refine((v) => {
+    const d = new Date(`${v}T00:00:00Z`);
+    return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === v;
+  }, "must be a real calendar date");
 const emptyToUndefined = (v: unknown) => (v === "" ? undefined : v);
 
 /** The Sign-off register's filters, from a query string; a bad one is refused naming it. */

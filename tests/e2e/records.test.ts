@@ -128,6 +128,11 @@ describe("Records end to end", () => {
   });
 
   it("screens for each role: Progress map for the sponsor and staff, the records list for the chief", async () => {
+    // fresh browsers: the first test's are signed in as others
+    await phone.close();
+    await desk.close();
+    phone = await launchBrowser({ width: 390, height: 844 });
+    desk = await launchBrowser({ width: 1280, height: 900 });
     const sponsor = await phone.context.newPage();
     await signIn(sponsor, "sponsor@chalkwing.test");
     await sponsor.goto(`/progress/${adaId}`);

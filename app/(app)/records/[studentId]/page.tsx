@@ -30,7 +30,7 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
     throw e;
   }
   const school = await schoolFor(user.schoolId);
-  const progress = await progressFor(user, student.id).catch(() => null);
+  const progress = await progressFor(user, student.id, { asExaminer: true }).catch(() => null);
   if (!progress) notFound();
   const aircraft = await listQuestionAircraft(user.schoolId);
   const signed = new Map((await currentSignOffs(student.id)).map((s) => [s.itemId, s]));
