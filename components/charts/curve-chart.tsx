@@ -216,8 +216,13 @@ function boardPlugin(overlay: MutableRefObject<Overlay>): Plugin<"line"> {
       const canvas = chart.canvas;
       canvas.dataset.renders = String(Number(canvas.dataset.renders ?? "0") + 1);
       canvas.dataset.chartId = String(chart.id);
+      canvas.dataset.points = chart.data.datasets.filter((d) => !d.hidden).map((d) => d.data.length).join(",");
     },
   };
+}
+
+function axisTitle(spec: DemoSpec): string {
+  return `${spec.axis.speed === "true" ? "TAS" : "EAS (= IAS = CAS here)"} (${speedUnitLabel(spec.axis.unit)})`;
 }
 
 function effectiveSpec(spec: DemoSpec, conceal: Concealment | null): DemoSpec {
@@ -278,7 +283,7 @@ function CurveChartInner({ spec, focus, variant, conceal = null, guessMs = null,
         if (v !== undefined && Number.isFinite(v) && v > 0) pick.current?.(speedFromUnit(v, overlay.current.spec.axis.unit));
       },
       scales: {
-        x: { type: "linear", min: frame.xMin, max: frame.xMax, ticks: tick, grid, title: title("") },
+        x: { type: "linear", min: frame.xMin, max: frame.xMax, ticks: tick, grid, title: title(axisTitle(spec)) },
         y: { type: "linear", position: "left", min: 0, max: frame.yMaxDragN, ticks: tick, grid, title: title("Drag (N)") },
         power: { type: "linear", position: "right", min: 0, max: frame.yMaxPowerKw, display: false, ticks: tick, grid: { drawOnChartArea: false }, title: title("Power required (kW)") },
         ld: { type: "linear", position: "right", min: 0, max: frame.yMaxLiftToDrag, display: false, ticks: tick, grid: { drawOnChartArea: false }, title: title("L/D") },
@@ -303,10 +308,12 @@ function CurveChartInner({ spec, focus, variant, conceal = null, guessMs = null,
       if (visible && d % CURVE_KEYS.length === CURVE_KEYS.indexOf("power")) power = true;
       if (visible && d % CURVE_KEYS.length === CURVE_KEYS.indexOf("liftToDrag")) ld = true;
     }
-    const scales = ch.options.scales as Record<string, { min?: number; max?: number; display?: boolean; title?: { text?: string } }>;
+    // The chart's own stored options (chart.js keeps a merged copy of what it was given);
+    // update() merges and resolves them again.
+    const scales = (ch.config.options as ChartOptions<"line">).scales as Record<string, { min?: number; max?: number; display?: boolean; title?: { text?: string } }>;
     scales.x!.min = frame.xMin;
     scales.x!.max = frame.xMax;
-    scales.x!.title!.text = `${eff.axis.speed === "true" ? "TAS" : "EAS (= IAS = CAS here)"} (${speedUnitLabel(eff.axis.unit)})`;
+    scales.x!.title!.text = axisTitle(eff);
     scales.y!.max = frame.yMaxDragN;
     scales.power!.max = frame.yMaxPowerKw;
     scales.power!.display = power;

@@ -14,6 +14,7 @@ export interface BenchSection {
 export async function runAeroBench(): Promise<BenchSection[]> {
   const curves = runCurvesBench();
   const sections: BenchSection[] = [{ name: "curves", lines: formatCurvesBench(curves), pass: curves.pass }];
+  if (process.env.CHALKWING_BENCH_BROWSER !== "off") sections.push(await (await import("./browser")).runBrowserBench()); // Curve Lab's browser figure
   return sections;
 }
 

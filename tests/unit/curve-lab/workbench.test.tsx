@@ -76,11 +76,17 @@ describe("demo builder", () => {
   it("altitude moves Vmd on the TAS axis but not on the EAS axis, as the library says", () => {
     const spec: DemoSpec = { ...defaultSpec(wren), axis: { speed: "equivalent", unit: "kt" } };
     renderBuilder(spec);
+    const chart = Chart.getChart(screen.getByTestId("curve-chart") as HTMLCanvasElement)!;
+    const xTitle = () => (chart.options.scales!.x as { title: { text: string } }).title.text;
+    expect(xTitle()).toBe("EAS (= IAS = CAS here) (kt)");
+    expect(chart.scales.x!.max).toBeCloseTo(msToKt(spec.range.maxSpeedMs), 6);
     fireEvent.change(screen.getByLabelText(/Pressure altitude, case 1/), { target: { value: "8000" } });
     expect(screen.getByTestId("readout-vmd")).toHaveTextContent(libraryVmdKt(spec, 760));
     fireEvent.click(screen.getByLabelText("TAS"));
     const tas = minimumDragSpeed(aircraftFor(spec.airframe, spec.cases[0]!), { altitudeM: ftToM(8000) }).trueAirspeedMs;
     expect(screen.getByTestId("readout-vmd")).toHaveTextContent(`${msToKt(tas).toFixed(0)} kt`);
+    expect(xTitle()).toBe("TAS (kt)");
+    expect(Chart.getChart(screen.getByTestId("curve-chart") as HTMLCanvasElement)).toBe(chart);
   });
 
   it("the configuration changes the stall readout to the library's value for that CLmax", () => {
