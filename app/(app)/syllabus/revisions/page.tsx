@@ -31,7 +31,7 @@ export default async function SyllabusRevisionsPage({ searchParams }: { searchPa
       </header>
       {courses.length > 1 && (
         <nav aria-label="Courses" className="flex flex-wrap gap-2">
-          {courses.map((c) => <Link key={c.id} href={`/syllabus/revisions?course=${c.id}`} className="btn-quiet" aria-current={c.id === course.id ? "page" : undefined}>{c.code}</Link>)}
+          {courses.map((c) => <Link key={c.id} href={`/syllabus/revisions?course=${c.id}`} className={c.id === course.id ? "btn-quiet border-wing-700 bg-wing-50 text-wing-800" : "btn-quiet"} aria-current={c.id === course.id ? "page" : undefined}>{c.code}{c.id === course.id ? " (shown)" : ""}</Link>)}
         </nav>
       )}
       <section className="card" aria-labelledby="h-revs">
