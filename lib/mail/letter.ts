@@ -84,7 +84,7 @@ export function composeWeeklyLetter(d: WeeklyLetterData, school: MailSchool): Co
         ["So far", hoursLabel(d.hours.totalMinutes, d.hours.minimumMinutes)],
       ]),
     );
-    blocks.push(progressBar(d.hours.totalMinutes, d.hours.minimumMinutes, `${hoursLabel(d.hours.totalMinutes, d.hours.minimumMinutes)} of the ${d.hours.courseTitle} minimum`));
+    blocks.push(progressBar(d.hours.totalMinutes, d.hours.minimumMinutes, `${hoursLabel(d.hours.totalMinutes)} of the ${hoursLabel(d.hours.minimumMinutes)} ${d.hours.courseTitle} minimum`));
   }
 
   if (d.progress) {

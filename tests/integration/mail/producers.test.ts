@@ -217,7 +217,7 @@ describe("the Weekly letter", () => {
       const text = mail.text ?? "";
       const subject = mail.subject ?? "";
       const altTexts = [...html.matchAll(/\s(?:alt|aria-label|title)="([^"]*)"/g)].map((m) => m[1]).join("\n");
-      expect(altTexts).toContain("of the Test ground course minimum"); // the progress bar says its numbers
+      expect(altTexts).toContain("1.5 h of the 35 h Test ground course minimum: 4%"); // the progress bar says its numbers
 
       for (const part of [subject, html, text, altTexts]) {
         expect(part.toLowerCase()).not.toContain(canary.toLowerCase());
