@@ -49,7 +49,7 @@ export type SetPasswordResult = { ok: true } | { ok: false; field: "token" | "pa
  * person) and marked used in the same transaction as the new hash, so a second use of
  * the same link is refused even when two submits race.
  */
-export async function useSetPasswordToken(token: string, password: string): Promise<SetPasswordResult> {
+export async function redeemSetPasswordToken(token: string, password: string): Promise<SetPasswordResult> {
   const problem = passwordProblem(password);
   if (problem) return { ok: false, field: "password", message: problem };
   if (!TOKEN_SHAPE.test(token)) return { ok: false, field: "token", message: "This link is not valid." };

@@ -12,7 +12,7 @@ import { signUnsubscribe } from "@/lib/mail/unsubscribe-token";
 import { inspectUnsubscribe } from "@/db/access/mail-unsubscribe";
 import { POST as unsubscribePOST } from "@/app/api/unsubscribe/route";
 import { closeDb, makeSchool } from "../../helpers/factories";
-import { makeBriefing, makeSession, moveSession, parseStored, testSink, waitFor } from "./helpers";
+import { makeBriefing, makeSession, moveSession, parseStored, testSink } from "./helpers";
 
 jest.setTimeout(60_000);
 

@@ -1,6 +1,6 @@
 "use server";
 import { z } from "zod";
-import { useSetPasswordToken } from "@/db/access/set-password";
+import { redeemSetPasswordToken } from "@/db/access/set-password";
 import type { ActionResult } from "@/lib/actions/run-action";
 
 const schema = z.object({
@@ -22,7 +22,7 @@ export async function setPasswordAction(input: unknown): Promise<ActionResult<{ 
   }
   const { token, password, confirm } = parsed.data;
   if (password !== confirm) return { ok: false, status: 400, message: "confirm: the two passwords differ", fieldErrors: { confirm: ["The two passwords differ"] } };
-  const res = await useSetPasswordToken(token, password);
+  const res = await redeemSetPasswordToken(token, password);
   if (!res.ok) return { ok: false, status: 400, message: `${res.field}: ${res.message}`, fieldErrors: { [res.field]: [res.message] } };
   return { ok: true, data: { done: true } };
 }
