@@ -65,7 +65,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
               <>
                 <p className="num mt-1 text-title" data-testid="ground-log-hours">{hoursLabel(hours.creditedMinutes, hours.minimumMinutes)}</p>
                 <p className="text-caption text-ink-soft">{hours.courseCode}: credited time only, against the course minimum.</p>
-                <div className="mt-3 overflow-x-auto">
+                <div className="mt-3 overflow-x-auto" tabIndex={0} role="region" aria-label="Hours per stage, scrolls sideways">
                   <table className="data-table">
                     <caption className="sr-only">Credited hours per stage</caption>
                     <thead><tr><th scope="col">Stage</th><th scope="col" className="text-right">Credited</th></tr></thead>
@@ -88,7 +88,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
                 <a className="btn-quiet" href={`/api/ground-log/${student.id}/logbook`} download>Download CSV</a>
               </div>
             </div>
-            <div className="mt-2 overflow-x-auto">
+            <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Logbook lines, scrolls sideways">
               <table className="data-table" data-testid="logbook">
                 <caption className="sr-only">Logbook lines, one per ground-training entry</caption>
                 <thead><tr><th scope="col">Date</th><th scope="col" className="text-right">Duration</th><th scope="col">Attendance</th><th scope="col">Subjects</th><th scope="col">Instructor</th><th scope="col">Certificate</th></tr></thead>
@@ -112,7 +112,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
           <section className="card" aria-labelledby="makeup-title">
             <h2 id="makeup-title">Make-up items</h2>
             {makeup.length === 0 ? <p className="mt-1 text-ink-soft">None: nothing missed.</p> : (
-              <div className="mt-2 overflow-x-auto">
+              <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Make-up items, scrolls sideways">
                 <table className="data-table" data-testid="makeup">
                   <thead><tr><th scope="col">Syllabus item</th><th scope="col">Missed</th><th scope="col">State</th>{staff && <th scope="col" className="no-print">Action</th>}</tr></thead>
                   <tbody>

@@ -34,7 +34,7 @@ export default async function RosterPage() {
             <h2 id={`c-${c.id}`}>
               {c.name} <span className="text-caption font-normal text-ink-soft">· {c.courseCode} · lead instructor {c.leadInstructorName} · from {c.startsOn} · <span className="num">{members.length}</span> students</span>
             </h2>
-            <div className="mt-2 overflow-x-auto">
+            <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label={`${c.name} students, scrolls sideways`}>
               <table className="data-table">
                 <thead>
                   <tr><th scope="col">Student</th><th scope="col">E-mail</th><th scope="col">Cohort history</th><th scope="col">Sponsor</th><th scope="col">Move</th></tr>

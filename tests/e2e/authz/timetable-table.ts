@@ -81,6 +81,7 @@ export const TIMETABLE_TABLE: AuthzTable = {
 
   "action app/(app)/timetable/actions.ts#rescheduleSessionAction": {
     request: (fx, caller) => ({
+      params: { sessionId: caller === "chief" ? fx.merlinSessionToMove! : fx.kestrelSessionToMove! },
       args: [
         caller === "chief"
           ? { sessionId: fx.merlinSessionToMove, date: "2027-06-01", time: "10:00", durationMinutes: 90, room: "Briefing room 2", instructorId: fx.otherInstructor }
@@ -98,13 +99,17 @@ export const TIMETABLE_TABLE: AuthzTable = {
   },
 
   "action app/(app)/timetable/actions.ts#cancelSessionAction": {
-    request: (fx, caller) => ({ args: [{ sessionId: caller === "chief" ? fx.merlinSessionToCancel : fx.kestrelSessionToCancel, reason: "Harness cancellation" }] }),
+    request: (fx, caller) => {
+      const sessionId = caller === "chief" ? fx.merlinSessionToCancel! : fx.kestrelSessionToCancel!;
+      return { params: { sessionId }, args: [{ sessionId, reason: "Harness cancellation" }] };
+    },
     expect: { signedOut: 401, chief: 200, instructor: 200, student: 403, sponsor: 403 },
     mutates: true,
   },
 
   "action app/(app)/timetable/actions.ts#recordAttendanceAction": {
     request: (fx, caller) => ({
+      params: { sessionId: caller === "chief" ? fx.merlinSessionAwaiting! : fx.kestrelSessionAwaiting! },
       args: [
         caller === "chief"
           ? { sessionId: fx.merlinSessionAwaiting, lines: [{ studentId: fx.otherStudent, status: "late", lateMinutes: 10 }] }
@@ -122,7 +127,8 @@ export const TIMETABLE_TABLE: AuthzTable = {
   },
 
   "action app/(app)/timetable/actions.ts#amendEntryAction": {
-    request: (fx, caller) => ({ args: [{ entryId: caller === "chief" ? fx.otherStudentEntry : fx.studentEntry, status: "attended", reason: "Harness correction" }] }),
+    // posted from a session's page; which page does not matter to the action
+    request: (fx, caller) => ({ params: { sessionId: fx.kestrelSessionRecorded! }, args: [{ entryId: caller === "chief" ? fx.otherStudentEntry : fx.studentEntry, status: "attended", reason: "Harness correction" }] }),
     expect: { signedOut: 401, chief: 200, instructor: 200, student: 403, sponsor: 403 },
     mutates: true,
   },

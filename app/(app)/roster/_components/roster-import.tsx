@@ -79,7 +79,7 @@ export function RosterImport() {
         <>
           {preview.fileProblems.map((p) => <p key={p} role="alert" className="field-error">{p}</p>)}
           <p>{preview.readyCount} of {preview.rows.length} rows ready. {blocked ? "Fix the file and choose it again: nothing is imported while any row has a problem." : ""}</p>
-          <div className="overflow-x-auto">
+          <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Preview of the file, scrolls sideways">
             <table className="data-table" data-testid="import-preview">
               <thead><tr><th scope="col">Line</th><th scope="col">Name</th><th scope="col">E-mail</th><th scope="col">Cohort</th><th scope="col">Sponsor</th><th scope="col">Problems</th></tr></thead>
               <tbody>

@@ -29,7 +29,7 @@ export default async function SessionPage({ params }: { params: Promise<{ sessio
   return (
     <div className="space-y-6">
       <header>
-        <p className="text-caption"><Link href={`/timetable?week=${s.date}`}>← Timetable, week of this session</Link></p>
+        <p className="text-caption"><Link href={`/timetable?week=${s.date}`} className="underline">← Timetable, week of this session</Link></p>
         <h1 className="text-display">{s.briefingTitle}</h1>
         <p className="text-ink-soft">
           <span className="num">{formatInZone(starts, school.timeZone, "EEEE d MMMM yyyy")}, {s.startLocal}–{s.endLocal}</span> ({s.durationMinutes} min) · {s.room}

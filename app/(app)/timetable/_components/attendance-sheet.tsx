@@ -75,7 +75,7 @@ export function AttendanceSheet({ sessionId, sessionMinutes, lines }: { sessionI
       )}
       <div aria-live="polite">{msg && <p role={msg.ok ? "status" : "alert"} className={msg.ok ? "font-semibold text-solid-800" : "field-error"} data-testid="attendance-message">{msg.text}</p>}</div>
       {done.length > 0 && (
-        <div className="overflow-x-auto">
+        <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Recorded attendance, scrolls sideways">
           <table className="data-table" data-testid="attendance-recorded">
             <caption className="sr-only">Recorded attendance</caption>
             <thead><tr><th scope="col">Student</th><th scope="col">Attendance</th><th scope="col">Credited</th><th scope="col">History</th><th scope="col">Correct</th></tr></thead>

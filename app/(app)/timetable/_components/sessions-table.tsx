@@ -101,7 +101,7 @@ export function SessionsTable({
         )}
       </div>
       <div aria-live="polite">{error && <p role="alert" className="field-error">{error.message}</p>}</div>
-      <div className="overflow-x-auto">
+      <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Sessions, scrolls sideways">
         <table className="data-table" data-testid="sessions-table">
           <thead>
             <tr>

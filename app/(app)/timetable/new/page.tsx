@@ -17,7 +17,7 @@ export default async function NewSessionPage() {
   return (
     <div className="space-y-6">
       <header>
-        <p className="text-caption"><Link href="/timetable">← Timetable</Link></p>
+        <p className="text-caption"><Link href="/timetable" className="underline">← Timetable</Link></p>
         <h1 className="text-display">Schedule a session</h1>
         <p className="text-ink-soft">Date and time are in the school&apos;s time zone ({school.timeZone}).</p>
       </header>

@@ -24,7 +24,7 @@ export async function NextSessions({ user }: { user: CurrentUser }) {
           ))}
         </ul>
       )}
-      <p className="mt-2 text-caption"><Link href="/timetable">Your week on the Timetable</Link> · <Link href="/ground-log">Your Ground log</Link></p>
+      <p className="mt-2 text-caption"><Link href="/timetable" className="underline">Your week on the Timetable</Link> · <Link href="/ground-log" className="underline">Your Ground log</Link></p>
     </section>
   );
 }
