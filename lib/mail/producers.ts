@@ -113,6 +113,7 @@ export async function produceSessionReminders(at: Date): Promise<{ written: numb
 export async function produceOverdueReminders(at: Date): Promise<number> {
   if (!(await tablesExist(["assignments", "assignment_completions", "briefings", "briefing_revisions"]))) return 0;
   const hasDemos = await tablesExist(["demos"]);
+  const hasView = await tablesExist(["assignment_students"]);
   return sequelize.transaction(async (t) => {
     const rows = await sequelize.query<{
       id: string;
@@ -127,12 +128,15 @@ export async function produceOverdueReminders(at: Date): Promise<number> {
       time_zone: string;
       sender_name: string | null;
     }>(
-      `WITH targets AS (
-         SELECT a.id, a.school_id, a.kind, a.briefing_id, a.demo_id, a.due_on, a.student_id FROM assignments a WHERE a.student_id IS NOT NULL
-         UNION
-         SELECT a.id, a.school_id, a.kind, a.briefing_id, a.demo_id, a.due_on, m.student_id
-           FROM assignments a JOIN cohort_memberships m ON m.cohort_id = a.cohort_id
-          WHERE m.from_date <= a.due_on AND (m.to_date IS NULL OR m.to_date > a.due_on)
+      `WITH targets AS (${
+         hasView
+           ? // the briefings area's own answer to "who is this assignment for"
+             `SELECT assignment_id AS id, school_id, kind, briefing_id, demo_id, due_on, student_id FROM assignment_students`
+           : `SELECT a.id, a.school_id, a.kind, a.briefing_id, a.demo_id, a.due_on, a.student_id FROM assignments a WHERE a.student_id IS NOT NULL
+              UNION
+              SELECT a.id, a.school_id, a.kind, a.briefing_id, a.demo_id, a.due_on, m.student_id
+                FROM assignments a JOIN cohort_memberships m ON m.cohort_id = a.cohort_id AND m.to_date IS NULL`
+       }
        )
        SELECT tg.id, tg.school_id, tg.kind, tg.due_on, tg.student_id, p.name, p.email,
               ${hasDemos ? "COALESCE(br.title, d.name)" : "br.title"} AS title,
@@ -283,7 +287,7 @@ export async function gatherLetter(link: LinkRow, school: SchoolRow, weekStart: 
     if (await tablesExist(["assignments", "assignment_completions"], t)) {
       const [row] = await q<{ n: number }>(
         `SELECT count(*)::int AS n FROM assignments a
-          WHERE (a.student_id = :sid OR a.cohort_id IN (SELECT cohort_id FROM cohort_memberships m WHERE m.student_id = :sid AND m.from_date <= a.due_on AND (m.to_date IS NULL OR m.to_date > a.due_on)))
+          WHERE (a.student_id = :sid OR a.cohort_id IN (SELECT cohort_id FROM cohort_memberships m WHERE m.student_id = :sid AND m.to_date IS NULL))
             AND a.due_on < :today
             AND NOT EXISTS (SELECT 1 FROM assignment_completions c WHERE c.assignment_id = a.id AND c.student_id = :sid)`,
         { today: dateInZone(at, tz) },

@@ -139,6 +139,31 @@ describe("session reminders", () => {
   });
 });
 
+describe("overdue-assignment reminders", () => {
+  test("the day after the due date (school calendar), once, to each student of the cohort who has not marked it done", async () => {
+    const s = await makeSchool("mail-overdue");
+    const b = await makeBriefing(s, "Read before the drag session");
+    const [a] = await sequelize.query<{ id: string }>(
+      `INSERT INTO assignments (school_id, kind, briefing_id, cohort_id, due_on, assigned_by) VALUES (:s, 'briefing', :b, :c, '2027-02-03', :i) RETURNING id`,
+      { replacements: { s: s.school.id, b: b.id, c: s.cohorts.a.id, i: s.people.instructor.id }, type: QueryTypes.SELECT },
+    );
+    const [done, ...rest] = s.people.students.slice(0, 3);
+    await sequelize.query(`INSERT INTO assignment_completions (assignment_id, student_id, completed_at) VALUES (:a, :s, now())`, { replacements: { a: a!.id, s: done!.id } });
+    const rows = () =>
+      sequelize.query<{ recipient_id: string; subject: string }>(`SELECT recipient_id, subject FROM outbox WHERE kind = 'assignment.overdue' AND idempotency_key LIKE :p`, {
+        replacements: { p: `assignment.overdue:${a!.id}:%` },
+        type: QueryTypes.SELECT,
+      });
+    await runDueWork(new Date("2027-02-03T23:30:00Z")); // still the due date in London
+    expect(await rows()).toHaveLength(0);
+    await runDueWork(new Date("2027-02-04T00:30:00Z"));
+    await runDueWork(new Date("2027-02-05T09:00:00Z"));
+    const written = await rows();
+    expect(written.map((r) => r.recipient_id).sort()).toEqual(rest.map((p) => p!.id).sort());
+    expect(written[0]!.subject).toBe("Overdue briefing: Read before the drag session (was due Wednesday 3 February 2027)");
+  });
+});
+
 describe("the Weekly letter", () => {
   let s: School;
   const canary = `CANARY${randomUUID().slice(0, 6).toUpperCase()}`;
