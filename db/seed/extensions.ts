@@ -3,6 +3,7 @@ import { seedTimetable } from "./timetable";
 import { seedCurveLab } from "./curve-lab";
 import { seedBriefings } from "./briefings";
 import { seedRecords } from "./records";
+import { seedMail } from "./mail";
 
 export interface SeedContext {
   t: Transaction;
@@ -27,6 +28,8 @@ const extensions: { name: string; run: (ctx: SeedContext) => Promise<void> }[] =
   { name: "briefings", run: seedBriefings },
   // the Timetable schedules the briefings: keep it after the briefings seed
   { name: "timetable", run: seedTimetable },
+  // a note for the demo sponsor's Weekly letter
+  { name: "mail", run: seedMail },
   // records sign off items that the timetable's attendance and make-up items may touch: keep it last
   { name: "records", run: seedRecords },
 ];
