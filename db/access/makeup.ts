@@ -8,12 +8,14 @@ import type { CurrentUser } from "@/lib/auth/session";
 import { rolesAllow } from "@/lib/auth/permissions";
 import type { makeupCloseSchema, makeupScheduleSchema, makeupWaiveSchema } from "@/lib/timetable/schemas";
 
-/** An absence opens one make-up item per syllabus item the session covered (once per item and session). */
+/** An absence opens one make-up item per syllabus item the session covered, unless one is already outstanding for that item. */
 export async function openMakeupForAbsence(t: Transaction, p: { schoolId: string; studentId: string; sessionId: string; itemIds: string[] }): Promise<number> {
   if (p.itemIds.length === 0) return 0;
   const [rows] = await sequelize.query(
     `INSERT INTO makeup_items (school_id, student_id, syllabus_item_id, source_kind, source_id)
      SELECT :school, :student, x, 'absence', :session FROM unnest(ARRAY[:items]::uuid[]) AS x
+      -- one outstanding item per syllabus item: a second absence on it adds nothing new to make up
+      WHERE NOT EXISTS (SELECT 1 FROM makeup_items o WHERE o.student_id = :student AND o.syllabus_item_id = x AND o.state IN ('open','scheduled') AND o.source_id <> :session)
      ON CONFLICT (student_id, syllabus_item_id, source_kind, source_id) DO UPDATE
        SET state = 'open', closed_by_kind = NULL, closed_by_id = NULL, closed_at = NULL
        WHERE makeup_items.closed_by_kind = 'attendance_amended'

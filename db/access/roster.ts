@@ -313,6 +313,7 @@ export interface RosterStudent {
  */
 export async function listRoster(user: CurrentUser): Promise<RosterStudent[]> {
   const all = user.roles.includes("chief");
+  const today = dateInZone(now(), (await schoolInTx(user.schoolId)).timeZone);
   return sequelize.query<RosterStudent>(
     `SELECT p.id AS "studentId", p.name, p.email, c.id AS "cohortId", c.name AS "cohortName", m.from_date AS "fromDate", m.to_date AS "toDate",
             (SELECT json_agg(json_build_object('cohortName', hc.name, 'fromDate', hm.from_date, 'toDate', hm.to_date) ORDER BY hm.from_date)
@@ -321,8 +322,8 @@ export async function listRoster(user: CurrentUser): Promise<RosterStudent[]> {
        FROM cohort_memberships m
        JOIN cohorts c ON c.id = m.cohort_id
        JOIN people p ON p.id = m.student_id
-      WHERE c.school_id = :schoolId AND m.to_date IS NULL AND (:all OR c.lead_instructor_id = :uid)
+      WHERE c.school_id = :schoolId AND m.from_date <= :today AND (m.to_date IS NULL OR m.to_date > :today) AND (:all OR c.lead_instructor_id = :uid)
       ORDER BY c.starts_on, c.name, p.name`,
-    { replacements: { schoolId: user.schoolId, all, uid: user.id }, type: QueryTypes.SELECT },
+    { replacements: { schoolId: user.schoolId, all, uid: user.id, today }, type: QueryTypes.SELECT },
   );
 }

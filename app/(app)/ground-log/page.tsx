@@ -6,7 +6,7 @@ import { groundHoursFor, logbookFor, groundLogStudentsFor, mayViewGroundLog } fr
 import { listMakeupFor } from "@/db/access/makeup";
 import { listSessions } from "@/db/access/sessions";
 import { getSchool } from "@/db/access/school";
-import { hoursLabel } from "@/lib/time";
+import { hoursLabel, dateInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
 import { ATTENDANCE_LABELS } from "@/lib/timetable/schemas";
 import { MakeupActions } from "./_components/makeup-actions";
@@ -119,7 +119,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
                     {makeup.map((m) => (
                       <tr key={m.id}>
                         <td>{m.itemCode} {m.itemTitle}</td>
-                        <td>{m.sourceTitle ?? m.sourceKind}{m.sourceStartsAt ? <span className="num block text-caption text-ink-soft">{new Date(m.sourceStartsAt).toISOString().slice(0, 10)}</span> : null}</td>
+                        <td>{m.sourceTitle ?? m.sourceKind}{m.sourceStartsAt ? <span className="num block text-caption text-ink-soft">{dateInZone(new Date(m.sourceStartsAt), school.timeZone)}</span> : null}</td>
                         <td>
                           <span className="font-semibold">{STATE_LABEL[m.state]}</span>
                           {m.closedByKind && <span className="block text-caption text-ink-soft">{CLOSED_BY[m.closedByKind] ?? m.closedByKind}{m.note ? `: ${m.note}` : ""}</span>}

@@ -43,7 +43,7 @@ export default async function RosterPage() {
                   {members.map((m) => (
                     <tr key={m.studentId}>
                       <td>{m.name}</td>
-                      <td className="break-all">{m.email}</td>
+                      <td className="whitespace-nowrap">{m.email}</td>
                       <td className="text-caption">
                         {m.history.map((h) => (
                           <span key={`${h.cohortName}-${h.fromDate}`} className="block num">{h.cohortName}: {h.fromDate} – {h.toDate ?? "now"}</span>

@@ -124,6 +124,10 @@ describe("make-up items", () => {
     expect(open.map((m) => m.itemCode).sort()).toEqual(["AER-01", "AER-02"]);
     const b = s.people.students[1]!; // absent (excused) from the ATM session
     expect((await listMakeupFor([b.id])).map((m) => [m.itemCode, m.state])).toEqual([["ATM-01", "open"]]);
+    // a second absence on the same items adds nothing new to make up
+    const missedAgain = await session(aer.id, "2026-11-20", 60);
+    await record(missedAgain.id, [{ studentId: c.id, status: "absent" }]);
+    expect((await listMakeupFor([c.id])).map((m) => m.itemCode).sort()).toEqual(["AER-01", "AER-02"]);
     // a later AER session that c attends closes both as done by that session
     const again = await session(aer.id, "2026-11-23", 60);
     await record(again.id, [{ studentId: c.id, status: "attended" }]);
