@@ -167,6 +167,26 @@ describe("syllabus revisions", () => {
     ).rejects.toThrow(/referenced by briefing revisions/);
   });
 
+  it("a revision that only another area's record refers to (a make-up item) is frozen too", async () => {
+    const s = await makeSchool("sfrz2");
+    actAs(s.as.chief);
+    const made = await createSyllabusRevisionAction({ courseId: s.course.id, approvedOn: null, effectiveFrom: null, changeNote: "Second issue", stages: DEMO_STAGES });
+    if (!made.ok) throw new Error(made.message);
+    const item = (await sequelize.query<{ id: string }>(`SELECT id FROM syllabus_items WHERE revision_id = :r AND code = 'AER-02'`, {
+      replacements: { r: made.data.id },
+      type: QueryTypes.SELECT,
+    }))[0]!.id;
+    // nothing refers to revision 2 yet: it may still be corrected
+    await sequelize.query(`UPDATE syllabus_items SET title = 'Lift-dependent (induced) drag' WHERE id = :i`, { replacements: { i: item } });
+    await sequelize.query(
+      `INSERT INTO makeup_items (school_id, student_id, syllabus_item_id, source_kind, source_id) VALUES (:school, :student, :item, 'absence', gen_random_uuid())`,
+      { replacements: { school: s.school.id, student: s.people.students[0]!.id, item } },
+    );
+    await expect(
+      sequelize.query(`UPDATE syllabus_items SET completion_standard = 'easier' WHERE id = :i`, { replacements: { i: item } }),
+    ).rejects.toThrow(/referenced by make-up items/);
+  });
+
   it("the chief moves one enrolment to another revision of the same course; others stay", async () => {
     const s = await makeSchool("smov");
     const other = await makeSchool("smov2");
