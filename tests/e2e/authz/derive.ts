@@ -101,9 +101,9 @@ export function deriveEndpoints(root = process.cwd()): Endpoint[] {
 }
 
 /** "/api/x/[id]/[...rest]" with { id: "1", rest: "a/b" } → "/api/x/1/a/b". */
-export function fillPath(p: string, params: Record<string, string> = {}): string {
+export function fillPath(p: string, params: Record<string, string> = {}, fallback?: string): string {
   return p.replace(/\[\[?(?:\.\.\.)?([^\]]+)\]?\]/g, (_m, name: string) => {
-    const v = params[name];
+    const v = params[name] ?? fallback;
     if (v === undefined) throw new Error(`${p}: no value for the segment [${name}] (give it in request.params)`);
     return v.split("/").map(encodeURIComponent).join("/");
   });
