@@ -1,5 +1,5 @@
 "use client";
-import { memo, useLayoutEffect, useRef, useState, type MutableRefObject } from "react";
+import { memo, useEffect, useLayoutEffect, useRef, useState, type MutableRefObject } from "react";
 import { Chart as ChartJS, LineController, LineElement, PointElement, LinearScale, type Chart, type ChartDataset, type ChartOptions, type Plugin } from "chart.js";
 import { Chart as ReactChart } from "react-chartjs-2";
 import { CURVE_KEYS, CURVE_LABELS, speedFromUnit, speedInUnit, speedUnitLabel, type CurveKey, type DemoSpec, type MarkerKey } from "./demo-spec";
@@ -90,7 +90,7 @@ function fmt(n: number, digits = 0): string {
  * (amber "speed-unstable" below, teal "speed-stable" above), stall hatched, Vmd as a solid rule
  * with a diamond at minimum drag, Vmp dashed, best glide, the chosen speed and the student's call.
  */
-function boardPlugin(overlay: MutableRefObject<Overlay>): Plugin<"line"> {
+function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
   return {
     id: "curveLabBoard",
     beforeDraw(chart) {
@@ -232,19 +232,35 @@ function effectiveSpec(spec: DemoSpec, conceal: Concealment | null): DemoSpec {
   return { ...spec, curves };
 }
 
-function CurveChartInner({ spec, focus, variant, conceal = null, guessMs = null, answerMs = null, onPickSpeed, chartRef, label, className }: CurveChartProps) {
-  const projector = variant === "projector";
-  const fontPx = projector ? 28 : 13;
-  const lineWidth = projector ? 4 : 2.5;
-  const chart = useRef<Chart<"line", { x: number; y: number }[]> | null>(null);
-  const cache = useRef<{ set?: CurveSet<Float64Array> }>({});
-  const pick = useRef(onPickSpeed);
-  pick.current = onPickSpeed;
-  const [frame] = useState(() => fillFrame(newFrame(), effectiveSpec(spec, conceal), cache.current));
-  const overlay = useRef<Overlay>({ spec, frame, focus, conceal, guessMs, answerMs, fontPx, lineWidth });
+interface ApplyInput {
+  spec: DemoSpec;
+  focus: number;
+  conceal: Concealment | null;
+  guessMs: number | null;
+  answerMs: number | null;
+}
 
-  // Built once: the chart instance is never recreated; later changes mutate it in place.
-  const [setup] = useState(() => {
+/**
+ * Owns everything the one chart instance draws from: the preallocated points, the library's
+ * reusable arrays, the plugin's overlay and the chart's configuration. `apply` rewrites them in
+ * place and redraws once with update("none").
+ */
+class CurveChartController {
+  readonly frame: Frame;
+  readonly cache: { set?: CurveSet<Float64Array> } = {};
+  readonly overlay: { current: Overlay };
+  readonly data: { datasets: ChartDataset<"line", { x: number; y: number }[]>[] };
+  readonly options: ChartOptions<"line">;
+  readonly plugins: Plugin<"line">[];
+  private pick: ((ms: number) => void) | undefined;
+
+  constructor(first: ApplyInput, readonly variant: ChartVariant) {
+    const projector = variant === "projector";
+    const fontPx = projector ? 28 : 13;
+    const lineWidth = projector ? 4 : 2.5;
+    const frame = fillFrame(newFrame(), effectiveSpec(first.spec, first.conceal), this.cache);
+    this.frame = frame;
+    this.overlay = { current: { ...first, frame, fontPx, lineWidth } };
     const datasets: ChartDataset<"line", { x: number; y: number }[]>[] = [];
     for (let c = 0; c < MAX_CASES; c++) {
       for (const k of CURVE_KEYS) {
@@ -257,7 +273,7 @@ function CurveChartInner({ spec, focus, variant, conceal = null, guessMs = null,
           normalized: true,
           borderColor: CASE_COLOURS[c],
           backgroundColor: CASE_COLOURS[c],
-          borderWidth: k === "total" ? lineWidth + (projector ? 1 : 1) : lineWidth,
+          borderWidth: k === "total" ? lineWidth + 1 : lineWidth,
           borderDash: CURVE_DASH[k].map((v) => v * (projector ? 1.6 : 1)),
           pointRadius: 0,
           pointHoverRadius: 0,
@@ -270,7 +286,8 @@ function CurveChartInner({ spec, focus, variant, conceal = null, guessMs = null,
     const tick = { color: BOARD.dim, font: { size: fontPx } };
     const title = (text: string) => ({ display: true, text, color: BOARD.chalk, font: { size: fontPx, weight: 600 as const } });
     const grid = { color: BOARD.grid, lineWidth: projector ? 1.5 : 1 };
-    const options: ChartOptions<"line"> = {
+    this.data = { datasets };
+    this.options = {
       animation: false,
       responsive: true,
       maintainAspectRatio: false,
@@ -280,25 +297,26 @@ function CurveChartInner({ spec, focus, variant, conceal = null, guessMs = null,
         const xScale = ch.scales.x;
         if (!xScale || e.x === null || e.x === undefined) return;
         const v = xScale.getValueForPixel(e.x);
-        if (v !== undefined && Number.isFinite(v) && v > 0) pick.current?.(speedFromUnit(v, overlay.current.spec.axis.unit));
+        if (v !== undefined && Number.isFinite(v) && v > 0) this.pick?.(speedFromUnit(v, this.overlay.current.spec.axis.unit));
       },
       scales: {
-        x: { type: "linear", min: frame.xMin, max: frame.xMax, ticks: tick, grid, title: title(axisTitle(spec)) },
+        x: { type: "linear", min: frame.xMin, max: frame.xMax, ticks: tick, grid, title: title(axisTitle(first.spec)) },
         y: { type: "linear", position: "left", min: 0, max: frame.yMaxDragN, ticks: tick, grid, title: title("Drag (N)") },
         power: { type: "linear", position: "right", min: 0, max: frame.yMaxPowerKw, display: false, ticks: tick, grid: { drawOnChartArea: false }, title: title("Power required (kW)") },
         ld: { type: "linear", position: "right", min: 0, max: frame.yMaxLiftToDrag, display: false, ticks: tick, grid: { drawOnChartArea: false }, title: title("L/D") },
       },
     };
-    return { data: { datasets }, options, plugins: [boardPlugin(overlay)] };
-  });
+    this.plugins = [boardPlugin(this.overlay)];
+  }
 
-  useLayoutEffect(() => {
-    const ch = chart.current;
-    if (chartRef) chartRef.current = ch as unknown as Chart;
-    if (!ch) return;
-    const eff = effectiveSpec(spec, conceal);
-    fillFrame(frame, eff, cache.current);
-    overlay.current = { spec: eff, frame, focus, conceal, guessMs, answerMs, fontPx, lineWidth };
+  setPick(fn: ((ms: number) => void) | undefined): void {
+    this.pick = fn;
+  }
+
+  apply(ch: Chart<"line", { x: number; y: number }[]>, input: ApplyInput): void {
+    const eff = effectiveSpec(input.spec, input.conceal);
+    const frame = fillFrame(this.frame, eff, this.cache);
+    this.overlay.current = { ...this.overlay.current, ...input, spec: eff, frame };
     const datasets = ch.data.datasets;
     let power = false;
     let ld = false;
@@ -320,16 +338,28 @@ function CurveChartInner({ spec, focus, variant, conceal = null, guessMs = null,
     scales.ld!.max = frame.yMaxLiftToDrag;
     scales.ld!.display = ld;
     ch.update("none");
-  }, [spec, focus, conceal, guessMs, answerMs, frame, fontPx, lineWidth, chartRef]);
+  }
+}
+
+function CurveChartInner({ spec, focus, variant, conceal = null, guessMs = null, answerMs = null, onPickSpeed, chartRef, label, className }: CurveChartProps) {
+  const chart = useRef<Chart<"line", { x: number; y: number }[]> | null>(null);
+  // One controller for the component's life: the chart instance is never recreated.
+  const [ctl] = useState(() => new CurveChartController({ spec, focus, conceal, guessMs, answerMs }, variant));
+  useEffect(() => ctl.setPick(onPickSpeed), [ctl, onPickSpeed]);
+  useLayoutEffect(() => {
+    const ch = chart.current;
+    if (chartRef) chartRef.current = ch as unknown as Chart;
+    if (ch) ctl.apply(ch, { spec, focus, conceal, guessMs, answerMs });
+  }, [ctl, spec, focus, conceal, guessMs, answerMs, chartRef]);
 
   return (
     <div className={className} style={{ position: "relative" }}>
       <ReactChart
         ref={chart}
         type="line"
-        data={setup.data}
-        options={setup.options}
-        plugins={setup.plugins}
+        data={ctl.data}
+        options={ctl.options}
+        plugins={ctl.plugins}
         role="img"
         aria-label={label}
         data-testid="curve-chart"

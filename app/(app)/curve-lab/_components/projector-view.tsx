@@ -1,5 +1,6 @@
 "use client";
-import { useEffect, useMemo, useRef, useState } from "react";
+import { useEffect, useMemo, useRef, useState, useSyncExternalStore } from "react";
+import { createPortal } from "react-dom";
 import { CurveChart, CASE_COLOURS } from "@/components/charts/curve-chart";
 import { CURVE_LABELS, formatSpeed, MARKER_KEYS, type CurveKey, type DemoSpec } from "@/components/charts/demo-spec";
 import { caseFigures, AXIS_ASSUMPTION } from "@/components/charts/readouts";
@@ -14,6 +15,8 @@ const CURVE_SHORTCUTS: [string, CurveKey][] = [
   ["p", "power"],
   ["g", "liftToDrag"],
 ];
+
+const noSubscription = () => () => undefined;
 
 /** Full-screen teaching view: the board, big type, thick lines, keyboard only, no editing chrome. */
 export function ProjectorView({ name, spec: saved, backHref }: { name: string; spec: DemoSpec; backHref: string }) {
@@ -31,8 +34,21 @@ export function ProjectorView({ name, spec: saved, backHref }: { name: string; s
   const chartFocus = allCases ? focus : 0;
   const conceal = useMemo(() => (markers && regions ? null : { regions: !regions, markers: markers ? [] : [...MARKER_KEYS], curves: [] }), [markers, regions]);
 
+  // Rendered over everything, straight into <body>; the app shell behind it is made inert so
+  // keyboard focus cannot wander into hidden navigation.
+  const mounted = useSyncExternalStore(noSubscription, () => true, () => false);
+  const host = mounted ? document.body : null;
   useEffect(() => {
-    root.current?.focus();
+    if (!host || !root.current) return;
+    const others = Array.from(host.children).filter((el): el is HTMLElement => el instanceof HTMLElement && el !== root.current && !el.inert);
+    for (const el of others) el.inert = true;
+    root.current.focus();
+    return () => {
+      for (const el of others) el.inert = false;
+    };
+  }, [host]);
+
+  useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
       if (e.altKey || e.ctrlKey || e.metaKey) return;
       const k = e.key.toLowerCase();
@@ -62,7 +78,8 @@ export function ProjectorView({ name, spec: saved, backHref }: { name: string; s
   const fig = caseFigures(saved.airframe, c, saved.axis.speed);
   const unit = saved.axis.unit;
 
-  return (
+  if (!host) return null;
+  return createPortal(
     <div ref={root} tabIndex={-1} data-testid="projector" className="fixed inset-0 z-50 flex flex-col gap-3 overflow-auto bg-board-950 p-6 text-[28px] leading-snug text-chalk outline-none">
       <header className="flex flex-wrap items-baseline justify-between gap-x-8 gap-y-2">
         <h1 className="text-[40px] font-bold">{name}</h1>
@@ -98,6 +115,7 @@ export function ProjectorView({ name, spec: saved, backHref }: { name: string; s
           </dl>
         </section>
       </footer>
-    </div>
+    </div>,
+    host,
   );
 }

@@ -1,7 +1,7 @@
 "use client";
 import { useState } from "react";
 import { useRouter } from "next/navigation";
-import { useForm, type FieldPath } from "react-hook-form";
+import { useForm, useWatch, type FieldPath } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
 import { kgToLb, lbToKg, ftToM, mToFt, METRES_PER_FOOT } from "@/lib/aero";
@@ -16,11 +16,12 @@ export function AirframeForm({ airframeId, defaults }: { airframeId: string | nu
   const router = useRouter();
   const [message, setMessage] = useState<string | null>(null);
   const form = useForm<z.input<S>, unknown, z.output<S>>({ resolver: zodResolver(airframeFormSchema), defaultValues: defaults, mode: "onBlur" });
-  const { register, handleSubmit, formState, setError, watch, getValues, setValue } = form;
+  const { register, handleSubmit, formState, setError, getValues, setValue, control } = form;
   const errors = formState.errors;
-  const units = watch("units");
+  const units = useWatch({ control, name: "units" });
   const imperial = units === "imperial";
-  const present = { gearDown: watch("gearDown.present"), flaps1: watch("flaps1.present"), flaps2: watch("flaps2.present") };
+  const [gearDown, flaps1, flaps2] = useWatch({ control, name: ["gearDown.present", "flaps1.present", "flaps2.present"] });
+  const present = { gearDown, flaps1, flaps2 };
 
   function switchUnits(next: "imperial" | "metric") {
     if (next === getValues("units")) return;
@@ -67,7 +68,7 @@ export function AirframeForm({ airframeId, defaults }: { airframeId: string | nu
     return (
       <div>
         <label htmlFor={id} className="field-label">{label}{unit && ` (${unit})`}</label>
-        <input id={id} type="number" inputMode="decimal" step={opts.step ?? "any"} disabled={opts.disabled} className="field-input num" aria-invalid={e ? true : undefined} aria-describedby={e ? `${id}-error` : undefined} {...register(name)} />
+        <input id={id} type="number" inputMode="decimal" step={opts.step ?? "any"} disabled={opts.disabled} className="field-input num disabled:bg-paper-deep disabled:text-ink-faint" aria-invalid={e ? true : undefined} aria-describedby={e ? `${id}-error` : undefined} {...register(name)} />
         {e && <p id={`${id}-error`} className="field-error" data-testid={`error-${name}`}>{e}</p>}
       </div>
     );
