@@ -23,19 +23,19 @@ let briefingId: string;
 
 /** A briefing of the demo school made straight in the database, as a target for upload tests. */
 async function makeBriefing(title: string): Promise<string> {
-  const { rows } = await db.query<{ id: string }>(
-    `WITH s AS (SELECT id FROM schools WHERE name = 'Larkhollow Flying School'),
-          c AS (SELECT id FROM courses WHERE code = 'PPL-GS' AND school_id = (SELECT id FROM s)),
-          p AS (SELECT id FROM people WHERE email = 'instructor@chalkwing.test'),
-          r AS (SELECT id FROM syllabus_revisions WHERE course_id = (SELECT id FROM c) ORDER BY number DESC LIMIT 1),
-          b AS (INSERT INTO briefings (school_id, course_id, owner_id) SELECT (SELECT id FROM s), (SELECT id FROM c), (SELECT id FROM p) RETURNING id),
-          v AS (INSERT INTO briefing_revisions (briefing_id, number, title, objective, elements, completion_standard, syllabus_revision_id, created_by)
-                SELECT (SELECT id FROM b), 1, $1, 'Upload target.', '[{"title":"x","instructorActions":"x","studentActions":"x","minutes":5}]'::jsonb,
-                       'None.', (SELECT id FROM r), (SELECT id FROM p) RETURNING id, briefing_id)
-     UPDATE briefings SET current_revision_id = (SELECT id FROM v) WHERE id = (SELECT briefing_id FROM v) RETURNING id`,
-    [title],
+  const one = async (sql: string, params: unknown[]) => (await db.query<{ id: string }>(sql, params)).rows[0]!.id;
+  const school = await one(`SELECT id FROM schools WHERE name = 'Larkhollow Flying School'`, []);
+  const course = await one(`SELECT id FROM courses WHERE code = 'PPL-GS' AND school_id = $1`, [school]);
+  const owner = await one(`SELECT id FROM people WHERE email = 'instructor@chalkwing.test'`, []);
+  const syllabus = await one(`SELECT id FROM syllabus_revisions WHERE course_id = $1 ORDER BY number DESC LIMIT 1`, [course]);
+  const id = await one(`INSERT INTO briefings (school_id, course_id, owner_id) VALUES ($1, $2, $3) RETURNING id`, [school, course, owner]);
+  const rev = await one(
+    `INSERT INTO briefing_revisions (briefing_id, number, title, objective, elements, completion_standard, syllabus_revision_id, created_by)
+     VALUES ($1, 1, $2, 'Upload target.', '[{"title":"x","instructorActions":"x","studentActions":"x","minutes":5}]'::jsonb, 'None.', $3, $4) RETURNING id`,
+    [id, title, syllabus, owner],
   );
-  return rows[0]!.id;
+  await db.query(`UPDATE briefings SET current_revision_id = $1 WHERE id = $2`, [rev, id]);
+  return id;
 }
 
 async function counts(id: string) {
@@ -220,7 +220,7 @@ describe("briefings end to end in Chromium", () => {
     await page.fill("#el-1-sa", "Say what a heavier aircraft does to the best-glide speed.");
     await page.fill("#el-1-minutes", "15");
     expect(await page.textContent("[data-testid=total-minutes]")).toBe("35");
-    const demoBox = page.getByLabel(/Why drag has a bucket/);
+    const demoBox = page.getByLabel(/Why drag has a bucket/).first();
     await demoBox.check();
     await page.fill("#completionStandard", "Estimates a glide distance within 10% and states that best glide is flown at Vmd.");
     await screenshot(page, "briefings-e2e-editor");
@@ -276,8 +276,8 @@ describe("briefings end to end in Chromium", () => {
 
     // the student marks it done; the instructor's completion table shows it
     await s.goto("/assignments");
-    await s.click(`button[aria-label='Mark “${title}” done']`);
-    await s.waitForSelector(`button[aria-label='Mark “${title}” not done']`);
+    await s.click(`button:has-text("Mark done: ${title}")`);
+    await s.waitForSelector(`button:has-text("Not done yet: ${title}")`);
     await screenshot(s, "briefings-e2e-assignments-student");
     const { rows: assignment } = await db.query<{ id: string }>(`SELECT id FROM assignments WHERE briefing_id = $1`, [newId]);
     await page.goto(`/assignments/${assignment[0]!.id}`);

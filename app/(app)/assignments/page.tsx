@@ -32,7 +32,7 @@ export default async function AssignmentsPage({ searchParams }: { searchParams: 
         <section className="card" aria-labelledby="h-set">
           <h2 id="h-set">Set so far</h2>
           {rows.length === 0 ? <p className="mt-2 text-ink-soft">Nothing assigned yet.</p> : (
-            <div className="mt-2 overflow-x-auto">
+            <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Assignments table (scrolls sideways on small screens)">
               <table className="data-table" data-testid="staff-assignments">
                 <thead><tr><th scope="col">What</th><th scope="col">For</th><th scope="col">Due</th><th scope="col">Done</th><th scope="col">Overdue</th><th scope="col">Set by</th></tr></thead>
                 <tbody>

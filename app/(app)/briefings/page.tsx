@@ -66,7 +66,7 @@ export default async function BriefingsPage({ searchParams }: { searchParams: Pr
           {result.total === 0 ? "No briefings found." : `${result.total} briefing${result.total === 1 ? "" : "s"} · page ${query.page} of ${pages}`}
         </p>
         {result.rows.length > 0 && (
-          <div className="mt-2 overflow-x-auto">
+          <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Briefings table (scrolls sideways on small screens)">
             <table className="data-table" data-testid="briefings-table">
               <thead>
                 <tr>

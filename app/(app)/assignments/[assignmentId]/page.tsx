@@ -29,7 +29,7 @@ export default async function AssignmentPage({ params }: { params: Promise<{ ass
       </header>
       <section className="card" aria-labelledby="h-completion">
         <h2 id="h-completion">Completion <span className="text-caption font-normal text-ink-soft">· <span className="num">{a.done}</span> of <span className="num">{a.students}</span> done</span></h2>
-        <div className="mt-2 overflow-x-auto">
+        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Completion table (scrolls sideways on small screens)">
           <table className="data-table" data-testid="completion-table">
             <thead><tr><th scope="col">Student</th><th scope="col">State</th><th scope="col">Marked done</th></tr></thead>
             <tbody>

@@ -13,7 +13,6 @@ export function DoneToggle({ assignmentId, done, title }: { assignmentId: string
         type="button"
         className={done ? "btn-quiet" : "btn-primary"}
         disabled={pending}
-        aria-label={done ? `Mark “${title}” not done` : `Mark “${title}” done`}
         onClick={() =>
           start(async () => {
             const r = await setAssignmentDoneAction({ assignmentId, done: !done });
@@ -23,6 +22,7 @@ export function DoneToggle({ assignmentId, done, title }: { assignmentId: string
         }
       >
         {done ? "Not done yet" : "Mark done"}
+        <span className="sr-only">: {title}</span>
       </button>
       {error && <span role="alert" className="field-error">{error}</span>}
     </span>

@@ -60,7 +60,7 @@ export default async function BriefingPage({
 
       <section className="card" aria-labelledby="h-elements">
         <h2 id="h-elements">Elements <span className="text-caption font-normal text-ink-soft">· <span className="num">{total}</span> min in all</span></h2>
-        <div className="mt-2 overflow-x-auto">
+        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Elements table (scrolls sideways on small screens)">
           <table className="data-table">
             <thead><tr><th scope="col">#</th><th scope="col">Element</th><th scope="col">Instructor&apos;s actions</th><th scope="col">Students&apos; actions</th><th scope="col">Min</th></tr></thead>
             <tbody>
@@ -115,7 +115,7 @@ export default async function BriefingPage({
 
       <section className="card" aria-labelledby="h-revisions">
         <h2 id="h-revisions">Revisions</h2>
-        <div className="mt-2 overflow-x-auto">
+        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Revisions table (scrolls sideways on small screens)">
           <table className="data-table">
             <thead><tr><th scope="col">Revision</th><th scope="col">Made</th><th scope="col">By</th><th scope="col">What changed</th></tr></thead>
             <tbody>

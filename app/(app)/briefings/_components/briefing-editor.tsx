@@ -145,9 +145,9 @@ export function BriefingEditor({ briefingId, nextNumber, initial, choices, hando
                   </div>
                 </div>
                 <div className="flex flex-wrap gap-2">
-                  <button type="button" className="btn-quiet" disabled={idx === 0} onClick={() => elements.move(idx, idx - 1)} aria-label={`Move element ${idx + 1} up`}>Move up</button>
-                  <button type="button" className="btn-quiet" disabled={idx === elements.fields.length - 1} onClick={() => elements.move(idx, idx + 1)} aria-label={`Move element ${idx + 1} down`}>Move down</button>
-                  <button type="button" className="btn-quiet" disabled={elements.fields.length === 1} onClick={() => elements.remove(idx)} aria-label={`Remove element ${idx + 1}`}>Remove</button>
+                  <button type="button" className="btn-quiet" disabled={idx === 0} onClick={() => elements.move(idx, idx - 1)} >Move up<span className="sr-only"> element {idx + 1}</span></button>
+                  <button type="button" className="btn-quiet" disabled={idx === elements.fields.length - 1} onClick={() => elements.move(idx, idx + 1)} >Move down<span className="sr-only"> element {idx + 1}</span></button>
+                  <button type="button" className="btn-quiet" disabled={elements.fields.length === 1} onClick={() => elements.remove(idx)} >Remove<span className="sr-only"> element {idx + 1}</span></button>
                 </div>
               </fieldset>
             </li>

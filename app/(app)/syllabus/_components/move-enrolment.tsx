@@ -25,7 +25,7 @@ export function MoveEnrolment({ enrolmentId, studentName, currentRevisionId, rev
       <select id={id} className="field-input mt-0 w-auto" value={revisionId} onChange={(e) => setRevisionId(e.target.value)}>
         {revisions.map((r) => <option key={r.id} value={r.id}>Revision {r.number}</option>)}
       </select>
-      <button type="submit" className="btn-quiet" disabled={pending || revisionId === currentRevisionId} aria-label={`Move ${studentName}`}>Move</button>
+      <button type="submit" className="btn-quiet" disabled={pending || revisionId === currentRevisionId} >Move<span className="sr-only"> {studentName}</span></button>
       <span aria-live="polite" className="text-caption">{message}</span>
     </form>
   );

@@ -71,9 +71,9 @@ function StageItems({ control, register, errors, stage }: { control: Control<For
                   </div>
                 </div>
                 <div className="flex flex-wrap gap-2">
-                  <button type="button" className="btn-quiet" disabled={i === 0} onClick={() => items.move(i, i - 1)} aria-label={`Move item ${i + 1} up`}>Move up</button>
-                  <button type="button" className="btn-quiet" disabled={i === items.fields.length - 1} onClick={() => items.move(i, i + 1)} aria-label={`Move item ${i + 1} down`}>Move down</button>
-                  <button type="button" className="btn-quiet" disabled={items.fields.length === 1} onClick={() => items.remove(i)} aria-label={`Remove item ${i + 1}`}>Remove</button>
+                  <button type="button" className="btn-quiet" disabled={i === 0} onClick={() => items.move(i, i - 1)} >Move up<span className="sr-only"> item {i + 1} of stage {stage + 1}</span></button>
+                  <button type="button" className="btn-quiet" disabled={i === items.fields.length - 1} onClick={() => items.move(i, i + 1)} >Move down<span className="sr-only"> item {i + 1} of stage {stage + 1}</span></button>
+                  <button type="button" className="btn-quiet" disabled={items.fields.length === 1} onClick={() => items.remove(i)} >Remove<span className="sr-only"> item {i + 1} of stage {stage + 1}</span></button>
                 </div>
               </fieldset>
             </li>
@@ -143,9 +143,9 @@ export function RevisionEditor({ initial, nextNumber }: { initial: FormIn; nextN
           </div>
           <StageItems control={control} register={register} errors={errors} stage={s} />
           <div className="flex flex-wrap gap-2 border-t border-paper-edge pt-3">
-            <button type="button" className="btn-quiet" disabled={s === 0} onClick={() => stages.move(s, s - 1)}>Move stage up</button>
-            <button type="button" className="btn-quiet" disabled={s === stages.fields.length - 1} onClick={() => stages.move(s, s + 1)}>Move stage down</button>
-            <button type="button" className="btn-quiet" disabled={stages.fields.length === 1} onClick={() => stages.remove(s)}>Remove stage</button>
+            <button type="button" className="btn-quiet" disabled={s === 0} onClick={() => stages.move(s, s - 1)}>Move stage {s + 1} up</button>
+            <button type="button" className="btn-quiet" disabled={s === stages.fields.length - 1} onClick={() => stages.move(s, s + 1)}>Move stage {s + 1} down</button>
+            <button type="button" className="btn-quiet" disabled={stages.fields.length === 1} onClick={() => stages.remove(s)}>Remove stage {s + 1}</button>
           </div>
         </section>
       ))}

@@ -36,7 +36,7 @@ export default async function SyllabusRevisionsPage({ searchParams }: { searchPa
       )}
       <section className="card" aria-labelledby="h-revs">
         <h2 id="h-revs">Revisions</h2>
-        <div className="mt-2 overflow-x-auto">
+        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Revisions table (scrolls sideways on small screens)">
           <table className="data-table" data-testid="syllabus-revisions">
             <thead><tr><th scope="col">Revision</th><th scope="col">Approved</th><th scope="col">Effective from</th><th scope="col">Items</th><th scope="col">Active enrolments</th><th scope="col">Briefing revisions</th><th scope="col">What changed</th></tr></thead>
             <tbody>
@@ -58,7 +58,7 @@ export default async function SyllabusRevisionsPage({ searchParams }: { searchPa
       <section className="card" aria-labelledby="h-enrol">
         <h2 id="h-enrol">Enrolments and their revision</h2>
         <p className="text-caption text-ink-soft">Each student stays on their revision until you move them.</p>
-        <div className="mt-2 overflow-x-auto">
+        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Enrolments table (scrolls sideways on small screens)">
           <table className="data-table">
             <thead><tr><th scope="col">Student</th><th scope="col">Enrolled</th><th scope="col">On revision</th><th scope="col">Move to</th></tr></thead>
             <tbody>
