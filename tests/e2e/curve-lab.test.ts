@@ -2,6 +2,7 @@
 // a seeded aircraft profile, saves it and opens the Projector view; a student opens the demo
 // assigned to their cohort, makes a Call it first prediction and sees the reveal; a student's call
 // of the save action over HTTP is refused by the server (403).
+import { readFileSync } from "node:fs";
 import type { Client } from "pg";
 import { launchBrowser, signIn, screenshot, type Browser } from "./helpers/browser";
 import { ownerClient } from "./helpers/db";
@@ -66,6 +67,16 @@ describe("Curve Lab end to end", () => {
     await page.waitForSelector("h1:has-text('E2E: gear and mass')");
     expect(await page.locator("[data-testid=caution]").first().isVisible()).toBe(true);
     await screenshot(page, "curve-lab-builder");
+
+    // Handouts: the chart as PNG, the sampled data as CSV (through lib/csv.ts).
+    const [png] = await Promise.all([page.waitForEvent("download"), page.click("text=Export chart (PNG)")]);
+    expect(png.suggestedFilename()).toBe("E2E_ gear and mass.png");
+    expect(readFileSync((await png.path())!).subarray(1, 4).toString("latin1")).toBe("PNG");
+    const [csv] = await Promise.all([page.waitForEvent("download"), page.click("text=Export data (CSV)")]);
+    const lines = readFileSync((await csv.path())!, "utf8").trim().split("\r\n");
+    expect(lines).toHaveLength(401); // a header and 400 sampled speeds
+    expect(lines[0]).toMatch(/^EAS \(kt\),Max mass: zero-lift drag \(N\),/);
+    expect(lines[0]!.split(",")).toHaveLength(1 + 2 * 7);
 
     // What was saved is the spec the builder showed: two cases, the second with the gear down.
     const { rows } = await db.query<{ spec: unknown; number: number }>(

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { Caution } from "@/components/caution";
+import { AXIS_ASSUMPTION } from "@/components/charts/readouts";
 import { AirframeForm } from "../_components/airframe-form";
 import { formValuesFor } from "../_lib/airframe-schema";
 
@@ -15,6 +16,7 @@ export default async function NewAirframePage() {
       <nav aria-label="Breadcrumb" className="text-caption"><Link href="/curve-lab">Curve Lab</Link> / <Link href="/curve-lab/airframes">Airframes</Link> / New</nav>
       <h1 className="text-display">New aircraft profile</h1>
       <Caution />
+      <p className="text-caption text-ink-soft">{AXIS_ASSUMPTION}</p>
       <AirframeForm airframeId={null} defaults={formValuesFor(null)} />
     </div>
   );

@@ -3,6 +3,7 @@ import Link from "next/link";
 import { z } from "zod";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { Caution } from "@/components/caution";
+import { AXIS_ASSUMPTION } from "@/components/charts/readouts";
 import { defaultSpec } from "@/components/charts/demo-spec";
 import { listAirframes, snapshotOf } from "@/db/access/airframes";
 import { DemoWorkbench } from "../../_components/demo-workbench";
@@ -21,6 +22,7 @@ export default async function NewDemoPage({ searchParams }: { searchParams: Prom
       <nav aria-label="Breadcrumb" className="text-caption"><Link href="/curve-lab">Curve Lab</Link> / New demo</nav>
       <h1 className="text-display">New demo</h1>
       <Caution />
+      <p className="text-caption text-ink-soft">{AXIS_ASSUMPTION}</p>
       {start ? (
         <DemoWorkbench mode="builder" demoId={null} demoRevisionId={null} revisionNumber={null} name="" initialSpec={defaultSpec(start)} airframes={airframes} />
       ) : (

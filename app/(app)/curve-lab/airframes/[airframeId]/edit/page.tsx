@@ -4,6 +4,7 @@ import { notFound } from "next/navigation";
 import { z } from "zod";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { Caution } from "@/components/caution";
+import { AXIS_ASSUMPTION } from "@/components/charts/readouts";
 import { getAirframe } from "@/db/access/airframes";
 import { AirframeForm } from "../../_components/airframe-form";
 import { formValuesFor } from "../../_lib/airframe-schema";
@@ -21,6 +22,7 @@ export default async function EditAirframePage({ params }: { params: Promise<{ a
       <nav aria-label="Breadcrumb" className="text-caption"><Link href="/curve-lab">Curve Lab</Link> / <Link href="/curve-lab/airframes">Airframes</Link> / <Link href={`/curve-lab/airframes/${a.id}`}>{a.name}</Link> / Edit</nav>
       <h1 className="text-display">Edit {a.name}</h1>
       <Caution />
+      <p className="text-caption text-ink-soft">{AXIS_ASSUMPTION}</p>
       <p className="text-caption text-ink-soft">Demos already saved keep the numbers they were built with; a change here applies to new demos and to demos you rebuild.</p>
       {a.retiredAt ? <p>This profile is retired. Duplicate it to make a changed copy.</p> : <AirframeForm airframeId={a.id} defaults={formValuesFor(a)} />}
     </div>
