@@ -77,7 +77,7 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
             {notes.map((n, i) => (
               <li key={`${n.recordId}-${n.kind}-${i}`}>
                 <span className="mr-2 rounded bg-unstable-100 px-1.5 text-caption font-semibold text-unstable-700">{n.label}</span>
-                <Link href={`/records/${n.studentId}`}>{n.studentName}</Link>{n.itemCode ? ` · ${n.itemCode}` : ""} · {n.detail}
+                <Link className="underline" href={`/records/${n.studentId}`}>{n.studentName}</Link>{n.itemCode ? ` · ${n.itemCode}` : ""} · {n.detail}
               </li>
             ))}
           </ul>
@@ -86,7 +86,7 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
 
       <section className="card" aria-labelledby="rows-title">
         <h2 id="rows-title">Sign-offs and stage checks <span className="text-caption font-normal text-ink-soft">({rows.length})</span></h2>
-        <div className="mt-2 overflow-x-auto">
+        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Sign-offs and stage checks">
           <table className="data-table text-caption" data-testid="register-table">
             <thead>
               <tr><th scope="col">Date</th><th scope="col">Student</th><th scope="col">Item or stage</th><th scope="col">Signer / examiner</th><th scope="col">Basis</th><th scope="col">State</th><th scope="col">Watch notes</th></tr>
@@ -95,7 +95,7 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
               {rows.map((r) => (
                 <tr key={r.id} data-testid="register-row">
                   <td className="num whitespace-nowrap">{r.date}</td>
-                  <td><Link href={`/records/${r.studentId}`}>{r.studentName}</Link><br /><span className="text-ink-soft">{r.cohortName ?? ""}</span></td>
+                  <td><Link className="underline" href={`/records/${r.studentId}`}>{r.studentName}</Link><br /><span className="text-ink-soft">{r.cohortName ?? ""}</span></td>
                   <td>{r.itemCode ? <><span className="num font-semibold">{r.itemCode}</span> {r.itemTitle}</> : r.itemTitle}</td>
                   <td>{r.signerName}</td>
                   <td>{r.basis}</td>

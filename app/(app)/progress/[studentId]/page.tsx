@@ -37,12 +37,12 @@ export default async function ProgressPage({ params }: { params: Promise<{ stude
   return (
     <div className="space-y-6">
       <header>
-        <p className="text-caption"><Link href="/progress">Progress map</Link></p>
+        <p className="text-caption"><Link className="underline" href="/progress">Progress map</Link></p>
         <h1 className="text-display">{map.student.name}</h1>
         <p className="text-ink-soft">
           {map.student.courseCode} {map.student.courseTitle} · {map.student.cohortName ?? "no cohort"} · enrolled {map.student.enrolledOn}
-          {map.access !== "sponsor" && <> · <a href={`/api/records/${map.student.id}/training-record`}>Training record (PDF)</a></>}
-          {map.access === "staff" && can(user, "checks.record") && <> · <Link href={`/records/${map.student.id}`}>Record a check</Link></>}
+          {map.access !== "sponsor" && <> · <a className="underline" href={`/api/records/${map.student.id}/training-record`}>Training record (PDF)</a></>}
+          {map.access === "staff" && can(user, "checks.record") && <> · <Link className="underline" href={`/records/${map.student.id}`}>Record a check</Link></>}
         </p>
       </header>
       <Caution />

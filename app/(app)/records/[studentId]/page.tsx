@@ -13,6 +13,7 @@ import { schoolFor } from "@/db/access/records";
 import { CheckForm } from "./_components/check-form";
 import { SignOffPanel } from "./_components/sign-off-panel";
 import { WithdrawButton } from "./_components/withdraw-button";
+import { AmendButton } from "./_components/amend-button";
 import { StageCheckForm } from "./_components/stage-check-form";
 import { OutcomeBadge } from "@/app/(app)/progress/_components/outcome-badge";
 
@@ -54,11 +55,11 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
   return (
     <div className="space-y-6">
       <header>
-        <p className="text-caption"><Link href="/records">Records</Link> / {student.name}</p>
+        <p className="text-caption"><Link className="underline" href="/records">Records</Link> / {student.name}</p>
         <h1 className="text-display">{student.name}</h1>
         <p className="text-ink-soft">
-          {student.courseCode} · {student.cohortName ?? "no cohort"} · lead {student.leadInstructorName ?? "—"} · <Link href={`/progress/${student.id}`}>Progress map</Link> ·{" "}
-          <a href={`/api/records/${student.id}/training-record`}>Training record (PDF)</a>
+          {student.courseCode} · {student.cohortName ?? "no cohort"} · lead {student.leadInstructorName ?? "—"} · <Link className="underline" href={`/progress/${student.id}`}>Progress map</Link> ·{" "}
+          <a className="underline" href={`/api/records/${student.id}/training-record`}>Training record (PDF)</a>
         </p>
       </header>
       <Caution />
@@ -96,7 +97,7 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
 
       <section className="card" aria-labelledby="signoffs">
         <h2 id="signoffs">Sign-offs</h2>
-        <div className="mt-2 overflow-x-auto">
+        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Sign-offs">
           <table className="data-table">
             <thead><tr><th scope="col">Item</th><th scope="col">Status</th><th scope="col">Sign-off</th></tr></thead>
             <tbody>
@@ -112,7 +113,12 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
                         {so ? (
                           <div className="space-y-1">
                             <p>Signed for {so.signedOn} by {so.signerName}</p>
-                            {can(user, "records.amend") && <WithdrawButton kind="signOff" id={so.id} label={`Withdraw sign-off of ${i.code}`} />}
+                            {can(user, "records.amend") && (
+                              <div className="flex flex-wrap gap-2">
+                                <WithdrawButton kind="signOff" id={so.id} label={`Withdraw sign-off of ${i.code}`} />
+                                <AmendButton signOffId={so.id} itemCode={i.code} />
+                              </div>
+                            )}
                           </div>
                         ) : plan?.statement ? (
                           can(user, "records.sign") ? <SignOffPanel studentId={student.id} itemId={i.id} itemCode={i.code} statement={plan.statement} /> : null

@@ -14,7 +14,7 @@ export default async function ChainPage() {
   return (
     <div className="space-y-6">
       <header>
-        <p className="text-caption"><Link href="/register">Sign-off register</Link></p>
+        <p className="text-caption"><Link className="underline" href="/register">Sign-off register</Link></p>
         <h1 className="text-display">Audit chain</h1>
         <p className="text-ink-soft">Each audit event&apos;s hash covers the previous hash and the event, so a change, removal, insertion or reordering breaks the chain from that point.</p>
       </header>
@@ -25,7 +25,7 @@ export default async function ChainPage() {
       </section>
       <section className="card" aria-labelledby="latest">
         <h2 id="latest">Latest events</h2>
-        <div className="mt-2 overflow-x-auto">
+        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Latest audit events">
           <table className="data-table text-caption">
             <thead><tr><th scope="col">#</th><th scope="col">When</th><th scope="col">Who</th><th scope="col">What</th><th scope="col">Hash</th></tr></thead>
             <tbody>
