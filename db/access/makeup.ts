@@ -25,13 +25,13 @@ export async function openMakeupForAbsence(t: Transaction, p: { schoolId: string
   return (rows as unknown[]).length;
 }
 
-/** Attending a session that covers an item closes the student's open or scheduled make-up items for it. */
+/** Attending a session closes the student's make-up items for the items it covers, and those planned into it. */
 export async function closeMakeupByAttendance(t: Transaction, p: { studentId: string; sessionId: string; itemIds: string[] }): Promise<void> {
-  if (p.itemIds.length === 0) return;
   await sequelize.query(
     `UPDATE makeup_items SET state = 'done', closed_by_kind = 'session', closed_by_id = :session, closed_at = :now, scheduled_session_id = NULL
-      WHERE student_id = :student AND syllabus_item_id = ANY(ARRAY[:items]::uuid[]) AND state IN ('open','scheduled') AND source_id <> :session`,
-    { replacements: { session: p.sessionId, now: now(), student: p.studentId, items: p.itemIds }, transaction: t },
+      WHERE student_id = :student AND state IN ('open','scheduled') AND source_id <> :session
+        AND (syllabus_item_id = ANY(ARRAY[:items]::uuid[]) OR scheduled_session_id = :session)`,
+    { replacements: { session: p.sessionId, now: now(), student: p.studentId, items: p.itemIds.length ? p.itemIds : ["00000000-0000-0000-0000-000000000000"] }, transaction: t },
   );
 }
 

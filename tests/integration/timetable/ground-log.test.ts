@@ -4,7 +4,7 @@ import { makeSchool, closeDb } from "@/tests/helpers/factories";
 import { scheduleSession } from "@/db/access/sessions";
 import { recordAttendance, amendEntry, groundHoursFor, logbookFor, creditFor } from "@/db/access/ground-log";
 import { creditedMinutesFor } from "@/db/access/ground-hours";
-import { listMakeupFor, waiveMakeup, closeMakeup } from "@/db/access/makeup";
+import { listMakeupFor, waiveMakeup, closeMakeup, scheduleMakeup } from "@/db/access/makeup";
 import { scheduleSessionSchema, recordAttendanceSchema, amendEntrySchema } from "@/lib/timetable/schemas";
 import { hoursLabel } from "@/lib/time";
 import { setClock, resetClock } from "@/lib/clock";
@@ -136,6 +136,30 @@ describe("make-up items", () => {
       ["AER-01", "done", "session"],
       ["AER-02", "done", "session"],
     ]);
+  });
+
+  it("an item planned into a later session is scheduled, and done once the student attends that session", async () => {
+    setClock(() => new Date("2026-11-25T12:00:00Z"));
+    const st = s.people.students[2]!;
+    const missed = await session(atm.id, "2026-11-18", 60);
+    await record(missed.id, [{ studentId: st.id, status: "absent" }]);
+    const [item] = (await listMakeupFor([st.id])).filter((m) => m.itemCode === "ATM-01" && m.state === "open");
+    // an instructor may not waive it: that is the chief's
+    await expect(sequelize.transaction((t) => waiveMakeup(s.as.instructor, { itemId: item!.id, reason: "Not mine to waive" }, t))).rejects.toMatchObject({ status: 403 });
+    // it cannot be planned into a session the student does not attend
+    const notTheirs = await sequelize.transaction((t) =>
+      scheduleSession(s.as.instructor, scheduleSessionSchema.parse({ briefingId: aer.id, date: "2026-11-28", time: "15:00", durationMinutes: 30, room: "Office", instructorId: s.people.instructor.id, studentIds: [s.people.students[0]!.id] }), t),
+    );
+    await expect(sequelize.transaction((t) => scheduleMakeup(s.as.instructor, { itemId: item!.id, sessionId: notTheirs.id }, t))).rejects.toMatchObject({ status: 400, field: "sessionId" });
+    // a one-to-one catch-up session for that student only, on another briefing
+    const catchUp = await sequelize.transaction((t) =>
+      scheduleSession(s.as.instructor, scheduleSessionSchema.parse({ briefingId: aer.id, date: "2026-11-27", time: "15:00", durationMinutes: 30, room: "Office", instructorId: s.people.instructor.id, studentIds: [st.id] }), t),
+    );
+    await sequelize.transaction((t) => scheduleMakeup(s.as.instructor, { itemId: item!.id, sessionId: catchUp.id }, t));
+    expect((await listMakeupFor([st.id])).find((m) => m.id === item!.id)).toMatchObject({ state: "scheduled", scheduledSessionId: catchUp.id });
+    setClock(() => new Date("2026-11-30T12:00:00Z"));
+    await record(catchUp.id, [{ studentId: st.id, status: "attended" }]);
+    expect((await listMakeupFor([st.id])).find((m) => m.id === item!.id)).toMatchObject({ state: "done", closedByKind: "session" });
   });
 
   it("self-study closed by an oral check, and a waiver needs the chief's reason", async () => {
