@@ -7,7 +7,7 @@ import { now } from "@/lib/clock";
 import { dateInZone } from "@/lib/time";
 import { composeMail } from "@/lib/mail/compose";
 import { evaluateCheck, DEFAULT_OUTCOME_RULE, type LevelOfLearning, type QuestionOutcome, type CheckOutcome, type ItemOutcome } from "@/lib/records/outcome";
-import { generateQuestion, QuestionInputError, REFERENCE_AIRCRAFT, type AircraftSnapshot, type GeneratedQuestion, type QuestionInputs, type QuestionKind } from "@/lib/records/questions";
+import { generateQuestion, QuestionInputError, REFERENCE_AIRCRAFT, type AircraftSourceKind, type AircraftSnapshot, type GeneratedQuestion, type QuestionInputs, type QuestionKind } from "@/lib/records/questions";
 import { isAeroInputError } from "@/lib/aero";
 import { writeAudit } from "./audit";
 import { enqueueMail } from "./outbox";
@@ -21,7 +21,7 @@ export interface QuestionInput {
   required: boolean;
   prompted: boolean;
   correctiveGiven: boolean;
-  generated?: { kind: QuestionKind; aircraft: { kind: "airframe" | "reference"; id: string }; inputs: QuestionInputs } | undefined;
+  generated?: { kind: QuestionKind; aircraft: { kind: AircraftSourceKind; id: string }; inputs: QuestionInputs } | undefined;
   studentFigure?: number | null | undefined;
 }
 
@@ -37,9 +37,44 @@ export interface OralCheckInput {
   amends?: { checkId: string; reason: string } | undefined;
 }
 
-/** Aircraft a question may be generated for: the school's airframes (Curve Lab) and the reference aircraft. */
-export async function listQuestionAircraft(schoolId: string, t?: Transaction): Promise<AircraftSnapshot[]> {
+interface DemoAirframe {
+  name: string;
+  maxMassKg: number;
+  wingAreaM2: number;
+  wingSpanM: number;
+  oswaldEfficiency: number;
+  zeroLiftDragCoefficient: number;
+  configurations?: { clean?: { maxLiftCoefficient?: number } };
+}
+
+/**
+ * Aircraft a question may be generated for: first the aircraft of the demos used in the
+ * briefings of the student's recent sessions (frozen in the demo revision), then the school's
+ * airframes (Curve Lab), then the reference aircraft.
+ */
+export async function listQuestionAircraft(schoolId: string, t?: Transaction, studentId?: string): Promise<AircraftSnapshot[]> {
   const out: AircraftSnapshot[] = [];
+  if (studentId && (await tableExists("briefing_revision_demos", t)) && (await tableExists("session_attendees", t))) {
+    const demos = await sequelize.query<{ id: string; demo_name: string; title: string; airframe: DemoAirframe | null }>(
+      `SELECT DISTINCT ON (dr.id) dr.id, d.name AS demo_name, br.title, dr.spec->'airframe' AS airframe
+         FROM session_attendees a JOIN training_sessions s ON s.id = a.session_id
+         JOIN briefing_revisions br ON br.id = s.briefing_revision_id
+         JOIN briefing_revision_demos bd ON bd.briefing_revision_id = s.briefing_revision_id
+         JOIN demo_revisions dr ON dr.id = bd.demo_revision_id JOIN demos d ON d.id = dr.demo_id
+        WHERE a.student_id = :studentId AND s.school_id = :schoolId AND s.status = 'scheduled' AND s.starts_at > CAST(:now AS timestamptz) - interval '90 days'
+        ORDER BY dr.id, s.starts_at DESC`,
+      { replacements: { studentId, schoolId, now: now() }, type: QueryTypes.SELECT, transaction: t },
+    );
+    for (const d of demos) {
+      const a = d.airframe;
+      if (!a || typeof a.wingAreaM2 !== "number") continue;
+      out.push({
+        name: `${a.name}, demo "${d.demo_name}" in ${d.title}`,
+        source: { kind: "demo", id: d.id },
+        aircraft: { massKg: a.maxMassKg, wingAreaM2: a.wingAreaM2, wingSpanM: a.wingSpanM, zeroLiftDragCoefficient: a.zeroLiftDragCoefficient, oswaldEfficiency: a.oswaldEfficiency, maxLiftCoefficient: a.configurations?.clean?.maxLiftCoefficient ?? 1.4 },
+      });
+    }
+  }
   if (await tableExists("airframes", t)) {
     const rows = await sequelize.query<{ id: string; name: string; max_mass_kg: number; wing_area_m2: number; wing_span_m: number; oswald_efficiency: number; zero_lift_drag_coefficient: number; configurations: { clean?: { cd0Increment?: number; maxLiftCoefficient?: number } } }>(
       `SELECT * FROM airframes WHERE school_id = :schoolId ${await hasRetired(t)} ORDER BY name`,
@@ -61,6 +96,19 @@ export async function listQuestionAircraft(schoolId: string, t?: Transaction): P
     }
   }
   return [...out, ...REFERENCE_AIRCRAFT];
+}
+
+/** Sessions of the student in the last 90 days that have started, newest first (for the optional session link). */
+export async function recentSessionsOf(studentId: string, schoolId: string, t?: Transaction): Promise<{ id: string; startsAt: Date; title: string }[]> {
+  if (!(await tableExists("session_attendees", t))) return [];
+  return sequelize.query<{ id: string; startsAt: Date; title: string }>(
+    `SELECT s.id, s.starts_at AS "startsAt", br.title FROM session_attendees a JOIN training_sessions s ON s.id = a.session_id
+       JOIN briefing_revisions br ON br.id = s.briefing_revision_id
+      WHERE a.student_id = :studentId AND s.school_id = :schoolId AND s.status = 'scheduled'
+        AND s.starts_at <= CAST(:now AS timestamptz) AND s.starts_at > CAST(:now AS timestamptz) - interval '90 days'
+      ORDER BY s.starts_at DESC LIMIT 20`,
+    { replacements: { studentId, schoolId, now: now() }, type: QueryTypes.SELECT, transaction: t },
+  );
 }
 
 async function hasRetired(t?: Transaction): Promise<string> {
@@ -122,7 +170,11 @@ export async function recordOralCheck(t: Transaction, user: CurrentUser, input: 
     amendsId = orig.id;
   }
 
-  const aircraft = input.questions.some((q) => q.generated) ? await listQuestionAircraft(user.schoolId, t) : [];
+  const aircraft = input.questions.some((q) => q.generated) ? await listQuestionAircraft(user.schoolId, t, student.id) : [];
+  if (input.sessionId) {
+    const sessions = await recentSessionsOf(student.id, user.schoolId, t);
+    if (!sessions.some((s) => s.id === input.sessionId)) throw new HttpError(400, "sessionId: not a session this student attended", "sessionId");
+  }
   const questions = input.questions.map((q, i) => {
     const field = `questions.${i}`;
     const item = items.find((it) => it.id === q.syllabusItemId);

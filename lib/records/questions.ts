@@ -27,10 +27,13 @@ export const QUESTION_KIND_LABEL: Record<QuestionKind, string> = {
   glide_distance: "Still-air glide distance from a height",
 };
 
+export const AIRCRAFT_SOURCE_KINDS = ["demo", "airframe", "reference"] as const;
+export type AircraftSourceKind = (typeof AIRCRAFT_SOURCE_KINDS)[number];
+
 export interface AircraftSnapshot {
   name: string;
-  /** where the numbers came from: an airframe of Curve Lab, or a reference aircraft of this module */
-  source: { kind: "airframe" | "reference"; id: string };
+  /** where the numbers came from: a demo revision (its frozen airframe), an airframe of Curve Lab, or a reference aircraft of this module */
+  source: { kind: AircraftSourceKind; id: string };
   aircraft: Aircraft;
 }
 

@@ -51,7 +51,7 @@ describe("Records end to end", () => {
     await page.selectOption("[id='questions.0.item']", { label: "AER-03 Total drag and the minimum-drag speed" });
     await page.selectOption("[id='questions.0.mode']", "generated");
     await page.selectOption("[id='questions.0.kind']", "vmd");
-    await page.selectOption("[id='questions.0.aircraft']", { label: "Larkhollow LT-2 trainer" });
+    await page.selectOption("[id='questions.0.aircraft']", { label: "Larkhollow LT-2 trainer (reference)" });
     await page.fill("[id='questions.0.massKg']", "1000");
     await page.fill("[id='questions.0.altitudeFt']", "4000");
     const preview = await page.textContent("[data-testid=generated-preview]");

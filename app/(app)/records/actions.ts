@@ -6,7 +6,7 @@ import { recordOralCheck, withdrawOralCheck } from "@/db/access/oral-checks";
 import { signOff, withdrawSignOff, amendSignOff } from "@/db/access/sign-offs";
 import { conductStageCheck, designateCheckInstructor } from "@/db/access/stage-checks";
 import { LEVELS, QUESTION_OUTCOMES } from "@/lib/records/outcome";
-import { QUESTION_KINDS } from "@/lib/records/questions";
+import { QUESTION_KINDS, AIRCRAFT_SOURCE_KINDS } from "@/lib/records/questions";
 
 const uuid = z.string().uuid("must be an id");
 const reason = z.string().trim().min(3, "give a reason of at least 3 characters").max(2000);
@@ -24,7 +24,7 @@ const questionSchema = z.object({
   generated: z
     .object({
       kind: z.enum(QUESTION_KINDS),
-      aircraft: z.object({ kind: z.enum(["airframe", "reference"]), id: z.string().min(1).max(100) }),
+      aircraft: z.object({ kind: z.enum(AIRCRAFT_SOURCE_KINDS), id: z.string().min(1).max(100) }),
       inputs: z.object({ massKg: num(100_000).optional(), altitudeFt: z.number().finite().min(-2000).max(60_000).optional(), speedKt: num(1000).optional(), heightFt: num(60_000).optional() }),
     })
     .optional(),

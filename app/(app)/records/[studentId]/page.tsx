@@ -4,7 +4,7 @@ import { notFound } from "next/navigation";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/errors";
 import { progressFor, requireStudentFor, isCheckInstructor, RecordRefusal, ITEM_STATUS_LABEL } from "@/db/access/records";
-import { listQuestionAircraft } from "@/db/access/oral-checks";
+import { listQuestionAircraft, recentSessionsOf } from "@/db/access/oral-checks";
 import { planSignOff, currentSignOffs } from "@/db/access/sign-offs";
 import { Caution } from "@/components/caution";
 import { LEVEL_LABEL, OUTCOME_LABEL, CHECK_OUTCOME_LABEL } from "@/lib/records/outcome";
@@ -33,7 +33,8 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
   const school = await schoolFor(user.schoolId);
   const progress = await progressFor(user, student.id, { asExaminer: true }).catch(() => null);
   if (!progress) notFound();
-  const aircraft = await listQuestionAircraft(user.schoolId);
+  const aircraft = await listQuestionAircraft(user.schoolId, undefined, student.id);
+  const sessions = (await recentSessionsOf(student.id, user.schoolId)).map((x) => ({ id: x.id, label: `${formatInZone(x.startsAt, school.timeZone, "d MMM HH:mm")} · ${x.title}` }));
   const signed = new Map((await currentSignOffs(student.id)).map((s) => [s.itemId, s]));
   const openStages = progress.stages.filter((s, i) => !s.passed && (i === 0 || progress.stages[i - 1]!.passed));
   const openItems = openStages.flatMap((s) => s.items);
@@ -73,6 +74,7 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
               studentId={student.id}
               items={openItems.map((i) => ({ id: i.id, code: i.code, title: i.title, requiredLevel: i.requiredLevel }))}
               aircraft={aircraft}
+              sessions={sessions}
             />
           )}
         </section>

@@ -6,7 +6,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { z } from "zod";
 import { recordCheckAction } from "../../actions";
 import { LEVELS, LEVEL_LABEL, QUESTION_OUTCOMES, OUTCOME_LABEL, CHECK_OUTCOME_LABEL, evaluateCheck, DEFAULT_OUTCOME_RULE, type LevelOfLearning } from "@/lib/records/outcome";
-import { QUESTION_KINDS, QUESTION_KIND_LABEL, generateQuestion, figureWithinTolerance, type AircraftSnapshot, type QuestionKind } from "@/lib/records/questions";
+import { QUESTION_KINDS, QUESTION_KIND_LABEL, generateQuestion, figureWithinTolerance, type AircraftSnapshot, type AircraftSourceKind, type QuestionKind } from "@/lib/records/questions";
 
 interface Item {
   id: string;
@@ -42,6 +42,7 @@ const formSchema = z.object({
   levelShown: z.enum(LEVELS, "choose the level of learning shown"),
   durationMinutes: z.string().regex(/^\d{1,3}$/, "whole minutes").refine((v) => Number(v) >= 1 && Number(v) <= 600, "1 to 600 minutes"),
   occurredAt: z.string().min(1, "when did the check happen?"),
+  sessionId: z.string(),
   remarks: z.string().max(4000),
   questions: z.array(questionSchema).min(1, "record at least one question"),
 });
@@ -70,7 +71,7 @@ function blankQuestion(itemId: string, aircraftKey: string): QuestionValues {
   return { syllabusItemId: itemId, mode: "written", questionText: "", kind: "vmd", aircraftKey, massKg: "", altitudeFt: "0", speedKt: "", heightFt: "", studentFigure: "", answerSummary: "", outcome: "solid", required: true, prompted: false, correctiveGiven: false };
 }
 
-export function CheckForm({ studentId, items, aircraft }: { studentId: string; items: Item[]; aircraft: AircraftSnapshot[] }) {
+export function CheckForm({ studentId, items, aircraft, sessions }: { studentId: string; items: Item[]; aircraft: AircraftSnapshot[]; sessions: { id: string; label: string }[] }) {
   const router = useRouter();
   const [pending, start] = useTransition();
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
@@ -78,7 +79,7 @@ export function CheckForm({ studentId, items, aircraft }: { studentId: string; i
   const firstAircraft = aircraft[0] ? `${aircraft[0].source.kind}:${aircraft[0].source.id}` : "";
   const form = useForm<FormValues>({
     resolver: zodResolver(formSchema),
-    defaultValues: { itemIds: items[0] ? [items[0].id] : [], levelShown: "understanding", durationMinutes: "10", occurredAt: localNow(), remarks: "", questions: [blankQuestion(items[0]?.id ?? "", firstAircraft)] },
+    defaultValues: { itemIds: items[0] ? [items[0].id] : [], levelShown: "understanding", durationMinutes: "10", occurredAt: localNow(), sessionId: "", remarks: "", questions: [blankQuestion(items[0]?.id ?? "", firstAircraft)] },
   });
   const { register, control, handleSubmit, formState, setError, reset } = form;
   const questions = useFieldArray({ control, name: "questions" });
@@ -103,6 +104,7 @@ export function CheckForm({ studentId, items, aircraft }: { studentId: string; i
         levelShown: v.levelShown,
         durationMinutes: Number(v.durationMinutes),
         occurredAt: new Date(v.occurredAt).toISOString(),
+        sessionId: v.sessionId || null,
         remarks: v.remarks,
         questions: v.questions.map((q) => {
           const [kind, id] = q.aircraftKey.split(":");
@@ -114,7 +116,7 @@ export function CheckForm({ studentId, items, aircraft }: { studentId: string; i
             required: q.required,
             prompted: q.prompted,
             correctiveGiven: q.correctiveGiven,
-            generated: q.mode === "generated" ? { kind: q.kind, aircraft: { kind: kind as "airframe" | "reference", id: id ?? "" }, inputs: inputsFor(q) } : undefined,
+            generated: q.mode === "generated" ? { kind: q.kind, aircraft: { kind: kind as AircraftSourceKind, id: id ?? "" }, inputs: inputsFor(q) } : undefined,
             studentFigure: q.mode === "generated" && q.studentFigure.trim() !== "" ? Number(q.studentFigure) : null,
           };
         }),
@@ -123,7 +125,7 @@ export function CheckForm({ studentId, items, aircraft }: { studentId: string; i
       if (r.ok) {
         setMessage({ ok: true, text: `Check recorded: ${CHECK_OUTCOME_LABEL[r.data.outcome]}.${r.data.notYetMailed ? " The student was sent a note about the Not yet items." : ""}` });
         setKey(crypto.randomUUID());
-        reset({ itemIds: v.itemIds, levelShown: v.levelShown, durationMinutes: "10", occurredAt: localNow(), remarks: "", questions: [blankQuestion(v.itemIds[0] ?? "", firstAircraft)] });
+        reset({ itemIds: v.itemIds, levelShown: v.levelShown, durationMinutes: "10", occurredAt: localNow(), sessionId: v.sessionId, remarks: "", questions: [blankQuestion(v.itemIds[0] ?? "", firstAircraft)] });
         router.refresh();
       } else {
         for (const [field, msgs] of Object.entries(r.fieldErrors ?? {})) setError(field as never, { message: msgs[0] });
@@ -167,7 +169,14 @@ export function CheckForm({ studentId, items, aircraft }: { studentId: string; i
         {err("levelShown")}
       </fieldset>
 
-      <div className="grid gap-3 sm:grid-cols-2">
+      <div className="grid gap-3 sm:grid-cols-3">
+        <div>
+          <label htmlFor="sessionId" className="field-label">During or after a session (optional)</label>
+          <select id="sessionId" {...register("sessionId")} className="field-input">
+            <option value="">No session</option>
+            {sessions.map((x) => <option key={x.id} value={x.id}>{x.label}</option>)}
+          </select>
+        </div>
         <div>
           <label htmlFor="occurredAt" className="field-label">When it happened</label>
           <input id="occurredAt" type="datetime-local" {...register("occurredAt")} className="field-input" />
@@ -276,7 +285,7 @@ function QuestionFields({
             <div>
               <label htmlFor={`${p}.aircraft`} className="field-label">Aircraft</label>
               <select id={`${p}.aircraft`} {...register(`${p}.aircraftKey`)} className="field-input">
-                {aircraft.map((a) => <option key={`${a.source.kind}:${a.source.id}`} value={`${a.source.kind}:${a.source.id}`}>{a.name}{a.source.kind === "airframe" ? " (Curve Lab)" : ""}</option>)}
+                {aircraft.map((a) => <option key={`${a.source.kind}:${a.source.id}`} value={`${a.source.kind}:${a.source.id}`}>{a.name}{a.source.kind === "airframe" ? " (Curve Lab airframe)" : a.source.kind === "reference" ? " (reference)" : ""}</option>)}
               </select>
             </div>
           </div>
