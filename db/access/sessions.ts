@@ -230,6 +230,10 @@ export async function rescheduleSession(user: CurrentUser, input: z.output<typeo
   const school = await schoolInTx(user.schoolId, t);
   const s = await lockSessionForChange(user, input.sessionId, t);
   if (s.status !== "scheduled") throw new HttpError(409, "sessionId: a cancelled session cannot be moved; schedule a new one", "sessionId");
+  const [recorded] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM ground_log_entries WHERE session_id = :id`, {
+    replacements: { id: s.id }, type: QueryTypes.SELECT, transaction: t,
+  });
+  if ((recorded?.n ?? 0) > 0) throw new HttpError(409, "sessionId: attendance is already recorded for this session; it cannot be moved", "sessionId");
   const instructor = await requireInstructor(user.schoolId, input.instructorId, t);
   const startsAt = zonedInstant(input.date, input.time, school.timeZone);
   const endsAt = new Date(startsAt.getTime() + input.durationMinutes * 60_000);

@@ -81,9 +81,16 @@ describe("Timetable end to end", () => {
     const after = await studentHours(student);
     expect(Math.round((after - before) * 10) / 10).toBe(1); // 90 min less 30 late = 60 min = 1.0 h
     await student.goto("/ground-log");
-    const line = student.locator("[data-testid=logbook] tr", { hasText: yesterday }).filter({ hasText: briefingTitle });
-    expect(await line.first().textContent()).toContain("Tomasz Varga");
+    // on a phone the logbook is a list; printed, it is the full table without the app's navigation
+    const line = student.locator("ol[aria-label='Logbook lines'] li", { hasText: yesterday }).filter({ hasText: briefingTitle });
+    expect(await line.first().isVisible()).toBe(true);
+    expect(await line.first().textContent()).toContain("Tomasz Varga, certificate LHV-GI-0142");
     await screenshot(student, "timetable-e2e-student-ground-log-390");
+    await student.emulateMedia({ media: "print" });
+    expect(await student.locator("nav[aria-label=Main]").isVisible()).toBe(false);
+    expect(await student.locator("[data-testid=logbook] tr", { hasText: yesterday }).first().isVisible()).toBe(true);
+    await screenshot(student, "timetable-e2e-student-ground-log-print");
+    await student.emulateMedia({ media: "screen" });
 
     // the session's page is the student's too, without the instructor's forms
     await student.goto(sessionUrl);

@@ -39,7 +39,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
     : [];
   return (
     <div className="space-y-6">
-      <style>{`@media print { body > div > header, nav, .no-print { display: none !important; } .card { box-shadow: none; border: 0; } }`}</style>
+      <style>{`@media print { header:has(nav[aria-label="Main"]), a[href="#main"], .no-print { display: none !important; } .card { box-shadow: none; border: 0; break-inside: avoid; } }`}</style>
       <header>
         <h1 className="text-display">Ground log</h1>
         <p className="text-ink-soft">{student ? `${student.name}${enrolment ? ` · ${enrolment.courseTitle}` : ""}` : "Ground-training records"}</p>
@@ -88,7 +88,17 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
                 <a className="btn-quiet" href={`/api/ground-log/${student.id}/logbook`} download>Download CSV</a>
               </div>
             </div>
-            <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Logbook lines, scrolls sideways">
+            <ol className="mt-2 divide-y divide-paper-edge sm:hidden print:hidden" aria-label="Logbook lines">
+              {log.map((l) => (
+                <li key={l.entryId} className="py-2">
+                  <p className="flex justify-between gap-2"><span className="num font-semibold">{l.date}</span><span className="num">{hoursLabel(l.durationMinutes)} · {ATTENDANCE_LABELS[l.status]}</span></p>
+                  <p>{l.subjects}</p>
+                  <p className="text-caption text-ink-soft">{l.instructorName}, certificate <span className="num">{l.certificateNumber ?? "—"}</span>{l.amended ? ` · amended: ${l.reason}` : ""}</p>
+                </li>
+              ))}
+              {log.length === 0 && <li className="py-2 text-ink-soft">No entries yet.</li>}
+            </ol>
+            <div className="mt-2 hidden overflow-x-auto sm:block print:block" tabIndex={0} role="region" aria-label="Logbook lines, scrolls sideways">
               <table className="data-table" data-testid="logbook">
                 <caption className="sr-only">Logbook lines, one per ground-training entry</caption>
                 <thead><tr><th scope="col">Date</th><th scope="col" className="text-right">Duration</th><th scope="col">Attendance</th><th scope="col">Subjects</th><th scope="col">Instructor</th><th scope="col">Certificate</th></tr></thead>
