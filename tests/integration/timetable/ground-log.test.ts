@@ -1,7 +1,7 @@
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
-import { scheduleSession } from "@/db/access/sessions";
+import { scheduleSession, rescheduleSession, cancelSession } from "@/db/access/sessions";
 import { recordAttendance, amendEntry, groundHoursFor, logbookFor, creditFor } from "@/db/access/ground-log";
 import { creditedMinutesFor } from "@/db/access/ground-hours";
 import { listMakeupFor, waiveMakeup, closeMakeup, scheduleMakeup } from "@/db/access/makeup";
@@ -71,6 +71,11 @@ describe("credited minutes", () => {
     expect(hoursLabel(hours!.creditedMinutes, hours!.minimumMinutes)).toBe("2.3 of 35 h"); // 135 min = 2.25 h, one decimal
     // recording the same student twice is refused: corrections are amendments
     await expect(record(s1.id, [{ studentId: a!.id, status: "attended" }])).rejects.toMatchObject({ status: 409 });
+    // a session with attendance can no longer be moved or cancelled
+    await expect(
+      sequelize.transaction((t) => rescheduleSession(s.as.instructor, { sessionId: s1.id, date: "2026-11-16", time: "10:00", durationMinutes: 90, room: "Hangar classroom", instructorId: s.people.instructor.id }, t)),
+    ).rejects.toMatchObject({ status: 409 });
+    await expect(sequelize.transaction((t) => cancelSession(s.as.instructor, { sessionId: s1.id, reason: "too late" }, t))).rejects.toMatchObject({ status: 409 });
   });
 
   it("an amendment changes the total while the original entry stays", async () => {
