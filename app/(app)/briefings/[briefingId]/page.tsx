@@ -60,7 +60,18 @@ export default async function BriefingPage({
 
       <section className="card" aria-labelledby="h-elements">
         <h2 id="h-elements">Elements <span className="text-caption font-normal text-ink-soft">· <span className="num">{total}</span> min in all</span></h2>
-        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Elements table (scrolls sideways on small screens)">
+        <ol className="mt-2 space-y-3 sm:hidden">
+          {r.elements.map((e, i) => (
+            <li key={i} className="rounded-md border border-paper-edge p-3">
+              <p className="font-semibold"><span className="num">{i + 1}.</span> {e.title} <span className="text-caption font-normal text-ink-soft">· <span className="num">{e.minutes}</span> min</span></p>
+              <p className="mt-1 text-caption font-semibold text-ink-soft">Instructor&apos;s actions</p>
+              <p className="whitespace-pre-line">{e.instructorActions}</p>
+              <p className="mt-1 text-caption font-semibold text-ink-soft">Students&apos; actions</p>
+              <p className="whitespace-pre-line">{e.studentActions}</p>
+            </li>
+          ))}
+        </ol>
+        <div className="mt-2 hidden overflow-x-auto sm:block" tabIndex={0} role="region" aria-label="Elements table (scrolls sideways on small screens)">
           <table className="data-table">
             <thead><tr><th scope="col">#</th><th scope="col">Element</th><th scope="col">Instructor&apos;s actions</th><th scope="col">Students&apos; actions</th><th scope="col">Min</th></tr></thead>
             <tbody>
