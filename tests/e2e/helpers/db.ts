@@ -23,8 +23,12 @@ export const FINGERPRINT_EXCLUDE: Record<string, string> = {
  * Tables fingerprinted by an expression over the row (alias x) instead of the whole row, where
  * background work legitimately changes some columns. New or removed rows are still seen.
  */
-export const FINGERPRINT_ROW: Record<string, { expr: string; reason: string }> = {
-  "public.outbox": { expr: "(x.id, x.school_id, x.kind, x.idempotency_key, x.recipient_id, x.to_address, x.subject)", reason: "the mail worker updates state, attempts and sent_at" },
+export const FINGERPRINT_ROW: Record<string, { expr: string; where?: string; reason: string }> = {
+  "public.outbox": {
+    expr: "(x.id, x.school_id, x.kind, x.idempotency_key, x.recipient_id, x.to_address, x.subject)",
+    where: "x.kind NOT IN ('session.reminder', 'assignment.overdue', 'weekly.letter')",
+    reason: "the mail worker updates state, attempts and sent_at, and its clock-driven producers add reminders, overdue reminders and Weekly letters",
+  },
 };
 /** Schemas left out: pg-boss keeps its job queue in its own schema, which a background worker changes. */
 const SCHEMA_EXCLUDE = ["pg_catalog", "information_schema", "pg_toast", "pgboss"];
@@ -43,7 +47,7 @@ export async function fingerprint(c: Client): Promise<Record<string, string>> {
   const sql = wanted
     .map(
       (t) =>
-        `SELECT '${t.schema}.${t.name}' AS t, count(*)::text || ':' || coalesce(md5(string_agg(${rowExpr(t)}::text, '|' ORDER BY ${rowExpr(t)}::text)), '') AS fp FROM ${q(t.schema)}.${q(t.name)} x`,
+        `SELECT '${t.schema}.${t.name}' AS t, count(*)::text || ':' || coalesce(md5(string_agg(${rowExpr(t)}::text, '|' ORDER BY ${rowExpr(t)}::text)), '') AS fp FROM ${q(t.schema)}.${q(t.name)} x${FINGERPRINT_ROW[`${t.schema}.${t.name}`]?.where ? ` WHERE ${FINGERPRINT_ROW[`${t.schema}.${t.name}`]!.where}` : ""}`,
     )
     .join(" UNION ALL ");
   const { rows } = await c.query<{ t: string; fp: string }>(sql);
