@@ -216,7 +216,7 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
       const canvas = chart.canvas;
       canvas.dataset.renders = String(Number(canvas.dataset.renders ?? "0") + 1);
       canvas.dataset.chartId = String(chart.id);
-      canvas.dataset.points = chart.data.datasets.filter((d) => !d.hidden).map((d) => d.data.length).join(",");
+      canvas.dataset.points = chart.data.datasets.map((d) => d.data.length).join(",");
     },
   };
 }
@@ -249,6 +249,8 @@ class CurveChartController {
   readonly frame: Frame;
   readonly cache: { set?: CurveSet<Float64Array> } = {};
   readonly overlay: { current: Overlay };
+  /** All 28 datasets (four cases x seven curves); the chart holds only the visible ones, so it never updates points it does not draw. */
+  readonly all: ChartDataset<"line", { x: number; y: number }[]>[];
   readonly data: { datasets: ChartDataset<"line", { x: number; y: number }[]>[] };
   readonly options: ChartOptions<"line">;
   readonly plugins: Plugin<"line">[];
@@ -268,7 +270,6 @@ class CurveChartController {
         datasets.push({
           label: `${CURVE_LABELS[k]}, case ${c + 1}`,
           data: frame.points[d]!,
-          hidden: !frame.visible[d],
           parsing: false,
           normalized: true,
           borderColor: CASE_COLOURS[c],
@@ -286,7 +287,8 @@ class CurveChartController {
     const tick = { color: BOARD.dim, font: { size: fontPx } };
     const title = (text: string) => ({ display: true, text, color: BOARD.chalk, font: { size: fontPx, weight: 600 as const } });
     const grid = { color: BOARD.grid, lineWidth: projector ? 1.5 : 1 };
-    this.data = { datasets };
+    this.all = datasets;
+    this.data = { datasets: datasets.filter((_, d) => frame.visible[d]) };
     this.options = {
       animation: false,
       responsive: true,
@@ -317,14 +319,22 @@ class CurveChartController {
     const eff = effectiveSpec(input.spec, input.conceal);
     const frame = fillFrame(this.frame, eff, this.cache);
     this.overlay.current = { ...this.overlay.current, ...input, spec: eff, frame };
-    const datasets = ch.data.datasets;
+    // Swap datasets in or out only when the set of drawn curves changes (a toggle, a case added).
+    const held = ch.data.datasets;
     let power = false;
     let ld = false;
-    for (let d = 0; d < datasets.length; d++) {
-      const visible = frame.visible[d] ?? false;
-      datasets[d]!.hidden = !visible;
-      if (visible && d % CURVE_KEYS.length === CURVE_KEYS.indexOf("power")) power = true;
-      if (visible && d % CURVE_KEYS.length === CURVE_KEYS.indexOf("liftToDrag")) ld = true;
+    let n = 0;
+    let same = true;
+    for (let d = 0; d < this.all.length; d++) {
+      if (!frame.visible[d]) continue;
+      if (held[n] !== this.all[d]) same = false;
+      n++;
+      if (d % CURVE_KEYS.length === CURVE_KEYS.indexOf("power")) power = true;
+      if (d % CURVE_KEYS.length === CURVE_KEYS.indexOf("liftToDrag")) ld = true;
+    }
+    if (!same || held.length !== n) {
+      held.length = 0;
+      for (let d = 0; d < this.all.length; d++) if (frame.visible[d]) held.push(this.all[d]!);
     }
     // The chart's own stored options (chart.js keeps a merged copy of what it was given);
     // update() merges and resolves them again.

@@ -1,7 +1,4 @@
-import { z } from "zod";
 import {
-  aircraftSchema,
-  atmosphereConditionsSchema,
   msToKt,
   ktToMs,
   minimumDragSpeed,
@@ -15,7 +12,8 @@ import {
 /**
  * A demo's spec: what one demo revision shows. Pure (zod + lib/aero), shared by the builder in
  * the browser, the server actions that save it, the Projector view and the bench.
- * Speeds are stored in m/s; the axis unit only changes what is shown.
+ * Speeds are stored in m/s; the axis unit only changes what is shown. No zod here, so the
+ * builder's bundle stays small: the schema lives in demo-spec-schema.ts (server side).
  */
 
 export const CONFIGURATION_KEYS = ["clean", "gearDown", "flaps1", "flaps2"] as const;
@@ -27,46 +25,37 @@ export const CONFIGURATION_LABELS: Record<ConfigurationKey, string> = {
   flaps2: "Flaps 2",
 };
 
-const A = aircraftSchema.shape;
-
-const configurationValues = z.object({
-  /** Zero-lift drag increment over clean (0 for clean). */
-  cd0Increment: z.number().min(0, "cd0Increment must be 0 or more").max(0.5, "cd0Increment must be at most 0.5"),
-  maxLiftCoefficient: A.maxLiftCoefficient,
-});
-export type ConfigurationValues = z.infer<typeof configurationValues>;
+/** One configuration's numbers: its zero-lift drag increment over clean and its CLmax. */
+export interface ConfigurationValues {
+  cd0Increment: number;
+  maxLiftCoefficient: number;
+}
 
 /** The airframe's numbers as the demo revision saw them (SI). */
-export const airframeSnapshotSchema = z
-  .object({
-    id: z.string().uuid().nullable(),
-    name: z.string().trim().min(1, "name: enter a name").max(120, "name: at most 120 characters"),
-    emptyMassKg: A.massKg,
-    maxMassKg: A.massKg,
-    wingAreaM2: A.wingAreaM2,
-    wingSpanM: A.wingSpanM,
-    oswaldEfficiency: A.oswaldEfficiency,
-    zeroLiftDragCoefficient: A.zeroLiftDragCoefficient,
-    configurations: z.object({
-      clean: configurationValues,
-      gearDown: configurationValues.nullable(),
-      flaps1: configurationValues.nullable(),
-      flaps2: configurationValues.nullable(),
-    }),
-  })
-  .superRefine((a, ctx) => {
-    if (a.maxMassKg < a.emptyMassKg) ctx.addIssue({ code: "custom", path: ["maxMassKg"], message: "maxMassKg must be at least the empty mass" });
-  });
-export type AirframeSnapshot = z.infer<typeof airframeSnapshotSchema>;
+export interface AirframeSnapshot {
+  id: string | null;
+  name: string;
+  emptyMassKg: number;
+  maxMassKg: number;
+  wingAreaM2: number;
+  wingSpanM: number;
+  oswaldEfficiency: number;
+  zeroLiftDragCoefficient: number;
+  configurations: {
+    clean: ConfigurationValues;
+    gearDown: ConfigurationValues | null;
+    flaps1: ConfigurationValues | null;
+    flaps2: ConfigurationValues | null;
+  };
+}
 
-export const caseSchema = z.object({
-  label: z.string().trim().min(1, "label: enter a label").max(40, "label: at most 40 characters"),
-  massKg: A.massKg,
-  altitudeM: atmosphereConditionsSchema.shape.altitudeM,
-  isaDeviationK: z.number().min(-50, "isaDeviationK must be between -50 and 50 K").max(50, "isaDeviationK must be between -50 and 50 K"),
-  configuration: z.enum(CONFIGURATION_KEYS),
-});
-export type DemoCase = z.infer<typeof caseSchema>;
+export interface DemoCase {
+  label: string;
+  massKg: number;
+  altitudeM: number;
+  isaDeviationK: number;
+  configuration: ConfigurationKey;
+}
 
 export const CURVE_KEYS = ["zeroLift", "liftDependent", "idealInduced", "increment", "total", "power", "liftToDrag"] as const;
 export type CurveKey = (typeof CURVE_KEYS)[number];
@@ -93,34 +82,20 @@ export const MARKER_LABELS: Record<MarkerKey, string> = {
 export const CALL_KINDS = ["vmd", "stall", "gust"] as const;
 export type CallKind = (typeof CALL_KINDS)[number];
 
-export const demoSpecSchema = z
-  .object({
-    version: z.literal(1),
-    airframe: airframeSnapshotSchema,
-    cases: z.array(caseSchema).min(1, "cases: add at least one case").max(4, "cases: at most four cases"),
-    curves: z.record(z.enum(CURVE_KEYS), z.boolean()),
-    markers: z.record(z.enum(MARKER_KEYS), z.boolean()),
-    axis: z.object({ speed: z.enum(["equivalent", "true"]), unit: z.enum(["kt", "ms"]) }),
-    range: z.object({ minSpeedMs: z.number().min(1, "range.minSpeedMs must be at least 1 m/s").max(400), maxSpeedMs: z.number().min(2).max(500, "range.maxSpeedMs must be at most 500 m/s") }),
-    chosenSpeedMs: z.number().min(1, "chosenSpeedMs must be at least 1 m/s").max(500, "chosenSpeedMs must be at most 500 m/s"),
-    /** Call it first: which answer the student places before the reveal (null: no call). */
-    callKind: z.enum(CALL_KINDS).nullable(),
-    notes: z.string().max(4000, "notes: at most 4000 characters"),
-  })
-  .superRefine((s, ctx) => {
-    if (!(s.range.maxSpeedMs > s.range.minSpeedMs)) {
-      ctx.addIssue({ code: "custom", path: ["range", "maxSpeedMs"], message: "range.maxSpeedMs must be greater than the minimum speed" });
-    }
-    s.cases.forEach((c, i) => {
-      if (c.configuration !== "clean" && s.airframe.configurations[c.configuration] === null) {
-        ctx.addIssue({ code: "custom", path: ["cases", i, "configuration"], message: `${CONFIGURATION_LABELS[c.configuration]} is not a configuration of this airframe` });
-      }
-      if (c.massKg < s.airframe.emptyMassKg * 0.999 || c.massKg > s.airframe.maxMassKg * 1.001) {
-        ctx.addIssue({ code: "custom", path: ["cases", i, "massKg"], message: "massKg must be within the airframe's empty to maximum mass" });
-      }
-    });
-  });
-export type DemoSpec = z.infer<typeof demoSpecSchema>;
+/** What one demo revision shows (validated on the server by demo-spec-schema.ts). */
+export interface DemoSpec {
+  version: 1;
+  airframe: AirframeSnapshot;
+  cases: DemoCase[];
+  curves: Record<CurveKey, boolean>;
+  markers: Record<MarkerKey, boolean>;
+  axis: { speed: "equivalent" | "true"; unit: "kt" | "ms" };
+  range: { minSpeedMs: number; maxSpeedMs: number };
+  chosenSpeedMs: number;
+  /** Call it first: which answer the student places before the reveal (null: no call). */
+  callKind: CallKind | null;
+  notes: string;
+}
 
 export const SAMPLE_POINTS = 400;
 

@@ -3,7 +3,8 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../index";
 import { Demo, DemoRevision, DemoCall, type CallMarkerKind } from "../models";
 import { HttpError } from "@/lib/http/errors";
-import { demoSpecSchema, type DemoSpec } from "@/components/charts/demo-spec";
+import type { DemoSpec } from "@/components/charts/demo-spec";
+import { demoSpecSchema } from "@/components/charts/demo-spec-schema";
 import type { CurrentUser } from "@/lib/auth/session";
 
 /**

@@ -2,7 +2,8 @@
 import { z } from "zod";
 import { runAction } from "@/lib/actions/run-action";
 import { HttpError } from "@/lib/http/errors";
-import { CALL_KINDS, callAnswer, demoSpecSchema } from "@/components/charts/demo-spec";
+import { CALL_KINDS, callAnswer } from "@/components/charts/demo-spec";
+import { demoSpecSchema } from "@/components/charts/demo-spec-schema";
 import { createDemo, deleteDemo, duplicateDemo, getDemoRevision, recordCall, renameDemo, saveDemoSpec } from "@/db/access/demos";
 import { studentMayOpenRevision } from "./_lib/student-access";
 

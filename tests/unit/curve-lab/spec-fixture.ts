@@ -1,3 +1,2 @@
 // Re-exports for the Curve Lab component tests.
 export { defaultSpec, aircraftFor, type AirframeSnapshot, type DemoSpec } from "@/components/charts/demo-spec";
-export { datasetIndex as datasetIndexFor } from "@/components/charts/curve-frame";

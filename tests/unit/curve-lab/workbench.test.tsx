@@ -1,7 +1,7 @@
 import { render, screen, fireEvent, within } from "@testing-library/react";
 import { Chart } from "chart.js";
 import { minimumDragSpeed, msToKt, ftToM, stallSpeed } from "@/lib/aero";
-import { defaultSpec, aircraftFor, datasetIndexFor, type AirframeSnapshot, type DemoSpec } from "./spec-fixture";
+import { defaultSpec, aircraftFor, type AirframeSnapshot, type DemoSpec } from "./spec-fixture";
 
 jest.mock("next/navigation", () => ({ useRouter: () => ({ push: jest.fn(), replace: jest.fn(), refresh: jest.fn() }) }));
 const actions = {
@@ -65,7 +65,9 @@ describe("demo builder", () => {
     expect(Chart.getChart(canvas)).toBe(chart);
     expect(canvas.dataset.chartId).toBe(chartId);
     expect(Number(canvas.dataset.renders)).toBe(rendersBefore + 1);
-    const total = chart.data.datasets[datasetIndexFor(0, "total")]!.data as { x: number; y: number }[];
+    // only the drawn curves are in the chart: zero-lift, lift-dependent and total drag of the one case
+    expect(chart.data.datasets.map((d) => d.label)).toEqual(["Zero-lift drag, case 1", "Lift-dependent drag, case 1", "Total drag, case 1"]);
+    const total = chart.data.datasets.find((d) => d.label === "Total drag, case 1")!.data as { x: number; y: number }[];
     expect(total).toHaveLength(400);
     // Lowest sampled total drag ≈ W / (L/D)max at 600 kg (the sampled minimum sits within 1 % of it).
     const minDrag = Math.min(...total.map((p) => p.y));

@@ -90,7 +90,8 @@ export function DemoWorkbench(props: WorkbenchProps) {
       airframe: a,
       cases: s.cases.map((c) => ({
         ...c,
-        massKg: clamp(c.massKg, a.emptyMassKg, a.maxMassKg),
+        // a mass outside the new type's range starts at its maximum
+        massKg: c.massKg >= a.emptyMassKg && c.massKg <= a.maxMassKg ? c.massKg : a.maxMassKg,
         configuration: c.configuration === "clean" || a.configurations[c.configuration] !== null ? c.configuration : "clean",
       })),
     }));
