@@ -237,10 +237,13 @@ export async function addStudentTx(
   if (!cohort) throw new HttpError(404, "cohortId: no such cohort that you may add to", "cohortId");
   const school = await schoolInTx(user.schoolId, t);
   const today = dateInZone(now(), school.timeZone);
-  const student = await createPerson({ schoolId: user.schoolId, name: input.name, email: input.email, roles: ["student"] }, t).catch((e) => {
-    if (e instanceof HttpError) throw new HttpError(409, "e-mail: already belongs to an account", "email");
+  // createPerson checks first; the unique index on lower(email) catches a writer that slipped in between
+  const taken = (e: unknown, field: "email" | "sponsorEmail") => {
+    const code = (e as { parent?: { code?: string } })?.parent?.code;
+    if (e instanceof HttpError || code === "23505") throw new HttpError(409, `${field === "email" ? "e-mail" : "sponsor e-mail"}: already belongs to an account`, field);
     throw e;
-  });
+  };
+  const student = await createPerson({ schoolId: user.schoolId, name: input.name, email: input.email, roles: ["student"] }, t).catch((e) => taken(e, "email"));
   await addToCohort({ cohortId: cohort.id, studentId: student.id, fromDate: today }, t);
   const [rev] = await sequelize.query<{ id: string }>(
     `SELECT id FROM syllabus_revisions WHERE course_id = :c ORDER BY number DESC LIMIT 1`,
@@ -262,7 +265,7 @@ export async function addStudentTx(
       }
       sponsorId = found.id;
     } else {
-      const sponsor = await createPerson({ schoolId: user.schoolId, name: input.sponsorName || input.sponsorEmail, email: input.sponsorEmail, roles: ["sponsor"] }, t);
+      const sponsor = await createPerson({ schoolId: user.schoolId, name: input.sponsorName || input.sponsorEmail, email: input.sponsorEmail, roles: ["sponsor"] }, t).catch((e) => taken(e, "sponsorEmail"));
       sponsorId = sponsor.id;
       await sendInvitation(t, { schoolId: user.schoolId, personId: sponsor.id, name: sponsor.name, email: sponsor.email, invitedBy: user.name, role: "sponsor" });
       invitations++;

@@ -98,7 +98,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
               ))}
               {log.length === 0 && <li className="py-2 text-ink-soft">No entries yet.</li>}
             </ol>
-            <div className="mt-2 hidden overflow-x-auto sm:block print:block" tabIndex={0} role="region" aria-label="Logbook lines, scrolls sideways">
+            <div className="mt-2 hidden overflow-x-auto sm:block print:block print:overflow-visible" tabIndex={0} role="region" aria-label="Logbook lines, scrolls sideways">
               <table className="data-table" data-testid="logbook">
                 <caption className="sr-only">Logbook lines, one per ground-training entry</caption>
                 <thead><tr><th scope="col">Date</th><th scope="col" className="text-right">Duration</th><th scope="col">Attendance</th><th scope="col">Subjects</th><th scope="col">Instructor</th><th scope="col">Certificate</th></tr></thead>

@@ -99,6 +99,32 @@ describe("roster CSV import", () => {
   });
 });
 
+describe("two imports racing for one e-mail", () => {
+  it("exactly one commits; the other is a 409 naming the line and leaves none of its rows or mails", async () => {
+    const shared = `race.${s.tag}@example.test`;
+    const onlyA = `race-a.${s.tag}@example.test`;
+    const onlyB = `race-b.${s.tag}@example.test`;
+    const fileA = `name,email,cohort\nRacer A,${onlyA},${s.cohorts.a.name}\nShared,${shared},${s.cohorts.a.name}\n`;
+    const fileB = `name,email,cohort\nRacer B,${onlyB},${s.cohorts.b.name}\nShared,${shared},${s.cohorts.b.name}\n`;
+    const results = await Promise.allSettled([
+      sequelize.transaction((t) => commitRosterImport(s.as.chief, fileA, t)),
+      sequelize.transaction((t) => commitRosterImport(s.as.chief, fileB, t)),
+    ]);
+    const won = results.filter((r) => r.status === "fulfilled");
+    const lost = results.filter((r): r is PromiseRejectedResult => r.status === "rejected");
+    expect(won).toHaveLength(1);
+    expect(lost).toHaveLength(1);
+    expect(lost[0]!.reason).toMatchObject({ status: 409, message: "line 3: e-mail: already belongs to an account" });
+    const winner = results[0]!.status === "fulfilled" ? onlyA : onlyB;
+    const loser = winner === onlyA ? onlyB : onlyA;
+    expect(await people([shared])).toBe(1);
+    expect(await people([winner])).toBe(1);
+    expect(await people([loser])).toBe(0);
+    expect(await outboxTo([loser])).toBe(0);
+    expect(await outboxTo([shared])).toBe(1);
+  });
+});
+
 describe("moving a student between cohorts", () => {
   it("keeps dated membership, and the new lead instructor sees the whole history", async () => {
     const st = s.people.students[0]!;
