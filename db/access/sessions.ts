@@ -343,12 +343,30 @@ export async function listSessions(
   const rep: Record<string, unknown> = { school: user.schoolId, uid: user.id };
   if (!staff) where.push(`EXISTS (SELECT 1 FROM session_attendees a WHERE a.session_id = s.id AND a.student_id = :uid)`);
   if (filter.mine === "1") where.push(`(s.instructor_id = :uid OR EXISTS (SELECT 1 FROM session_attendees a WHERE a.session_id = s.id AND a.student_id = :uid))`);
-  if (filter.instructor) (where.push(`s.instructor_id = :instructor`), (rep.instructor = filter.instructor));
-  if (filter.cohort) (where.push(`s.cohort_id = :cohort`), (rep.cohort = filter.cohort));
-  if (filter.room) (where.push(`lower(btrim(s.room)) = lower(btrim(:room))`), (rep.room = filter.room));
-  if (filter.status && filter.status !== "all") (where.push(`s.status = :status`), (rep.status = filter.status));
-  if (filter.fromInstant) (where.push(`s.ends_at > :from`), (rep.from = filter.fromInstant));
-  if (filter.toInstant) (where.push(`s.starts_at < :to`), (rep.to = filter.toInstant));
+  if (filter.instructor) {
+    where.push(`s.instructor_id = :instructor`);
+    rep.instructor = filter.instructor;
+  }
+  if (filter.cohort) {
+    where.push(`s.cohort_id = :cohort`);
+    rep.cohort = filter.cohort;
+  }
+  if (filter.room) {
+    where.push(`lower(btrim(s.room)) = lower(btrim(:room))`);
+    rep.room = filter.room;
+  }
+  if (filter.status && filter.status !== "all") {
+    where.push(`s.status = :status`);
+    rep.status = filter.status;
+  }
+  if (filter.fromInstant) {
+    where.push(`s.ends_at > :from`);
+    rep.from = filter.fromInstant;
+  }
+  if (filter.toInstant) {
+    where.push(`s.starts_at < :to`);
+    rep.to = filter.toInstant;
+  }
   const pageSize = paging.pageSize ?? 500;
   const page = paging.page ?? 1;
   const order = `${SORT_SQL[paging.sort ?? "starts_at"]} ${paging.dir === "desc" ? "DESC" : "ASC"}, s.starts_at ASC, s.id`;

@@ -1,7 +1,7 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { useForm } from "react-hook-form";
+import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
 import { recordAttendanceSchema, amendEntrySchema, ATTENDANCE_STATUSES, ATTENDANCE_LABELS, type AttendanceStatusName } from "@/lib/timetable/schemas";
@@ -25,11 +25,11 @@ export function AttendanceSheet({ sessionId, sessionMinutes, lines }: { sessionI
   const done = lines.filter((l) => l.entryId);
   const [msg, setMsg] = useState<{ ok: boolean; text: string } | null>(null);
   const [key] = useState(() => `att-${crypto.randomUUID()}`);
-  const { register, handleSubmit, watch, formState: { errors, isSubmitting } } = useForm<In, unknown, Out>({
+  const { register, handleSubmit, control, formState: { errors, isSubmitting } } = useForm<In, unknown, Out>({
     resolver: zodResolver(recordAttendanceSchema),
     defaultValues: { sessionId, lines: open.map((l) => ({ studentId: l.studentId, status: "attended", lateMinutes: 0, earlyMinutes: 0, creditedMinutes: "" })) },
   });
-  const watched = watch("lines");
+  const watched = useWatch({ control, name: "lines" });
   async function onSubmit(data: Out) {
     const r = await recordAttendanceAction({ ...data, idempotencyKey: key });
     setMsg(r.ok ? { ok: true, text: `Recorded ${r.data.recorded} student${r.data.recorded === 1 ? "" : "s"}.` } : { ok: false, text: r.message });
