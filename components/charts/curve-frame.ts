@@ -97,7 +97,10 @@ export function fillFrame(frame: Frame, spec: DemoSpec, cache: { set?: CurveSet<
       maxLiftToDrag: cc.markers.maxLiftToDrag,
       chosenDragN,
     });
-    dragMax = Math.max(dragMax, minDragN * 3);
+    // The drag axis is scaled for the airframe's maximum mass, so it stays put while a mass
+    // slider moves and the curve is seen to move against it.
+    const heaviest = massToWeightN(spec.airframe.maxMassKg) / cc.markers.maxLiftToDrag;
+    dragMax = Math.max(dragMax, Math.ceil((heaviest * 3) / 100) * 100);
     for (const k of CURVE_KEYS) {
       if (!spec.curves[k]) continue;
       const di = datasetIndex(c, k);
@@ -121,7 +124,8 @@ export function fillFrame(frame: Frame, spec: DemoSpec, cache: { set?: CurveSet<
         // minimum power required is near Vmp; show up to four times it
         let pmin = Infinity;
         for (let i = 0; i < SAMPLE_POINTS; i++) if (src[i]! < pmin) pmin = src[i]!;
-        powerMax = Math.max(powerMax, (pmin * 4) / 1000);
+        const massFactor = Math.pow(spec.airframe.maxMassKg / spec.cases[c]!.massKg, 1.5); // Pmin grows as W^1.5
+        powerMax = Math.max(powerMax, Math.ceil((pmin * massFactor * 4) / 1000 / 5) * 5);
       }
       if (k === "liftToDrag") ldMax = Math.max(ldMax, cc.markers.maxLiftToDrag * 1.15);
     }

@@ -1,5 +1,5 @@
 "use client";
-import { useCallback, useMemo, useRef, useState } from "react";
+import { memo, useCallback, useMemo, useRef, useState, type Dispatch, type SetStateAction } from "react";
 import { useRouter } from "next/navigation";
 import type { Chart } from "chart.js";
 import { CurveChart, CASE_COLOURS, CURVE_DASH, type Concealment } from "@/components/charts/curve-chart";
@@ -80,7 +80,7 @@ export function DemoWorkbench(props: WorkbenchProps) {
   }, []);
 
   const locked = calling; // the call is about the saved first case: sliders wait for the reveal
-  const configs = CONFIGURATION_KEYS.filter((k) => k === "clean" || spec.airframe.configurations[k] !== null);
+  const configs = useMemo(() => CONFIGURATION_KEYS.filter((k) => k === "clean" || spec.airframe.configurations[k] !== null), [spec.airframe]);
 
   function chooseAirframe(id: string) {
     const a = props.airframes?.find((x) => x.id === id);
@@ -105,10 +105,10 @@ export function DemoWorkbench(props: WorkbenchProps) {
       return { ...s, cases: [...s.cases, { ...last, label: `Case ${s.cases.length + 1}`, massKg }] };
     });
   }
-  function removeCase(i: number) {
+  const removeCase = useCallback((i: number) => {
     setSpec((s) => (s.cases.length <= 1 ? s : { ...s, cases: s.cases.filter((_, j) => j !== i) }));
     setFocus(0);
-  }
+  }, []);
 
   async function save() {
     setBusy(true);
@@ -280,6 +280,10 @@ export function DemoWorkbench(props: WorkbenchProps) {
             )}
           </ul>
           <p className="text-caption text-chalk-dim">{AXIS_ASSUMPTION}</p>
+          <div className="flex flex-wrap gap-2">
+            <button type="button" className="btn border border-board-600 text-chalk hover:bg-board-700" onClick={exportPng} disabled={calling}>Export chart (PNG)</button>
+            <button type="button" className="btn border border-board-600 text-chalk hover:bg-board-700" onClick={exportCsv} disabled={calling}>Export data (CSV)</button>
+          </div>
         </section>
 
         <aside className="space-y-3" aria-label="Readouts">
@@ -321,137 +325,181 @@ export function DemoWorkbench(props: WorkbenchProps) {
         {locked && <p className="text-caption text-ink-soft">The sliders unlock after your call.</p>}
         <div className="grid gap-3 md:grid-cols-2">
           {spec.cases.map((c, i) => (
-            <fieldset key={i} className="space-y-2 rounded-md border border-paper-edge p-3" data-testid={`case-${i}`}>
-              <legend className="px-1 font-semibold">
-                <span aria-hidden="true" className="mr-2 inline-block h-3 w-3 rounded-full align-middle" style={{ background: CASE_COLOURS[i], outline: "1px solid #414a5c" }} />
-                Case {i + 1}
-              </legend>
-              <div className="flex flex-wrap items-end gap-2">
-                <label className="flex min-h-touch items-center gap-2 text-caption">
-                  <input type="radio" name="focus" checked={focus === i} onChange={() => setFocus(i)} className="h-5 w-5" /> Focus (readouts, regions)
-                </label>
-                {mode === "builder" && spec.cases.length > 1 && <button type="button" className="btn-quiet" onClick={() => removeCase(i)}>Remove case {i + 1}</button>}
-              </div>
-              {mode === "builder" && (
-                <div>
-                  <label htmlFor={`label-${i}`} className="field-label">Label</label>
-                  <input id={`label-${i}`} className="field-input" maxLength={40} value={c.label} onChange={(e) => updateCase(i, { label: e.target.value })} />
-                </div>
-              )}
-              <div>
-                <label htmlFor={`mass-${i}`} className="field-label">Mass, case {i + 1}: <span className="num">{fmt(c.massKg)} kg ({fmt(kgToLb(c.massKg))} lb)</span></label>
-                <input id={`mass-${i}`} data-testid={`mass-${i}`} type="range" className="mt-1 block min-h-touch w-full" disabled={locked}
-                  min={Math.floor(spec.airframe.emptyMassKg)} max={Math.ceil(spec.airframe.maxMassKg)} step={1} value={c.massKg}
-                  aria-valuetext={`${fmt(c.massKg)} kg (${fmt(kgToLb(c.massKg))} lb)`}
-                  onChange={(e) => updateCase(i, { massKg: clamp(Number(e.target.value), spec.airframe.emptyMassKg, spec.airframe.maxMassKg) })} />
-              </div>
-              <div>
-                <label htmlFor={`alt-${i}`} className="field-label">Pressure altitude, case {i + 1}: <span className="num">{fmt(mToFt(c.altitudeM))} ft</span></label>
-                <input id={`alt-${i}`} type="range" className="mt-1 block min-h-touch w-full" disabled={locked} min={0} max={14000} step={100}
-                  value={Math.round(mToFt(c.altitudeM) / 100) * 100} aria-valuetext={`${fmt(mToFt(c.altitudeM))} ft`}
-                  onChange={(e) => updateCase(i, { altitudeM: ftToM(Number(e.target.value)) })} />
-              </div>
-              <div>
-                <label htmlFor={`isa-${i}`} className="field-label">ISA deviation, case {i + 1}: <span className="num">{c.isaDeviationK > 0 ? "+" : ""}{fmt(c.isaDeviationK)} K</span></label>
-                <input id={`isa-${i}`} type="range" className="mt-1 block min-h-touch w-full" disabled={locked} min={-30} max={30} step={1} value={c.isaDeviationK}
-                  onChange={(e) => updateCase(i, { isaDeviationK: Number(e.target.value) })} />
-              </div>
-              <div>
-                <label htmlFor={`conf-${i}`} className="field-label">Configuration, case {i + 1}</label>
-                <select id={`conf-${i}`} className="field-input" disabled={locked} value={c.configuration} onChange={(e) => updateCase(i, { configuration: e.target.value as ConfigurationKey })}>
-                  {configs.map((k) => <option key={k} value={k}>{CONFIGURATION_LABELS[k]}</option>)}
-                </select>
-              </div>
-            </fieldset>
+            <CaseEditor key={i} index={i} c={c} airframe={spec.airframe} configs={configs} mode={mode} locked={locked} focused={focus === i}
+              canRemove={mode === "builder" && spec.cases.length > 1} onChange={updateCase} onFocus={setFocus} onRemove={removeCase} />
           ))}
         </div>
       </section>
 
-      <section aria-labelledby="show-h" className="card space-y-3">
-        <h2 id="show-h">What the chart shows</h2>
-        <div className="grid gap-4 md:grid-cols-3">
-          <fieldset>
-            <legend className="field-label">Curves</legend>
-            {CURVE_KEYS.map((k) => (
-              <label key={k} className="flex min-h-touch items-center gap-2">
-                <input type="checkbox" className="h-5 w-5" checked={spec.curves[k] ?? false} disabled={locked} onChange={(e) => setSpec((s) => ({ ...s, curves: { ...s.curves, [k]: e.target.checked } }))} />
-                {CURVE_LABELS[k]}
-              </label>
-            ))}
-          </fieldset>
-          <fieldset>
-            <legend className="field-label">Markers</legend>
-            {MARKER_KEYS.map((k) => (
-              <label key={k} className="flex min-h-touch items-center gap-2">
-                <input type="checkbox" className="h-5 w-5" checked={spec.markers[k] ?? false} disabled={locked} onChange={(e) => setSpec((s) => ({ ...s, markers: { ...s.markers, [k]: e.target.checked } }))} />
-                {MARKER_LABELS[k]}
-              </label>
-            ))}
-          </fieldset>
-          <div className="space-y-2">
-            <fieldset>
-              <legend className="field-label">Speed axis</legend>
-              <div className="flex flex-wrap gap-3">
-                {(["equivalent", "true"] as const).map((v) => (
-                  <label key={v} className="flex min-h-touch items-center gap-2">
-                    <input type="radio" name="axis-speed" className="h-5 w-5" checked={spec.axis.speed === v} disabled={locked} onChange={() => setSpec((s) => ({ ...s, axis: { ...s.axis, speed: v } }))} />
-                    {v === "true" ? "TAS" : "IAS/EAS"}
-                  </label>
-                ))}
-                {(["kt", "ms"] as const).map((v) => (
-                  <label key={v} className="flex min-h-touch items-center gap-2">
-                    <input type="radio" name="axis-unit" className="h-5 w-5" checked={spec.axis.unit === v} disabled={locked} onChange={() => setSpec((s) => ({ ...s, axis: { ...s.axis, unit: v } }))} />
-                    {speedUnitLabel(v)}
-                  </label>
-                ))}
-              </div>
-            </fieldset>
-            <div className="grid grid-cols-2 gap-2">
-              <div>
-                <label htmlFor="range-min" className="field-label">From ({u})</label>
-                <input id="range-min" type="number" className="field-input num" disabled={locked} min={1} step={step} value={Number(rangeMin.toFixed(1))}
-                  onChange={(e) => { const v = speedFromUnit(Number(e.target.value), unit); if (v >= 1 && v < spec.range.maxSpeedMs) setSpec((s) => ({ ...s, range: { ...s.range, minSpeedMs: v } })); }} />
-              </div>
-              <div>
-                <label htmlFor="range-max" className="field-label">To ({u})</label>
-                <input id="range-max" type="number" className="field-input num" disabled={locked} step={step} value={Number(rangeMax.toFixed(1))}
-                  onChange={(e) => { const v = speedFromUnit(Number(e.target.value), unit); if (v > spec.range.minSpeedMs && v <= 500) setSpec((s) => ({ ...s, range: { ...s.range, maxSpeedMs: v } })); }} />
-              </div>
-            </div>
-            <div>
-              <label htmlFor="chosen" className="field-label">Chosen speed: <span className="num">{formatSpeed(spec.chosenSpeedMs, unit)}</span></label>
-              <input id="chosen" type="range" className="mt-1 block min-h-touch w-full" disabled={locked} min={rangeMin} max={rangeMax} step={step} value={speedInUnit(spec.chosenSpeedMs, unit)}
-                onChange={(e) => setSpec((s) => ({ ...s, chosenSpeedMs: speedFromUnit(Number(e.target.value), unit) }))} />
-            </div>
-          </div>
-        </div>
-        {mode === "builder" && (
-          <div className="grid gap-3 md:grid-cols-[16rem_1fr]">
-            <div>
-              <label htmlFor="call-kind" className="field-label">Call it first (students)</label>
-              <select id="call-kind" className="field-input" value={spec.callKind ?? ""} onChange={(e) => setSpec((s) => ({ ...s, callKind: e.target.value === "" ? null : (e.target.value as CallKind) }))}>
-                <option value="">No call</option>
-                <option value="vmd">Where is Vmd?</option>
-                <option value="stall">Where is the stall speed?</option>
-                <option value="gust">Where does the speed settle after a gust?</option>
-              </select>
-              {spec.callKind && <p className="mt-1 text-caption text-ink-soft">Answer for case 1 now: <span className="num">{formatSpeed(callAnswer(spec, spec.callKind), unit)}</span></p>}
-            </div>
-            <div>
-              <label htmlFor="notes" className="field-label">Teaching notes</label>
-              <textarea id="notes" className="field-input min-h-24 py-2" maxLength={4000} value={spec.notes} onChange={(e) => setSpec((s) => ({ ...s, notes: e.target.value }))} />
-            </div>
-          </div>
-        )}
-        {mode === "student" && spec.notes && (
-          <div><h3 className="field-label">Notes from your instructor</h3><p className="whitespace-pre-wrap">{spec.notes}</p></div>
-        )}
-        <div className="flex flex-wrap gap-2">
-          <button type="button" className="btn-quiet" onClick={exportPng} disabled={calling}>Export chart (PNG)</button>
-          <button type="button" className="btn-quiet" onClick={exportCsv} disabled={calling}>Export data (CSV)</button>
-        </div>
-      </section>
+      <ShowPanel curves={spec.curves} markers={spec.markers} axis={spec.axis} range={spec.range} chosenSpeedMs={spec.chosenSpeedMs} callKind={spec.callKind} notes={spec.notes}
+        mode={mode} locked={locked} setSpec={setSpec} answerText={mode === "builder" && spec.callKind ? formatSpeed(callAnswer(spec, spec.callKind), unit) : null} />
     </div>
   );
 }
 
+interface CaseEditorProps {
+  index: number;
+  c: DemoCase;
+  airframe: AirframeSnapshot;
+  configs: ConfigurationKey[];
+  mode: "builder" | "student";
+  locked: boolean;
+  focused: boolean;
+  canRemove: boolean;
+  onChange: (i: number, patch: Partial<DemoCase>) => void;
+  onFocus: (i: number) => void;
+  onRemove: (i: number) => void;
+}
+
+/** One case's sliders; memoised so moving one case's slider re-renders only that case. */
+const CaseEditor = memo(function CaseEditor({ index, c, airframe, configs, mode, locked, focused, canRemove, onChange, onFocus, onRemove }: CaseEditorProps) {
+  return (
+    <fieldset className="space-y-2 rounded-md border border-paper-edge p-3" data-testid={`case-${index}`}>
+      <legend className="px-1 font-semibold">
+        <span aria-hidden="true" className="mr-2 inline-block h-3 w-3 rounded-full align-middle" style={{ background: CASE_COLOURS[index], outline: "1px solid #414a5c" }} />
+        Case {index + 1}
+      </legend>
+      <div className="flex flex-wrap items-end gap-2">
+        <label className="flex min-h-touch items-center gap-2 text-caption">
+          <input type="radio" name="focus" checked={focused} onChange={() => onFocus(index)} className="h-5 w-5" /> Focus (readouts, regions)
+        </label>
+        {canRemove && <button type="button" className="btn-quiet" onClick={() => onRemove(index)}>Remove case {index + 1}</button>}
+      </div>
+      {mode === "builder" && (
+        <div>
+          <label htmlFor={`label-${index}`} className="field-label">Label</label>
+          <input id={`label-${index}`} className="field-input" maxLength={40} value={c.label} onChange={(e) => onChange(index, { label: e.target.value })} />
+        </div>
+      )}
+      <div>
+        <label htmlFor={`mass-${index}`} className="field-label">Mass, case {index + 1}: <span className="num">{fmt(c.massKg)} kg ({fmt(kgToLb(c.massKg))} lb)</span></label>
+        <input id={`mass-${index}`} data-testid={`mass-${index}`} type="range" className="mt-1 block min-h-touch w-full" disabled={locked}
+          min={Math.floor(airframe.emptyMassKg)} max={Math.ceil(airframe.maxMassKg)} step={1} value={c.massKg}
+          aria-valuetext={`${fmt(c.massKg)} kg (${fmt(kgToLb(c.massKg))} lb)`}
+          onChange={(e) => onChange(index, { massKg: clamp(Number(e.target.value), airframe.emptyMassKg, airframe.maxMassKg) })} />
+      </div>
+      <div>
+        <label htmlFor={`alt-${index}`} className="field-label">Pressure altitude, case {index + 1}: <span className="num">{fmt(mToFt(c.altitudeM))} ft</span></label>
+        <input id={`alt-${index}`} type="range" className="mt-1 block min-h-touch w-full" disabled={locked} min={0} max={14000} step={100}
+          value={Math.round(mToFt(c.altitudeM) / 100) * 100} aria-valuetext={`${fmt(mToFt(c.altitudeM))} ft`}
+          onChange={(e) => onChange(index, { altitudeM: ftToM(Number(e.target.value)) })} />
+      </div>
+      <div>
+        <label htmlFor={`isa-${index}`} className="field-label">ISA deviation, case {index + 1}: <span className="num">{c.isaDeviationK > 0 ? "+" : ""}{fmt(c.isaDeviationK)} K</span></label>
+        <input id={`isa-${index}`} type="range" className="mt-1 block min-h-touch w-full" disabled={locked} min={-30} max={30} step={1} value={c.isaDeviationK}
+          onChange={(e) => onChange(index, { isaDeviationK: Number(e.target.value) })} />
+      </div>
+      <div>
+        <label htmlFor={`conf-${index}`} className="field-label">Configuration, case {index + 1}</label>
+        <select id={`conf-${index}`} className="field-input" disabled={locked} value={c.configuration} onChange={(e) => onChange(index, { configuration: e.target.value as ConfigurationKey })}>
+          {configs.map((k) => <option key={k} value={k}>{CONFIGURATION_LABELS[k]}</option>)}
+        </select>
+      </div>
+    </fieldset>
+  );
+});
+
+interface ShowPanelProps {
+  curves: DemoSpec["curves"];
+  markers: DemoSpec["markers"];
+  axis: DemoSpec["axis"];
+  range: DemoSpec["range"];
+  chosenSpeedMs: number;
+  callKind: CallKind | null;
+  notes: string;
+  mode: "builder" | "student";
+  locked: boolean;
+  setSpec: Dispatch<SetStateAction<DemoSpec>>;
+  answerText: string | null;
+}
+
+/** What the chart shows (curves, markers, axis, range, Call it first, notes); memoised so a mass slider does not re-render it. */
+const ShowPanel = memo(function ShowPanel({ curves, markers, axis, range, chosenSpeedMs, callKind, notes, mode, locked, setSpec, answerText }: ShowPanelProps) {
+  const unit = axis.unit;
+  const u = speedUnitLabel(unit);
+  const rangeMin = speedInUnit(range.minSpeedMs, unit);
+  const rangeMax = speedInUnit(range.maxSpeedMs, unit);
+  const step = unit === "kt" ? 1 : 0.5;
+  return (
+    <section aria-labelledby="show-h" className="card space-y-3">
+      <h2 id="show-h">What the chart shows</h2>
+      <div className="grid gap-4 md:grid-cols-3">
+        <fieldset>
+          <legend className="field-label">Curves</legend>
+          {CURVE_KEYS.map((k) => (
+            <label key={k} className="flex min-h-touch items-center gap-2">
+              <input type="checkbox" className="h-5 w-5" checked={curves[k] ?? false} disabled={locked} onChange={(e) => setSpec((s) => ({ ...s, curves: { ...s.curves, [k]: e.target.checked } }))} />
+              {CURVE_LABELS[k]}
+            </label>
+          ))}
+        </fieldset>
+        <fieldset>
+          <legend className="field-label">Markers</legend>
+          {MARKER_KEYS.map((k) => (
+            <label key={k} className="flex min-h-touch items-center gap-2">
+              <input type="checkbox" className="h-5 w-5" checked={markers[k] ?? false} disabled={locked} onChange={(e) => setSpec((s) => ({ ...s, markers: { ...s.markers, [k]: e.target.checked } }))} />
+              {MARKER_LABELS[k]}
+            </label>
+          ))}
+        </fieldset>
+        <div className="space-y-2">
+          <fieldset>
+            <legend className="field-label">Speed axis</legend>
+            <div className="flex flex-wrap gap-3">
+              {(["equivalent", "true"] as const).map((v) => (
+                <label key={v} className="flex min-h-touch items-center gap-2">
+                  <input type="radio" name="axis-speed" className="h-5 w-5" checked={axis.speed === v} disabled={locked} onChange={() => setSpec((s) => ({ ...s, axis: { ...s.axis, speed: v } }))} />
+                  {v === "true" ? "TAS" : "IAS/EAS"}
+                </label>
+              ))}
+              {(["kt", "ms"] as const).map((v) => (
+                <label key={v} className="flex min-h-touch items-center gap-2">
+                  <input type="radio" name="axis-unit" className="h-5 w-5" checked={axis.unit === v} disabled={locked} onChange={() => setSpec((s) => ({ ...s, axis: { ...s.axis, unit: v } }))} />
+                  {speedUnitLabel(v)}
+                </label>
+              ))}
+            </div>
+          </fieldset>
+          <div className="grid grid-cols-2 gap-2">
+            <div>
+              <label htmlFor="range-min" className="field-label">From ({u})</label>
+              <input id="range-min" type="number" className="field-input num" disabled={locked} min={1} step={step} value={Number(rangeMin.toFixed(1))}
+                onChange={(e) => { const v = speedFromUnit(Number(e.target.value), unit); if (v >= 1 && v < range.maxSpeedMs) setSpec((s) => ({ ...s, range: { ...s.range, minSpeedMs: v } })); }} />
+            </div>
+            <div>
+              <label htmlFor="range-max" className="field-label">To ({u})</label>
+              <input id="range-max" type="number" className="field-input num" disabled={locked} step={step} value={Number(rangeMax.toFixed(1))}
+                onChange={(e) => { const v = speedFromUnit(Number(e.target.value), unit); if (v > range.minSpeedMs && v <= 500) setSpec((s) => ({ ...s, range: { ...s.range, maxSpeedMs: v } })); }} />
+            </div>
+          </div>
+          <div>
+            <label htmlFor="chosen" className="field-label">Chosen speed: <span className="num">{formatSpeed(chosenSpeedMs, unit)}</span></label>
+            <input id="chosen" type="range" className="mt-1 block min-h-touch w-full" disabled={locked} min={rangeMin} max={rangeMax} step={step} value={speedInUnit(chosenSpeedMs, unit)}
+              onChange={(e) => setSpec((s) => ({ ...s, chosenSpeedMs: speedFromUnit(Number(e.target.value), unit) }))} />
+          </div>
+        </div>
+      </div>
+      {mode === "builder" && (
+        <div className="grid gap-3 md:grid-cols-[16rem_1fr]">
+          <div>
+            <label htmlFor="call-kind" className="field-label">Call it first (students)</label>
+            <select id="call-kind" className="field-input" value={callKind ?? ""} onChange={(e) => setSpec((s) => ({ ...s, callKind: e.target.value === "" ? null : (e.target.value as CallKind) }))}>
+              <option value="">No call</option>
+              <option value="vmd">Where is Vmd?</option>
+              <option value="stall">Where is the stall speed?</option>
+              <option value="gust">Where does the speed settle after a gust?</option>
+            </select>
+            {answerText && <p className="mt-1 text-caption text-ink-soft">Answer for case 1 now: <span className="num">{answerText}</span></p>}
+          </div>
+          <div>
+            <label htmlFor="notes" className="field-label">Teaching notes</label>
+            <textarea id="notes" className="field-input min-h-24 py-2" maxLength={4000} value={notes} onChange={(e) => setSpec((s) => ({ ...s, notes: e.target.value }))} />
+          </div>
+        </div>
+      )}
+      {mode === "student" && notes && (
+        <div><h3 className="field-label">Notes from your instructor</h3><p className="whitespace-pre-wrap">{notes}</p></div>
+      )}
+    </section>
+  );
+});
