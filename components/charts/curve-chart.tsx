@@ -3,6 +3,7 @@ import { memo, useEffect, useLayoutEffect, useRef, useState, type MutableRefObje
 import { Chart as ChartJS, LineController, LineElement, PointElement, LinearScale, type Chart, type ChartDataset, type ChartOptions, type Plugin } from "chart.js";
 import { Chart as ReactChart } from "react-chartjs-2";
 import { CURVE_KEYS, CURVE_LABELS, speedFromUnit, speedInUnit, speedUnitLabel, type CurveKey, type DemoSpec, type MarkerKey } from "./demo-spec";
+import { formatNumber } from "./format";
 import { MAX_CASES, datasetIndex, fillFrame, newFrame, type Frame } from "./curve-frame";
 import type { CurveSet } from "@/lib/aero";
 
@@ -82,7 +83,7 @@ function hatchPattern(ctx: CanvasRenderingContext2D): CanvasPattern | null {
 }
 
 function fmt(n: number, digits = 0): string {
-  return n.toLocaleString("en-GB", { maximumFractionDigits: digits, minimumFractionDigits: digits });
+  return formatNumber(n, digits);
 }
 
 /**

@@ -57,7 +57,7 @@ export function whatIf(spec: DemoSpec, caseIndex: number): string[] {
 }
 
 export const GUST_BELOW_VMD =
-  "Below Vmd (speed-unstable), thrust left alone: a gust that slows you raises the drag, so you slow further; one that speeds you up lowers the drag, so you keep speeding up. The speed wanders off until you move the throttle.";
+  "With the thrust left alone, a gust that slows you raises the drag, so you slow further; one that speeds you up lowers the drag, so you keep speeding up. The speed wanders off until you move the throttle.";
 export const GUST_ABOVE_VMD =
-  "Above Vmd (speed-stable), thrust left alone: a gust that speeds you up raises the drag, which slows you back; one that slows you lowers the drag, so you speed back up. The speed returns to where it was.";
+  "With the thrust left alone, a gust that speeds you up raises the drag, which slows you back; one that slows you lowers the drag, so you speed back up. The speed returns to where it was.";
 export const AXIS_ASSUMPTION = "Speeds assume IAS = CAS = EAS (no instrument or position error, no compressibility).";

@@ -1,4 +1,5 @@
 "use client";
+import { formatNumber } from "@/components/charts/format";
 import { memo, useCallback, useMemo, useRef, useState, type Dispatch, type SetStateAction } from "react";
 import { useRouter } from "next/navigation";
 import type { Chart } from "chart.js";
@@ -12,6 +13,7 @@ import {
   MARKER_KEYS,
   MARKER_LABELS,
   callAnswer,
+  defaultSpec,
   formatSpeed,
   speedFromUnit,
   speedInUnit,
@@ -39,7 +41,7 @@ export interface WorkbenchProps {
   inUse?: boolean;
 }
 
-const fmt = (n: number, d = 0) => n.toLocaleString("en-GB", { maximumFractionDigits: d, minimumFractionDigits: d });
+const fmt = formatNumber;
 
 function clamp(x: number, lo: number, hi: number) {
   return Math.min(hi, Math.max(lo, x));
@@ -85,9 +87,12 @@ export function DemoWorkbench(props: WorkbenchProps) {
   function chooseAirframe(id: string) {
     const a = props.airframes?.find((x) => x.id === id);
     if (!a) return;
+    const fresh = defaultSpec(a);
     setSpec((s) => ({
       ...s,
       airframe: a,
+      range: fresh.range,
+      chosenSpeedMs: fresh.chosenSpeedMs,
       cases: s.cases.map((c) => ({
         ...c,
         // a mass outside the new type's range starts at its maximum
@@ -161,10 +166,14 @@ export function DemoWorkbench(props: WorkbenchProps) {
   function exportPng() {
     const ch = chartRef.current;
     if (!ch) return;
+    // chart.js gives a data: URL; Chromium will not download a data: URL, so hand it over as a Blob.
+    const base64 = ch.toBase64Image("image/png", 1).split(",")[1] ?? "";
+    const bytes = Uint8Array.from(atob(base64), (ch2) => ch2.charCodeAt(0));
     const a = document.createElement("a");
-    a.href = ch.toBase64Image("image/png", 1);
+    a.href = URL.createObjectURL(new Blob([bytes], { type: "image/png" }));
     a.download = `${name || "demo"}.png`.replace(/[^\w .-]+/g, "_");
     a.click();
+    setTimeout(() => URL.revokeObjectURL(a.href), 1000);
   }
   async function exportCsv() {
     const [{ toCsv }, { sampleCurves }, { curveCaseFor }] = await Promise.all([import("@/lib/csv"), import("@/lib/aero"), import("@/components/charts/demo-spec")]);
@@ -310,8 +319,8 @@ export function DemoWorkbench(props: WorkbenchProps) {
           )}
           {!calling && (
             <section className="space-y-2" aria-label="What a gust does">
-              <p className="rounded-md border-l-4 border-unstable-500 bg-unstable-100 p-2 text-caption"><strong>Below Vmd: speed-unstable.</strong> {GUST_BELOW_VMD.replace(/^Below Vmd \(speed-unstable\), /, "")}</p>
-              <p className="rounded-md border-l-4 border-stable-500 bg-stable-100 p-2 text-caption"><strong>Above Vmd: speed-stable.</strong> {GUST_ABOVE_VMD.replace(/^Above Vmd \(speed-stable\), /, "")}</p>
+              <p className="rounded-md border-l-4 border-unstable-500 bg-unstable-100 p-2 text-caption"><strong>Below Vmd: speed-unstable.</strong> {GUST_BELOW_VMD}</p>
+              <p className="rounded-md border-l-4 border-stable-500 bg-stable-100 p-2 text-caption"><strong>Above Vmd: speed-stable.</strong> {GUST_ABOVE_VMD}</p>
             </section>
           )}
         </aside>

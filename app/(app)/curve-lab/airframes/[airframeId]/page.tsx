@@ -1,3 +1,4 @@
+import { formatNumber } from "@/components/charts/format";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
@@ -13,7 +14,7 @@ import { AirframeButtons } from "../_components/airframe-actions";
 export const metadata: Metadata = { title: "Airframe · Curve Lab" };
 export const dynamic = "force-dynamic";
 
-const fmt = (n: number, d = 0) => n.toLocaleString("en-GB", { maximumFractionDigits: d, minimumFractionDigits: d });
+const fmt = formatNumber;
 
 const query = z.object({
   massLb: z.coerce.number({ error: "Mass must be a number" }).positive("Mass must be above 0 lb").optional(),

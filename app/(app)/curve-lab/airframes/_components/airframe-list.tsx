@@ -1,4 +1,5 @@
 "use client";
+import { formatNumber } from "@/components/charts/format";
 import Link from "next/link";
 import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
@@ -14,7 +15,7 @@ interface Row {
   retiredAt: string | null;
 }
 
-const fmt = (n: number, d = 0) => n.toLocaleString("en-GB", { maximumFractionDigits: d, minimumFractionDigits: d });
+const fmt = formatNumber;
 
 /** The school's aircraft profiles, from GET /api/airframes. */
 export function AirframeList() {
