@@ -1,5 +1,5 @@
 "use client";
-import { memo, useEffect, useLayoutEffect, useRef, useState, type MutableRefObject } from "react";
+import { memo, useCallback, useEffect, useLayoutEffect, useRef, useState, type MutableRefObject } from "react";
 import { Chart as ChartJS, LineController, LineElement, PointElement, LinearScale, type Chart, type ChartDataset, type ChartOptions, type Plugin } from "chart.js";
 import { Chart as ReactChart } from "react-chartjs-2";
 import { CURVE_KEYS, CURVE_LABELS, speedFromUnit, speedInUnit, speedUnitLabel, type CurveKey, type DemoSpec, type MarkerKey } from "./demo-spec";
@@ -359,14 +359,22 @@ function CurveChartInner({ spec, focus, variant, conceal = null, guessMs = null,
   useEffect(() => ctl.setPick(onPickSpeed), [ctl, onPickSpeed]);
   useLayoutEffect(() => {
     const ch = chart.current;
-    if (chartRef) chartRef.current = ch as unknown as Chart;
     if (ch) ctl.apply(ch, { spec, focus, conceal, guessMs, answerMs });
-  }, [ctl, spec, focus, conceal, guessMs, answerMs, chartRef]);
+  }, [ctl, spec, focus, conceal, guessMs, answerMs]);
+  // react-chartjs-2 creates the chart in an effect and then calls this ref: hand the one
+  // instance to the caller (PNG export, tests) as soon as it exists.
+  const setChart = useCallback(
+    (instance: Chart<"line", { x: number; y: number }[]> | null | undefined) => {
+      chart.current = instance ?? null;
+      if (chartRef) chartRef.current = (instance ?? null) as unknown as Chart | null;
+    },
+    [chartRef],
+  );
 
   return (
     <div className={className} style={{ position: "relative" }}>
       <ReactChart
-        ref={chart}
+        ref={setChart}
         type="line"
         data={ctl.data}
         options={ctl.options}

@@ -99,4 +99,27 @@ describe("demo builder", () => {
     const vs = stallSpeed(aircraftFor(spec.airframe, { ...spec.cases[0]!, configuration: "flaps2" }), { altitudeM: 0 }).equivalentAirspeedMs;
     expect(screen.getByTestId("readout-stall")).toHaveTextContent(`${msToKt(vs).toFixed(0)} kt`);
   });
+
+  it("exports the chart as a PNG file right after the page loads (no slider moved first)", () => {
+    const created: Blob[] = [];
+    const original = URL.createObjectURL;
+    URL.createObjectURL = ((b: Blob) => {
+      created.push(b);
+      return "blob:chart";
+    }) as typeof URL.createObjectURL;
+    const clicks: string[] = [];
+    const click = jest.spyOn(HTMLAnchorElement.prototype, "click").mockImplementation(function (this: HTMLAnchorElement) {
+      clicks.push(this.download);
+    });
+    try {
+      renderBuilder(defaultSpec(wren));
+      fireEvent.click(screen.getByRole("button", { name: "Export chart (PNG)" }));
+      expect(clicks).toEqual(["Test.png"]);
+      expect(created).toHaveLength(1);
+      expect(created[0]!.type).toBe("image/png");
+    } finally {
+      click.mockRestore();
+      URL.createObjectURL = original;
+    }
+  });
 });
