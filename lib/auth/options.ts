@@ -2,14 +2,10 @@ import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
 import { attemptSignIn, bumpSessionVersion } from "@/db/access/sign-in";
 import type { Role } from "./roles";
+import { clientAddress } from "./client-address";
 
 export const SESSION_MAX_AGE_S = 12 * 60 * 60;
 
-function clientAddress(headers: Record<string, string | string[] | undefined> | undefined): string {
-  const fwd = headers?.["x-forwarded-for"];
-  const first = (Array.isArray(fwd) ? fwd[0] : fwd)?.split(",")[0]?.trim();
-  return first || "unknown";
-}
 
 export const authOptions: NextAuthOptions = {
   session: { strategy: "jwt", maxAge: SESSION_MAX_AGE_S },
