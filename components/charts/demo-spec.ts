@@ -187,8 +187,9 @@ export function defaultSpec(airframe: AirframeSnapshot): DemoSpec {
     curves: { zeroLift: true, liftDependent: true, idealInduced: false, increment: false, total: true, power: false, liftToDrag: false },
     markers: { vmd: true, vmp: true, stall: true, bestGlide: false, chosen: false },
     axis: { speed: "equivalent", unit: "kt" },
-    range: { minSpeedMs: Math.max(5, Math.floor(vs * 0.7)), maxSpeedMs: Math.ceil(vmd * 2.4) },
-    chosenSpeedMs: Math.round(vmd * 0.85),
+    // round knots, so the axis reads 40 … 150 kt rather than 36.9 … 192.4
+    range: { minSpeedMs: ktToMs(Math.max(10, Math.floor((msToKt(vs) * 0.75) / 10) * 10)), maxSpeedMs: ktToMs(Math.ceil((msToKt(vmd) * 2.2) / 10) * 10) },
+    chosenSpeedMs: ktToMs(Math.round(msToKt(vmd) * 0.85)),
     callKind: null,
     notes: "",
   };

@@ -101,7 +101,7 @@ export function ProjectorView({ name, spec: saved, backHref }: { name: string; s
         </div>
         <section aria-label="Keys" className="rounded-card border-2 border-board-600 p-3" data-testid="key-legend">
           <h2 className="sr-only">Keys</h2>
-          <dl className="grid grid-cols-[auto_1fr] gap-x-4">
+          <dl className="grid grid-cols-[auto_1fr] gap-x-4 xl:grid-cols-[auto_1fr_auto_1fr]">
             <dt className="font-mono">← →</dt><dd>step through the cases</dd>
             <dt className="font-mono">1–4</dt><dd>go to a case</dd>
             <dt className="font-mono">A</dt><dd>all cases / this case only</dd>
