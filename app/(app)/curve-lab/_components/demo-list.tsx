@@ -28,7 +28,7 @@ export function DemoList({ staff }: { staff: boolean }) {
   if (q.isError) return <p role="alert" className="field-error">{q.error.message}</p>;
   if (q.data.length === 0) return <p className="text-ink-soft" data-testid="demo-list-empty">{staff ? "No demos yet: build one from an airframe." : "No demos are assigned to you yet."}</p>;
   return (
-    <div className="overflow-x-auto">
+    <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="List, scrolls sideways">
       <table className="data-table" data-testid="demo-list">
         <thead>
           <tr>

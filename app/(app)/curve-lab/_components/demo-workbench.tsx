@@ -264,8 +264,8 @@ export function DemoWorkbench(props: WorkbenchProps) {
         </section>
       )}
 
-      <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_20rem]">
-        <section aria-label="Chart" className="space-y-2 rounded-card bg-board-900 p-3 text-chalk">
+      <div className="grid grid-cols-1 gap-4 lg:grid-cols-[minmax(0,1fr)_20rem]">
+        <section aria-label="Chart" className="min-w-0 space-y-2 rounded-card bg-board-900 p-3 text-chalk">
           <CurveChart
             spec={callSpec}
             focus={Math.min(focus, spec.cases.length - 1)}
@@ -275,7 +275,7 @@ export function DemoWorkbench(props: WorkbenchProps) {
             answerMs={answer ? answer.actualMs : null}
             onPickSpeed={calling ? setGuessMs : undefined}
             chartRef={chartRef}
-            className="h-[26rem] w-full"
+            className="h-[26rem] w-full min-w-0 overflow-hidden"
             label={`Drag against ${spec.axis.speed === "true" ? "TAS" : "EAS"} for ${spec.cases.map((c) => c.label).join(", ")}`}
           />
           <ul className="flex flex-wrap gap-x-4 gap-y-1 text-caption" aria-label="Legend">

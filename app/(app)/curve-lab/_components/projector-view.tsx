@@ -80,7 +80,7 @@ export function ProjectorView({ name, spec: saved, backHref }: { name: string; s
 
   if (!host) return null;
   return createPortal(
-    <div ref={root} tabIndex={-1} data-testid="projector" className="fixed inset-0 z-50 flex flex-col gap-3 overflow-auto bg-board-950 p-6 text-[28px] leading-snug text-chalk outline-none">
+    <div ref={root} tabIndex={0} role="region" aria-label="Projector view" data-testid="projector" className="fixed inset-0 z-50 flex flex-col gap-3 overflow-auto bg-board-950 p-6 text-[28px] leading-snug text-chalk outline-none">
       <header className="flex flex-wrap items-baseline justify-between gap-x-8 gap-y-2">
         <h1 className="text-[40px] font-bold">{name}</h1>
         <p className="flex flex-wrap items-baseline gap-x-6" data-testid="projector-readout">

@@ -35,7 +35,7 @@ export function AirframeList() {
       {q.isError && <p role="alert" className="field-error">{q.error.message}</p>}
       {q.data && q.data.length === 0 && <p className="text-ink-soft">No aircraft profiles yet.</p>}
       {q.data && q.data.length > 0 && (
-        <div className="overflow-x-auto">
+        <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="List, scrolls sideways">
           <table className="data-table" data-testid="airframe-list">
             <thead><tr><th scope="col">Profile</th><th scope="col">Mass, empty to max</th><th scope="col">Wing</th><th scope="col">State</th></tr></thead>
             <tbody>

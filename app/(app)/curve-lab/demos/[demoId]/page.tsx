@@ -62,7 +62,7 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
         {calls.length === 0 ? (
           <p className="text-ink-soft">No calls from your students yet.</p>
         ) : (
-          <div className="overflow-x-auto">
+          <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Students' calls, scrolls sideways">
             <table className="data-table" data-testid="calls-table">
               <thead><tr><th scope="col">Student</th><th scope="col">Call</th><th scope="col">Revision</th><th scope="col">Their call</th><th scope="col">Answer</th><th scope="col">Error</th><th scope="col">When</th></tr></thead>
               <tbody>
