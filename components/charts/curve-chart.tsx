@@ -256,6 +256,7 @@ class CurveChartController {
   readonly options: ChartOptions<"line">;
   readonly plugins: Plugin<"line">[];
   private pick: ((ms: number) => void) | undefined;
+  private readonly extraScales: { power: { max: number } & Record<string, unknown>; ld: { max: number } & Record<string, unknown> };
 
   constructor(first: ApplyInput, readonly variant: ChartVariant) {
     const projector = variant === "projector";
@@ -305,10 +306,16 @@ class CurveChartController {
       scales: {
         x: { type: "linear", min: frame.xMin, max: frame.xMax, ticks: tick, grid, title: title(axisTitle(first.spec)) },
         y: { type: "linear", position: "left", min: 0, max: frame.yMaxDragN, ticks: tick, grid, title: title("Drag (N)") },
-        power: { type: "linear", position: "right", min: 0, max: frame.yMaxPowerKw, display: false, ticks: tick, grid: { drawOnChartArea: false }, title: title("Power required (kW)") },
-        ld: { type: "linear", position: "right", min: 0, max: frame.yMaxLiftToDrag, display: false, ticks: tick, grid: { drawOnChartArea: false }, title: title("L/D") },
       },
     };
+    // The power and L/D axes exist only while a curve uses them (a chart.js scale costs time on every update even when hidden).
+    this.extraScales = {
+      power: { type: "linear", position: "right", min: 0, max: frame.yMaxPowerKw, ticks: tick, grid: { drawOnChartArea: false }, title: title("Power required (kW)") },
+      ld: { type: "linear", position: "right", min: 0, max: frame.yMaxLiftToDrag, ticks: tick, grid: { drawOnChartArea: false }, title: title("L/D") },
+    };
+    const scales = this.options.scales as Record<string, unknown>;
+    if (frame.visible.some((v, d) => v && d % CURVE_KEYS.length === CURVE_KEYS.indexOf("power"))) scales.power = this.extraScales.power;
+    if (frame.visible.some((v, d) => v && d % CURVE_KEYS.length === CURVE_KEYS.indexOf("liftToDrag"))) scales.ld = this.extraScales.ld;
     this.plugins = [boardPlugin(this.overlay)];
   }
 
@@ -344,10 +351,12 @@ class CurveChartController {
     scales.x!.max = frame.xMax;
     scales.x!.title!.text = axisTitle(eff);
     scales.y!.max = frame.yMaxDragN;
-    scales.power!.max = frame.yMaxPowerKw;
-    scales.power!.display = power;
-    scales.ld!.max = frame.yMaxLiftToDrag;
-    scales.ld!.display = ld;
+    this.extraScales.power.max = frame.yMaxPowerKw;
+    this.extraScales.ld.max = frame.yMaxLiftToDrag;
+    if (power) scales.power = { ...(scales.power ?? this.extraScales.power), max: frame.yMaxPowerKw };
+    else delete scales.power;
+    if (ld) scales.ld = { ...(scales.ld ?? this.extraScales.ld), max: frame.yMaxLiftToDrag };
+    else delete scales.ld;
     ch.update("none");
   }
 }

@@ -122,4 +122,18 @@ describe("demo builder", () => {
       URL.createObjectURL = original;
     }
   });
+
+  it("the power axis exists only while the power-required curve is drawn, on the same chart", () => {
+    renderBuilder(defaultSpec(wren));
+    const canvas = screen.getByTestId("curve-chart") as HTMLCanvasElement;
+    const chart = Chart.getChart(canvas)!;
+    expect(chart.scales.power).toBeUndefined();
+    fireEvent.click(screen.getByLabelText("Power required"));
+    expect(Chart.getChart(canvas)).toBe(chart);
+    expect(chart.scales.power).toBeDefined();
+    expect(chart.data.datasets.map((d) => d.label)).toContain("Power required, case 1");
+    fireEvent.click(screen.getByLabelText("Power required"));
+    expect(chart.scales.power).toBeUndefined();
+    expect(chart.data.datasets.map((d) => d.label)).not.toContain("Power required, case 1");
+  });
 });

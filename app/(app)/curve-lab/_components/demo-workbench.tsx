@@ -20,6 +20,7 @@ import {
   speedUnitLabel,
   type AirframeSnapshot,
   type CallKind,
+  type CurveKey,
   type ConfigurationKey,
   type DemoCase,
   type DemoSpec,
@@ -73,6 +74,8 @@ export function DemoWorkbench(props: WorkbenchProps) {
 
   const unit = spec.axis.unit;
   const u = speedUnitLabel(unit);
+  const labelsKey = spec.cases.map((c) => c.label).join("\u0000");
+  const caseLabels = useMemo(() => labelsKey.split("\u0000"), [labelsKey]);
   const focused = spec.cases[focus] ?? spec.cases[0]!;
   const figures = useMemo(() => caseFigures(spec.airframe, focused, spec.axis.speed), [spec.airframe, focused, spec.axis.speed]);
   const whatIfLines = useMemo(() => whatIf(spec, Math.min(focus, spec.cases.length - 1)), [spec, focus]);
@@ -278,16 +281,7 @@ export function DemoWorkbench(props: WorkbenchProps) {
             className="h-[26rem] w-full min-w-0 overflow-hidden"
             label={`Drag against ${spec.axis.speed === "true" ? "TAS" : "EAS"} for ${spec.cases.map((c) => c.label).join(", ")}`}
           />
-          <ul className="flex flex-wrap gap-x-4 gap-y-1 text-caption" aria-label="Legend">
-            {spec.cases.map((c, i) =>
-              CURVE_KEYS.filter((k) => spec.curves[k] && !(conceal?.curves.includes(k) ?? false)).map((k) => (
-                <li key={`${i}-${k}`} className="flex items-center gap-2">
-                  <svg width="28" height="8" aria-hidden="true"><line x1="0" y1="4" x2="28" y2="4" stroke={CASE_COLOURS[i]} strokeWidth={k === "total" ? 3.5 : 2.5} strokeDasharray={CURVE_DASH[k].join(" ")} /></svg>
-                  {c.label}: {CURVE_LABELS[k]}
-                </li>
-              )),
-            )}
-          </ul>
+          <Legend labels={caseLabels} curves={spec.curves} hidden={conceal?.curves ?? NO_CURVES} />
           <p className="text-caption text-chalk-dim">{AXIS_ASSUMPTION}</p>
           <div className="flex flex-wrap gap-2">
             <button type="button" className="btn border border-board-600 text-chalk hover:bg-board-700" onClick={exportPng} disabled={calling}>Export chart (PNG)</button>
@@ -510,5 +504,23 @@ const ShowPanel = memo(function ShowPanel({ curves, markers, axis, range, chosen
         <div><h3 className="field-label">Notes from your instructor</h3><p className="whitespace-pre-wrap">{notes}</p></div>
       )}
     </section>
+  );
+});
+
+const NO_CURVES: CurveKey[] = [];
+
+/** The chart's legend: each case's colour with each drawn curve's dash; memoised (labels rarely change). */
+const Legend = memo(function Legend({ labels, curves, hidden }: { labels: string[]; curves: DemoSpec["curves"]; hidden: CurveKey[] }) {
+  return (
+    <ul className="flex flex-wrap gap-x-4 gap-y-1 text-caption" aria-label="Legend">
+      {labels.map((label, i) =>
+        CURVE_KEYS.filter((k) => curves[k] && !hidden.includes(k)).map((k) => (
+          <li key={`${i}-${k}`} className="flex items-center gap-2">
+            <svg width="28" height="8" aria-hidden="true"><line x1="0" y1="4" x2="28" y2="4" stroke={CASE_COLOURS[i]} strokeWidth={k === "total" ? 3.5 : 2.5} strokeDasharray={CURVE_DASH[k].join(" ")} /></svg>
+            {label}: {CURVE_LABELS[k]}
+          </li>
+        )),
+      )}
+    </ul>
   );
 });
