@@ -5,7 +5,7 @@
  * measured in the same run; plus the builder page's cold-load JavaScript (compressed bytes).
  *
  * The server: CHALKWING_BENCH_URL reuses a running production server (with the demo seed); else
- * the bench makes its own database (chalkwing_bench), builds into .next-bench and starts on
+ * the bench makes its own database (chalkwing_bench), builds into .next-test-bench and starts on
  * BENCH_PORT (default 3290), and stops it at the end.
  */
 import { spawn, type ChildProcess } from "node:child_process";
@@ -64,9 +64,9 @@ async function waitHttp(url: string, seconds: number): Promise<void> {
 async function startOwnServer(): Promise<{ url: string; stop: () => void }> {
   const port = Number(process.env.BENCH_PORT ?? 3290);
   const url = `http://127.0.0.1:${port}`;
-  const env = { ...process.env, CHALKWING_DIST_DIR: ".next-bench", NEXTAUTH_URL: url, NODE_ENV: "production" as const };
+  const env = { ...process.env, CHALKWING_DIST_DIR: ".next-test-bench", NEXTAUTH_URL: url, NODE_ENV: "production" as const };
   const prelude = `set -e; . lib/ops/common.sh; ensure_secret; bash db/cluster.sh start >/dev/null; bash db/cluster.sh create-db chalkwing_bench --fresh >/dev/null; db_urls chalkwing_bench;`;
-  console.log(`[browser] preparing a production build in .next-bench and a seeded database (chalkwing_bench)`);
+  console.log(`[browser] preparing a production build in .next-test-bench and a seeded database (chalkwing_bench)`);
   await run(`${prelude} tsx_run db/cli.ts migrate >/dev/null; tsx_run db/cli.ts seed >/dev/null; node node_modules/next/dist/bin/next build >/dev/null`, env);
   const server: ChildProcess = spawn(
     "bash",
