@@ -54,7 +54,9 @@ CONF
     if [ "${CHALKWING_PG_FAST:-0}" = "1" ]; then echo "fsync = off" >> "$DATA/postgresql.conf"; fi
   fi
   local tries=0
-  until as_pg "$BIN/pg_isready" -q -h 127.0.0.1 -p "$PGPORT"; do
+  # Ready means: our own cluster runs and answers on its own socket (a server of someone else's
+  # on the same TCP port must not pass for ours).
+  until as_pg "$BIN/pg_ctl" -D "$DATA" status >/dev/null 2>&1 && as_pg "$BIN/pg_isready" -q -h "$SOCK" -p "$PGPORT"; do
     if ! as_pg "$BIN/pg_ctl" -D "$DATA" status >/dev/null 2>&1; then
       as_pg "$BIN/pg_ctl" -D "$DATA" -l "$LOG" -w -t 30 start >/dev/null 2>&1 || true
     fi
@@ -97,7 +99,7 @@ stop() {
 
 status() {
   BIN=$(find_bin)
-  [ -n "$BIN" ] && as_pg "$BIN/pg_isready" -h 127.0.0.1 -p "$PGPORT"
+  [ -n "$BIN" ] && [ -d "$SOCK" ] && as_pg "$BIN/pg_isready" -h "$SOCK" -p "$PGPORT"
 }
 
 cmd="${1:-}"; shift || true

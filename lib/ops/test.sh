@@ -30,7 +30,12 @@ summary() {
   [ ${#FAILED_PHASES[@]} -gt 0 ] && echo "failed phases: ${FAILED_PHASES[*]}"
   CHALKWING_NON_JEST_FAILURES="$NON_JEST" node "$ROOT/lib/ops/summarise-results.mjs" "$RESULTS" "${#FAILED_PHASES[@]}"
 }
-cleanup() { stop_pidfile "e2e-web-$NAME"; stop_test_services 2>/dev/null || true; }
+PG_WAS_RUNNING=0
+cleanup() {
+  stop_pidfile "e2e-web-$NAME"; stop_test_services 2>/dev/null || true
+  # leave the database as we found it: stop it when this run started it
+  [ "$PG_WAS_RUNNING" = 1 ] || bash "$ROOT/db/cluster.sh" stop >/dev/null 2>&1 || true
+}
 trap cleanup EXIT
 
 T_ALL=$(date +%s)
@@ -39,6 +44,7 @@ ensure_node_modules || { echo "npm ci failed"; echo "tests: 0 passed, 1 failed";
 want e2e && ensure_chromium
 ensure_secret
 export CHALKWING_PG_FAST=1
+bash db/cluster.sh status >/dev/null 2>&1 && PG_WAS_RUNNING=1
 bash db/cluster.sh start || { echo "tests: 0 passed, 1 failed"; exit 1; }
 phase_end
 
