@@ -1,6 +1,7 @@
 import type { OutboxListRow, OutboxState } from "@/db/access/mail";
 import { formatInZone } from "@/lib/time";
 import { RetryButton } from "./retry-button";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 const STATE_STYLE: Record<OutboxState, string> = {
   queued: "bg-wing-50 text-wing-800",
@@ -18,7 +19,7 @@ export function OutboxTable({ rows, timeZone }: { rows: OutboxListRow[]; timeZon
   if (rows.length === 0) return <p className="text-ink-soft">No mail here.</p>;
   const when = (d: Date | null) => (d ? formatInZone(new Date(d), timeZone, "d MMM HH:mm") : "—");
   return (
-    <div className="overflow-x-auto">
+    <ScrollArea label="Outbox">
       <table className="data-table" data-testid="outbox-table">
         <thead>
           <tr>
@@ -50,6 +51,6 @@ export function OutboxTable({ rows, timeZone }: { rows: OutboxListRow[]; timeZon
           ))}
         </tbody>
       </table>
-    </div>
+    </ScrollArea>
   );
 }
