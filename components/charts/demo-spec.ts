@@ -10,7 +10,7 @@ import {
 } from "@/lib/aero";
 
 /**
- * A demo's spec: what one demo revision shows. Pure (zod + lib/aero), shared by the builder in
+ * A demo's spec: what one demo revision shows. Pure (lib/aero only), shared by the builder in
  * the browser, the server actions that save it, the Projector view and the bench.
  * Speeds are stored in m/s; the axis unit only changes what is shown. No zod here, so the
  * builder's bundle stays small: the schema lives in demo-spec-schema.ts (server side).
