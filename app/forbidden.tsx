@@ -7,7 +7,9 @@ export default function Forbidden() {
       <p className="text-caption font-semibold uppercase tracking-wide text-ink-soft">403 · Not allowed</p>
       <h1 className="mt-2 text-display">This page is not part of your role</h1>
       <p className="mt-3 text-ink-soft">Your account does not have access here. If you think it should, ask your chief instructor.</p>
-      <p className="mt-6"><Link href="/today">Back to Today</Link></p>
+      <p className="mt-6">
+        <Link href="/today">Back to Today</Link>
+      </p>
     </div>
   );
 }

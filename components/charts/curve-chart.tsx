@@ -1,8 +1,27 @@
 "use client";
 import { memo, useCallback, useEffect, useLayoutEffect, useRef, useState, type MutableRefObject } from "react";
-import { Chart as ChartJS, LineController, LineElement, PointElement, LinearScale, type Chart, type ChartDataset, type ChartOptions, type Plugin } from "chart.js";
+import {
+  Chart as ChartJS,
+  LineController,
+  LineElement,
+  PointElement,
+  LinearScale,
+  type Chart,
+  type ChartDataset,
+  type ChartOptions,
+  type Plugin,
+} from "chart.js";
 import { Chart as ReactChart } from "react-chartjs-2";
-import { CURVE_KEYS, CURVE_LABELS, speedFromUnit, speedInUnit, speedUnitLabel, type CurveKey, type DemoSpec, type MarkerKey } from "./demo-spec";
+import {
+  CURVE_KEYS,
+  CURVE_LABELS,
+  speedFromUnit,
+  speedInUnit,
+  speedUnitLabel,
+  type CurveKey,
+  type DemoSpec,
+  type MarkerKey,
+} from "./demo-spec";
 import { formatNumber } from "./format";
 import { MAX_CASES, datasetIndex, fillFrame, newFrame, type Frame } from "./curve-frame";
 import type { CurveSet } from "@/lib/aero";
@@ -10,7 +29,14 @@ import type { CurveSet } from "@/lib/aero";
 ChartJS.register(LineController, LineElement, PointElement, LinearScale);
 
 /** Chart colours on the slate board (our own palette; see tailwind.config.ts). */
-export const BOARD = { bg: "#152033", grid: "rgba(244,241,232,0.14)", chalk: "#f4f1e8", dim: "#c9cdd6", stable: "#1f9c8c", unstable: "#d48a16" };
+export const BOARD = {
+  bg: "#152033",
+  grid: "rgba(244,241,232,0.14)",
+  chalk: "#f4f1e8",
+  dim: "#c9cdd6",
+  stable: "#1f9c8c",
+  unstable: "#d48a16",
+};
 /** One colour per case, and a dash pattern per curve, so neither colour nor dash alone carries the meaning (the legend names both). */
 export const CASE_COLOURS = ["#f4f1e8", "#7fd1ff", "#ffb3c7", "#c8f07a"] as const;
 export const CURVE_DASH: Record<CurveKey, number[]> = {
@@ -209,8 +235,10 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
         const drag = c.chosenDragN === null ? "" : ` · drag ${fmt(c.chosenDragN)} N`;
         rule(o.spec.chosenSpeedMs, [lw, lw * 2], "#c8f07a", `${fmt(speedInUnit(o.spec.chosenSpeedMs, unit))} ${u}${drag}`, 3);
       }
-      if (o.guessMs !== null && inside(o.guessMs)) rule(o.guessMs, [lw * 4, lw * 2, lw, lw * 2], "#ffb3c7", `your call ${fmt(speedInUnit(o.guessMs, unit))} ${u}`, 4);
-      if (o.answerMs !== null && inside(o.answerMs)) rule(o.answerMs, [], "#7fd1ff", `answer ${fmt(speedInUnit(o.answerMs, unit))} ${u}`, 5);
+      if (o.guessMs !== null && inside(o.guessMs))
+        rule(o.guessMs, [lw * 4, lw * 2, lw, lw * 2], "#ffb3c7", `your call ${fmt(speedInUnit(o.guessMs, unit))} ${u}`, 4);
+      if (o.answerMs !== null && inside(o.answerMs))
+        rule(o.answerMs, [], "#7fd1ff", `answer ${fmt(speedInUnit(o.answerMs, unit))} ${u}`, 5);
     },
     afterRender(chart) {
       // Counters the bench and the tests read: one redraw per slider input, same instance.
@@ -258,7 +286,10 @@ class CurveChartController {
   private pick: ((ms: number) => void) | undefined;
   private readonly extraScales: { power: { max: number } & Record<string, unknown>; ld: { max: number } & Record<string, unknown> };
 
-  constructor(first: ApplyInput, readonly variant: ChartVariant) {
+  constructor(
+    first: ApplyInput,
+    readonly variant: ChartVariant,
+  ) {
     const projector = variant === "projector";
     const fontPx = projector ? 28 : 13;
     const lineWidth = projector ? 4 : 2.5;
@@ -310,8 +341,24 @@ class CurveChartController {
     };
     // The power and L/D axes exist only while a curve uses them (a chart.js scale costs time on every update even when hidden).
     this.extraScales = {
-      power: { type: "linear", position: "right", min: 0, max: frame.yMaxPowerKw, ticks: tick, grid: { drawOnChartArea: false }, title: title("Power required (kW)") },
-      ld: { type: "linear", position: "right", min: 0, max: frame.yMaxLiftToDrag, ticks: tick, grid: { drawOnChartArea: false }, title: title("L/D") },
+      power: {
+        type: "linear",
+        position: "right",
+        min: 0,
+        max: frame.yMaxPowerKw,
+        ticks: tick,
+        grid: { drawOnChartArea: false },
+        title: title("Power required (kW)"),
+      },
+      ld: {
+        type: "linear",
+        position: "right",
+        min: 0,
+        max: frame.yMaxLiftToDrag,
+        ticks: tick,
+        grid: { drawOnChartArea: false },
+        title: title("L/D"),
+      },
     };
     const scales = this.options.scales as Record<string, unknown>;
     if (frame.visible.some((v, d) => v && d % CURVE_KEYS.length === CURVE_KEYS.indexOf("power"))) scales.power = this.extraScales.power;
@@ -346,7 +393,10 @@ class CurveChartController {
     }
     // The chart's own stored options (chart.js keeps a merged copy of what it was given);
     // update() merges and resolves them again.
-    const scales = (ch.config.options as ChartOptions<"line">).scales as Record<string, { min?: number; max?: number; display?: boolean; title?: { text?: string } }>;
+    const scales = (ch.config.options as ChartOptions<"line">).scales as Record<
+      string,
+      { min?: number; max?: number; display?: boolean; title?: { text?: string } }
+    >;
     scales.x!.min = frame.xMin;
     scales.x!.max = frame.xMax;
     scales.x!.title!.text = axisTitle(eff);
@@ -361,7 +411,18 @@ class CurveChartController {
   }
 }
 
-function CurveChartInner({ spec, focus, variant, conceal = null, guessMs = null, answerMs = null, onPickSpeed, chartRef, label, className }: CurveChartProps) {
+function CurveChartInner({
+  spec,
+  focus,
+  variant,
+  conceal = null,
+  guessMs = null,
+  answerMs = null,
+  onPickSpeed,
+  chartRef,
+  label,
+  className,
+}: CurveChartProps) {
   const chart = useRef<Chart<"line", { x: number; y: number }[]> | null>(null);
   // One controller for the component's life: the chart instance is never recreated.
   const [ctl] = useState(() => new CurveChartController({ spec, focus, conceal, guessMs, answerMs }, variant));

@@ -1,12 +1,5 @@
 import { sampleCurves, massToWeightN, type CurveSet } from "@/lib/aero";
-import {
-  CURVE_KEYS,
-  SAMPLE_POINTS,
-  curveCaseFor,
-  speedInUnit,
-  type CurveKey,
-  type DemoSpec,
-} from "./demo-spec";
+import { CURVE_KEYS, SAMPLE_POINTS, curveCaseFor, speedInUnit, type CurveKey, type DemoSpec } from "./demo-spec";
 
 /**
  * Turns a demo spec into chart data without allocating on the hot path: one preallocated array
@@ -56,7 +49,16 @@ export function newFrame(): Frame {
     for (let i = 0; i < SAMPLE_POINTS; i++) arr[i] = { x: 0, y: 0 };
     points.push(arr);
   }
-  return { points, visible: new Array<boolean>(n).fill(false), cases: [], yMaxDragN: 1, yMaxPowerKw: 1, yMaxLiftToDrag: 1, xMin: 0, xMax: 1 };
+  return {
+    points,
+    visible: new Array<boolean>(n).fill(false),
+    cases: [],
+    yMaxDragN: 1,
+    yMaxPowerKw: 1,
+    yMaxLiftToDrag: 1,
+    xMin: 0,
+    xMax: 1,
+  };
 }
 
 /** Fills `frame` from `spec`; reuses `cache` (the library's own typed arrays) between calls. */
@@ -106,13 +108,19 @@ export function fillFrame(frame: Frame, spec: DemoSpec, cache: { set?: CurveSet<
       const di = datasetIndex(c, k);
       frame.visible[di] = true;
       const src =
-        k === "zeroLift" ? cc.zeroLiftDragN
-        : k === "liftDependent" ? cc.liftDependentDragN
-        : k === "idealInduced" ? cc.idealInducedDragN
-        : k === "increment" ? cc.liftDependentIncrementN
-        : k === "total" ? cc.totalDragN
-        : k === "power" ? cc.powerRequiredW
-        : cc.liftToDrag;
+        k === "zeroLift"
+          ? cc.zeroLiftDragN
+          : k === "liftDependent"
+            ? cc.liftDependentDragN
+            : k === "idealInduced"
+              ? cc.idealInducedDragN
+              : k === "increment"
+                ? cc.liftDependentIncrementN
+                : k === "total"
+                  ? cc.totalDragN
+                  : k === "power"
+                    ? cc.powerRequiredW
+                    : cc.liftToDrag;
       const scale = k === "power" ? 0.001 : 1;
       const out = frame.points[di]!;
       for (let i = 0; i < SAMPLE_POINTS; i++) {

@@ -1,6 +1,15 @@
 import { z } from "zod";
 import { aircraftSchema, atmosphereConditionsSchema } from "@/lib/aero";
-import { CALL_KINDS, CONFIGURATION_KEYS, CONFIGURATION_LABELS, CURVE_KEYS, MARKER_KEYS, type AirframeSnapshot, type DemoCase, type DemoSpec } from "./demo-spec";
+import {
+  CALL_KINDS,
+  CONFIGURATION_KEYS,
+  CONFIGURATION_LABELS,
+  CURVE_KEYS,
+  MARKER_KEYS,
+  type AirframeSnapshot,
+  type DemoCase,
+  type DemoSpec,
+} from "./demo-spec";
 
 /**
  * zod schema of a demo spec (server actions, data access, tests). Numbers are checked with
@@ -34,7 +43,8 @@ export const airframeSnapshotSchema = z
     }),
   })
   .superRefine((a, ctx) => {
-    if (a.maxMassKg < a.emptyMassKg) ctx.addIssue({ code: "custom", path: ["maxMassKg"], message: "maxMassKg must be at least the empty mass" });
+    if (a.maxMassKg < a.emptyMassKg)
+      ctx.addIssue({ code: "custom", path: ["maxMassKg"], message: "maxMassKg must be at least the empty mass" });
   });
 
 export const caseSchema = z.object({
@@ -53,7 +63,10 @@ export const demoSpecSchema = z
     curves: z.record(z.enum(CURVE_KEYS), z.boolean()),
     markers: z.record(z.enum(MARKER_KEYS), z.boolean()),
     axis: z.object({ speed: z.enum(["equivalent", "true"]), unit: z.enum(["kt", "ms"]) }),
-    range: z.object({ minSpeedMs: z.number().min(1, "range.minSpeedMs must be at least 1 m/s").max(400), maxSpeedMs: z.number().min(2).max(500, "range.maxSpeedMs must be at most 500 m/s") }),
+    range: z.object({
+      minSpeedMs: z.number().min(1, "range.minSpeedMs must be at least 1 m/s").max(400),
+      maxSpeedMs: z.number().min(2).max(500, "range.maxSpeedMs must be at most 500 m/s"),
+    }),
     chosenSpeedMs: z.number().min(1, "chosenSpeedMs must be at least 1 m/s").max(500, "chosenSpeedMs must be at most 500 m/s"),
     /** Call it first: which answer the student places before the reveal (null: no call). */
     callKind: z.enum(CALL_KINDS).nullable(),
@@ -65,15 +78,27 @@ export const demoSpecSchema = z
     }
     s.cases.forEach((c, i) => {
       if (c.configuration !== "clean" && s.airframe.configurations[c.configuration] === null) {
-        ctx.addIssue({ code: "custom", path: ["cases", i, "configuration"], message: `${CONFIGURATION_LABELS[c.configuration]} is not a configuration of this airframe` });
+        ctx.addIssue({
+          code: "custom",
+          path: ["cases", i, "configuration"],
+          message: `${CONFIGURATION_LABELS[c.configuration]} is not a configuration of this airframe`,
+        });
       }
       if (c.massKg < s.airframe.emptyMassKg * 0.999 || c.massKg > s.airframe.maxMassKg * 1.001) {
-        ctx.addIssue({ code: "custom", path: ["cases", i, "massKg"], message: "massKg must be within the airframe's empty to maximum mass" });
+        ctx.addIssue({
+          code: "custom",
+          path: ["cases", i, "massKg"],
+          message: "massKg must be within the airframe's empty to maximum mass",
+        });
       }
     });
   });
 
 // Compile-time proof that the schema and the plain types agree, both ways.
 type Same<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false;
-const agree: [Same<z.infer<typeof airframeSnapshotSchema>, AirframeSnapshot>, Same<z.infer<typeof caseSchema>, DemoCase>, Same<z.infer<typeof demoSpecSchema>, DemoSpec>] = [true, true, true];
+const agree: [
+  Same<z.infer<typeof airframeSnapshotSchema>, AirframeSnapshot>,
+  Same<z.infer<typeof caseSchema>, DemoCase>,
+  Same<z.infer<typeof demoSpecSchema>, DemoSpec>,
+] = [true, true, true];
 void agree;

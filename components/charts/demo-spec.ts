@@ -188,7 +188,10 @@ export function defaultSpec(airframe: AirframeSnapshot): DemoSpec {
     markers: { vmd: true, vmp: true, stall: true, bestGlide: false, chosen: false },
     axis: { speed: "equivalent", unit: "kt" },
     // round knots, so the axis reads 40 … 150 kt rather than 36.9 … 192.4
-    range: { minSpeedMs: ktToMs(Math.max(10, Math.floor((msToKt(vs) * 0.75) / 10) * 10)), maxSpeedMs: ktToMs(Math.ceil((msToKt(vmd) * 2.2) / 10) * 10) },
+    range: {
+      minSpeedMs: ktToMs(Math.max(10, Math.floor((msToKt(vs) * 0.75) / 10) * 10)),
+      maxSpeedMs: ktToMs(Math.ceil((msToKt(vmd) * 2.2) / 10) * 10),
+    },
     chosenSpeedMs: ktToMs(Math.round(msToKt(vmd) * 0.85)),
     callKind: null,
     notes: "",

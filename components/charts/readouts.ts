@@ -1,5 +1,14 @@
 import { bestGlide, minimumDragSpeed, minimumPowerSpeed, stallSpeed } from "@/lib/aero";
-import { CONFIGURATION_KEYS, CONFIGURATION_LABELS, aircraftFor, formatSpeed, type AirframeSnapshot, type ConfigurationKey, type DemoCase, type DemoSpec } from "./demo-spec";
+import {
+  CONFIGURATION_KEYS,
+  CONFIGURATION_LABELS,
+  aircraftFor,
+  formatSpeed,
+  type AirframeSnapshot,
+  type ConfigurationKey,
+  type DemoCase,
+  type DemoSpec,
+} from "./demo-spec";
 
 /** Derived figures of one case (or a profile at a mass and altitude), all from lib/aero, on the chosen axis. */
 export interface CaseFigures {
@@ -15,7 +24,8 @@ export interface CaseFigures {
 export function caseFigures(airframe: AirframeSnapshot, c: DemoCase, axis: "equivalent" | "true"): CaseFigures {
   const aircraft = aircraftFor(airframe, c);
   const cond = { altitudeM: c.altitudeM, isaDeviationK: c.isaDeviationK };
-  const pick = (v: { equivalentAirspeedMs: number; trueAirspeedMs: number }) => (axis === "true" ? v.trueAirspeedMs : v.equivalentAirspeedMs);
+  const pick = (v: { equivalentAirspeedMs: number; trueAirspeedMs: number }) =>
+    axis === "true" ? v.trueAirspeedMs : v.equivalentAirspeedMs;
   const vmd = minimumDragSpeed(aircraft, cond);
   const glide = bestGlide(aircraft, cond);
   return {
@@ -48,7 +58,9 @@ export function whatIf(spec: DemoSpec, caseIndex: number): string[] {
   const draggier = CONFIGURATION_KEYS.find((k) => k !== c.configuration && k !== "clean" && spec.airframe.configurations[k] !== null);
   if (draggier) {
     const other = caseFigures(spec.airframe, { ...c, configuration: draggier }, spec.axis.speed);
-    lines.push(`${CONFIGURATION_LABELS[draggier]} instead of ${CONFIGURATION_LABELS[c.configuration].toLowerCase()} moves Vmd from ${formatSpeed(now.vmdMs, unit)} to ${formatSpeed(other.vmdMs, unit)}.`);
+    lines.push(
+      `${CONFIGURATION_LABELS[draggier]} instead of ${CONFIGURATION_LABELS[c.configuration].toLowerCase()} moves Vmd from ${formatSpeed(now.vmdMs, unit)} to ${formatSpeed(other.vmdMs, unit)}.`,
+    );
   }
   if (spec.axis.speed === "equivalent" && c.altitudeM > 0) {
     lines.push(`At this altitude Vmd of ${formatSpeed(now.vmdMs, unit)} EAS is ${formatSpeed(now.vmdTasMs, unit)} TAS.`);

@@ -58,7 +58,10 @@ export function snapshotOf(a: AirframeView): AirframeSnapshot {
 export async function listAirframes(schoolId: string, opts: { includeRetired?: boolean } = {}): Promise<AirframeView[]> {
   const rows = await Airframe.findAll({
     where: { schoolId, ...(opts.includeRetired ? {} : { retiredAt: { [Op.is]: null } }) },
-    order: [["retiredAt", "DESC NULLS FIRST"], ["name", "ASC"]],
+    order: [
+      ["retiredAt", "DESC NULLS FIRST"],
+      ["name", "ASC"],
+    ],
   });
   return rows.map(view);
 }

@@ -98,7 +98,8 @@ async function assignableCohort(viewer: Viewer, cohortId: string, t: Transaction
     { replacements: { cohortId, schoolId: viewer.schoolId }, type: QueryTypes.SELECT, transaction: t },
   );
   if (!c) throw new HttpError(404, "cohortId: no such cohort", "cohortId");
-  if (!viewer.roles.includes("chief") && c.leadInstructorId !== viewer.id) throw new HttpError(403, "cohortId: you do not lead this cohort", "cohortId");
+  if (!viewer.roles.includes("chief") && c.leadInstructorId !== viewer.id)
+    throw new HttpError(403, "cohortId: you do not lead this cohort", "cohortId");
   return c;
 }
 
@@ -111,14 +112,19 @@ async function assignableStudents(viewer: Viewer, studentIds: string[], t: Trans
     { replacements: { ids: studentIds, schoolId: viewer.schoolId, viewer: viewer.id }, type: QueryTypes.SELECT, transaction: t },
   );
   if (rows.length !== studentIds.length) throw new HttpError(404, "studentIds: no such student", "studentIds");
-  if (!viewer.roles.includes("chief") && rows.some((r) => !r.lead)) throw new HttpError(403, "studentIds: not a student of a cohort you lead", "studentIds");
+  if (!viewer.roles.includes("chief") && rows.some((r) => !r.lead))
+    throw new HttpError(403, "studentIds: not a student of a cohort you lead", "studentIds");
 }
 
 /**
  * Creates the assignment (one row for a cohort, one per named student) and writes an
  * `assignment.new` mail per student into the outbox in the same transaction.
  */
-export async function createAssignments(viewer: Viewer, input: NewAssignmentInput, t: Transaction): Promise<{ ids: string[]; mailed: number }> {
+export async function createAssignments(
+  viewer: Viewer,
+  input: NewAssignmentInput,
+  t: Transaction,
+): Promise<{ ids: string[]; mailed: number }> {
   let title: string;
   if (input.kind === "briefing") {
     const [b] = await sequelize.query<{ title: string }>(
@@ -130,11 +136,14 @@ export async function createAssignments(viewer: Viewer, input: NewAssignmentInpu
   } else {
     const d = (await tableExists("demos"))
       ? (
-          await sequelize.query<{ name: string }>(`SELECT name FROM demos WHERE id = :id AND school_id = :schoolId AND deleted_at IS NULL`, {
-            replacements: { id: input.demoId ?? null, schoolId: viewer.schoolId },
-            type: QueryTypes.SELECT,
-            transaction: t,
-          })
+          await sequelize.query<{ name: string }>(
+            `SELECT name FROM demos WHERE id = :id AND school_id = :schoolId AND deleted_at IS NULL`,
+            {
+              replacements: { id: input.demoId ?? null, schoolId: viewer.schoolId },
+              type: QueryTypes.SELECT,
+              transaction: t,
+            },
+          )
         )[0]
       : undefined;
     if (!d) throw new HttpError(404, "demoId: no such demo", "demoId");
@@ -170,11 +179,14 @@ export async function createAssignments(viewer: Viewer, input: NewAssignmentInpu
       WHERE s.assignment_id IN (:ids) AND p.active`,
     { replacements: { ids: created.map((a) => a.id) }, type: QueryTypes.SELECT, transaction: t },
   );
-  const [school] = await sequelize.query<{ name: string; timeZone: string }>(`SELECT name, time_zone AS "timeZone" FROM schools WHERE id = :id`, {
-    replacements: { id: viewer.schoolId },
-    type: QueryTypes.SELECT,
-    transaction: t,
-  });
+  const [school] = await sequelize.query<{ name: string; timeZone: string }>(
+    `SELECT name, time_zone AS "timeZone" FROM schools WHERE id = :id`,
+    {
+      replacements: { id: viewer.schoolId },
+      type: QueryTypes.SELECT,
+      transaction: t,
+    },
+  );
   let mailed = 0;
   for (const r of recipients) {
     const mail = composeMail(
@@ -210,7 +222,11 @@ export interface StudentAssignment {
 }
 
 /** A student's own assignments, soonest first, with done and overdue derived for the school's today. */
-export async function listAssignmentsForStudent(schoolId: string, studentId: string, opts: { from?: string; to?: string } = {}): Promise<StudentAssignment[]> {
+export async function listAssignmentsForStudent(
+  schoolId: string,
+  studentId: string,
+  opts: { from?: string; to?: string } = {},
+): Promise<StudentAssignment[]> {
   const today = await schoolToday(schoolId);
   const hasDemos = await tableExists("demos");
   const rows = await sequelize.query<Omit<StudentAssignment, "done" | "overdue">>(
@@ -286,7 +302,10 @@ export async function listAssignmentsForStaff(viewer: Viewer): Promise<StaffAssi
              OR EXISTS (SELECT 1 FROM cohort_memberships m JOIN cohorts mc ON mc.id = m.cohort_id
                          WHERE m.student_id = a.student_id AND m.to_date IS NULL AND mc.lead_instructor_id = :viewer))
       ORDER BY a.due_on DESC, title`,
-    { replacements: { schoolId: viewer.schoolId, viewer: viewer.id, chief: viewer.roles.includes("chief"), today }, type: QueryTypes.SELECT },
+    {
+      replacements: { schoolId: viewer.schoolId, viewer: viewer.id, chief: viewer.roles.includes("chief"), today },
+      type: QueryTypes.SELECT,
+    },
   );
 }
 
@@ -299,7 +318,10 @@ export interface CompletionRow {
 }
 
 /** Completion across the students of one assignment, for staff who may see it; null when not visible. */
-export async function assignmentCompletion(viewer: Viewer, assignmentId: string): Promise<{ assignment: StaffAssignmentRow; rows: CompletionRow[] } | null> {
+export async function assignmentCompletion(
+  viewer: Viewer,
+  assignmentId: string,
+): Promise<{ assignment: StaffAssignmentRow; rows: CompletionRow[] } | null> {
   const visible = (await listAssignmentsForStaff(viewer)).find((a) => a.id === assignmentId);
   if (!visible) return null;
   const today = await schoolToday(viewer.schoolId);
@@ -311,7 +333,13 @@ export async function assignmentCompletion(viewer: Viewer, assignmentId: string)
   );
   return {
     assignment: visible,
-    rows: rows.map((r) => ({ studentId: r.studentId, name: r.name, completedAt: r.completedAt, done: r.completedAt !== null, overdue: isOverdue(r.dueOn, r.completedAt !== null, today) })),
+    rows: rows.map((r) => ({
+      studentId: r.studentId,
+      name: r.name,
+      completedAt: r.completedAt,
+      done: r.completedAt !== null,
+      overdue: isOverdue(r.dueOn, r.completedAt !== null, today),
+    })),
   };
 }
 

@@ -56,10 +56,15 @@ export interface ChainVerification {
 
 /** Walks the school's chain in the database and reports the first broken link. */
 export async function verifyChain(schoolId: string): Promise<ChainVerification> {
-  const [r] = await sequelize.query<{ ok: boolean; checked: string; head_hash: string; broken_pos: string | null; broken_seq: string | null; broken_id: string | null; problem: string | null }>(
-    `SELECT * FROM audit_verify(:schoolId)`,
-    { replacements: { schoolId }, type: QueryTypes.SELECT },
-  );
+  const [r] = await sequelize.query<{
+    ok: boolean;
+    checked: string;
+    head_hash: string;
+    broken_pos: string | null;
+    broken_seq: string | null;
+    broken_id: string | null;
+    problem: string | null;
+  }>(`SELECT * FROM audit_verify(:schoolId)`, { replacements: { schoolId }, type: QueryTypes.SELECT });
   if (!r) throw new Error("audit_verify returned nothing");
   return {
     ok: r.ok,

@@ -69,10 +69,13 @@ async function studentVisibilitySql(): Promise<string> {
 /** Whether the viewer may read a briefing: staff of the same school, or a student it is assigned or scheduled for. */
 export async function canViewBriefing(viewer: Viewer, briefingId: string): Promise<boolean> {
   const cond = isStaff(viewer) ? "true" : viewer.roles.includes("student") ? await studentVisibilitySql() : "false";
-  const [row] = await sequelize.query<{ ok: boolean }>(`SELECT (${cond}) AS ok FROM briefings b WHERE b.id = :id AND b.school_id = :schoolId`, {
-    replacements: { id: briefingId, schoolId: viewer.schoolId, viewer: viewer.id },
-    type: QueryTypes.SELECT,
-  });
+  const [row] = await sequelize.query<{ ok: boolean }>(
+    `SELECT (${cond}) AS ok FROM briefings b WHERE b.id = :id AND b.school_id = :schoolId`,
+    {
+      replacements: { id: briefingId, schoolId: viewer.schoolId, viewer: viewer.id },
+      type: QueryTypes.SELECT,
+    },
+  );
   return !!row?.ok;
 }
 
@@ -107,7 +110,10 @@ const SORT_SQL: Record<BriefingSort, string> = {
 };
 
 /** One page of the briefings the viewer may read, filtered and sorted on the server. */
-export async function listBriefings(viewer: Viewer, query: BriefingListQuery): Promise<{ rows: BriefingListRow[]; total: number; page: number; pageSize: number }> {
+export async function listBriefings(
+  viewer: Viewer,
+  query: BriefingListQuery,
+): Promise<{ rows: BriefingListRow[]; total: number; page: number; pageSize: number }> {
   const visible = isStaff(viewer) ? "true" : viewer.roles.includes("student") ? await studentVisibilitySql() : "false";
   const where = `b.school_id = :schoolId AND ${visible}
       AND (:q::text IS NULL OR r.title ILIKE :qLike OR r.objective ILIKE :qLike)
@@ -242,7 +248,11 @@ export async function briefingAsInput(viewer: Viewer, briefingId: string, t?: Tr
   const r = (await BriefingRevision.findByPk(b.currentRevisionId, { transaction: t }))!;
   const items = await BriefingRevisionItem.findAll({ where: { briefingRevisionId: r.id }, transaction: t });
   const demos = await BriefingRevisionDemo.findAll({ where: { briefingRevisionId: r.id }, order: [["position", "ASC"]], transaction: t });
-  const handouts = await BriefingRevisionHandout.findAll({ where: { briefingRevisionId: r.id }, order: [["position", "ASC"]], transaction: t });
+  const handouts = await BriefingRevisionHandout.findAll({
+    where: { briefingRevisionId: r.id },
+    order: [["position", "ASC"]],
+    transaction: t,
+  });
   return {
     courseId: b.courseId,
     syllabusRevisionId: r.syllabusRevisionId,
@@ -291,12 +301,16 @@ async function checkReferences(viewer: Viewer, input: BriefingInput, briefingId:
   });
   if (!syl) throw new HttpError(400, "syllabusRevisionId: not a revision of this course's syllabus", "syllabusRevisionId");
   if (input.syllabusItemIds.length > 0) {
-    const [n] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM syllabus_items WHERE id IN (:ids) AND revision_id = :rev`, {
-      replacements: { ids: input.syllabusItemIds, rev: input.syllabusRevisionId },
-      type: QueryTypes.SELECT,
-      transaction: t,
-    });
-    if (n?.n !== new Set(input.syllabusItemIds).size) throw new HttpError(400, "syllabusItemIds: an item is not in the chosen syllabus revision", "syllabusItemIds");
+    const [n] = await sequelize.query<{ n: number }>(
+      `SELECT count(*)::int AS n FROM syllabus_items WHERE id IN (:ids) AND revision_id = :rev`,
+      {
+        replacements: { ids: input.syllabusItemIds, rev: input.syllabusRevisionId },
+        type: QueryTypes.SELECT,
+        transaction: t,
+      },
+    );
+    if (n?.n !== new Set(input.syllabusItemIds).size)
+      throw new HttpError(400, "syllabusItemIds: an item is not in the chosen syllabus revision", "syllabusItemIds");
   }
   if (input.demoRevisionIds.length > 0) {
     if (!(await tableExists("demo_revisions", t))) throw new HttpError(400, "demoRevisionIds: demos are not available", "demoRevisionIds");
@@ -308,12 +322,16 @@ async function checkReferences(viewer: Viewer, input: BriefingInput, briefingId:
     if (n?.n !== new Set(input.demoRevisionIds).size) throw new HttpError(400, "demoRevisionIds: no such demo", "demoRevisionIds");
   }
   if (input.handoutIds.length > 0) {
-    const [n] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM handouts WHERE id IN (:ids) AND briefing_id = :briefingId`, {
-      replacements: { ids: input.handoutIds, briefingId: briefingId ?? "00000000-0000-0000-0000-000000000000" },
-      type: QueryTypes.SELECT,
-      transaction: t,
-    });
-    if (n?.n !== new Set(input.handoutIds).size) throw new HttpError(400, "handoutIds: a handout does not belong to this briefing", "handoutIds");
+    const [n] = await sequelize.query<{ n: number }>(
+      `SELECT count(*)::int AS n FROM handouts WHERE id IN (:ids) AND briefing_id = :briefingId`,
+      {
+        replacements: { ids: input.handoutIds, briefingId: briefingId ?? "00000000-0000-0000-0000-000000000000" },
+        type: QueryTypes.SELECT,
+        transaction: t,
+      },
+    );
+    if (n?.n !== new Set(input.handoutIds).size)
+      throw new HttpError(400, "handoutIds: a handout does not belong to this briefing", "handoutIds");
   }
 }
 
@@ -339,7 +357,10 @@ export async function saveBriefingRevision(
       return { briefingId: found.id, revisionId: cur.id, number: cur.number, created: false };
     }
   } else {
-    briefing = await Briefing.create({ schoolId: viewer.schoolId, courseId: input.courseId, ownerId: viewer.id, currentRevisionId: null }, { transaction: t });
+    briefing = await Briefing.create(
+      { schoolId: viewer.schoolId, courseId: input.courseId, ownerId: viewer.id, currentRevisionId: null },
+      { transaction: t },
+    );
   }
   await checkReferences(viewer, input, briefingId, t);
   const last = (await BriefingRevision.max("number", { where: { briefingId: briefing.id }, transaction: t })) as number | null;
@@ -349,7 +370,12 @@ export async function saveBriefingRevision(
       number: (last ?? 0) + 1,
       title: input.title,
       objective: input.objective,
-      elements: input.elements.map((e) => ({ title: e.title, instructorActions: e.instructorActions, studentActions: e.studentActions, minutes: e.minutes })),
+      elements: input.elements.map((e) => ({
+        title: e.title,
+        instructorActions: e.instructorActions,
+        studentActions: e.studentActions,
+        minutes: e.minutes,
+      })),
       equipment: input.equipment,
       completionStandard: input.completionStandard,
       syllabusRevisionId: input.syllabusRevisionId,
@@ -359,7 +385,10 @@ export async function saveBriefingRevision(
     { transaction: t },
   );
   if (input.syllabusItemIds.length) {
-    await BriefingRevisionItem.bulkCreate([...new Set(input.syllabusItemIds)].map((id) => ({ briefingRevisionId: rev.id, syllabusItemId: id })), { transaction: t });
+    await BriefingRevisionItem.bulkCreate(
+      [...new Set(input.syllabusItemIds)].map((id) => ({ briefingRevisionId: rev.id, syllabusItemId: id })),
+      { transaction: t },
+    );
   }
   if (input.demoRevisionIds.length) {
     await BriefingRevisionDemo.bulkCreate(
@@ -373,7 +402,10 @@ export async function saveBriefingRevision(
       { transaction: t },
     );
   }
-  await sequelize.query(`UPDATE briefings SET current_revision_id = :rev WHERE id = :id`, { replacements: { rev: rev.id, id: briefing.id }, transaction: t });
+  await sequelize.query(`UPDATE briefings SET current_revision_id = :rev WHERE id = :id`, {
+    replacements: { rev: rev.id, id: briefing.id },
+    transaction: t,
+  });
   return { briefingId: briefing.id, revisionId: rev.id, number: rev.number, created: true };
 }
 
@@ -417,10 +449,13 @@ export async function getHandoutFile(
   viewer: Viewer,
   handoutId: string,
 ): Promise<{ status: "ok"; fileName: string; contentType: HandoutContentType; content: Buffer } | { status: "missing" | "forbidden" }> {
-  const [meta] = await sequelize.query<{ briefingId: string }>(`SELECT briefing_id AS "briefingId" FROM handouts WHERE id = :id AND school_id = :schoolId`, {
-    replacements: { id: handoutId, schoolId: viewer.schoolId },
-    type: QueryTypes.SELECT,
-  });
+  const [meta] = await sequelize.query<{ briefingId: string }>(
+    `SELECT briefing_id AS "briefingId" FROM handouts WHERE id = :id AND school_id = :schoolId`,
+    {
+      replacements: { id: handoutId, schoolId: viewer.schoolId },
+      type: QueryTypes.SELECT,
+    },
+  );
   if (!meta) return { status: "missing" };
   if (!(await canViewBriefing(viewer, meta.briefingId))) return { status: "forbidden" };
   const h = await Handout.findByPk(handoutId);
@@ -432,17 +467,33 @@ export async function getHandoutFile(
 
 export interface EditorChoices {
   courses: { id: string; code: string; title: string }[];
-  syllabusRevisions: { id: string; courseId: string; number: number; items: { id: string; code: string; title: string; stage: string }[] }[];
+  syllabusRevisions: {
+    id: string;
+    courseId: string;
+    number: number;
+    items: { id: string; code: string; title: string; stage: string }[];
+  }[];
   demos: { demoRevisionId: string; name: string; revisionNumber: number; current: boolean }[];
 }
 
 /** Courses, their syllabus revisions with items, and the school's demos (current revisions plus any `pinned`). */
 export async function editorChoices(schoolId: string, pinnedDemoRevisionIds: string[] = []): Promise<EditorChoices> {
-  const courses = await sequelize.query<EditorChoices["courses"][number]>(`SELECT id, code, title FROM courses WHERE school_id = :schoolId ORDER BY code`, {
-    replacements: { schoolId },
-    type: QueryTypes.SELECT,
-  });
-  const items = await sequelize.query<{ revId: string; courseId: string; number: number; id: string; code: string; title: string; stage: string }>(
+  const courses = await sequelize.query<EditorChoices["courses"][number]>(
+    `SELECT id, code, title FROM courses WHERE school_id = :schoolId ORDER BY code`,
+    {
+      replacements: { schoolId },
+      type: QueryTypes.SELECT,
+    },
+  );
+  const items = await sequelize.query<{
+    revId: string;
+    courseId: string;
+    number: number;
+    id: string;
+    code: string;
+    title: string;
+    stage: string;
+  }>(
     `SELECT r.id AS "revId", r.course_id AS "courseId", r.number, i.id, i.code, i.title, s.title AS stage
        FROM syllabus_revisions r JOIN courses c ON c.id = r.course_id
        JOIN syllabus_items i ON i.revision_id = r.id JOIN syllabus_stages s ON s.id = i.stage_id
@@ -462,7 +513,13 @@ export async function editorChoices(schoolId: string, pinnedDemoRevisionIds: str
           WHERE d.school_id = :schoolId AND d.deleted_at IS NULL
             AND (d.current_revision_id = dr.id OR dr.id IN (:pinned))
           ORDER BY d.name, dr.number DESC`,
-        { replacements: { schoolId, pinned: pinnedDemoRevisionIds.length ? pinnedDemoRevisionIds : ["00000000-0000-0000-0000-000000000000"] }, type: QueryTypes.SELECT },
+        {
+          replacements: {
+            schoolId,
+            pinned: pinnedDemoRevisionIds.length ? pinnedDemoRevisionIds : ["00000000-0000-0000-0000-000000000000"],
+          },
+          type: QueryTypes.SELECT,
+        },
       )
     : [];
   return { courses, syllabusRevisions: [...revs.values()], demos };

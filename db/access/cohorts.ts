@@ -18,7 +18,10 @@ export async function addToCohort(input: { cohortId: string; studentId: string; 
 }
 
 /** Moves a student: the old membership ends the day the new one starts; history stays. */
-export async function moveStudentToCohort(input: { schoolId: string; studentId: string; toCohortId: string; onDate: string }, t: Transaction) {
+export async function moveStudentToCohort(
+  input: { schoolId: string; studentId: string; toCohortId: string; onDate: string },
+  t: Transaction,
+) {
   const target = await Cohort.findOne({ where: { id: input.toCohortId, schoolId: input.schoolId }, transaction: t });
   if (!target) throw new HttpError(404, "cohort: not found", "toCohortId");
   await sequelize.query(
@@ -34,7 +37,13 @@ export async function enrol(input: { studentId: string; courseId: string; revisi
 }
 
 export async function linkSponsor(
-  input: { sponsorId: string; studentId: string; relationship?: string; shares?: Partial<Record<"attendance" | "hours" | "progress" | "schedule", boolean>>; weeklyLetter?: boolean },
+  input: {
+    sponsorId: string;
+    studentId: string;
+    relationship?: string;
+    shares?: Partial<Record<"attendance" | "hours" | "progress" | "schedule", boolean>>;
+    weeklyLetter?: boolean;
+  },
   t?: Transaction,
 ) {
   const l = await SponsorLink.create(

@@ -65,8 +65,22 @@ export async function listDemos(schoolId: string): Promise<DemoSummary[]> {
   return rows.map((r) => ({ ...r, updatedAt: new Date(r.updatedAt).toISOString() }));
 }
 
-function revisionView(r: { id: string; demoId: string; demoName: string; number: number; spec: unknown; createdAt: Date }): DemoRevisionView {
-  return { id: r.id, demoId: r.demoId, demoName: r.demoName, number: r.number, spec: demoSpecSchema.parse(r.spec), createdAt: new Date(r.createdAt).toISOString() };
+function revisionView(r: {
+  id: string;
+  demoId: string;
+  demoName: string;
+  number: number;
+  spec: unknown;
+  createdAt: Date;
+}): DemoRevisionView {
+  return {
+    id: r.id,
+    demoId: r.demoId,
+    demoName: r.demoName,
+    number: r.number,
+    spec: demoSpecSchema.parse(r.spec),
+    createdAt: new Date(r.createdAt).toISOString(),
+  };
 }
 
 /** One revision of a school's demo (for other areas: briefings, assignments). Null when not of this school. */
@@ -110,7 +124,11 @@ async function lockForChange(user: CurrentUser, demoId: string, t: Transaction):
   const d = await Demo.findOne({ where: { id: demoId, schoolId: user.schoolId, deletedAt: null }, transaction: t, lock: t.LOCK.UPDATE });
   if (!d) throw new HttpError(404, "demoId: no such demo", "demoId");
   if (d.ownerId !== user.id && !user.roles.includes("chief")) {
-    throw new HttpError(403, "demoId: only the demo's owner or the chief instructor can change it; duplicate it to make your own", "demoId");
+    throw new HttpError(
+      403,
+      "demoId: only the demo's owner or the chief instructor can change it; duplicate it to make your own",
+      "demoId",
+    );
   }
   return d;
 }
@@ -125,7 +143,10 @@ async function inUse(demoId: string, t: Transaction): Promise<boolean> {
 }
 
 export async function createDemo(user: CurrentUser, name: string, spec: DemoSpec, t: Transaction) {
-  const d = await Demo.create({ schoolId: user.schoolId, name, ownerId: user.id, currentRevisionId: null, deletedAt: null }, { transaction: t });
+  const d = await Demo.create(
+    { schoolId: user.schoolId, name, ownerId: user.id, currentRevisionId: null, deletedAt: null },
+    { transaction: t },
+  );
   const r = await DemoRevision.create({ demoId: d.id, number: 1, spec, createdBy: user.id }, { transaction: t });
   await d.update({ currentRevisionId: r.id }, { transaction: t });
   return { demoId: d.id, revisionId: r.id, revisionNumber: 1, newRevision: true };
@@ -164,14 +185,26 @@ export async function duplicateDemo(user: CurrentUser, demoId: string, t: Transa
 export async function deleteDemo(user: CurrentUser, demoId: string, t: Transaction) {
   const d = await lockForChange(user, demoId, t);
   if (await inUse(demoId, t)) {
-    throw new HttpError(409, "demoId: this demo is assigned, part of a briefing or already called by students, so it is kept; duplicate it or leave it", "demoId");
+    throw new HttpError(
+      409,
+      "demoId: this demo is assigned, part of a briefing or already called by students, so it is kept; duplicate it or leave it",
+      "demoId",
+    );
   }
   await d.update({ deletedAt: new Date() }, { transaction: t });
   return { demoId, deleted: true };
 }
 
 export async function recordCall(
-  input: { schoolId: string; demoRevisionId: string; studentId: string; markerKind: CallMarkerKind; speedAxis: "equivalent" | "true"; predictedMs: number; actualMs: number },
+  input: {
+    schoolId: string;
+    demoRevisionId: string;
+    studentId: string;
+    markerKind: CallMarkerKind;
+    speedAxis: "equivalent" | "true";
+    predictedMs: number;
+    actualMs: number;
+  },
   t: Transaction,
 ) {
   const c = await DemoCall.create({ ...input, errorMs: input.predictedMs - input.actualMs }, { transaction: t });

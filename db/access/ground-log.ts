@@ -17,13 +17,22 @@ const ABSENT: AttendanceStatusName[] = ["absent", "absent_excused"];
  * for those present, none for an absence. An explicit figure may lower it, never raise it past
  * the session's length, and must be zero for an absence.
  */
-export function creditFor(sessionMinutes: number, line: Pick<AttendanceLine, "status" | "lateMinutes" | "earlyMinutes" | "creditedMinutes">): { late: number; early: number; credited: number } {
+export function creditFor(
+  sessionMinutes: number,
+  line: Pick<AttendanceLine, "status" | "lateMinutes" | "earlyMinutes" | "creditedMinutes">,
+): { late: number; early: number; credited: number } {
   const absent = ABSENT.includes(line.status);
   const late = line.status === "late" ? line.lateMinutes : 0;
   const early = line.status === "left_early" ? line.earlyMinutes : 0;
   if (line.status === "late" && late <= 0) throw new HttpError(400, "lateMinutes: say how many minutes late", "lateMinutes");
-  if (line.status === "left_early" && early <= 0) throw new HttpError(400, "earlyMinutes: say how many minutes early the student left", "earlyMinutes");
-  if (late + early >= sessionMinutes && !absent) throw new HttpError(400, "lateMinutes: late arrival and early departure use up the whole session; record an absence instead", "lateMinutes");
+  if (line.status === "left_early" && early <= 0)
+    throw new HttpError(400, "earlyMinutes: say how many minutes early the student left", "earlyMinutes");
+  if (late + early >= sessionMinutes && !absent)
+    throw new HttpError(
+      400,
+      "lateMinutes: late arrival and early departure use up the whole session; record an absence instead",
+      "lateMinutes",
+    );
   const computed = absent ? 0 : sessionMinutes - late - early;
   const explicit = line.creditedMinutes === undefined || line.creditedMinutes === "" ? null : line.creditedMinutes;
   if (explicit === null) return { late, early, credited: computed };
@@ -58,7 +67,11 @@ async function sessionForRecord(user: CurrentUser, sessionId: string, t: Transac
   );
   if (!s) throw new HttpError(404, "sessionId: no such session", "sessionId");
   if (!user.roles.includes("chief") && s.instructorId !== user.id && s.cohortLeadId !== user.id) {
-    throw new HttpError(403, "sessionId: only the session's instructor, the cohort's lead instructor or the chief instructor records its attendance", "sessionId");
+    throw new HttpError(
+      403,
+      "sessionId: only the session's instructor, the cohort's lead instructor or the chief instructor records its attendance",
+      "sessionId",
+    );
   }
   return s;
 }
@@ -70,14 +83,22 @@ async function sessionForRecord(user: CurrentUser, sessionId: string, t: Transac
 export async function recordAttendance(user: CurrentUser, input: z.output<typeof recordAttendanceSchema>, t: Transaction) {
   const s = await sessionForRecord(user, input.sessionId, t);
   if (s.status !== "scheduled") throw new HttpError(409, "sessionId: the session was cancelled", "sessionId");
-  if (new Date(s.endsAt).getTime() > now().getTime()) throw new HttpError(409, "sessionId: attendance is recorded after the session has ended", "sessionId");
+  if (new Date(s.endsAt).getTime() > now().getTime())
+    throw new HttpError(409, "sessionId: attendance is recorded after the session has ended", "sessionId");
   const attendees = new Set(
-    (await sequelize.query<{ id: string }>(`SELECT student_id AS id FROM session_attendees WHERE session_id = :id`, { replacements: { id: s.id }, type: QueryTypes.SELECT, transaction: t })).map((r) => r.id),
+    (
+      await sequelize.query<{ id: string }>(`SELECT student_id AS id FROM session_attendees WHERE session_id = :id`, {
+        replacements: { id: s.id },
+        type: QueryTypes.SELECT,
+        transaction: t,
+      })
+    ).map((r) => r.id),
   );
   const seen = new Set<string>();
   const written: { entryId: string; studentId: string; credited: number }[] = [];
   for (const [i, line] of input.lines.entries()) {
-    if (!attendees.has(line.studentId)) throw new HttpError(400, `lines.${i}.studentId: not an attendee of this session`, `lines.${i}.studentId`);
+    if (!attendees.has(line.studentId))
+      throw new HttpError(400, `lines.${i}.studentId: not an attendee of this session`, `lines.${i}.studentId`);
     if (seen.has(line.studentId)) throw new HttpError(400, `lines.${i}.studentId: listed twice`, `lines.${i}.studentId`);
     seen.add(line.studentId);
     let c;
@@ -94,17 +115,33 @@ export async function recordAttendance(user: CurrentUser, input: z.output<typeof
        ON CONFLICT DO NOTHING RETURNING id`,
       {
         replacements: {
-          school: s.schoolId, student: line.studentId, course: s.courseId, session: s.id, rev: s.briefingRevisionId,
-          items: `{${s.itemIds.join(",")}}`, instructor: s.instructorId, status: line.status,
-          late: c.late, early: c.early, credited: c.credited, at: s.startsAt, by: user.id,
+          school: s.schoolId,
+          student: line.studentId,
+          course: s.courseId,
+          session: s.id,
+          rev: s.briefingRevisionId,
+          items: `{${s.itemIds.join(",")}}`,
+          instructor: s.instructorId,
+          status: line.status,
+          late: c.late,
+          early: c.early,
+          credited: c.credited,
+          at: s.startsAt,
+          by: user.id,
         },
         type: QueryTypes.SELECT,
         transaction: t,
       },
     );
-    if (!row) throw new HttpError(409, `lines.${i}.studentId: attendance is already recorded for this student; correct it with an amendment`, `lines.${i}.studentId`);
+    if (!row)
+      throw new HttpError(
+        409,
+        `lines.${i}.studentId: attendance is already recorded for this student; correct it with an amendment`,
+        `lines.${i}.studentId`,
+      );
     written.push({ entryId: row.id, studentId: line.studentId, credited: c.credited });
-    if (ABSENT.includes(line.status)) await openMakeupForAbsence(t, { schoolId: s.schoolId, studentId: line.studentId, sessionId: s.id, itemIds: s.itemIds });
+    if (ABSENT.includes(line.status))
+      await openMakeupForAbsence(t, { schoolId: s.schoolId, studentId: line.studentId, sessionId: s.id, itemIds: s.itemIds });
     else await closeMakeupByAttendance(t, { studentId: line.studentId, sessionId: s.id, itemIds: s.itemIds });
   }
   return { recorded: written.length, entries: written };
@@ -125,25 +162,37 @@ export async function amendEntry(user: CurrentUser, input: z.output<typeof amend
   const s = await sessionForRecord(user, cur.sessionId, t);
   if (cur.entryId !== input.entryId) throw new HttpError(409, "entryId: this entry was already amended; amend the latest one", "entryId");
   const c = creditFor(s.minutes, input);
-  const [row] = await sequelize.query<{ id: string }>(
-    `INSERT INTO ground_log_entries (school_id, student_id, course_id, session_id, briefing_revision_id, syllabus_item_ids, instructor_id,
+  const [row] = await sequelize
+    .query<{ id: string }>(
+      `INSERT INTO ground_log_entries (school_id, student_id, course_id, session_id, briefing_revision_id, syllabus_item_ids, instructor_id,
                                      status, late_minutes, early_minutes, credited_minutes, occurred_at, recorded_by, amends_entry_id, reason)
      SELECT school_id, student_id, course_id, session_id, briefing_revision_id, syllabus_item_ids, instructor_id,
             :status, :late, :early, :credited, occurred_at, :by, id, :reason
        FROM ground_log_entries WHERE id = :id
      RETURNING id`,
-    {
-      replacements: { id: input.entryId, status: input.status, late: c.late, early: c.early, credited: c.credited, by: user.id, reason: input.reason },
-      type: QueryTypes.SELECT,
-      transaction: t,
-    },
-  ).catch((e) => {
-    if ((e as { parent?: { code?: string } }).parent?.code === "23505") throw new HttpError(409, "entryId: this entry was already amended; amend the latest one", "entryId");
-    throw e;
-  });
+      {
+        replacements: {
+          id: input.entryId,
+          status: input.status,
+          late: c.late,
+          early: c.early,
+          credited: c.credited,
+          by: user.id,
+          reason: input.reason,
+        },
+        type: QueryTypes.SELECT,
+        transaction: t,
+      },
+    )
+    .catch((e) => {
+      if ((e as { parent?: { code?: string } }).parent?.code === "23505")
+        throw new HttpError(409, "entryId: this entry was already amended; amend the latest one", "entryId");
+      throw e;
+    });
   const wasAbsent = ABSENT.includes(cur.status);
   const nowAbsent = ABSENT.includes(input.status);
-  if (!wasAbsent && nowAbsent) await openMakeupForAbsence(t, { schoolId: s.schoolId, studentId: cur.studentId, sessionId: s.id, itemIds: s.itemIds });
+  if (!wasAbsent && nowAbsent)
+    await openMakeupForAbsence(t, { schoolId: s.schoolId, studentId: cur.studentId, sessionId: s.id, itemIds: s.itemIds });
   if (wasAbsent && !nowAbsent) {
     await sequelize.query(
       `UPDATE makeup_items SET state = 'done', closed_by_kind = 'attendance_amended', closed_by_id = :entry, closed_at = :now, scheduled_session_id = NULL
@@ -169,8 +218,12 @@ export async function mayViewGroundLog(user: CurrentUser, studentId: string): Pr
        )) AS ok`,
     {
       replacements: {
-        student: studentId, school: user.schoolId, uid: user.id,
-        chief: user.roles.includes("chief"), instructor: user.roles.includes("instructor"), sponsor: user.roles.includes("sponsor"),
+        student: studentId,
+        school: user.schoolId,
+        uid: user.id,
+        chief: user.roles.includes("chief"),
+        instructor: user.roles.includes("instructor"),
+        sponsor: user.roles.includes("sponsor"),
       },
       type: QueryTypes.SELECT,
     },
@@ -258,7 +311,12 @@ export async function logbookFor(schoolId: string, studentId: string): Promise<L
       ORDER BY g.occurred_at, g.entry_id`,
     { replacements: { s: studentId, school: schoolId }, type: QueryTypes.SELECT },
   );
-  return rows.map((r) => ({ ...r, occurredAt: new Date(r.occurredAt).toISOString(), recordedAt: new Date(r.recordedAt).toISOString(), date: dateInZone(new Date(r.occurredAt), school.timeZone) }));
+  return rows.map((r) => ({
+    ...r,
+    occurredAt: new Date(r.occurredAt).toISOString(),
+    recordedAt: new Date(r.recordedAt).toISOString(),
+    date: dateInZone(new Date(r.occurredAt), school.timeZone),
+  }));
 }
 
 export interface AttendanceSheetLine {
@@ -270,7 +328,14 @@ export interface AttendanceSheetLine {
   earlyMinutes: number;
   creditedMinutes: number | null;
   amendmentCount: number;
-  history: { entryId: string; status: AttendanceStatusName; creditedMinutes: number; reason: string | null; recordedAt: string; recordedByName: string }[];
+  history: {
+    entryId: string;
+    status: AttendanceStatusName;
+    creditedMinutes: number;
+    reason: string | null;
+    recordedAt: string;
+    recordedByName: string;
+  }[];
 }
 
 /** A session's attendees with their current entry and the full chain of entries (originals and amendments). */

@@ -44,10 +44,10 @@ export async function applyUnsubscribe(token: string): Promise<boolean> {
       transaction: t,
     });
     if (!link) return false;
-    await sequelize.query(
-      `INSERT INTO mail_unsubscribes (sponsor_id, student_id, kind) VALUES (:sp, :st, :kind) ON CONFLICT DO NOTHING`,
-      { replacements: { sp: claim.sponsorId, st: claim.studentId, kind: claim.kind }, transaction: t },
-    );
+    await sequelize.query(`INSERT INTO mail_unsubscribes (sponsor_id, student_id, kind) VALUES (:sp, :st, :kind) ON CONFLICT DO NOTHING`, {
+      replacements: { sp: claim.sponsorId, st: claim.studentId, kind: claim.kind },
+      transaction: t,
+    });
     // a letter written but not yet sent is not sent either
     await sequelize.query(
       `UPDATE outbox SET state = 'cancelled', last_error = 'the sponsor stopped this mail' WHERE state = 'queued' AND kind = :kind AND idempotency_key LIKE :prefix`,

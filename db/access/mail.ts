@@ -33,10 +33,13 @@ export async function listOutbox(schoolId: string, opts: { state?: OutboxState; 
 }
 
 export async function outboxCounts(schoolId: string): Promise<Record<OutboxState, number>> {
-  const rows = await sequelize.query<{ state: OutboxState; n: number }>(`SELECT state, count(*)::int AS n FROM outbox WHERE school_id = :s GROUP BY state`, {
-    replacements: { s: schoolId },
-    type: QueryTypes.SELECT,
-  });
+  const rows = await sequelize.query<{ state: OutboxState; n: number }>(
+    `SELECT state, count(*)::int AS n FROM outbox WHERE school_id = :s GROUP BY state`,
+    {
+      replacements: { s: schoolId },
+      type: QueryTypes.SELECT,
+    },
+  );
   const out = { queued: 0, sent: 0, failed: 0, cancelled: 0 };
   for (const r of rows) out[r.state] = r.n;
   return out;
@@ -50,8 +53,12 @@ export async function retryFailedMail(schoolId: string, outboxId: string, t: Tra
     transaction: t,
   });
   if (!row) throw new HttpError(404, "outboxId: no such mail", "outboxId");
-  if (row.state !== "failed") throw new HttpError(409, `outboxId: only a failed mail can be sent again (this one is ${row.state})`, "outboxId");
-  await sequelize.query(`UPDATE outbox SET state = 'queued', due_at = LEAST(due_at, now()) WHERE id = :id`, { replacements: { id: outboxId }, transaction: t });
+  if (row.state !== "failed")
+    throw new HttpError(409, `outboxId: only a failed mail can be sent again (this one is ${row.state})`, "outboxId");
+  await sequelize.query(`UPDATE outbox SET state = 'queued', due_at = LEAST(due_at, now()) WHERE id = :id`, {
+    replacements: { id: outboxId },
+    transaction: t,
+  });
   await sequelize.query(`DELETE FROM mail_jobs WHERE outbox_id = :id`, { replacements: { id: outboxId }, transaction: t });
   return { state: "queued" };
 }
@@ -78,7 +85,10 @@ export async function listTray(schoolId: string, limit = 100): Promise<(SinkEntr
     { replacements: { s: schoolId, ids: ids.length ? ids : [""] }, type: QueryTypes.SELECT },
   );
   const kinds = new Map(rows.map((r) => [r.message_id, r.kind]));
-  return all.filter((m) => kinds.has(m.messageId)).slice(0, limit).map((m) => ({ ...m, kind: kinds.get(m.messageId)! }));
+  return all
+    .filter((m) => kinds.has(m.messageId))
+    .slice(0, limit)
+    .map((m) => ({ ...m, kind: kinds.get(m.messageId)! }));
 }
 
 export async function readTrayMessage(schoolId: string, id: string): Promise<{ entry: SinkEntry; raw: Buffer } | null> {
@@ -135,7 +145,11 @@ export async function recentNotes(user: { id: string; schoolId: string; roles: s
   );
 }
 
-export async function addSponsorNote(user: { id: string; schoolId: string; roles: string[] }, input: { studentId: string; body: string }, t: Transaction) {
+export async function addSponsorNote(
+  user: { id: string; schoolId: string; roles: string[] },
+  input: { studentId: string; body: string },
+  t: Transaction,
+) {
   const allowed = await studentsForNotes(user);
   if (!allowed.some((s) => s.id === input.studentId)) {
     throw new HttpError(404, "studentId: not a student of your cohorts with a sponsor", "studentId");

@@ -9,7 +9,10 @@ import { rolesAllow } from "@/lib/auth/permissions";
 import type { makeupCloseSchema, makeupScheduleSchema, makeupWaiveSchema } from "@/lib/timetable/schemas";
 
 /** An absence opens one make-up item per syllabus item the session covered, unless one is already outstanding for that item. */
-export async function openMakeupForAbsence(t: Transaction, p: { schoolId: string; studentId: string; sessionId: string; itemIds: string[] }): Promise<number> {
+export async function openMakeupForAbsence(
+  t: Transaction,
+  p: { schoolId: string; studentId: string; sessionId: string; itemIds: string[] },
+): Promise<number> {
   if (p.itemIds.length === 0) return 0;
   const [rows] = await sequelize.query(
     `INSERT INTO makeup_items (school_id, student_id, syllabus_item_id, source_kind, source_id)
@@ -26,12 +29,23 @@ export async function openMakeupForAbsence(t: Transaction, p: { schoolId: string
 }
 
 /** Attending a session closes the student's make-up items for the items it covers, and those planned into it. */
-export async function closeMakeupByAttendance(t: Transaction, p: { studentId: string; sessionId: string; itemIds: string[] }): Promise<void> {
+export async function closeMakeupByAttendance(
+  t: Transaction,
+  p: { studentId: string; sessionId: string; itemIds: string[] },
+): Promise<void> {
   await sequelize.query(
     `UPDATE makeup_items SET state = 'done', closed_by_kind = 'session', closed_by_id = :session, closed_at = :now, scheduled_session_id = NULL
       WHERE student_id = :student AND state IN ('open','scheduled') AND source_id <> :session
         AND (syllabus_item_id = ANY(ARRAY[:items]::uuid[]) OR scheduled_session_id = :session)`,
-    { replacements: { session: p.sessionId, now: now(), student: p.studentId, items: p.itemIds.length ? p.itemIds : ["00000000-0000-0000-0000-000000000000"] }, transaction: t },
+    {
+      replacements: {
+        session: p.sessionId,
+        now: now(),
+        student: p.studentId,
+        items: p.itemIds.length ? p.itemIds : ["00000000-0000-0000-0000-000000000000"],
+      },
+      transaction: t,
+    },
   );
 }
 
@@ -92,10 +106,17 @@ export async function scheduleMakeup(user: CurrentUser, input: z.output<typeof m
   const [s] = await sequelize.query<{ id: string }>(
     `SELECT s.id FROM training_sessions s JOIN session_attendees a ON a.session_id = s.id AND a.student_id = :student
       WHERE s.id = :sid AND s.school_id = :school AND s.status = 'scheduled' AND s.starts_at > :now`,
-    { replacements: { student: m.studentId, sid: input.sessionId, school: user.schoolId, now: now() }, type: QueryTypes.SELECT, transaction: t },
+    {
+      replacements: { student: m.studentId, sid: input.sessionId, school: user.schoolId, now: now() },
+      type: QueryTypes.SELECT,
+      transaction: t,
+    },
   );
   if (!s) throw new HttpError(400, "sessionId: choose an upcoming session the student attends", "sessionId");
-  await sequelize.query(`UPDATE makeup_items SET state = 'scheduled', scheduled_session_id = :sid WHERE id = :id`, { replacements: { sid: s.id, id: m.id }, transaction: t });
+  await sequelize.query(`UPDATE makeup_items SET state = 'scheduled', scheduled_session_id = :sid WHERE id = :id`, {
+    replacements: { sid: s.id, id: m.id },
+    transaction: t,
+  });
   return { id: m.id, state: "scheduled" as const };
 }
 

@@ -6,8 +6,24 @@ import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";
 import { dateInZone } from "@/lib/time";
 import { composeMail } from "@/lib/mail/compose";
-import { evaluateCheck, DEFAULT_OUTCOME_RULE, type LevelOfLearning, type QuestionOutcome, type CheckOutcome, type ItemOutcome } from "@/lib/records/outcome";
-import { generateQuestion, QuestionInputError, REFERENCE_AIRCRAFT, type AircraftSourceKind, type AircraftSnapshot, type GeneratedQuestion, type QuestionInputs, type QuestionKind } from "@/lib/records/questions";
+import {
+  evaluateCheck,
+  DEFAULT_OUTCOME_RULE,
+  type LevelOfLearning,
+  type QuestionOutcome,
+  type CheckOutcome,
+  type ItemOutcome,
+} from "@/lib/records/outcome";
+import {
+  generateQuestion,
+  QuestionInputError,
+  REFERENCE_AIRCRAFT,
+  type AircraftSourceKind,
+  type AircraftSnapshot,
+  type GeneratedQuestion,
+  type QuestionInputs,
+  type QuestionKind,
+} from "@/lib/records/questions";
 import { isAeroInputError } from "@/lib/aero";
 import { writeAudit } from "./audit";
 import { enqueueMail } from "./outbox";
@@ -71,15 +87,32 @@ export async function listQuestionAircraft(schoolId: string, t?: Transaction, st
       out.push({
         name: `${a.name}, demo "${d.demo_name}" in ${d.title}`,
         source: { kind: "demo", id: d.id },
-        aircraft: { massKg: a.maxMassKg, wingAreaM2: a.wingAreaM2, wingSpanM: a.wingSpanM, zeroLiftDragCoefficient: a.zeroLiftDragCoefficient, oswaldEfficiency: a.oswaldEfficiency, maxLiftCoefficient: a.configurations?.clean?.maxLiftCoefficient ?? 1.4 },
+        aircraft: {
+          massKg: a.maxMassKg,
+          wingAreaM2: a.wingAreaM2,
+          wingSpanM: a.wingSpanM,
+          zeroLiftDragCoefficient: a.zeroLiftDragCoefficient,
+          oswaldEfficiency: a.oswaldEfficiency,
+          maxLiftCoefficient: a.configurations?.clean?.maxLiftCoefficient ?? 1.4,
+        },
       });
     }
   }
   if (await tableExists("airframes", t)) {
-    const rows = await sequelize.query<{ id: string; name: string; max_mass_kg: number; wing_area_m2: number; wing_span_m: number; oswald_efficiency: number; zero_lift_drag_coefficient: number; configurations: { clean?: { cd0Increment?: number; maxLiftCoefficient?: number } } }>(
-      `SELECT * FROM airframes WHERE school_id = :schoolId ${await hasRetired(t)} ORDER BY name`,
-      { replacements: { schoolId }, type: QueryTypes.SELECT, transaction: t },
-    );
+    const rows = await sequelize.query<{
+      id: string;
+      name: string;
+      max_mass_kg: number;
+      wing_area_m2: number;
+      wing_span_m: number;
+      oswald_efficiency: number;
+      zero_lift_drag_coefficient: number;
+      configurations: { clean?: { cd0Increment?: number; maxLiftCoefficient?: number } };
+    }>(`SELECT * FROM airframes WHERE school_id = :schoolId ${await hasRetired(t)} ORDER BY name`, {
+      replacements: { schoolId },
+      type: QueryTypes.SELECT,
+      transaction: t,
+    });
     for (const r of rows) {
       out.push({
         name: r.name,
@@ -99,7 +132,11 @@ export async function listQuestionAircraft(schoolId: string, t?: Transaction, st
 }
 
 /** Sessions of the student in the last 90 days that have started, newest first (for the optional session link). */
-export async function recentSessionsOf(studentId: string, schoolId: string, t?: Transaction): Promise<{ id: string; startsAt: Date; title: string }[]> {
+export async function recentSessionsOf(
+  studentId: string,
+  schoolId: string,
+  t?: Transaction,
+): Promise<{ id: string; startsAt: Date; title: string }[]> {
   if (!(await tableExists("session_attendees", t))) return [];
   return sequelize.query<{ id: string; startsAt: Date; title: string }>(
     `SELECT s.id, s.starts_at AS "startsAt", br.title FROM session_attendees a JOIN training_sessions s ON s.id = a.session_id
@@ -166,19 +203,22 @@ export async function recordOralCheck(t: Transaction, user: CurrentUser, input: 
       { replacements: { id: input.amends.checkId, schoolId: user.schoolId }, type: QueryTypes.SELECT, transaction: t },
     );
     if (!orig || orig.student_id !== student.id) throw new HttpError(404, "amends.checkId: no such check", "amends.checkId");
-    if (orig.amended || orig.withdrawn) throw new HttpError(409, "amends.checkId: that check was already amended or withdrawn", "amends.checkId");
+    if (orig.amended || orig.withdrawn)
+      throw new HttpError(409, "amends.checkId: that check was already amended or withdrawn", "amends.checkId");
     amendsId = orig.id;
   }
 
   const aircraft = input.questions.some((q) => q.generated) ? await listQuestionAircraft(user.schoolId, t, student.id) : [];
   if (input.sessionId) {
     const sessions = await recentSessionsOf(student.id, user.schoolId, t);
-    if (!sessions.some((s) => s.id === input.sessionId)) throw new HttpError(400, "sessionId: not a session this student attended", "sessionId");
+    if (!sessions.some((s) => s.id === input.sessionId))
+      throw new HttpError(400, "sessionId: not a session this student attended", "sessionId");
   }
   const questions = input.questions.map((q, i) => {
     const field = `questions.${i}`;
     const item = items.find((it) => it.id === q.syllabusItemId);
-    if (!item) throw new HttpError(400, `${field}.syllabusItemId: the question's item is not one of the check's items`, `${field}.syllabusItemId`);
+    if (!item)
+      throw new HttpError(400, `${field}.syllabusItemId: the question's item is not one of the check's items`, `${field}.syllabusItemId`);
     const generated = q.generated ? buildGenerated(q.generated, aircraft, `${field}.generated`) : null;
     const text = generated ? generated.text : (q.questionText ?? "").trim();
     if (!text) throw new HttpError(400, `${field}.questionText: write the question as asked`, `${field}.questionText`);
@@ -221,7 +261,10 @@ export async function recordOralCheck(t: Transaction, user: CurrentUser, input: 
   );
   if (!check) throw new Error("check not written");
   for (const item of items) {
-    await sequelize.query(`INSERT INTO oral_check_items (check_id, syllabus_item_id) VALUES (:c, :i)`, { replacements: { c: check.id, i: item.id }, transaction: t });
+    await sequelize.query(`INSERT INTO oral_check_items (check_id, syllabus_item_id) VALUES (:c, :i)`, {
+      replacements: { c: check.id, i: item.id },
+      transaction: t,
+    });
   }
   let pos = 0;
   for (const q of questions) {
@@ -260,7 +303,15 @@ export async function recordOralCheck(t: Transaction, user: CurrentUser, input: 
       levelShown: input.levelShown,
       outcome: evaluation.outcome,
       occurredAt: input.occurredAt.toISOString(),
-      questions: questions.map((q) => ({ item: q.item.code, text: q.text, outcome: q.outcome, required: q.required, prompted: q.prompted, correctiveGiven: q.correctiveGiven, generated: q.generated ? { kind: q.generated.kind, answer: q.generated.answer.value } : null })),
+      questions: questions.map((q) => ({
+        item: q.item.code,
+        text: q.text,
+        outcome: q.outcome,
+        required: q.required,
+        prompted: q.prompted,
+        correctiveGiven: q.correctiveGiven,
+        generated: q.generated ? { kind: q.generated.kind, answer: q.generated.answer.value } : null,
+      })),
       ...(amendsId ? { amends: amendsId, reason: input.amends?.reason.trim() } : {}),
     },
     occurredAt: at,
@@ -270,8 +321,19 @@ export async function recordOralCheck(t: Transaction, user: CurrentUser, input: 
   let notYetMailed = false;
   if (notYetCodes.length > 0) {
     const school = await schoolFor(user.schoolId, t);
-    const mail = composeMail("check.notyet", { name: student.name, itemCodes: notYetCodes, checkedOn: dateInZone(input.occurredAt, school.timeZone) }, { name: school.name, timeZone: school.timeZone, senderName: school.settings.mailSenderName });
-    notYetMailed = await enqueueMail(t, { schoolId: user.schoolId, kind: "check.notyet", idempotencyKey: `check.notyet:${check.id}:${student.id}`, recipientId: student.id, to: student.email, ...mail });
+    const mail = composeMail(
+      "check.notyet",
+      { name: student.name, itemCodes: notYetCodes, checkedOn: dateInZone(input.occurredAt, school.timeZone) },
+      { name: school.name, timeZone: school.timeZone, senderName: school.settings.mailSenderName },
+    );
+    notYetMailed = await enqueueMail(t, {
+      schoolId: user.schoolId,
+      kind: "check.notyet",
+      idempotencyKey: `check.notyet:${check.id}:${student.id}`,
+      recipientId: student.id,
+      to: student.email,
+      ...mail,
+    });
   }
   return { id: check.id, outcome: evaluation.outcome, items: evaluation.items, notYetMailed };
 }
@@ -284,7 +346,8 @@ export async function withdrawOralCheck(t: Transaction, user: CurrentUser, input
   );
   if (!c) throw new HttpError(404, "checkId: no such check", "checkId");
   await requireStudentFor(user, c.student_id, "staff", t);
-  if (!user.roles.includes("chief") && c.instructor_id !== user.id) throw new HttpError(403, "checkId: only the instructor who recorded the check, or the chief instructor, may withdraw it", "checkId");
+  if (!user.roles.includes("chief") && c.instructor_id !== user.id)
+    throw new HttpError(403, "checkId: only the instructor who recorded the check, or the chief instructor, may withdraw it", "checkId");
   const at = now();
   const [row] = await sequelize.query<{ check_id: string }>(
     `INSERT INTO oral_check_withdrawals (check_id, withdrawn_by, reason, withdrawn_at) VALUES (:id, :by, :reason, :at)
@@ -292,7 +355,16 @@ export async function withdrawOralCheck(t: Transaction, user: CurrentUser, input
     { replacements: { id: c.id, by: user.id, reason: input.reason.trim(), at }, type: QueryTypes.SELECT, transaction: t },
   );
   if (!row) throw new HttpError(409, "checkId: the check is already withdrawn", "checkId");
-  await writeAudit(t, { schoolId: user.schoolId, actor: user, action: "check.withdrawn", recordType: "oral_check", recordId: c.id, before: { state: "in force" }, after: { state: "withdrawn", reason: input.reason.trim() }, occurredAt: at });
+  await writeAudit(t, {
+    schoolId: user.schoolId,
+    actor: user,
+    action: "check.withdrawn",
+    recordType: "oral_check",
+    recordId: c.id,
+    before: { state: "in force" },
+    after: { state: "withdrawn", reason: input.reason.trim() },
+    occurredAt: at,
+  });
   return { checkId: c.id };
 }
 
@@ -310,7 +382,15 @@ export async function acknowledgeOralCheck(t: Transaction, user: CurrentUser, ch
     { replacements: { id: c.id, me: user.id, at }, type: QueryTypes.SELECT, transaction: t },
   );
   if (row) {
-    await writeAudit(t, { schoolId: user.schoolId, actor: user, action: "check.acknowledged", recordType: "oral_check", recordId: c.id, after: { acknowledgedAt: at.toISOString() }, occurredAt: at });
+    await writeAudit(t, {
+      schoolId: user.schoolId,
+      actor: user,
+      action: "check.acknowledged",
+      recordType: "oral_check",
+      recordId: c.id,
+      after: { acknowledgedAt: at.toISOString() },
+      occurredAt: at,
+    });
   }
   return { checkId: c.id, acknowledged: true, first: !!row };
 }
@@ -331,12 +411,36 @@ export interface CheckSummary {
   acknowledgedAt: Date | null;
   /** internal: only for staff */
   remarks?: string;
-  questions: { position: number; itemCode: string; text: string; answerSummary: string; outcome: QuestionOutcome; required: boolean; prompted: boolean; correctiveGiven: boolean; generated: GeneratedQuestion | null; studentFigure: number | null }[];
+  questions: {
+    position: number;
+    itemCode: string;
+    text: string;
+    answerSummary: string;
+    outcome: QuestionOutcome;
+    required: boolean;
+    prompted: boolean;
+    correctiveGiven: boolean;
+    generated: GeneratedQuestion | null;
+    studentFigure: number | null;
+  }[];
 }
 
 /** Checks of a student, newest first. Remarks only when `withRemarks` (staff). */
-export async function listChecksOfStudent(schoolId: string, studentId: string, opts: { withRemarks: boolean; limit?: number }): Promise<CheckSummary[]> {
-  const rows = await sequelize.query<Omit<CheckSummary, "questions" | "withdrawn" | "amends"> & { remarks: string; w_reason: string | null; w_at: Date | null; w_by: string | null; amends_id: string | null; amend_reason: string | null }>(
+export async function listChecksOfStudent(
+  schoolId: string,
+  studentId: string,
+  opts: { withRemarks: boolean; limit?: number },
+): Promise<CheckSummary[]> {
+  const rows = await sequelize.query<
+    Omit<CheckSummary, "questions" | "withdrawn" | "amends"> & {
+      remarks: string;
+      w_reason: string | null;
+      w_at: Date | null;
+      w_by: string | null;
+      amends_id: string | null;
+      amend_reason: string | null;
+    }
+  >(
     `SELECT c.id, c.occurred_at AS "occurredAt", c.recorded_at AS "recordedAt", p.name AS "instructorName", c.level_shown AS "levelShown",
             c.outcome, c.item_outcomes AS "itemOutcomes", c.duration_minutes AS "durationMinutes", c.remarks,
             (SELECT array_agg(i.code ORDER BY i.code) FROM oral_check_items ci JOIN syllabus_items i ON i.id = ci.syllabus_item_id WHERE ci.check_id = c.id) AS "itemCodes",
@@ -352,10 +456,22 @@ export async function listChecksOfStudent(schoolId: string, studentId: string, o
   );
   const ids = rows.map((r) => r.id);
   const qs = ids.length
-    ? await sequelize.query<{ check_id: string; position: number; item_code: string; question_text: string; answer_summary: string; outcome: QuestionOutcome; required: boolean; prompted: boolean; corrective_given: boolean; generated: GeneratedQuestion | null; student_figure: number | null }>(
-        `SELECT * FROM oral_check_questions WHERE check_id IN (:ids) ORDER BY check_id, position`,
-        { replacements: { ids }, type: QueryTypes.SELECT },
-      )
+    ? await sequelize.query<{
+        check_id: string;
+        position: number;
+        item_code: string;
+        question_text: string;
+        answer_summary: string;
+        outcome: QuestionOutcome;
+        required: boolean;
+        prompted: boolean;
+        corrective_given: boolean;
+        generated: GeneratedQuestion | null;
+        student_figure: number | null;
+      }>(`SELECT * FROM oral_check_questions WHERE check_id IN (:ids) ORDER BY check_id, position`, {
+        replacements: { ids },
+        type: QueryTypes.SELECT,
+      })
     : [];
   return rows.map((r) => ({
     id: r.id,
@@ -374,6 +490,17 @@ export async function listChecksOfStudent(schoolId: string, studentId: string, o
     ...(opts.withRemarks ? { remarks: r.remarks } : {}),
     questions: qs
       .filter((q) => q.check_id === r.id)
-      .map((q) => ({ position: q.position, itemCode: q.item_code, text: q.question_text, answerSummary: q.answer_summary, outcome: q.outcome, required: q.required, prompted: q.prompted, correctiveGiven: q.corrective_given, generated: q.generated, studentFigure: q.student_figure })),
+      .map((q) => ({
+        position: q.position,
+        itemCode: q.item_code,
+        text: q.question_text,
+        answerSummary: q.answer_summary,
+        outcome: q.outcome,
+        required: q.required,
+        prompted: q.prompted,
+        correctiveGiven: q.corrective_given,
+        generated: q.generated,
+        studentFigure: q.student_figure,
+      })),
   }));
 }

@@ -22,7 +22,11 @@ const tableCache = new Map<string, boolean>();
 /** Whether another area's table exists yet (cached once true). */
 export async function tableExists(name: string, t?: Transaction): Promise<boolean> {
   if (tableCache.get(name)) return true;
-  const [r] = await sequelize.query<{ ok: boolean }>(`SELECT to_regclass(:n) IS NOT NULL AS ok`, { replacements: { n: `public.${name}` }, type: QueryTypes.SELECT, transaction: t });
+  const [r] = await sequelize.query<{ ok: boolean }>(`SELECT to_regclass(:n) IS NOT NULL AS ok`, {
+    replacements: { n: `public.${name}` },
+    type: QueryTypes.SELECT,
+    transaction: t,
+  });
   const ok = !!r?.ok;
   if (ok) tableCache.set(name, true);
   return ok;
@@ -69,8 +73,12 @@ export async function instructorStudentIds(user: Pick<CurrentUser, "id" | "schoo
   const rows = await sequelize.query<{ id: string }>(
     `SELECT m.student_id AS id FROM cohort_memberships m JOIN cohorts c ON c.id = m.cohort_id
       WHERE c.lead_instructor_id = :uid AND c.school_id = :schoolId
-     ${sessions ? `UNION SELECT a.student_id FROM session_attendees a JOIN training_sessions s ON s.id = a.session_id
-      WHERE s.instructor_id = :uid AND s.school_id = :schoolId` : ""}`,
+     ${
+       sessions
+         ? `UNION SELECT a.student_id FROM session_attendees a JOIN training_sessions s ON s.id = a.session_id
+      WHERE s.instructor_id = :uid AND s.school_id = :schoolId`
+         : ""
+     }`,
     { replacements: { uid: user.id, schoolId: user.schoolId }, type: QueryTypes.SELECT, transaction: t },
   );
   return new Set(rows.map((r) => r.id));
@@ -83,14 +91,20 @@ export type ViewerAccess = "staff" | "self" | "sponsor";
  * about whether the student exists. `staff` = chief (school) or instructor (their students);
  * `view` adds the student themself and a linked sponsor to whom the student shares progress.
  */
-export async function requireStudentFor(viewer: CurrentUser, studentId: string, purpose: "staff" | "view" | "examiner", t?: Transaction): Promise<{ student: StudentRef; access: ViewerAccess }> {
+export async function requireStudentFor(
+  viewer: CurrentUser,
+  studentId: string,
+  purpose: "staff" | "view" | "examiner",
+  t?: Transaction,
+): Promise<{ student: StudentRef; access: ViewerAccess }> {
   const notFound = new HttpError(404, "studentId: no such student", "studentId");
   if (!/^[0-9a-f-]{36}$/i.test(studentId)) throw notFound;
   const student = await studentRef(viewer.schoolId, studentId, t);
   if (!student) throw notFound;
   if (viewer.roles.includes("chief")) return { student, access: "staff" };
   if (viewer.roles.includes("instructor") && (await instructorStudentIds(viewer, t)).has(studentId)) return { student, access: "staff" };
-  if (purpose === "examiner" && viewer.roles.includes("instructor") && (await isCheckInstructor(viewer.id, t))) return { student, access: "staff" };
+  if (purpose === "examiner" && viewer.roles.includes("instructor") && (await isCheckInstructor(viewer.id, t)))
+    return { student, access: "staff" };
   if (purpose === "view") {
     if (viewer.roles.includes("student") && viewer.id === studentId) return { student, access: "self" };
     if (viewer.roles.includes("sponsor")) {
@@ -136,13 +150,23 @@ export async function passedStageIds(studentId: string, enrolmentId: string, t?:
 }
 
 /** Refuses work on items of a stage whose previous stage's check is not passed. */
-export async function assertStageOpen(student: StudentRef, items: ItemRef[], all: ItemRef[], field: string, t?: Transaction): Promise<void> {
+export async function assertStageOpen(
+  student: StudentRef,
+  items: ItemRef[],
+  all: ItemRef[],
+  field: string,
+  t?: Transaction,
+): Promise<void> {
   const passed = await passedStageIds(student.id, student.enrolmentId, t);
   for (const item of items) {
     if (item.stagePosition <= 1) continue;
     const prev = all.find((i) => i.stagePosition === item.stagePosition - 1);
     if (prev && !passed.has(prev.stageId)) {
-      throw new RecordRefusal("stage_locked", `${field}: ${item.code} belongs to stage ${item.stageCode}; the stage check of ${prev.stageCode} is not passed yet`, field);
+      throw new RecordRefusal(
+        "stage_locked",
+        `${field}: ${item.code} belongs to stage ${item.stageCode}; the stage check of ${prev.stageCode} is not passed yet`,
+        field,
+      );
     }
   }
 }
@@ -204,15 +228,29 @@ export async function schoolFor(schoolId: string, t?: Transaction) {
 
 // ---------------------------------------------------------------- the read side
 
-
 export type ItemStatus = "not_started" | "checked" | "signed" | "stage_passed";
-export const ITEM_STATUS_LABEL: Record<ItemStatus, string> = { not_started: "Not started", checked: "Checked", signed: "Signed off", stage_passed: "Stage passed" };
+export const ITEM_STATUS_LABEL: Record<ItemStatus, string> = {
+  not_started: "Not started",
+  checked: "Checked",
+  signed: "Signed off",
+  stage_passed: "Stage passed",
+};
 
 export interface ProgressMap {
   student: { id: string; name: string; cohortName: string | null; courseCode: string; courseTitle: string; enrolledOn: string };
   access: ViewerAccess;
   stages: (StageReadiness & {
-    items: { id: string; code: string; title: string; requiredLevel: LevelOfLearning; status: ItemStatus; lastOutcome: QuestionOutcome | null; lastCheckedOn: string | null; signedOn: string | null; signerName: string | null }[];
+    items: {
+      id: string;
+      code: string;
+      title: string;
+      requiredLevel: LevelOfLearning;
+      status: ItemStatus;
+      lastOutcome: QuestionOutcome | null;
+      lastCheckedOn: string | null;
+      signedOn: string | null;
+      signerName: string | null;
+    }[];
   })[];
   ground: { minutes: number; minimumMinutes: number } | null;
   checks: CheckSummary[];
@@ -239,12 +277,18 @@ export async function progressFor(viewer: CurrentUser, studentId: string, opts: 
   }
   const passed = new Set(stages.filter((s) => s.passed).map((s) => s.stageId));
   const checkedItems = new Set(inForce.flatMap((c) => c.itemCodes));
-  let ground: ProgressMap["ground"] = { minutes: await creditedMinutesFor(student.id, student.courseId), minimumMinutes: student.minGroundMinutes };
+  let ground: ProgressMap["ground"] = {
+    minutes: await creditedMinutesFor(student.id, student.courseId),
+    minimumMinutes: student.minGroundMinutes,
+  };
   if (access === "sponsor") {
-    const [link] = await sequelize.query<{ shares_hours: boolean }>(`SELECT shares_hours FROM sponsor_links WHERE sponsor_id = :s AND student_id = :st`, {
-      replacements: { s: viewer.id, st: student.id },
-      type: QueryTypes.SELECT,
-    });
+    const [link] = await sequelize.query<{ shares_hours: boolean }>(
+      `SELECT shares_hours FROM sponsor_links WHERE sponsor_id = :s AND student_id = :st`,
+      {
+        replacements: { s: viewer.id, st: student.id },
+        type: QueryTypes.SELECT,
+      },
+    );
     if (!link?.shares_hours) ground = null;
   }
   const chartMap = new Map<string, { solid: number; shaky: number; notYet: number }>();
@@ -259,7 +303,14 @@ export async function progressFor(viewer: CurrentUser, studentId: string, opts: 
     chartMap.set(d, e);
   }
   return {
-    student: { id: student.id, name: student.name, cohortName: student.cohortName, courseCode: student.courseCode, courseTitle: student.courseTitle, enrolledOn: student.enrolledOn },
+    student: {
+      id: student.id,
+      name: student.name,
+      cohortName: student.cohortName,
+      courseCode: student.courseCode,
+      courseTitle: student.courseTitle,
+      enrolledOn: student.enrolledOn,
+    },
     access,
     stages: stages.map((s) => ({
       ...s,
@@ -267,9 +318,25 @@ export async function progressFor(viewer: CurrentUser, studentId: string, opts: 
         .filter((i) => i.stageId === s.stageId)
         .map((i) => {
           const so = signed.get(i.id);
-          const status: ItemStatus = passed.has(i.stageId) ? "stage_passed" : so ? "signed" : checkedItems.has(i.code) ? "checked" : "not_started";
+          const status: ItemStatus = passed.has(i.stageId)
+            ? "stage_passed"
+            : so
+              ? "signed"
+              : checkedItems.has(i.code)
+                ? "checked"
+                : "not_started";
           const l = last.get(i.code);
-          return { id: i.id, code: i.code, title: i.title, requiredLevel: i.requiredLevel, status, lastOutcome: l?.outcome ?? null, lastCheckedOn: l?.on ?? null, signedOn: so?.signedOn ?? null, signerName: so?.signerName ?? null };
+          return {
+            id: i.id,
+            code: i.code,
+            title: i.title,
+            requiredLevel: i.requiredLevel,
+            status,
+            lastOutcome: l?.outcome ?? null,
+            lastCheckedOn: l?.on ?? null,
+            signedOn: so?.signedOn ?? null,
+            signerName: so?.signerName ?? null,
+          };
         }),
     })),
     ground,
@@ -292,7 +359,10 @@ export async function progressStudentsFor(viewer: CurrentUser): Promise<{ id: st
   if (viewer.roles.includes("instructor")) for (const id of await instructorStudentIds(viewer)) allowed.add(id);
   if (viewer.roles.includes("student")) allowed.add(viewer.id);
   if (viewer.roles.includes("sponsor")) {
-    const links = await sequelize.query<{ id: string }>(`SELECT student_id AS id FROM sponsor_links WHERE sponsor_id = :s AND shares_progress`, { replacements: { s: viewer.id }, type: QueryTypes.SELECT });
+    const links = await sequelize.query<{ id: string }>(
+      `SELECT student_id AS id FROM sponsor_links WHERE sponsor_id = :s AND shares_progress`,
+      { replacements: { s: viewer.id }, type: QueryTypes.SELECT },
+    );
     for (const l of links) allowed.add(l.id);
   }
   return rows.filter((r) => allowed.has(r.id));
@@ -390,7 +460,10 @@ interface SignOffRow {
 }
 
 /** The register's rows (sign-offs and stage checks) and every watch note of the school. */
-export async function signOffRegister(user: CurrentUser, filter: RegisterFilter = {}): Promise<{ rows: RegisterRow[]; notes: WatchNote[] }> {
+export async function signOffRegister(
+  user: CurrentUser,
+  filter: RegisterFilter = {},
+): Promise<{ rows: RegisterRow[]; notes: WatchNote[] }> {
   const school = await schoolFor(user.schoolId);
   const tz = school.timeZone;
   const signOffs = await sequelize.query<SignOffRow>(
@@ -408,9 +481,26 @@ export async function signOffRegister(user: CurrentUser, filter: RegisterFilter 
     { replacements: { schoolId: user.schoolId }, type: QueryTypes.SELECT },
   );
   const stageChecks = await sequelize.query<{
-    id: string; student_id: string; student_name: string; cohort_id: string | null; cohort_name: string | null; stage_id: string; stage_code: string; stage_title: string;
-    examiner_id: string; examiner_name: string; lead_instructor_id: string | null; override_reason: string | null; result: "pass" | "fail";
-    written_score_percent: string | null; pass_mark_percent: string; occurred_at: Date; recorded_at: Date; attempt: number; signature_hash: string; oral_outcomes: { code?: string; outcome: QuestionOutcome }[];
+    id: string;
+    student_id: string;
+    student_name: string;
+    cohort_id: string | null;
+    cohort_name: string | null;
+    stage_id: string;
+    stage_code: string;
+    stage_title: string;
+    examiner_id: string;
+    examiner_name: string;
+    lead_instructor_id: string | null;
+    override_reason: string | null;
+    result: "pass" | "fail";
+    written_score_percent: string | null;
+    pass_mark_percent: string;
+    occurred_at: Date;
+    recorded_at: Date;
+    attempt: number;
+    signature_hash: string;
+    oral_outcomes: { code?: string; outcome: QuestionOutcome }[];
   }>(
     `SELECT s.id, s.student_id, st.name AS student_name, c.id AS cohort_id, c.name AS cohort_name, g.id AS stage_id, g.code AS stage_code, g.title AS stage_title,
             s.examiner_id, ep.name AS examiner_name, s.lead_instructor_id, s.override_reason, s.result, s.written_score_percent, s.pass_mark_percent,
@@ -420,7 +510,18 @@ export async function signOffRegister(user: CurrentUser, filter: RegisterFilter 
       WHERE s.school_id = :schoolId ORDER BY s.recorded_at DESC`,
     { replacements: { schoolId: user.schoolId }, type: QueryTypes.SELECT },
   );
-  const checks = await sequelize.query<{ id: string; student_id: string; student_name: string; occurred_at: Date; recorded_at: Date; amends_id: string | null; amend_reason: string | null; withdraw_reason: string | null; withdrawn_at: Date | null; not_yet_items: string[] | null }>(
+  const checks = await sequelize.query<{
+    id: string;
+    student_id: string;
+    student_name: string;
+    occurred_at: Date;
+    recorded_at: Date;
+    amends_id: string | null;
+    amend_reason: string | null;
+    withdraw_reason: string | null;
+    withdrawn_at: Date | null;
+    not_yet_items: string[] | null;
+  }>(
     `SELECT c.id, c.student_id, st.name AS student_name, c.occurred_at, c.recorded_at, c.amends_id, c.amend_reason, w.reason AS withdraw_reason, w.withdrawn_at,
             (SELECT array_agg(DISTINCT q.item_code) FROM oral_check_questions q WHERE q.check_id = c.id AND q.outcome = 'not_yet') AS not_yet_items
        FROM oral_checks c JOIN people st ON st.id = c.student_id LEFT JOIN oral_check_withdrawals w ON w.check_id = c.id
@@ -446,32 +547,71 @@ export async function signOffRegister(user: CurrentUser, filter: RegisterFilter 
 
   const standingCache = new Map<string, Awaited<ReturnType<typeof signerStanding>>>();
   for (const s of signOffs) {
-    const base = { recordType: "sign_off" as const, recordId: s.id, studentId: s.student_id, studentName: s.student_name, itemCode: s.item_code, at: s.signed_at };
+    const base = {
+      recordType: "sign_off" as const,
+      recordId: s.id,
+      studentId: s.student_id,
+      studentName: s.student_name,
+      itemCode: s.item_code,
+      at: s.signed_at,
+    };
     const checkDate = dateInZone(s.check_at, tz);
-    if (s.signed_on < checkDate) note({ ...base, kind: "signed_before_check", detail: `signed for ${s.signed_on}, its check is of ${checkDate}` });
+    if (s.signed_on < checkDate)
+      note({ ...base, kind: "signed_before_check", detail: `signed for ${s.signed_on}, its check is of ${checkDate}` });
     const key = `${s.signer_id}:${s.course_id}:${s.signed_on}`;
     if (!standingCache.has(key)) standingCache.set(key, await signerStanding(s.signer_id, s.course_id, s.signed_on));
     const st = standingCache.get(key)!;
-    if (!st.qualified || !st.current) note({ ...base, kind: "signer_not_current", detail: `${s.signer_name} was ${!st.qualified ? "not qualified for the course" : "not current"} on ${s.signed_on}` });
-    if (missed.has(`${s.student_id}:${s.item_id}`)) note({ ...base, kind: "missed_session", detail: `${s.student_name} missed a session covering ${s.item_code} and has no completed make-up` });
+    if (!st.qualified || !st.current)
+      note({
+        ...base,
+        kind: "signer_not_current",
+        detail: `${s.signer_name} was ${!st.qualified ? "not qualified for the course" : "not current"} on ${s.signed_on}`,
+      });
+    if (missed.has(`${s.student_id}:${s.item_id}`))
+      note({
+        ...base,
+        kind: "missed_session",
+        detail: `${s.student_name} missed a session covering ${s.item_code} and has no completed make-up`,
+      });
     const lag = differenceInCalendarDays(s.signed_at, new Date(`${s.signed_on}T12:00:00Z`));
     if (lag > lateDays) note({ ...base, kind: "late_entry", detail: `entered ${lag} days after the date signed for (limit ${lateDays})` });
     if (s.amends_id) note({ ...base, kind: "amended", detail: `amends an earlier sign-off: ${s.amend_reason}` });
     if (s.withdraw_reason) note({ ...base, kind: "withdrawn", detail: `withdrawn: ${s.withdraw_reason}` });
   }
   for (const c of stageChecks) {
-    const base = { recordType: "stage_check" as const, recordId: c.id, studentId: c.student_id, studentName: c.student_name, itemCode: null, at: c.recorded_at };
-    if (c.lead_instructor_id && c.lead_instructor_id === c.examiner_id) note({ ...base, kind: "examiner_was_lead", detail: `${c.examiner_name} examined their own student: ${c.override_reason ?? "no reason"}` });
+    const base = {
+      recordType: "stage_check" as const,
+      recordId: c.id,
+      studentId: c.student_id,
+      studentName: c.student_name,
+      itemCode: null,
+      at: c.recorded_at,
+    };
+    if (c.lead_instructor_id && c.lead_instructor_id === c.examiner_id)
+      note({
+        ...base,
+        kind: "examiner_was_lead",
+        detail: `${c.examiner_name} examined their own student: ${c.override_reason ?? "no reason"}`,
+      });
     const lag = differenceInCalendarDays(c.recorded_at, c.occurred_at);
     if (lag > lateDays) note({ ...base, kind: "late_entry", detail: `entered ${lag} days after the stage check (limit ${lateDays})` });
   }
   const notYetCount = new Map<string, { n: number; last: (typeof checks)[number] }>();
   for (const c of checks) {
-    const base = { recordType: "oral_check" as const, recordId: c.id, studentId: c.student_id, studentName: c.student_name, itemCode: null, at: c.recorded_at };
+    const base = {
+      recordType: "oral_check" as const,
+      recordId: c.id,
+      studentId: c.student_id,
+      studentName: c.student_name,
+      itemCode: null,
+      at: c.recorded_at,
+    };
     const lag = differenceInCalendarDays(c.recorded_at, c.occurred_at);
-    if (lag > lateDays) note({ ...base, kind: "late_entry", detail: `oral check entered ${lag} days after it happened (limit ${lateDays})` });
+    if (lag > lateDays)
+      note({ ...base, kind: "late_entry", detail: `oral check entered ${lag} days after it happened (limit ${lateDays})` });
     if (c.amends_id) note({ ...base, kind: "amended", detail: `oral check amended: ${c.amend_reason}` });
-    if (c.withdraw_reason) note({ ...base, kind: "withdrawn", detail: `oral check withdrawn: ${c.withdraw_reason}`, at: c.withdrawn_at ?? c.recorded_at });
+    if (c.withdraw_reason)
+      note({ ...base, kind: "withdrawn", detail: `oral check withdrawn: ${c.withdraw_reason}`, at: c.withdrawn_at ?? c.recorded_at });
     if (c.withdraw_reason) continue;
     for (const code of c.not_yet_items ?? []) {
       const k = `${c.student_id}:${code}`;
@@ -482,7 +622,16 @@ export async function signOffRegister(user: CurrentUser, filter: RegisterFilter 
   for (const [k, v] of notYetCount) {
     if (v.n < 2) continue;
     const code = k.split(":")[1]!;
-    note({ recordType: "oral_check", recordId: v.last.id, studentId: v.last.student_id, studentName: v.last.student_name, itemCode: code, at: v.last.recorded_at, kind: "repeated_not_yet", detail: `${v.n} oral checks with Not yet on ${code}` });
+    note({
+      recordType: "oral_check",
+      recordId: v.last.id,
+      studentId: v.last.student_id,
+      studentName: v.last.student_name,
+      itemCode: code,
+      at: v.last.recorded_at,
+      kind: "repeated_not_yet",
+      detail: `${v.n} oral checks with Not yet on ${code}`,
+    });
   }
 
   const notesFor = (id: string) => notes.filter((n) => n.recordId === id);
@@ -549,7 +698,10 @@ export async function registerFilterOptions(schoolId: string) {
     `SELECT id, name FROM people WHERE school_id = :schoolId AND roles && ARRAY['instructor','chief']::text[] ORDER BY name`,
     { replacements: { schoolId }, type: QueryTypes.SELECT },
   );
-  const cohorts = await sequelize.query<{ id: string; name: string }>(`SELECT id, name FROM cohorts WHERE school_id = :schoolId ORDER BY name`, { replacements: { schoolId }, type: QueryTypes.SELECT });
+  const cohorts = await sequelize.query<{ id: string; name: string }>(
+    `SELECT id, name FROM cohorts WHERE school_id = :schoolId ORDER BY name`,
+    { replacements: { schoolId }, type: QueryTypes.SELECT },
+  );
   const stages = await sequelize.query<{ id: string; label: string }>(
     `SELECT g.id, co.code || ' r' || r.number || ' · ' || g.code || ' ' || g.title AS label
        FROM syllabus_stages g JOIN syllabus_revisions r ON r.id = g.revision_id JOIN courses co ON co.id = r.course_id
@@ -566,7 +718,14 @@ export async function chiefRecordsSummary(user: CurrentUser) {
   for (const st of students) {
     const { student } = await requireStudentFor(user, st.id, "staff");
     for (const s of await stageReadiness(student)) {
-      if (s.ready) waiting.push({ studentId: st.id, studentName: st.name, stageCode: s.code, since: s.readySince, days: s.readySince ? differenceInCalendarDays(now(), s.readySince) : null });
+      if (s.ready)
+        waiting.push({
+          studentId: st.id,
+          studentName: st.name,
+          stageCode: s.code,
+          since: s.readySince,
+          days: s.readySince ? differenceInCalendarDays(now(), s.readySince) : null,
+        });
     }
   }
   waiting.sort((a, b) => (b.days ?? 0) - (a.days ?? 0));
@@ -581,7 +740,15 @@ export interface TrainingRecord {
   groundMinutes: number;
   groundLog: { date: string; title: string; status: string; minutes: number }[];
   checks: CheckSummary[];
-  signOffs: { itemCode: string; itemTitle: string; signedOn: string; signerName: string; state: string; reason: string | null; signatureHash: string }[];
+  signOffs: {
+    itemCode: string;
+    itemTitle: string;
+    signedOn: string;
+    signerName: string;
+    state: string;
+    reason: string | null;
+    signatureHash: string;
+  }[];
   stageChecks: { stageCode: string; attempt: number; result: string; date: string; examinerName: string; written: string | null }[];
   head: { hash: string; position: number };
   generatedAt: Date;
@@ -601,7 +768,12 @@ export async function trainingRecordFor(viewer: CurrentUser, studentId: string):
           WHERE g.student_id = :st AND g.course_id = :course ORDER BY g.occurred_at`,
         { replacements: { st: student.id, course: student.courseId }, type: QueryTypes.SELECT },
       )
-    ).map((r) => ({ date: dateInZone(r.occurred_at, school.timeZone), title: r.title ?? "Session", status: r.status, minutes: r.credited_minutes }));
+    ).map((r) => ({
+      date: dateInZone(r.occurred_at, school.timeZone),
+      title: r.title ?? "Session",
+      status: r.status,
+      minutes: r.credited_minutes,
+    }));
   }
   const { rows } = await signOffRegister({ ...viewer, roles: ["chief"] });
   const mine = rows.filter((r) => r.studentId === student.id);
@@ -611,8 +783,20 @@ export async function trainingRecordFor(viewer: CurrentUser, studentId: string):
     groundMinutes: await creditedMinutesFor(student.id, student.courseId),
     groundLog,
     checks: await listChecksOfStudent(viewer.schoolId, student.id, { withRemarks: false }),
-    signOffs: mine.filter((r) => r.kind === "sign_off").map((r) => ({ itemCode: r.itemCode ?? "", itemTitle: r.itemTitle ?? "", signedOn: r.date, signerName: r.signerName, state: r.state, reason: r.reason, signatureHash: r.signatureHash })),
-    stageChecks: mine.filter((r) => r.kind === "stage_check").map((r) => ({ stageCode: r.stageCode, attempt: 0, result: r.state, date: r.date, examinerName: r.signerName, written: r.basis })),
+    signOffs: mine
+      .filter((r) => r.kind === "sign_off")
+      .map((r) => ({
+        itemCode: r.itemCode ?? "",
+        itemTitle: r.itemTitle ?? "",
+        signedOn: r.date,
+        signerName: r.signerName,
+        state: r.state,
+        reason: r.reason,
+        signatureHash: r.signatureHash,
+      })),
+    stageChecks: mine
+      .filter((r) => r.kind === "stage_check")
+      .map((r) => ({ stageCode: r.stageCode, attempt: 0, result: r.state, date: r.date, examinerName: r.signerName, written: r.basis })),
     head: await chainHead(viewer.schoolId),
     generatedAt: now(),
   };

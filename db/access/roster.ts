@@ -84,7 +84,11 @@ export interface RosterPreview {
 }
 
 /** Reads a roster file into rows; unknown columns are ignored, known ones matched by several spellings. */
-export function readRosterCsv(text: string | Buffer): { delimiter: "," | ";"; rows: (RosterRowInput & { line: number })[]; fileProblems: string[] } {
+export function readRosterCsv(text: string | Buffer): {
+  delimiter: "," | ";";
+  rows: (RosterRowInput & { line: number })[];
+  fileProblems: string[];
+} {
   let parsed;
   try {
     parsed = parseCsv(text);
@@ -145,9 +149,11 @@ export async function previewRosterImport(user: CurrentUser, text: string | Buff
     else if (r.sponsorEmail && r.sponsorEmail.toLowerCase() === mail) problems.push("sponsor e-mail: the same as the student's");
     else if (r.sponsorEmail) {
       const acct = existing.get(r.sponsorEmail.toLowerCase());
-      if (acct && (!acct.sameSchool || !acct.roles.includes("sponsor"))) problems.push("sponsor e-mail: belongs to an account that is not a sponsor of this school");
+      if (acct && (!acct.sameSchool || !acct.roles.includes("sponsor")))
+        problems.push("sponsor e-mail: belongs to an account that is not a sponsor of this school");
     }
-    if (r.sponsorEmail && !r.sponsorName && !existing.get(r.sponsorEmail.toLowerCase())) problems.push("sponsor name: missing (needed for a new sponsor)");
+    if (r.sponsorEmail && !r.sponsorName && !existing.get(r.sponsorEmail.toLowerCase()))
+      problems.push("sponsor name: missing (needed for a new sponsor)");
     if (r.sponsorName && !r.sponsorEmail) problems.push("sponsor e-mail: missing");
     return { ...r, cohortId, problems };
   });
@@ -185,12 +191,17 @@ export async function commitRosterImport(user: CurrentUser, text: string | Buffe
   // left to the write itself, which is where a concurrent change shows up.
   const seen = new Set<string>();
   for (const r of rows) {
-    const bad =
-      !r.name ? "name: missing" :
-      !email.safeParse(r.email).success ? "e-mail: not a valid address" :
-      seen.has(r.email.toLowerCase()) ? "e-mail: duplicate in this file" :
-      !cohorts.get(r.cohort.toLowerCase()) ? "cohort: not one you may add to" :
-      r.sponsorEmail && !email.safeParse(r.sponsorEmail).success ? "sponsor e-mail: not a valid address" : null;
+    const bad = !r.name
+      ? "name: missing"
+      : !email.safeParse(r.email).success
+        ? "e-mail: not a valid address"
+        : seen.has(r.email.toLowerCase())
+          ? "e-mail: duplicate in this file"
+          : !cohorts.get(r.cohort.toLowerCase())
+            ? "cohort: not one you may add to"
+            : r.sponsorEmail && !email.safeParse(r.sponsorEmail).success
+              ? "sponsor e-mail: not a valid address"
+              : null;
     if (bad) throw new HttpError(422, `line ${r.line}: ${bad}`, "file");
     seen.add(r.email.toLowerCase());
   }
@@ -198,7 +209,11 @@ export async function commitRosterImport(user: CurrentUser, text: string | Buffe
   for (const r of rows) {
     const cohort = cohorts.get(r.cohort.toLowerCase())!;
     try {
-      const added = await addStudentTx(user, { name: r.name, email: r.email, cohortId: cohort.id, sponsorName: r.sponsorName, sponsorEmail: r.sponsorEmail }, t);
+      const added = await addStudentTx(
+        user,
+        { name: r.name, email: r.email, cohortId: cohort.id, sponsorName: r.sponsorName, sponsorEmail: r.sponsorEmail },
+        t,
+      );
       result.created += 1;
       result.invitations += added.invitations;
       if (added.sponsorId) result.sponsorsLinked += 1;
@@ -220,7 +235,14 @@ async function sendInvitation(
   const school = await schoolInTx(p.schoolId, t);
   const link = await createSetPasswordLink(t, p.personId);
   const mail = composeMail("invitation", { name: p.name, setPasswordUrl: link.url, expiresAt: link.expiresAt }, school);
-  await enqueueMail(t, { schoolId: p.schoolId, kind: "invitation", idempotencyKey: `invitation:${p.personId}:1`, recipientId: p.personId, to: p.email, ...mail });
+  await enqueueMail(t, {
+    schoolId: p.schoolId,
+    kind: "invitation",
+    idempotencyKey: `invitation:${p.personId}:1`,
+    recipientId: p.personId,
+    to: p.email,
+    ...mail,
+  });
 }
 
 /**
@@ -240,10 +262,13 @@ export async function addStudentTx(
   // createPerson checks first; the unique index on lower(email) catches a writer that slipped in between
   const taken = (e: unknown, field: "email" | "sponsorEmail") => {
     const code = (e as { parent?: { code?: string } })?.parent?.code;
-    if (e instanceof HttpError || code === "23505") throw new HttpError(409, `${field === "email" ? "e-mail" : "sponsor e-mail"}: already belongs to an account`, field);
+    if (e instanceof HttpError || code === "23505")
+      throw new HttpError(409, `${field === "email" ? "e-mail" : "sponsor e-mail"}: already belongs to an account`, field);
     throw e;
   };
-  const student = await createPerson({ schoolId: user.schoolId, name: input.name, email: input.email, roles: ["student"] }, t).catch((e) => taken(e, "email"));
+  const student = await createPerson({ schoolId: user.schoolId, name: input.name, email: input.email, roles: ["student"] }, t).catch((e) =>
+    taken(e, "email"),
+  );
   await addToCohort({ cohortId: cohort.id, studentId: student.id, fromDate: today }, t);
   const [rev] = await sequelize.query<{ id: string }>(
     `SELECT id FROM syllabus_revisions WHERE course_id = :c ORDER BY number DESC LIMIT 1`,
@@ -251,7 +276,14 @@ export async function addStudentTx(
   );
   if (rev) await enrol({ studentId: student.id, courseId: cohort.courseId, revisionId: rev.id, enrolledOn: today }, t);
   let invitations = 0;
-  await sendInvitation(t, { schoolId: user.schoolId, personId: student.id, name: student.name, email: student.email, invitedBy: user.name, role: "student" });
+  await sendInvitation(t, {
+    schoolId: user.schoolId,
+    personId: student.id,
+    name: student.name,
+    email: student.email,
+    invitedBy: user.name,
+    role: "student",
+  });
   invitations++;
   let sponsorId: string | null = null;
   if (input.sponsorEmail) {
@@ -265,9 +297,19 @@ export async function addStudentTx(
       }
       sponsorId = found.id;
     } else {
-      const sponsor = await createPerson({ schoolId: user.schoolId, name: input.sponsorName || input.sponsorEmail, email: input.sponsorEmail, roles: ["sponsor"] }, t).catch((e) => taken(e, "sponsorEmail"));
+      const sponsor = await createPerson(
+        { schoolId: user.schoolId, name: input.sponsorName || input.sponsorEmail, email: input.sponsorEmail, roles: ["sponsor"] },
+        t,
+      ).catch((e) => taken(e, "sponsorEmail"));
       sponsorId = sponsor.id;
-      await sendInvitation(t, { schoolId: user.schoolId, personId: sponsor.id, name: sponsor.name, email: sponsor.email, invitedBy: user.name, role: "sponsor" });
+      await sendInvitation(t, {
+        schoolId: user.schoolId,
+        personId: sponsor.id,
+        name: sponsor.name,
+        email: sponsor.email,
+        invitedBy: user.name,
+        role: "sponsor",
+      });
       invitations++;
     }
     await linkSponsor({ sponsorId, studentId: student.id }, t);
@@ -279,7 +321,9 @@ export async function addStudentTx(
 export async function moveStudent(user: CurrentUser, input: z.output<typeof moveStudentSchema>, t: Transaction) {
   // the target may be any cohort of the school (the student moves to another lead); the caller must lead the current one
   const [target] = await sequelize.query<{ id: string }>(`SELECT id FROM cohorts WHERE id = :c AND school_id = :s`, {
-    replacements: { c: input.toCohortId, s: user.schoolId }, type: QueryTypes.SELECT, transaction: t,
+    replacements: { c: input.toCohortId, s: user.schoolId },
+    type: QueryTypes.SELECT,
+    transaction: t,
   });
   if (!target) throw new HttpError(404, "toCohortId: no such cohort", "toCohortId");
   const [current] = await sequelize.query<{ cohortId: string; fromDate: string; leadInstructorId: string; schoolId: string }>(
@@ -293,8 +337,12 @@ export async function moveStudent(user: CurrentUser, input: z.output<typeof move
     throw new HttpError(403, "studentId: only the student's lead instructor or the chief instructor may move them", "studentId");
   }
   if (current.cohortId === input.toCohortId) throw new HttpError(409, "toCohortId: the student is already in this cohort", "toCohortId");
-  if (input.onDate <= current.fromDate) throw new HttpError(400, `onDate: must be after the current membership began (${current.fromDate})`, "onDate");
-  return moveStudentToCohort({ schoolId: user.schoolId, studentId: input.studentId, toCohortId: input.toCohortId, onDate: input.onDate }, t);
+  if (input.onDate <= current.fromDate)
+    throw new HttpError(400, `onDate: must be after the current membership began (${current.fromDate})`, "onDate");
+  return moveStudentToCohort(
+    { schoolId: user.schoolId, studentId: input.studentId, toCohortId: input.toCohortId, onDate: input.onDate },
+    t,
+  );
 }
 
 export interface RosterStudent {

@@ -2,7 +2,9 @@ import "server-only";
 import type { Transaction } from "sequelize";
 import { School, type SchoolSettings } from "../models";
 
-export const DEFAULT_SETTINGS: Required<Pick<SchoolSettings, "checkValidityDays" | "stageCheckPassMarkPercent" | "lateEntryDays" | "reminderLeadHours" | "weeklyLetterDay">> = {
+export const DEFAULT_SETTINGS: Required<
+  Pick<SchoolSettings, "checkValidityDays" | "stageCheckPassMarkPercent" | "lateEntryDays" | "reminderLeadHours" | "weeklyLetterDay">
+> = {
   checkValidityDays: 60,
   stageCheckPassMarkPercent: 80,
   lateEntryDays: 7,
@@ -11,7 +13,10 @@ export const DEFAULT_SETTINGS: Required<Pick<SchoolSettings, "checkValidityDays"
 };
 
 export async function createSchool(input: { name: string; timeZone: string; settings?: SchoolSettings }, t?: Transaction) {
-  const s = await School.create({ name: input.name, timeZone: input.timeZone, settings: { ...DEFAULT_SETTINGS, ...input.settings } }, { transaction: t });
+  const s = await School.create(
+    { name: input.name, timeZone: input.timeZone, settings: { ...DEFAULT_SETTINGS, ...input.settings } },
+    { transaction: t },
+  );
   return { id: s.id, name: s.name, timeZone: s.timeZone };
 }
 

@@ -58,9 +58,21 @@ async function conflictError(
                    AND (:self::uuid IS NULL OR s.id <> :self::uuid)`;
   const rep = { a: s.startsAt, b: s.endsAt, self: s.sessionId, i: s.instructorId, room: s.room, school: s.schoolId };
   if (constraint === "training_sessions_instructor_busy") {
-    const [hit] = await sequelize.query<{ startsAt: Date; endsAt: Date; title: string }>(`${base} AND s.instructor_id = :i LIMIT 1`, { replacements: rep, type: QueryTypes.SELECT, transaction: t });
-    const [p] = await sequelize.query<{ name: string }>(`SELECT name FROM people WHERE id = :i`, { replacements: rep, type: QueryTypes.SELECT, transaction: t });
-    return new HttpError(409, `instructorId: ${p?.name ?? "the instructor"} already teaches ${hit ? when(hit) : "at that time"}`, "instructorId");
+    const [hit] = await sequelize.query<{ startsAt: Date; endsAt: Date; title: string }>(`${base} AND s.instructor_id = :i LIMIT 1`, {
+      replacements: rep,
+      type: QueryTypes.SELECT,
+      transaction: t,
+    });
+    const [p] = await sequelize.query<{ name: string }>(`SELECT name FROM people WHERE id = :i`, {
+      replacements: rep,
+      type: QueryTypes.SELECT,
+      transaction: t,
+    });
+    return new HttpError(
+      409,
+      `instructorId: ${p?.name ?? "the instructor"} already teaches ${hit ? when(hit) : "at that time"}`,
+      "instructorId",
+    );
   }
   if (constraint === "training_sessions_room_busy") {
     const [hit] = await sequelize.query<{ startsAt: Date; endsAt: Date; title: string }>(
@@ -77,9 +89,17 @@ async function conflictError(
         WHERE a.status = 'scheduled' AND a.student_id = ANY(ARRAY[:students]::uuid[])
           AND tstzrange(a.starts_at, a.ends_at, '[)') && tstzrange(:a, :b, '[)') AND (:self::uuid IS NULL OR a.session_id <> :self::uuid)
         ORDER BY p.name LIMIT 1`,
-      { replacements: { ...rep, students: s.studentIds.length ? s.studentIds : ["00000000-0000-0000-0000-000000000000"] }, type: QueryTypes.SELECT, transaction: t },
+      {
+        replacements: { ...rep, students: s.studentIds.length ? s.studentIds : ["00000000-0000-0000-0000-000000000000"] },
+        type: QueryTypes.SELECT,
+        transaction: t,
+      },
     );
-    return new HttpError(409, `students: ${hit ? `${hit.name} is already in ${when(hit)}` : "a student is already in another session then"}`, "studentIds");
+    return new HttpError(
+      409,
+      `students: ${hit ? `${hit.name} is already in ${when(hit)}` : "a student is already in another session then"}`,
+      "studentIds",
+    );
   }
   return new HttpError(409, "The session overlaps another one", "date");
 }
@@ -125,7 +145,8 @@ async function attendeesFor(schoolId: string, cohortId: string, studentIds: stri
       `SELECT id FROM people WHERE id = ANY(ARRAY[:ids]::uuid[]) AND school_id = :s AND active AND 'student' = ANY(roles)`,
       { replacements: { ids: studentIds, s: schoolId }, type: QueryTypes.SELECT, transaction: t },
     );
-    if (found.length !== new Set(studentIds).size) throw new HttpError(404, "studentIds: a chosen student is not a student of this school", "studentIds");
+    if (found.length !== new Set(studentIds).size)
+      throw new HttpError(404, "studentIds: a chosen student is not a student of this school", "studentIds");
     for (const f of found) if (!out.has(f.id)) out.set(f.id, "individual");
   }
   return out;
@@ -144,7 +165,11 @@ export interface ScheduledSession {
  * the school's time zone; the end is start + duration in real minutes. The database refuses any
  * double-booking of the instructor, the room or a student.
  */
-export async function scheduleSession(user: CurrentUser, input: z.output<typeof scheduleSessionSchema>, t: Transaction): Promise<ScheduledSession> {
+export async function scheduleSession(
+  user: CurrentUser,
+  input: z.output<typeof scheduleSessionSchema>,
+  t: Transaction,
+): Promise<ScheduledSession> {
   const school = await schoolInTx(user.schoolId, t);
   const [briefing] = await sequelize.query<{ id: string; revisionId: string | null; courseId: string }>(
     `SELECT id, current_revision_id AS "revisionId", course_id AS "courseId" FROM briefings WHERE id = :id AND school_id = :s`,
@@ -154,7 +179,9 @@ export async function scheduleSession(user: CurrentUser, input: z.output<typeof 
   await requireInstructor(user.schoolId, input.instructorId, t);
   if (input.cohortId) {
     const [c] = await sequelize.query<{ id: string }>(`SELECT id FROM cohorts WHERE id = :c AND school_id = :s`, {
-      replacements: { c: input.cohortId, s: user.schoolId }, type: QueryTypes.SELECT, transaction: t,
+      replacements: { c: input.cohortId, s: user.schoolId },
+      type: QueryTypes.SELECT,
+      transaction: t,
     });
     if (!c) throw new HttpError(404, "cohortId: no such cohort at this school", "cohortId");
   }
@@ -162,13 +189,31 @@ export async function scheduleSession(user: CurrentUser, input: z.output<typeof 
   const endsAt = new Date(startsAt.getTime() + input.durationMinutes * 60_000);
   const attendees = await attendeesFor(user.schoolId, input.cohortId, input.studentIds, input.date, t);
   if (attendees.size === 0) throw new HttpError(422, "cohortId: the cohort has no students on that date", "cohortId");
-  const ctx = { schoolId: user.schoolId, sessionId: null, instructorId: input.instructorId, room: input.room, studentIds: [...attendees.keys()], startsAt, endsAt };
+  const ctx = {
+    schoolId: user.schoolId,
+    sessionId: null,
+    instructorId: input.instructorId,
+    room: input.room,
+    studentIds: [...attendees.keys()],
+    startsAt,
+    endsAt,
+  };
   const id = await guardOverlap(t, ctx, school.timeZone, async (sp) => {
     const [row] = await sequelize.query<{ id: string }>(
       `INSERT INTO training_sessions (school_id, briefing_id, briefing_revision_id, starts_at, ends_at, room, instructor_id, cohort_id, created_by)
        VALUES (:s, :b, :r, :a, :e, :room, :i, :c, :by) RETURNING id`,
       {
-        replacements: { s: user.schoolId, b: briefing.id, r: briefing.revisionId, a: startsAt, e: endsAt, room: input.room.trim(), i: input.instructorId, c: input.cohortId || null, by: user.id },
+        replacements: {
+          s: user.schoolId,
+          b: briefing.id,
+          r: briefing.revisionId,
+          a: startsAt,
+          e: endsAt,
+          room: input.room.trim(),
+          i: input.instructorId,
+          c: input.cohortId || null,
+          by: user.id,
+        },
         type: QueryTypes.SELECT,
         transaction: sp,
       },
@@ -210,7 +255,11 @@ async function lockSessionForChange(user: CurrentUser, sessionId: string, t: Tra
   );
   if (!s) throw new HttpError(404, "sessionId: no such session", "sessionId");
   if (!isChief(user) && s.instructorId !== user.id && s.cohortLeadId !== user.id) {
-    throw new HttpError(403, "sessionId: only the session's instructor, the cohort's lead instructor or the chief instructor may change it", "sessionId");
+    throw new HttpError(
+      403,
+      "sessionId: only the session's instructor, the cohort's lead instructor or the chief instructor may change it",
+      "sessionId",
+    );
   }
   return s;
 }
@@ -231,19 +280,34 @@ export async function rescheduleSession(user: CurrentUser, input: z.output<typeo
   const s = await lockSessionForChange(user, input.sessionId, t);
   if (s.status !== "scheduled") throw new HttpError(409, "sessionId: a cancelled session cannot be moved; schedule a new one", "sessionId");
   const [recorded] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM ground_log_entries WHERE session_id = :id`, {
-    replacements: { id: s.id }, type: QueryTypes.SELECT, transaction: t,
+    replacements: { id: s.id },
+    type: QueryTypes.SELECT,
+    transaction: t,
   });
-  if ((recorded?.n ?? 0) > 0) throw new HttpError(409, "sessionId: attendance is already recorded for this session; it cannot be moved", "sessionId");
+  if ((recorded?.n ?? 0) > 0)
+    throw new HttpError(409, "sessionId: attendance is already recorded for this session; it cannot be moved", "sessionId");
   const instructor = await requireInstructor(user.schoolId, input.instructorId, t);
   const startsAt = zonedInstant(input.date, input.time, school.timeZone);
   const endsAt = new Date(startsAt.getTime() + input.durationMinutes * 60_000);
   const attendees = await attendeesToTell(s.id, t);
-  const ctx = { schoolId: user.schoolId, sessionId: s.id, instructorId: input.instructorId, room: input.room, studentIds: attendees.map((a) => a.id), startsAt, endsAt };
+  const ctx = {
+    schoolId: user.schoolId,
+    sessionId: s.id,
+    instructorId: input.instructorId,
+    room: input.room,
+    studentIds: attendees.map((a) => a.id),
+    startsAt,
+    endsAt,
+  };
   const sequence = await guardOverlap(t, ctx, school.timeZone, async (sp) => {
     const [row] = await sequelize.query<{ sequence: number }>(
       `UPDATE training_sessions SET starts_at = :a, ends_at = :e, room = :room, instructor_id = :i, sequence = sequence + 1, updated_at = now()
         WHERE id = :id RETURNING sequence`,
-      { replacements: { a: startsAt, e: endsAt, room: input.room.trim(), i: input.instructorId, id: s.id }, type: QueryTypes.SELECT, transaction: sp },
+      {
+        replacements: { a: startsAt, e: endsAt, room: input.room.trim(), i: input.instructorId, id: s.id },
+        type: QueryTypes.SELECT,
+        transaction: sp,
+      },
     );
     return row!.sequence;
   });
@@ -251,10 +315,25 @@ export async function rescheduleSession(user: CurrentUser, input: z.output<typeo
   for (const a of attendees) {
     const mail = composeMail(
       "session.rescheduled",
-      { name: a.name, briefingTitle: s.title, previousStartsAt: new Date(s.startsAt), startsAt, endsAt, room: input.room.trim(), instructorName: instructor.name },
+      {
+        name: a.name,
+        briefingTitle: s.title,
+        previousStartsAt: new Date(s.startsAt),
+        startsAt,
+        endsAt,
+        room: input.room.trim(),
+        instructorName: instructor.name,
+      },
       mailSchool,
     );
-    await enqueueMail(t, { schoolId: user.schoolId, kind: "session.rescheduled", idempotencyKey: `session.rescheduled:${s.id}:${sequence}:${a.id}`, recipientId: a.id, to: a.email, ...mail });
+    await enqueueMail(t, {
+      schoolId: user.schoolId,
+      kind: "session.rescheduled",
+      idempotencyKey: `session.rescheduled:${s.id}:${sequence}:${a.id}`,
+      recipientId: a.id,
+      to: a.email,
+      ...mail,
+    });
   }
   return { id: s.id, sequence, startsAt, endsAt, told: attendees.length };
 }
@@ -265,23 +344,41 @@ export async function cancelSession(user: CurrentUser, input: z.output<typeof ca
   const s = await lockSessionForChange(user, input.sessionId, t);
   if (s.status !== "scheduled") throw new HttpError(409, "sessionId: the session is already cancelled", "sessionId");
   const [recorded] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM ground_log_entries WHERE session_id = :id`, {
-    replacements: { id: s.id }, type: QueryTypes.SELECT, transaction: t,
+    replacements: { id: s.id },
+    type: QueryTypes.SELECT,
+    transaction: t,
   });
-  if ((recorded?.n ?? 0) > 0) throw new HttpError(409, "sessionId: attendance is already recorded for this session; it cannot be cancelled", "sessionId");
+  if ((recorded?.n ?? 0) > 0)
+    throw new HttpError(409, "sessionId: attendance is already recorded for this session; it cannot be cancelled", "sessionId");
   const [row] = await sequelize.query<{ sequence: number }>(
     `UPDATE training_sessions SET status = 'cancelled', cancel_reason = :r, sequence = sequence + 1, updated_at = now() WHERE id = :id RETURNING sequence`,
     { replacements: { r: input.reason, id: s.id }, type: QueryTypes.SELECT, transaction: t },
   );
   const sequence = row!.sequence;
   // make-up items planned into this session go back to open
-  await sequelize.query(`UPDATE makeup_items SET state = 'open', scheduled_session_id = NULL WHERE scheduled_session_id = :id AND state = 'scheduled'`, {
-    replacements: { id: s.id }, transaction: t,
-  });
+  await sequelize.query(
+    `UPDATE makeup_items SET state = 'open', scheduled_session_id = NULL WHERE scheduled_session_id = :id AND state = 'scheduled'`,
+    {
+      replacements: { id: s.id },
+      transaction: t,
+    },
+  );
   const attendees = await attendeesToTell(s.id, t);
   const mailSchool = school;
   for (const a of attendees) {
-    const mail = composeMail("session.cancelled", { name: a.name, briefingTitle: s.title, startsAt: new Date(s.startsAt), room: s.room, reason: input.reason }, mailSchool);
-    await enqueueMail(t, { schoolId: user.schoolId, kind: "session.cancelled", idempotencyKey: `session.cancelled:${s.id}:${sequence}:${a.id}`, recipientId: a.id, to: a.email, ...mail });
+    const mail = composeMail(
+      "session.cancelled",
+      { name: a.name, briefingTitle: s.title, startsAt: new Date(s.startsAt), room: s.room, reason: input.reason },
+      mailSchool,
+    );
+    await enqueueMail(t, {
+      schoolId: user.schoolId,
+      kind: "session.cancelled",
+      idempotencyKey: `session.cancelled:${s.id}:${sequence}:${a.id}`,
+      recipientId: a.id,
+      to: a.email,
+      ...mail,
+    });
   }
   return { id: s.id, sequence, told: attendees.length };
 }
@@ -342,7 +439,8 @@ export async function listSessions(
   const where = [`s.school_id = :school`];
   const rep: Record<string, unknown> = { school: user.schoolId, uid: user.id };
   if (!staff) where.push(`EXISTS (SELECT 1 FROM session_attendees a WHERE a.session_id = s.id AND a.student_id = :uid)`);
-  if (filter.mine === "1") where.push(`(s.instructor_id = :uid OR EXISTS (SELECT 1 FROM session_attendees a WHERE a.session_id = s.id AND a.student_id = :uid))`);
+  if (filter.mine === "1")
+    where.push(`(s.instructor_id = :uid OR EXISTS (SELECT 1 FROM session_attendees a WHERE a.session_id = s.id AND a.student_id = :uid))`);
   if (filter.instructor) {
     where.push(`s.instructor_id = :instructor`);
     rep.instructor = filter.instructor;
@@ -374,7 +472,9 @@ export async function listSessions(
                 JOIN people ip ON ip.id = s.instructor_id LEFT JOIN cohorts c ON c.id = s.cohort_id
                WHERE ${where.join(" AND ")}`;
   const [count] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n ${from}`, { replacements: rep, type: QueryTypes.SELECT });
-  const raw = await sequelize.query<Omit<SessionRow, "date" | "startLocal" | "endLocal" | "startsAt" | "endsAt"> & { startsAt: Date; endsAt: Date }>(
+  const raw = await sequelize.query<
+    Omit<SessionRow, "date" | "startLocal" | "endLocal" | "startsAt" | "endsAt"> & { startsAt: Date; endsAt: Date }
+  >(
     `SELECT s.id, s.briefing_id AS "briefingId", br.title AS "briefingTitle", br.number AS "revisionNumber",
             s.starts_at AS "startsAt", s.ends_at AS "endsAt", (extract(epoch FROM s.ends_at - s.starts_at) / 60)::int AS "durationMinutes",
             s.room, s.instructor_id AS "instructorId", ip.name AS "instructorName", s.cohort_id AS "cohortId", c.name AS "cohortName",
@@ -388,7 +488,14 @@ export async function listSessions(
   const rows = raw.map((r) => {
     const a = new Date(r.startsAt);
     const e = new Date(r.endsAt);
-    return { ...r, startsAt: a.toISOString(), endsAt: e.toISOString(), date: dateInZone(a, tz), startLocal: formatInZone(a, tz, "HH:mm"), endLocal: formatInZone(e, tz, "HH:mm") };
+    return {
+      ...r,
+      startsAt: a.toISOString(),
+      endsAt: e.toISOString(),
+      date: dateInZone(a, tz),
+      startLocal: formatInZone(a, tz, "HH:mm"),
+      endLocal: formatInZone(e, tz, "HH:mm"),
+    };
   });
   return { rows, total: count?.n ?? 0 };
 }
@@ -405,7 +512,14 @@ export interface SessionDetail extends SessionRow {
 export async function getSession(user: CurrentUser, sessionId: string): Promise<SessionDetail | null> {
   const staff = user.roles.includes("chief") || user.roles.includes("instructor");
   const school = await getSchool(user.schoolId);
-  const [r] = await sequelize.query<Omit<SessionRow, "date" | "startLocal" | "endLocal" | "startsAt" | "endsAt"> & { startsAt: Date; endsAt: Date; objective: string; cohortLeadId: string | null }>(
+  const [r] = await sequelize.query<
+    Omit<SessionRow, "date" | "startLocal" | "endLocal" | "startsAt" | "endsAt"> & {
+      startsAt: Date;
+      endsAt: Date;
+      objective: string;
+      cohortLeadId: string | null;
+    }
+  >(
     `SELECT s.id, s.briefing_id AS "briefingId", br.title AS "briefingTitle", br.number AS "revisionNumber", br.objective,
             s.starts_at AS "startsAt", s.ends_at AS "endsAt", (extract(epoch FROM s.ends_at - s.starts_at) / 60)::int AS "durationMinutes",
             s.room, s.instructor_id AS "instructorId", ip.name AS "instructorName", s.cohort_id AS "cohortId", c.name AS "cohortName",
@@ -451,7 +565,11 @@ export async function getSession(user: CurrentUser, sessionId: string): Promise<
 /** Sessions that ended more than 24 h ago with nobody's attendance recorded, that the instructor teaches. */
 export async function sessionsAwaitingAttendance(user: CurrentUser): Promise<SessionRow[]> {
   const cutoff = new Date(now().getTime() - 24 * 3600_000);
-  const { rows } = await listSessions(user, { status: "scheduled", toInstant: cutoff, instructor: user.id }, { sort: "starts_at", dir: "desc", pageSize: 50 });
+  const { rows } = await listSessions(
+    user,
+    { status: "scheduled", toInstant: cutoff, instructor: user.id },
+    { sort: "starts_at", dir: "desc", pageSize: 50 },
+  );
   return rows.filter((r) => new Date(r.endsAt).getTime() <= cutoff.getTime() && r.recordedCount === 0 && r.attendeeCount > 0);
 }
 
@@ -466,10 +584,19 @@ export async function schedulingChoices(user: CurrentUser, db: Db = {}) {
          FROM briefings b JOIN briefing_revisions br ON br.id = b.current_revision_id WHERE b.school_id = :s ORDER BY br.title`,
       rep,
     ),
-    sequelize.query<{ id: string; name: string }>(`SELECT id, name FROM people WHERE school_id = :s AND active AND roles && ARRAY['instructor','chief']::text[] ORDER BY name`, rep),
+    sequelize.query<{ id: string; name: string }>(
+      `SELECT id, name FROM people WHERE school_id = :s AND active AND roles && ARRAY['instructor','chief']::text[] ORDER BY name`,
+      rep,
+    ),
     sequelize.query<{ id: string; name: string }>(`SELECT id, name FROM cohorts WHERE school_id = :s ORDER BY starts_on, name`, rep),
-    sequelize.query<{ id: string; name: string }>(`SELECT id, name FROM people WHERE school_id = :s AND active AND 'student' = ANY(roles) ORDER BY name`, rep),
-    sequelize.query<{ room: string }>(`SELECT DISTINCT ON (lower(btrim(room))) btrim(room) AS room FROM training_sessions WHERE school_id = :s ORDER BY lower(btrim(room))`, rep),
+    sequelize.query<{ id: string; name: string }>(
+      `SELECT id, name FROM people WHERE school_id = :s AND active AND 'student' = ANY(roles) ORDER BY name`,
+      rep,
+    ),
+    sequelize.query<{ room: string }>(
+      `SELECT DISTINCT ON (lower(btrim(room))) btrim(room) AS room FROM training_sessions WHERE school_id = :s ORDER BY lower(btrim(room))`,
+      rep,
+    ),
   ]);
   return { briefings, instructors, cohorts, students, rooms: rooms.map((r) => r.room) };
 }
@@ -492,7 +619,8 @@ export async function resetCalendarToken(user: CurrentUser, t: Transaction): Pro
 
 export async function calendarFeedCreatedAt(personId: string): Promise<Date | null> {
   const [r] = await sequelize.query<{ createdAt: Date }>(`SELECT created_at AS "createdAt" FROM calendar_feeds WHERE person_id = :p`, {
-    replacements: { p: personId }, type: QueryTypes.SELECT,
+    replacements: { p: personId },
+    type: QueryTypes.SELECT,
   });
   return r ? new Date(r.createdAt) : null;
 }
@@ -511,7 +639,19 @@ export async function calendarFeed(token: string): Promise<string | null> {
   if (!person || !person.active) return null;
   const school = await getSchool(person.schoolId);
   const since = new Date(now().getTime() - 60 * 24 * 3600_000);
-  const rows = await sequelize.query<{ id: string; title: string; objective: string; startsAt: Date; endsAt: Date; room: string; instructorName: string; status: string; sequence: number; cancelReason: string | null; updatedAt: Date }>(
+  const rows = await sequelize.query<{
+    id: string;
+    title: string;
+    objective: string;
+    startsAt: Date;
+    endsAt: Date;
+    room: string;
+    instructorName: string;
+    status: string;
+    sequence: number;
+    cancelReason: string | null;
+    updatedAt: Date;
+  }>(
     `SELECT s.id, br.title, br.objective, s.starts_at AS "startsAt", s.ends_at AS "endsAt", s.room, ip.name AS "instructorName",
             s.status, s.sequence, s.cancel_reason AS "cancelReason", s.updated_at AS "updatedAt"
        FROM training_sessions s JOIN briefing_revisions br ON br.id = s.briefing_revision_id JOIN people ip ON ip.id = s.instructor_id
@@ -529,7 +669,9 @@ export async function calendarFeed(token: string): Promise<string | null> {
       stamp: new Date(r.updatedAt),
       summary: r.status === "cancelled" ? `Cancelled: ${r.title}` : r.title,
       location: r.room,
-      description: [`Instructor: ${r.instructorName}`, r.objective, r.cancelReason ? `Cancelled: ${r.cancelReason}` : ""].filter(Boolean).join("\n\n"),
+      description: [`Instructor: ${r.instructorName}`, r.objective, r.cancelReason ? `Cancelled: ${r.cancelReason}` : ""]
+        .filter(Boolean)
+        .join("\n\n"),
       sequence: r.sequence,
       status: r.status === "cancelled" ? ICalEventStatus.CANCELLED : ICalEventStatus.CONFIRMED,
     });

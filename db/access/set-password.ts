@@ -62,17 +62,24 @@ export async function redeemSetPasswordToken(token: string, password: string): P
     );
     if (!row || !row.active) return { ok: false as const, field: "token" as const, message: "This link is not valid." };
     if (row.used_at) return { ok: false as const, field: "token" as const, message: "This link has already been used." };
-    if (row.expires_at.getTime() <= now().getTime()) return { ok: false as const, field: "token" as const, message: "This link has expired. Ask the school for a new one." };
-    await sequelize.query(`UPDATE set_password_tokens SET used_at = :at WHERE id = :id`, { replacements: { at: now(), id: row.id }, transaction: t });
+    if (row.expires_at.getTime() <= now().getTime())
+      return { ok: false as const, field: "token" as const, message: "This link has expired. Ask the school for a new one." };
+    await sequelize.query(`UPDATE set_password_tokens SET used_at = :at WHERE id = :id`, {
+      replacements: { at: now(), id: row.id },
+      transaction: t,
+    });
     // any other open link for the same person stops working too
     await sequelize.query(`UPDATE set_password_tokens SET used_at = :at WHERE person_id = :p AND used_at IS NULL`, {
       replacements: { at: now(), p: row.person_id },
       transaction: t,
     });
-    await sequelize.query(`UPDATE people SET password_hash = :hash, session_version = session_version + 1, updated_at = now() WHERE id = :p`, {
-      replacements: { hash, p: row.person_id },
-      transaction: t,
-    });
+    await sequelize.query(
+      `UPDATE people SET password_hash = :hash, session_version = session_version + 1, updated_at = now() WHERE id = :p`,
+      {
+        replacements: { hash, p: row.person_id },
+        transaction: t,
+      },
+    );
     return { ok: true as const };
   });
 }

@@ -75,7 +75,9 @@ export async function listLockedAccounts(schoolId: string) {
   );
 }
 
-export async function currentSessionVersion(personId: string): Promise<{ sessionVersion: number; active: boolean; roles: Role[]; name: string; schoolId: string } | null> {
+export async function currentSessionVersion(
+  personId: string,
+): Promise<{ sessionVersion: number; active: boolean; roles: Role[]; name: string; schoolId: string } | null> {
   const p = await Person.findByPk(personId, { attributes: ["sessionVersion", "active", "roles", "name", "schoolId"] });
   return p ? { sessionVersion: p.sessionVersion, active: p.active, roles: p.roles, name: p.name, schoolId: p.schoolId } : null;
 }

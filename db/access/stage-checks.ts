@@ -7,7 +7,17 @@ import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";
 import type { QuestionOutcome } from "@/lib/records/outcome";
 import { writeAudit } from "./audit";
-import { requireStudentFor, itemsOfRevision, openMakeupItemIds, passedStageIds, isCheckInstructor, tableExists, RecordRefusal, type StudentRef, schoolFor } from "./records";
+import {
+  requireStudentFor,
+  itemsOfRevision,
+  openMakeupItemIds,
+  passedStageIds,
+  isCheckInstructor,
+  tableExists,
+  RecordRefusal,
+  type StudentRef,
+  schoolFor,
+} from "./records";
 import { currentSignOffs } from "./sign-offs";
 
 export interface StageReadiness {
@@ -32,7 +42,14 @@ export async function stageReadiness(student: StudentRef, t?: Transaction): Prom
   const signed = new Map((await currentSignOffs(student.id, t)).map((s) => [s.itemId, s]));
   const makeups = await openMakeupItemIds(student.id, t);
   const passed = await passedStageIds(student.id, student.enrolmentId, t);
-  const attempts = await sequelize.query<{ id: string; stage_id: string; attempt: number; result: "pass" | "fail"; occurred_at: Date; examiner: string }>(
+  const attempts = await sequelize.query<{
+    id: string;
+    stage_id: string;
+    attempt: number;
+    result: "pass" | "fail";
+    occurred_at: Date;
+    examiner: string;
+  }>(
     `SELECT s.id, s.stage_id, s.attempt, s.result, s.occurred_at, p.name AS examiner FROM stage_checks s JOIN people p ON p.id = s.examiner_id
       WHERE s.student_id = :id AND s.enrolment_id = :e ORDER BY s.attempt`,
     { replacements: { id: student.id, e: student.enrolmentId }, type: QueryTypes.SELECT, transaction: t },
@@ -47,7 +64,8 @@ export async function stageReadiness(student: StudentRef, t?: Transaction): Prom
     let waitingFor: string | null = null;
     if (!isPassed) {
       if (prev && !passed.has(prev.stageId)) waitingFor = `the stage check of ${prev.stageCode}`;
-      else if (signedCount < its.length) waitingFor = `${its.length - signedCount} item${its.length - signedCount === 1 ? "" : "s"} to sign off`;
+      else if (signedCount < its.length)
+        waitingFor = `${its.length - signedCount} item${its.length - signedCount === 1 ? "" : "s"} to sign off`;
       else if (openMakeups > 0) waitingFor = `${openMakeups} open make-up item${openMakeups === 1 ? "" : "s"}`;
     }
     const ready = !isPassed && waitingFor === null;
@@ -61,7 +79,9 @@ export async function stageReadiness(student: StudentRef, t?: Transaction): Prom
       signedCount,
       openMakeups,
       passed: isPassed,
-      attempts: attempts.filter((a) => a.stage_id === s.stageId).map((a) => ({ id: a.id, attempt: a.attempt, result: a.result, occurredAt: a.occurred_at, examinerName: a.examiner })),
+      attempts: attempts
+        .filter((a) => a.stage_id === s.stageId)
+        .map((a) => ({ id: a.id, attempt: a.attempt, result: a.result, occurredAt: a.occurred_at, examinerName: a.examiner })),
       ready,
       readySince: ready && times.length ? new Date(Math.max(...times.map((d) => new Date(d).getTime()))) : null,
       waitingFor,
@@ -88,18 +108,37 @@ export interface StageCheckInput {
 export async function conductStageCheck(t: Transaction, user: CurrentUser, input: StageCheckInput) {
   const isChief = user.roles.includes("chief");
   if (!isChief && !(await isCheckInstructor(user.id, t))) {
-    throw new RecordRefusal("examiner_not_allowed", "examiner: only the chief instructor or a designated check instructor may conduct stage checks", "examiner");
+    throw new RecordRefusal(
+      "examiner_not_allowed",
+      "examiner: only the chief instructor or a designated check instructor may conduct stage checks",
+      "examiner",
+    );
   }
   const { student } = await requireStudentFor(user, input.studentId, "examiner", t);
   const override = input.overrideReason?.trim() || null;
   if (student.leadInstructorId === user.id) {
-    if (!isChief) throw new RecordRefusal("examiner_is_lead", "examiner: you are this student's lead instructor; another examiner must conduct the stage check", "examiner");
-    if (!override) throw new RecordRefusal("examiner_is_lead", "overrideReason: you are this student's lead instructor; give a reason to examine anyway", "overrideReason");
+    if (!isChief)
+      throw new RecordRefusal(
+        "examiner_is_lead",
+        "examiner: you are this student's lead instructor; another examiner must conduct the stage check",
+        "examiner",
+      );
+    if (!override)
+      throw new RecordRefusal(
+        "examiner_is_lead",
+        "overrideReason: you are this student's lead instructor; give a reason to examine anyway",
+        "overrideReason",
+      );
   }
   const stages = await stageReadiness(student, t);
   const stage = stages.find((s) => s.stageId === input.stageId);
   if (!stage) throw new HttpError(400, "stageId: not a stage of the student's syllabus revision", "stageId");
-  if (!stage.ready) throw new RecordRefusal("not_ready", `stageId: ${stage.code} is not ready for its stage check${stage.passed ? " (already passed)" : `: waiting for ${stage.waitingFor}`}`, "stageId");
+  if (!stage.ready)
+    throw new RecordRefusal(
+      "not_ready",
+      `stageId: ${stage.code} is not ready for its stage check${stage.passed ? " (already passed)" : `: waiting for ${stage.waitingFor}`}`,
+      "stageId",
+    );
   const items = (await itemsOfRevision(student.revisionId, t)).filter((i) => i.stageId === stage.stageId);
   for (const o of input.oralOutcomes) {
     if (!items.some((i) => i.id === o.itemId)) throw new HttpError(400, "oralOutcomes: an item is not in this stage", "oralOutcomes");
@@ -108,13 +147,31 @@ export async function conductStageCheck(t: Transaction, user: CurrentUser, input
   const passMark = school.settings.stageCheckPassMarkPercent;
   const written = input.writtenScorePercent ?? null;
   if (input.result === "pass") {
-    if (written !== null && written < passMark) throw new RecordRefusal("written_below_pass_mark", `writtenScorePercent: ${written} % is below the pass mark of ${passMark} %`, "writtenScorePercent");
-    if (input.oralOutcomes.some((o) => o.outcome === "not_yet")) throw new HttpError(422, "result: an oral outcome is Not yet; the result cannot be a pass", "result");
+    if (written !== null && written < passMark)
+      throw new RecordRefusal(
+        "written_below_pass_mark",
+        `writtenScorePercent: ${written} % is below the pass mark of ${passMark} %`,
+        "writtenScorePercent",
+      );
+    if (input.oralOutcomes.some((o) => o.outcome === "not_yet"))
+      throw new HttpError(422, "result: an oral outcome is Not yet; the result cannot be a pass", "result");
   }
   const at = now();
   const attempt = stage.attempts.length + 1;
-  const fields = { studentId: student.id, stageId: stage.stageId, attempt, examinerId: user.id, result: input.result, written, passMark, occurredAt: input.occurredAt.toISOString(), recordedAt: at.toISOString() };
-  const signatureHash = createHash("sha256").update(JSON.stringify(Object.entries(fields).sort())).digest("hex");
+  const fields = {
+    studentId: student.id,
+    stageId: stage.stageId,
+    attempt,
+    examinerId: user.id,
+    result: input.result,
+    written,
+    passMark,
+    occurredAt: input.occurredAt.toISOString(),
+    recordedAt: at.toISOString(),
+  };
+  const signatureHash = createHash("sha256")
+    .update(JSON.stringify(Object.entries(fields).sort()))
+    .digest("hex");
   const [row] = await sequelize.query<{ id: string }>(
     `INSERT INTO stage_checks (school_id, student_id, enrolment_id, stage_id, attempt, examiner_id, lead_instructor_id, override_reason, result,
                                oral_outcomes, written_score_percent, pass_mark_percent, remarks, occurred_at, recorded_at, signature_hash)
@@ -152,7 +209,16 @@ export async function conductStageCheck(t: Transaction, user: CurrentUser, input
       await sequelize.query(
         `INSERT INTO makeup_items (school_id, student_id, syllabus_item_id, source_kind, source_id, state, note)
          VALUES (:schoolId, :studentId, :itemId, 'stage_check', :source, 'open', :note) ON CONFLICT DO NOTHING`,
-        { replacements: { schoolId: user.schoolId, studentId: student.id, itemId, source: row.id, note: `Remedial work after the ${stage.code} stage check` }, transaction: t },
+        {
+          replacements: {
+            schoolId: user.schoolId,
+            studentId: student.id,
+            itemId,
+            source: row.id,
+            note: `Remedial work after the ${stage.code} stage check`,
+          },
+          transaction: t,
+        },
       );
       makeups++;
     }
@@ -163,7 +229,14 @@ export async function conductStageCheck(t: Transaction, user: CurrentUser, input
     action: input.result === "pass" ? "stagecheck.passed" : "stagecheck.failed",
     recordType: "stage_check",
     recordId: row.id,
-    after: { ...fields, stageCode: stage.code, oralOutcomes: input.oralOutcomes, overrideReason: student.leadInstructorId === user.id ? override : null, makeupItemsOpened: makeups, signatureHash },
+    after: {
+      ...fields,
+      stageCode: stage.code,
+      oralOutcomes: input.oralOutcomes,
+      overrideReason: student.leadInstructorId === user.id ? override : null,
+      makeupItemsOpened: makeups,
+      signatureHash,
+    },
     occurredAt: at,
   });
   return { id: row.id, result: input.result, attempt, makeupItemsOpened: makeups };
@@ -177,7 +250,18 @@ export async function designateCheckInstructor(t: Transaction, user: CurrentUser
     { replacements: { id: input.personId, schoolId: user.schoolId }, type: QueryTypes.SELECT, transaction: t },
   );
   if (!p) throw new HttpError(404, "personId: no such instructor", "personId");
-  await sequelize.query(`UPDATE instructor_qualifications SET check_instructor = :v WHERE person_id = :id`, { replacements: { v: input.checkInstructor, id: p.id }, transaction: t });
-  await writeAudit(t, { schoolId: user.schoolId, actor: user, action: "checkinstructor.designated", recordType: "person", recordId: p.id, before: { checkInstructor: p.before }, after: { checkInstructor: input.checkInstructor } });
+  await sequelize.query(`UPDATE instructor_qualifications SET check_instructor = :v WHERE person_id = :id`, {
+    replacements: { v: input.checkInstructor, id: p.id },
+    transaction: t,
+  });
+  await writeAudit(t, {
+    schoolId: user.schoolId,
+    actor: user,
+    action: "checkinstructor.designated",
+    recordType: "person",
+    recordId: p.id,
+    before: { checkInstructor: p.before },
+    after: { checkInstructor: input.checkInstructor },
+  });
   return { personId: p.id, checkInstructor: input.checkInstructor };
 }

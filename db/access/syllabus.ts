@@ -29,12 +29,21 @@ export async function createSyllabusRevision(
 ) {
   const last = (await SyllabusRevision.max("number", { where: { courseId: input.courseId }, transaction: t })) as number | null;
   const rev = await SyllabusRevision.create(
-    { courseId: input.courseId, number: (last ?? 0) + 1, approvedOn: input.approvedOn, effectiveFrom: input.effectiveFrom, changeNote: input.changeNote },
+    {
+      courseId: input.courseId,
+      number: (last ?? 0) + 1,
+      approvedOn: input.approvedOn,
+      effectiveFrom: input.effectiveFrom,
+      changeNote: input.changeNote,
+    },
     { transaction: t },
   );
   let stagePos = 0;
   for (const s of input.stages) {
-    const stage = await SyllabusStage.create({ revisionId: rev.id, position: ++stagePos, code: s.code, title: s.title }, { transaction: t });
+    const stage = await SyllabusStage.create(
+      { revisionId: rev.id, position: ++stagePos, code: s.code, title: s.title },
+      { transaction: t },
+    );
     let itemPos = 0;
     for (const i of s.items) {
       await SyllabusItem.create({ revisionId: rev.id, stageId: stage.id, position: ++itemPos, ...i }, { transaction: t });
@@ -73,13 +82,27 @@ export async function getSyllabusRevision(schoolId: string, revisionId: string):
       title: s.title,
       items: items
         .filter((i) => i.stageId === s.id)
-        .map((i) => ({ id: i.id, code: i.code, title: i.title, objective: i.objective, completionStandard: i.completionStandard, requiredLevel: i.requiredLevel })),
+        .map((i) => ({
+          id: i.id,
+          code: i.code,
+          title: i.title,
+          objective: i.objective,
+          completionStandard: i.completionStandard,
+          requiredLevel: i.requiredLevel,
+        })),
     })),
   };
 }
 
 export async function listCoursesWithLatestRevision(schoolId: string) {
-  return sequelize.query<{ id: string; code: string; title: string; minGroundMinutes: number; revisionId: string | null; revisionNumber: number | null }>(
+  return sequelize.query<{
+    id: string;
+    code: string;
+    title: string;
+    minGroundMinutes: number;
+    revisionId: string | null;
+    revisionNumber: number | null;
+  }>(
     `SELECT c.id, c.code, c.title, c.min_ground_minutes AS "minGroundMinutes",
             r.id AS "revisionId", r.number AS "revisionNumber"
        FROM courses c
@@ -170,7 +193,10 @@ export async function moveEnrolmentToRevision(schoolId: string, enrolmentId: str
   const target = await SyllabusRevision.findOne({ where: { id: revisionId, courseId: e.courseId }, transaction: t });
   if (!target) throw new HttpError(400, "revisionId: not a revision of the enrolment's course", "revisionId");
   if (e.revisionId === revisionId) return { moved: false, revisionNumber: target.number };
-  await sequelize.query(`UPDATE enrolments SET revision_id = :revisionId WHERE id = :enrolmentId`, { replacements: { revisionId, enrolmentId }, transaction: t });
+  await sequelize.query(`UPDATE enrolments SET revision_id = :revisionId WHERE id = :enrolmentId`, {
+    replacements: { revisionId, enrolmentId },
+    transaction: t,
+  });
   return { moved: true, revisionNumber: target.number };
 }
 

@@ -22,7 +22,11 @@ export async function todayFocusList(user: CurrentUser): Promise<{ title: string
     const cohorts = await listCohorts(user.schoolId);
     return {
       title: "Cohorts in training",
-      rows: cohorts.map((c) => ({ id: c.id, primary: c.name, secondary: `${c.courseCode} · lead ${c.leadInstructorName} · ${c.memberCount} students` })),
+      rows: cohorts.map((c) => ({
+        id: c.id,
+        primary: c.name,
+        secondary: `${c.courseCode} · lead ${c.leadInstructorName} · ${c.memberCount} students`,
+      })),
     };
   }
   if (user.roles.includes("instructor")) {
@@ -47,7 +51,11 @@ export async function todayFocusList(user: CurrentUser): Promise<{ title: string
     const students = await listSponsoredStudents(user.id);
     return {
       title: "Students you sponsor",
-      rows: students.map((s) => ({ id: s.studentId, primary: s.name, secondary: s.weeklyLetter ? "Weekly letter on" : "Weekly letter off" })),
+      rows: students.map((s) => ({
+        id: s.studentId,
+        primary: s.name,
+        secondary: s.weeklyLetter ? "Weekly letter on" : "Weekly letter off",
+      })),
     };
   }
   return { title: "Nothing to show", rows: [] };

@@ -13,7 +13,14 @@ export async function up({ context }: { context: MigrationContext }) {
   await context.sequelize.query(`SELECT pgboss.create_queue(:name, :options::json)`, {
     replacements: {
       name: MAIL_QUEUE,
-      options: JSON.stringify({ policy: "standard", retryLimit: 8, retryDelay: 30, retryBackoff: true, expireInSeconds: 120, retentionMinutes: 60 * 24 * 14 }),
+      options: JSON.stringify({
+        policy: "standard",
+        retryLimit: 8,
+        retryDelay: 30,
+        retryBackoff: true,
+        expireInSeconds: 120,
+        retentionMinutes: 60 * 24 * 14,
+      }),
     },
   });
   await context.sequelize.query(`

@@ -120,7 +120,10 @@ Handout.init(
   { sequelize, tableName: "handouts" },
 );
 
-export class BriefingRevisionHandout extends Model<InferAttributes<BriefingRevisionHandout>, InferCreationAttributes<BriefingRevisionHandout>> {
+export class BriefingRevisionHandout extends Model<
+  InferAttributes<BriefingRevisionHandout>,
+  InferCreationAttributes<BriefingRevisionHandout>
+> {
   declare briefingRevisionId: string;
   declare handoutId: string;
   declare position: number;

@@ -30,13 +30,16 @@ export async function dragCurveHandoutPdf(): Promise<Buffer> {
   ];
   lines.forEach((l, i) => page.drawText(l, { x: 50, y: 735 - i * 16, size: 10, font, maxWidth: 495 }));
   // The curves, in arbitrary units: D0 = k1 v^2, Di = k2 / v^2, equal at v = 1.
-  const ox = 80, oy = 330, w = 440, h = 260;
+  const ox = 80,
+    oy = 330,
+    w = 440,
+    h = 260;
   page.drawLine({ start: { x: ox, y: oy }, end: { x: ox + w, y: oy }, thickness: 1 });
   page.drawLine({ start: { x: ox, y: oy }, end: { x: ox, y: oy + h }, thickness: 1 });
   page.drawText("speed", { x: ox + w - 30, y: oy - 16, size: 9, font });
   page.drawText("drag", { x: ox - 30, y: oy + h - 10, size: 9, font });
   const X = (v: number) => ox + ((v - 0.4) / (2.2 - 0.4)) * w;
-  const Y = (d: number) => oy + Math.min(d, 4) / 4 * h;
+  const Y = (d: number) => oy + (Math.min(d, 4) / 4) * h;
   const curve = (f: (v: number) => number, color: ReturnType<typeof rgb>, dash?: number[]) => {
     let prev: { x: number; y: number } | null = null;
     for (let v = 0.5; v <= 2.2001; v += 0.05) {
@@ -53,11 +56,22 @@ export async function dragCurveHandoutPdf(): Promise<Buffer> {
   page.drawText("total drag (solid)", { x: X(1.75), y: Y(3.6), size: 9, font });
   page.drawText("zero-lift drag (dashed)", { x: X(1.55), y: Y(2.2), size: 9, font });
   page.drawText("lift-dependent drag (dotted)", { x: X(0.62), y: Y(3.3), size: 9, font });
-  page.drawText("Sketch for teaching only; real curves come from the aircraft's drag polar.", { x: 50, y: 290, size: 9, font, color: rgb(0.4, 0.4, 0.45) });
+  page.drawText("Sketch for teaching only; real curves come from the aircraft's drag polar.", {
+    x: 50,
+    y: 290,
+    size: 9,
+    font,
+    color: rgb(0.4, 0.4, 0.45),
+  });
   return Buffer.from(await doc.save());
 }
 
-const el = (title: string, instructorActions: string, studentActions: string, minutes: number) => ({ title, instructorActions, studentActions, minutes });
+const el = (title: string, instructorActions: string, studentActions: string, minutes: number) => ({
+  title,
+  instructorActions,
+  studentActions,
+  minutes,
+});
 
 export async function seedBriefings(ctx: SeedContext): Promise<void> {
   const { t, schoolId } = ctx;
@@ -93,16 +107,38 @@ export async function seedBriefings(ctx: SeedContext): Promise<void> {
     null,
     base({
       title: "Where drag comes from",
-      objective: "Name the parts of drag, and explain why zero-lift drag rises and lift-dependent drag falls as speed rises in level flight.",
+      objective:
+        "Name the parts of drag, and explain why zero-lift drag rises and lift-dependent drag falls as speed rises in level flight.",
       syllabusItemIds: [item("AER-01"), item("AER-02")],
       elements: [
-        el("Feel the air", "Ask who has held a hand out of a car window; compare walking and motorway speed.", "Describe the force and guess how it grows with speed.", 5),
-        el("Skin friction, form and interference", "Sketch a wing root and a strut; mark where each kind of zero-lift drag arises.", "Give one example of each on the school's trainer.", 15),
-        el("Twice the speed, four times the drag", "Write D = ½ρV²·S·CD0 and double V on the board.", "Work out the drag at 60, 90 and 120 kt from the 60 kt value.", 10),
-        el("Lift costs drag", "Show downwash and the tilted lift vector; relate CL to speed in level flight.", "Explain why lift-dependent drag is largest when slow.", 15),
+        el(
+          "Feel the air",
+          "Ask who has held a hand out of a car window; compare walking and motorway speed.",
+          "Describe the force and guess how it grows with speed.",
+          5,
+        ),
+        el(
+          "Skin friction, form and interference",
+          "Sketch a wing root and a strut; mark where each kind of zero-lift drag arises.",
+          "Give one example of each on the school's trainer.",
+          15,
+        ),
+        el(
+          "Twice the speed, four times the drag",
+          "Write D = ½ρV²·S·CD0 and double V on the board.",
+          "Work out the drag at 60, 90 and 120 kt from the 60 kt value.",
+          10,
+        ),
+        el(
+          "Lift costs drag",
+          "Show downwash and the tilted lift vector; relate CL to speed in level flight.",
+          "Explain why lift-dependent drag is largest when slow.",
+          15,
+        ),
         el("Check of understanding", "Ask each student one question on the board sketch.", "Answer in their own words.", 5),
       ],
-      completionStandard: "Names the three parts of zero-lift drag with an example each, and states how each drag part changes when the speed doubles in level flight.",
+      completionStandard:
+        "Names the three parts of zero-lift drag with an example each, and states how each drag part changes when the speed doubles in level flight.",
     }),
     t,
   );
@@ -115,13 +151,29 @@ export async function seedBriefings(ctx: SeedContext): Promise<void> {
       objective: "Build the total-drag curve from its two parts and locate Vmd, the speed of best lift-to-drag ratio.",
       syllabusItemIds: [item("AER-03")],
       elements: [
-        el("Two curves on one graph", "Plot zero-lift and lift-dependent drag against speed.", "Predict where the sum is smallest before it is drawn.", 10),
+        el(
+          "Two curves on one graph",
+          "Plot zero-lift and lift-dependent drag against speed.",
+          "Predict where the sum is smallest before it is drawn.",
+          10,
+        ),
         el("Add them up", "Draw the total-drag curve point by point.", "Mark the bottom of the bucket and read off Vmd.", 10),
-        el("Vmd in Curve Lab", "Open the demo; change the mass and show Vmd move.", "Make a call for Vmd, then compare with the reveal.", 15),
-        el("Why it matters", "Link Vmd to best glide and to flying on the back of the drag curve.", "Say which side of Vmd the approach is flown on.", 5),
+        el(
+          "Vmd in Curve Lab",
+          "Open the demo; change the mass and show Vmd move.",
+          "Make a call for Vmd, then compare with the reveal.",
+          15,
+        ),
+        el(
+          "Why it matters",
+          "Link Vmd to best glide and to flying on the back of the drag curve.",
+          "Say which side of Vmd the approach is flown on.",
+          5,
+        ),
       ],
       demoRevisionIds: demo("Why drag has a bucket"),
-      completionStandard: "Marks Vmd on an unlabelled drag curve, states that the two drag parts are equal there, and says which way a lower mass moves it.",
+      completionStandard:
+        "Marks Vmd on an unlabelled drag curve, states that the two drag parts are equal there, and says which way a lower mass moves it.",
     }),
     t,
   );
@@ -136,12 +188,28 @@ export async function seedBriefings(ctx: SeedContext): Promise<void> {
       objective: "Explain why speeds below Vmd are speed-unstable at constant thrust, and what that means on the approach.",
       syllabusItemIds: [item("AER-04"), item("AER-05")],
       elements: [
-        el("A gust on each side", "On the drag curve, disturb the speed above and below Vmd.", "Say whether drag rises or falls and where the speed goes next.", 15),
-        el("Power required", "Multiply drag by speed to get the power curve; mark Vmp below Vmd.", "Explain why Vmp gives the longest endurance.", 15),
-        el("On the approach", "Discuss holding a speed below Vmd with power, not only the elevator.", "Describe what to do when the speed decays on final.", 10),
+        el(
+          "A gust on each side",
+          "On the drag curve, disturb the speed above and below Vmd.",
+          "Say whether drag rises or falls and where the speed goes next.",
+          15,
+        ),
+        el(
+          "Power required",
+          "Multiply drag by speed to get the power curve; mark Vmp below Vmd.",
+          "Explain why Vmp gives the longest endurance.",
+          15,
+        ),
+        el(
+          "On the approach",
+          "Discuss holding a speed below Vmd with power, not only the elevator.",
+          "Describe what to do when the speed decays on final.",
+          10,
+        ),
       ],
       demoRevisionIds: demo("Heavy vs light: where Vmd moves"),
-      completionStandard: "Predicts the response to a speed disturbance on either side of Vmd and links it to power handling on the approach.",
+      completionStandard:
+        "Predicts the response to a speed disturbance on either side of Vmd and links it to power handling on the approach.",
     }),
     t,
   );
@@ -149,9 +217,30 @@ export async function seedBriefings(ctx: SeedContext): Promise<void> {
   // Kestrel: the Vmd briefing due in three days (mailed, through the normal path) and the
   // drag-sources briefing that was due two days ago, done by some.
   const chief = { id: ctx.people.chief, schoolId, roles: ["chief"] };
-  await createAssignments(chief, { kind: "briefing", briefingId: vmd.briefingId, cohortId: ctx.cohorts.a, dueOn: ctx.day(3), note: "Read it before Thursday's session." }, t);
+  await createAssignments(
+    chief,
+    {
+      kind: "briefing",
+      briefingId: vmd.briefingId,
+      cohortId: ctx.cohorts.a,
+      dueOn: ctx.day(3),
+      note: "Read it before Thursday's session.",
+    },
+    t,
+  );
   const past = await Assignment.create(
-    { schoolId, kind: "briefing", briefingId: sources.briefingId, demoId: null, cohortId: ctx.cohorts.a, studentId: null, dueOn: ctx.day(-2), note: "", assignedBy: ctx.people.instructor, createdAt: new Date(`${ctx.day(-9)}T09:00:00Z`) },
+    {
+      schoolId,
+      kind: "briefing",
+      briefingId: sources.briefingId,
+      demoId: null,
+      cohortId: ctx.cohorts.a,
+      studentId: null,
+      dueOn: ctx.day(-2),
+      note: "",
+      assignedBy: ctx.people.instructor,
+      createdAt: new Date(`${ctx.day(-9)}T09:00:00Z`),
+    },
     { transaction: t },
   );
   const kestrel = await sequelize.query<{ id: string }>(
@@ -160,6 +249,9 @@ export async function seedBriefings(ctx: SeedContext): Promise<void> {
   );
   for (const [i, s] of kestrel.entries()) {
     if (i % 3 === 2) continue; // a third have not done it: overdue
-    await AssignmentCompletion.create({ assignmentId: past.id, studentId: s.id, completedAt: new Date(`${ctx.day(-3)}T18:30:00Z`) }, { transaction: t });
+    await AssignmentCompletion.create(
+      { assignmentId: past.id, studentId: s.id, completedAt: new Date(`${ctx.day(-3)}T18:30:00Z`) },
+      { transaction: t },
+    );
   }
 }

@@ -68,7 +68,8 @@ export async function seedCurveLab(ctx: SeedContext): Promise<void> {
     range: { minSpeedMs: ktToMs(40), maxSpeedMs: ktToMs(150) },
     chosenSpeedMs: ktToMs(60),
     callKind: "vmd",
-    notes: "Zero-lift drag grows with the square of speed, lift-dependent drag falls with it; the total has a bucket whose bottom is Vmd, where the two are equal.",
+    notes:
+      "Zero-lift drag grows with the square of speed, lift-dependent drag falls with it; the total has a bucket whose bottom is Vmd, where the two are equal.",
   };
   const heavyLight: DemoSpec = {
     ...defaultSpec(tern),
@@ -82,7 +83,8 @@ export async function seedCurveLab(ctx: SeedContext): Promise<void> {
     range: { minSpeedMs: ktToMs(45), maxSpeedMs: ktToMs(170) },
     chosenSpeedMs: ktToMs(62),
     callKind: "gust",
-    notes: "Vmd grows with the square root of weight: 10% lighter is about 5% slower. On the EAS axis altitude does not move Vmd; switch to TAS to see it move right.",
+    notes:
+      "Vmd grows with the square root of weight: 10% lighter is about 5% slower. On the EAS axis altitude does not move Vmd; switch to TAS to see it move right.",
   };
   const first = await createDemo(instructor, "Why drag has a bucket", bucket, t);
   await createDemo(instructor, "Heavy vs light: where Vmd moves", heavyLight, t);
@@ -91,7 +93,17 @@ export async function seedCurveLab(ctx: SeedContext): Promise<void> {
   const existing = await Assignment.count({ where: { demoId: first.demoId }, transaction: t });
   if (existing === 0) {
     await Assignment.create(
-      { schoolId, kind: "demo", briefingId: null, demoId: first.demoId, cohortId: ctx.cohorts.a, studentId: null, dueOn: ctx.day(7), note: "Make your call before the reveal.", assignedBy: ctx.people.instructor },
+      {
+        schoolId,
+        kind: "demo",
+        briefingId: null,
+        demoId: first.demoId,
+        cohortId: ctx.cohorts.a,
+        studentId: null,
+        dueOn: ctx.day(7),
+        note: "Make your call before the reveal.",
+        assignedBy: ctx.people.instructor,
+      },
       { transaction: t },
     );
   }

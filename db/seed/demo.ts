@@ -21,10 +21,26 @@ export async function seedDemo(): Promise<void> {
     return;
   }
   await sequelize.transaction(async (t) => {
-    const school = await createSchool({ name: DEMO_SCHOOL.name, timeZone: DEMO_SCHOOL.timeZone, settings: { authority: DEMO_SCHOOL.authority, mailSenderName: DEMO_SCHOOL.name } }, t);
-    const course = await createCourse({ schoolId: school.id, code: "PPL-GS", title: "Private pilot ground school", minGroundMinutes: 35 * 60 }, t);
+    const school = await createSchool(
+      {
+        name: DEMO_SCHOOL.name,
+        timeZone: DEMO_SCHOOL.timeZone,
+        settings: { authority: DEMO_SCHOOL.authority, mailSenderName: DEMO_SCHOOL.name },
+      },
+      t,
+    );
+    const course = await createCourse(
+      { schoolId: school.id, code: "PPL-GS", title: "Private pilot ground school", minGroundMinutes: 35 * 60 },
+      t,
+    );
     const rev = await createSyllabusRevision(
-      { courseId: course.id, approvedOn: day(-200), effectiveFrom: day(-180), changeNote: "First issue of the ground syllabus.", stages: DEMO_STAGES },
+      {
+        courseId: course.id,
+        approvedOn: day(-200),
+        effectiveFrom: day(-180),
+        changeNote: "First issue of the ground syllabus.",
+        stages: DEMO_STAGES,
+      },
       t,
     );
     const mk = (name: string, email: string, roles: ("chief" | "instructor" | "student" | "sponsor")[]) =>
@@ -43,13 +59,29 @@ export async function seedDemo(): Promise<void> {
     ];
     for (const [personId, number, checkInstructor, recency] of quals) {
       await addQualification(
-        { personId, certificateKind: "Ground instructor", certificateNumber: number, ratings: ["Principles of flight", "Meteorology", "Navigation"], checkInstructor, issuedOn: day(-1500), recencyOn: day(recency), recencyMonths: 24, courseIds: [course.id] },
+        {
+          personId,
+          certificateKind: "Ground instructor",
+          certificateNumber: number,
+          ratings: ["Principles of flight", "Meteorology", "Navigation"],
+          checkInstructor,
+          issuedOn: day(-1500),
+          recencyOn: day(recency),
+          recencyMonths: 24,
+          courseIds: [course.id],
+        },
         t,
       );
     }
 
-    const cohortA = await createCohort({ schoolId: school.id, courseId: course.id, name: "Kestrel cohort", leadInstructorId: tomasz.id, startsOn: day(-56) }, t);
-    const cohortB = await createCohort({ schoolId: school.id, courseId: course.id, name: "Merlin cohort", leadInstructorId: priya.id, startsOn: day(-21) }, t);
+    const cohortA = await createCohort(
+      { schoolId: school.id, courseId: course.id, name: "Kestrel cohort", leadInstructorId: tomasz.id, startsOn: day(-56) },
+      t,
+    );
+    const cohortB = await createCohort(
+      { schoolId: school.id, courseId: course.id, name: "Merlin cohort", leadInstructorId: priya.id, startsOn: day(-21) },
+      t,
+    );
 
     const students: Record<string, string> = {};
     for (const [list, cohort, start] of [
@@ -67,13 +99,28 @@ export async function seedDemo(): Promise<void> {
     const sponsor = await mk("Marian Quill", "sponsor@chalkwing.test", ["sponsor"]);
     await linkSponsor({ sponsorId: sponsor.id, studentId: students["student@chalkwing.test"]!, relationship: "parent" }, t);
     const sponsor2 = await mk("Hollis Brandt", "hollis.brandt@chalkwing.test", ["sponsor"]);
-    await linkSponsor({ sponsorId: sponsor2.id, studentId: students["noor.brandt@chalkwing.test"]!, relationship: "parent", shares: { progress: false } }, t);
+    await linkSponsor(
+      { sponsorId: sponsor2.id, studentId: students["noor.brandt@chalkwing.test"]!, relationship: "parent", shares: { progress: false } },
+      t,
+    );
     const airline = await mk("Fenwick Air Cadet Fund", "bursary@fenwick-fund.test", ["sponsor"]);
     await linkSponsor({ sponsorId: airline.id, studentId: students["kofi.mensah@chalkwing.test"]!, relationship: "bursary" }, t);
-    await linkSponsor({ sponsorId: airline.id, studentId: students["elin.haugen@chalkwing.test"]!, relationship: "bursary", weeklyLetter: false }, t);
+    await linkSponsor(
+      { sponsorId: airline.id, studentId: students["elin.haugen@chalkwing.test"]!, relationship: "bursary", weeklyLetter: false },
+      t,
+    );
     await linkSponsor({ sponsorId: rafael.id, studentId: students["lotte.lindqvist@chalkwing.test"]!, relationship: "parent" }, t);
 
-    await runSeedExtensions({ t, schoolId: school.id, courseId: course.id, revisionId: rev.id, people: { chief: chief.id, instructor: tomasz.id, priya: priya.id, rafael: rafael.id, sponsor: sponsor.id }, students, cohorts: { a: cohortA.id, b: cohortB.id }, day });
+    await runSeedExtensions({
+      t,
+      schoolId: school.id,
+      courseId: course.id,
+      revisionId: rev.id,
+      people: { chief: chief.id, instructor: tomasz.id, priya: priya.id, rafael: rafael.id, sponsor: sponsor.id },
+      students,
+      cohorts: { a: cohortA.id, b: cohortB.id },
+      day,
+    });
   });
   console.log("[seed] demo scenario loaded");
 }

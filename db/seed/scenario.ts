@@ -64,14 +64,16 @@ export const DEMO_STAGES: SyllabusStageInput[] = [
         code: "AER-03",
         title: "Total drag and the minimum-drag speed",
         objective: "Build the total-drag curve from its two parts and locate Vmd, the speed of best L/D.",
-        completionStandard: "Locates Vmd where the two drags are equal, states the effect of mass and configuration on it, and computes it for a given aircraft.",
+        completionStandard:
+          "Locates Vmd where the two drags are equal, states the effect of mass and configuration on it, and computes it for a given aircraft.",
         requiredLevel: "application",
       },
       {
         code: "AER-04",
         title: "Speed stability",
         objective: "Explain why a speed below Vmd is speed-unstable at constant thrust and what a gust does on each side of Vmd.",
-        completionStandard: "Predicts the aircraft's response to a speed disturbance on either side of Vmd and links it to approach flying.",
+        completionStandard:
+          "Predicts the aircraft's response to a speed disturbance on either side of Vmd and links it to approach flying.",
         requiredLevel: "correlation",
       },
       {
@@ -87,18 +89,54 @@ export const DEMO_STAGES: SyllabusStageInput[] = [
     code: "ATM",
     title: "The atmosphere and airspeeds",
     items: [
-      { code: "ATM-01", title: "The standard atmosphere", objective: "Describe the ISA and its lapse rate to the tropopause.", completionStandard: "Quotes sea-level ISA values and the lapse rate, and finds ISA temperature at a given altitude.", requiredLevel: "rote" },
-      { code: "ATM-02", title: "Pressure and density altitude", objective: "Find density altitude from pressure altitude and temperature.", completionStandard: "Computes density altitude within 200 ft and explains its effect on performance.", requiredLevel: "application" },
-      { code: "ATM-03", title: "IAS, EAS and TAS", objective: "Relate indicated, equivalent and true airspeed through air density.", completionStandard: "Converts EAS to TAS at altitude and explains why drag depends on EAS.", requiredLevel: "application" },
+      {
+        code: "ATM-01",
+        title: "The standard atmosphere",
+        objective: "Describe the ISA and its lapse rate to the tropopause.",
+        completionStandard: "Quotes sea-level ISA values and the lapse rate, and finds ISA temperature at a given altitude.",
+        requiredLevel: "rote",
+      },
+      {
+        code: "ATM-02",
+        title: "Pressure and density altitude",
+        objective: "Find density altitude from pressure altitude and temperature.",
+        completionStandard: "Computes density altitude within 200 ft and explains its effect on performance.",
+        requiredLevel: "application",
+      },
+      {
+        code: "ATM-03",
+        title: "IAS, EAS and TAS",
+        objective: "Relate indicated, equivalent and true airspeed through air density.",
+        completionStandard: "Converts EAS to TAS at altitude and explains why drag depends on EAS.",
+        requiredLevel: "application",
+      },
     ],
   },
   {
     code: "PRF",
     title: "Performance and gliding",
     items: [
-      { code: "PRF-01", title: "Stall speed and load factor", objective: "Relate stall speed to mass, CLmax and load factor.", completionStandard: "Computes the stall speed in a level turn at a given bank angle.", requiredLevel: "application" },
-      { code: "PRF-02", title: "Best glide", objective: "Relate best glide speed and glide ratio to (L/D)max.", completionStandard: "Estimates still-air glide distance from a height and states the effect of mass.", requiredLevel: "application" },
-      { code: "PRF-03", title: "Configuration effects", objective: "Explain how gear and flap change drag, Vmd and stall speed.", completionStandard: "Predicts the shift of the drag curve when gear or flap is lowered.", requiredLevel: "correlation" },
+      {
+        code: "PRF-01",
+        title: "Stall speed and load factor",
+        objective: "Relate stall speed to mass, CLmax and load factor.",
+        completionStandard: "Computes the stall speed in a level turn at a given bank angle.",
+        requiredLevel: "application",
+      },
+      {
+        code: "PRF-02",
+        title: "Best glide",
+        objective: "Relate best glide speed and glide ratio to (L/D)max.",
+        completionStandard: "Estimates still-air glide distance from a height and states the effect of mass.",
+        requiredLevel: "application",
+      },
+      {
+        code: "PRF-03",
+        title: "Configuration effects",
+        objective: "Explain how gear and flap change drag, Vmd and stall speed.",
+        completionStandard: "Predicts the shift of the drag curve when gear or flap is lowered.",
+        requiredLevel: "correlation",
+      },
     ],
   },
 ];

@@ -38,9 +38,17 @@ async function briefingsFor(ctx: SeedContext): Promise<SeedBriefing[]> {
        VALUES (:b, 1, :title, :obj, :el::jsonb, :std, :rev, :o) RETURNING id`,
       {
         replacements: {
-          b: b!.id, title, obj: `Students can explain ${title.toLowerCase()} in their own words.`,
-          el: JSON.stringify([{ title: "Set the scene", instructorActions: "Board sketch", studentActions: "Predict", minutes: 20 }, { title: "Work it through", instructorActions: "Guide", studentActions: "Calculate", minutes: 55 }, { title: "Check", instructorActions: "Question", studentActions: "Answer", minutes: 15 }]),
-          std: "Answers the check questions without prompting.", rev: ctx.revisionId, o: ctx.people.instructor,
+          b: b!.id,
+          title,
+          obj: `Students can explain ${title.toLowerCase()} in their own words.`,
+          el: JSON.stringify([
+            { title: "Set the scene", instructorActions: "Board sketch", studentActions: "Predict", minutes: 20 },
+            { title: "Work it through", instructorActions: "Guide", studentActions: "Calculate", minutes: 55 },
+            { title: "Check", instructorActions: "Question", studentActions: "Answer", minutes: 15 },
+          ]),
+          std: "Answers the check questions without prompting.",
+          rev: ctx.revisionId,
+          o: ctx.people.instructor,
         },
         type: QueryTypes.SELECT,
         transaction: ctx.t,
@@ -50,7 +58,10 @@ async function briefingsFor(ctx: SeedContext): Promise<SeedBriefing[]> {
       `INSERT INTO briefing_revision_items (briefing_revision_id, syllabus_item_id) SELECT :r, id FROM syllabus_items WHERE revision_id = :rev AND code = ANY(ARRAY[:codes]::text[])`,
       { replacements: { r: r!.id, rev: ctx.revisionId, codes }, transaction: ctx.t },
     );
-    await sequelize.query(`UPDATE briefings SET current_revision_id = :r WHERE id = :b`, { replacements: { r: r!.id, b: b!.id }, transaction: ctx.t });
+    await sequelize.query(`UPDATE briefings SET current_revision_id = :r WHERE id = :b`, {
+      replacements: { r: r!.id, b: b!.id },
+      transaction: ctx.t,
+    });
     out.push({ id: b!.id, title });
   }
   return out;
@@ -59,7 +70,8 @@ async function briefingsFor(ctx: SeedContext): Promise<SeedBriefing[]> {
 /** A varied but repeatable attendance line for the i-th student of session n. */
 function lineFor(n: number, i: number, studentId: string) {
   const k = (n * 5 + i * 3) % 11;
-  const status: AttendanceStatusName = k === 0 ? "absent" : k === 4 ? "absent_excused" : k === 7 ? "late" : k === 9 ? "left_early" : "attended";
+  const status: AttendanceStatusName =
+    k === 0 ? "absent" : k === 4 ? "absent_excused" : k === 7 ? "late" : k === 9 ? "left_early" : "attended";
   return { studentId, status, lateMinutes: status === "late" ? 15 : 0, earlyMinutes: status === "left_early" ? 20 : 0 };
 }
 
@@ -69,8 +81,20 @@ export async function seedTimetable(ctx: SeedContext): Promise<void> {
   const HANGAR = "Hangar classroom";
   const ROOM2 = "Briefing room 2";
   const plan = (i: number) => briefings[i % briefings.length]!.id;
-  const schedule = async (briefingId: string, date: string, time: string, minutes: number, room: string, instructorId: string, cohortId: string) =>
-    scheduleSession(chief, scheduleSessionSchema.parse({ briefingId, date, time, durationMinutes: minutes, room, instructorId, cohortId }), ctx.t);
+  const schedule = async (
+    briefingId: string,
+    date: string,
+    time: string,
+    minutes: number,
+    room: string,
+    instructorId: string,
+    cohortId: string,
+  ) =>
+    scheduleSession(
+      chief,
+      scheduleSessionSchema.parse({ briefingId, date, time, durationMinutes: minutes, room, instructorId, cohortId }),
+      ctx.t,
+    );
 
   // Past sessions with attendance: Kestrel (lead Tomasz) in the hangar, Merlin (lead Priya) in room 2.
   const past: { offset: number; cohort: string; instructor: string; room: string; time: string; minutes: number }[] = [
@@ -87,7 +111,11 @@ export async function seedTimetable(ctx: SeedContext): Promise<void> {
       `SELECT a.student_id AS id FROM session_attendees a JOIN people p ON p.id = a.student_id WHERE a.session_id = :s ORDER BY p.name`,
       { replacements: { s: s.id }, type: QueryTypes.SELECT, transaction: ctx.t },
     );
-    await recordAttendance(chief, recordAttendanceSchema.parse({ sessionId: s.id, lines: attendees.map((a, i) => lineFor(n, i, a.id)) }), ctx.t);
+    await recordAttendance(
+      chief,
+      recordAttendanceSchema.parse({ sessionId: s.id, lines: attendees.map((a, i) => lineFor(n, i, a.id)) }),
+      ctx.t,
+    );
   }
   // Taught two and three days ago, attendance not yet recorded: shows on Tomasz's and Priya's Today.
   await schedule(plan(1), ctx.day(-3), "14:00", 60, HANGAR, ctx.people.instructor, ctx.cohorts.a);
@@ -109,7 +137,11 @@ export async function seedTimetable(ctx: SeedContext): Promise<void> {
   for (const [offset, cohort, time, minutes, room, instructor, briefingId] of upcoming) {
     const s = await schedule(briefingId, ctx.day(offset), time, minutes, room, instructor, cohort);
     if (!cancelled && offset === 2) {
-      await cancelSession(chief, { sessionId: s.id, reason: "Briefing room heating is being repaired; this session moves to next week." }, ctx.t);
+      await cancelSession(
+        chief,
+        { sessionId: s.id, reason: "Briefing room heating is being repaired; this session moves to next week." },
+        ctx.t,
+      );
       cancelled = true;
     }
   }

@@ -19,7 +19,11 @@ export interface ActionContext {
   t: Transaction;
 }
 
-const idempotencyKey = z.string().min(8).max(100).regex(/^[A-Za-z0-9_-]+$/);
+const idempotencyKey = z
+  .string()
+  .min(8)
+  .max(100)
+  .regex(/^[A-Za-z0-9_-]+$/);
 
 function fieldErrorsOf(err: z.ZodError): Record<string, string[]> {
   const out: Record<string, string[]> = {};
@@ -75,16 +79,17 @@ export async function runAction<S extends z.ZodType, T>(
           { replacements: { p: user.id, k: key }, type: QueryTypes.SELECT, transaction: t },
         );
         if (prior) {
-          if (prior.scope !== options.idempotent) throw new HttpError(409, "idempotencyKey: already used for another action", "idempotencyKey");
+          if (prior.scope !== options.idempotent)
+            throw new HttpError(409, "idempotencyKey: already used for another action", "idempotencyKey");
           return { ok: true as const, data: prior.result.data, replayed: true };
         }
       }
       const data = await work(parsed.data, { user, t });
       if (key) {
-        await sequelize.query(
-          `INSERT INTO idempotency_keys (person_id, key, scope, result) VALUES (:p, :k, :s, :r::jsonb)`,
-          { replacements: { p: user.id, k: key, s: options.idempotent, r: JSON.stringify({ data: data ?? null }) }, transaction: t },
-        );
+        await sequelize.query(`INSERT INTO idempotency_keys (person_id, key, scope, result) VALUES (:p, :k, :s, :r::jsonb)`, {
+          replacements: { p: user.id, k: key, s: options.idempotent, r: JSON.stringify({ data: data ?? null }) },
+          transaction: t,
+        });
       }
       return { ok: true as const, data };
     });

@@ -98,12 +98,7 @@ export function checked(lim: NumberLimit, value: unknown, field: string = lim.fi
 }
 
 /** Like `checked`, for optional inputs: undefined gives `fallback`. */
-export function checkedOptional(
-  lim: NumberLimit,
-  value: unknown,
-  fallback: number,
-  prefix?: readonly (string | number)[],
-): number {
+export function checkedOptional(lim: NumberLimit, value: unknown, fallback: number, prefix?: readonly (string | number)[]): number {
   return value === undefined ? fallback : checked(lim, value, lim.field, prefix);
 }
 

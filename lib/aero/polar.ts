@@ -69,11 +69,7 @@ export interface LevelFlightState {
 }
 
 /** Validates an aircraft and level-flight conditions and precomputes the polar constants. */
-export function levelFlightState(
-  aircraft: unknown,
-  conditions: unknown,
-  prefix?: readonly (string | number)[],
-): LevelFlightState {
+export function levelFlightState(aircraft: unknown, conditions: unknown, prefix?: readonly (string | number)[]): LevelFlightState {
   assertAircraft(aircraft, prefix);
   const a = aircraft;
   const c = requireObject(conditions, "conditions", prefix) as unknown as LevelFlightConditions;

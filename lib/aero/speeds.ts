@@ -197,4 +197,3 @@ export function loadFactorForBank(bankAngleDeg: number): number {
   const deg = checked(lim, bankAngleDeg);
   return 1 / Math.cos((deg * Math.PI) / 180);
 }
-

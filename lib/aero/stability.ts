@@ -133,10 +133,7 @@ function responseOf(s: LevelFlightState, v: number, dv: number): SpeedChangeResp
  * dP/dV = 3 Dzero-lift - Dlift-dependent). With `speedChangeMs` it also says
  * what a speed change of that size does.
  */
-export function speedStability(
-  aircraft: Aircraft,
-  conditions: SpeedConditions & { speedChangeMs?: number | undefined },
-): SpeedStability {
+export function speedStability(aircraft: Aircraft, conditions: SpeedConditions & { speedChangeMs?: number | undefined }): SpeedStability {
   const s = levelFlightState(aircraft, conditions);
   const v = checked(LIMITS.trueAirspeedMs, conditions.trueAirspeedMs);
   const d = dragOfState(s, v);

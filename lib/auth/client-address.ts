@@ -12,6 +12,10 @@ export function clientAddress(
   if (!trustedProxy) return "direct";
   const raw = headers?.["x-forwarded-for"];
   const value = Array.isArray(raw) ? raw[raw.length - 1] : raw;
-  const last = value?.split(",").map((s) => s.trim()).filter(Boolean).pop();
+  const last = value
+    ?.split(",")
+    .map((s) => s.trim())
+    .filter(Boolean)
+    .pop();
   return last && last.length <= 64 ? last : "unknown";
 }

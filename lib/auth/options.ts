@@ -6,7 +6,6 @@ import { clientAddress } from "./client-address";
 
 export const SESSION_MAX_AGE_S = 12 * 60 * 60;
 
-
 export const authOptions: NextAuthOptions = {
   session: { strategy: "jwt", maxAge: SESSION_MAX_AGE_S },
   pages: { signIn: "/sign-in", error: "/sign-in" },

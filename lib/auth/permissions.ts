@@ -18,7 +18,10 @@ export const PERMISSIONS = {
   "demos.view": { roles: ["chief", "instructor", "student"], description: "Open demos (students: only those assigned)" },
   "demos.call": { roles: ["student"], description: "Make a Call it first prediction on an assigned demo" },
   "briefings.edit": { roles: ["chief", "instructor"], description: "Write briefings and upload handouts" },
-  "briefings.view": { roles: ["chief", "instructor", "student"], description: "Read briefings (students: only those scheduled or assigned)" },
+  "briefings.view": {
+    roles: ["chief", "instructor", "student"],
+    description: "Read briefings (students: only those scheduled or assigned)",
+  },
   "timetable.view": { roles: ["chief", "instructor", "student"], description: "See the Timetable (each sees what concerns them)" },
   "timetable.schedule": { roles: ["chief", "instructor"], description: "Schedule, reschedule and cancel sessions" },
   "attendance.record": { roles: ["chief", "instructor"], description: "Record attendance and credited minutes" },
@@ -30,13 +33,19 @@ export const PERMISSIONS = {
   "checks.acknowledge": { roles: ["student"], description: "Acknowledge the debrief of one's own oral check" },
   "records.sign": { roles: ["chief", "instructor"], description: "Sign off syllabus items" },
   "records.amend": { roles: ["chief", "instructor"], description: "Amend or withdraw one's signed records" },
-  "stagechecks.conduct": { roles: ["chief", "instructor"], description: "Conduct stage checks (designated check instructors and the chief)" },
+  "stagechecks.conduct": {
+    roles: ["chief", "instructor"],
+    description: "Conduct stage checks (designated check instructors and the chief)",
+  },
   "stagechecks.designate": { roles: ["chief"], description: "Designate check instructors and override examiner rules" },
   "register.view": { roles: ["chief"], description: "See the Sign-off register and watch notes" },
   "audit.verify": { roles: ["chief"], description: "Verify the audit trail's hash chain" },
   "progress.view": { roles: ["chief", "instructor", "student", "sponsor"], description: "See a Progress map (scoped to the caller)" },
   "mail.tray": { roles: ["chief"], description: "See captured mail (Mail tray) and outbox states" },
-  "sponsornotes.write": { roles: ["chief", "instructor"], description: "Write a note for a student's sponsors, carried by the next Weekly letter" },
+  "sponsornotes.write": {
+    roles: ["chief", "instructor"],
+    description: "Write a note for a student's sponsors, carried by the next Weekly letter",
+  },
   "settings.edit": { roles: ["chief"], description: "Change school settings: mail sender, reminder lead time, letter day, limits" },
 } as const satisfies Record<string, { roles: readonly Role[]; description: string }>;
 

@@ -41,10 +41,7 @@ export interface RouteContext<P> {
  * maps expected failures to the API error shape, and hides unexpected ones behind a 500
  * without a stack trace.
  */
-export function route<P = Record<string, string>>(
-  permission: Permission,
-  handler: (ctx: RouteContext<P>) => Promise<Response>,
-) {
+export function route<P = Record<string, string>>(permission: Permission, handler: (ctx: RouteContext<P>) => Promise<Response>) {
   return async (req: NextRequest, segment: { params: Promise<P> }): Promise<Response> => {
     try {
       await checkOrigin(req);

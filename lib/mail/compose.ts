@@ -1,17 +1,5 @@
 import { env } from "@/lib/env";
-import {
-  action,
-  bullets,
-  dateLong,
-  facts,
-  oneLine,
-  para,
-  render,
-  timeOnly,
-  whenLong,
-  type ComposedMail,
-  type MailSchool,
-} from "./layout";
+import { action, bullets, dateLong, facts, oneLine, para, render, timeOnly, whenLong, type ComposedMail, type MailSchool } from "./layout";
 
 export type { ComposedMail, MailSchool } from "./layout";
 

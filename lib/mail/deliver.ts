@@ -90,7 +90,10 @@ export async function deliverOutboxMail(outboxId: string, opts: { transport: Tra
       });
       await sequelize.query(
         `INSERT INTO mail_deliveries (outbox_id, message_id, smtp_response, attempts) VALUES (:id, :mid, :resp, :attempts)`,
-        { replacements: { id: row.id, mid: row.message_id, resp: String(info.response ?? "").slice(0, 500), attempts: row.attempts + 1 }, transaction: t },
+        {
+          replacements: { id: row.id, mid: row.message_id, resp: String(info.response ?? "").slice(0, 500), attempts: row.attempts + 1 },
+          transaction: t,
+        },
       );
       return { state: "sent" as const, key: row.idempotency_key };
     });

@@ -30,7 +30,10 @@ export function esc(value: unknown): string {
 
 /** Header values must stay on one line: CR/LF in a name would otherwise inject headers. */
 export function oneLine(value: string): string {
-  return value.replace(/[\r\n\t]+/g, " ").replace(/\s{2,}/g, " ").trim();
+  return value
+    .replace(/[\r\n\t]+/g, " ")
+    .replace(/\s{2,}/g, " ")
+    .trim();
 }
 
 export function whenLong(instant: Date, timeZone: string): string {
@@ -120,13 +123,10 @@ export function action(label: string, url: string): Block {
 }
 
 /** Assembles the full HTML document and the plain-text part. */
-export function render(opts: {
-  school: MailSchool;
-  title: string;
-  greeting: string;
-  blocks: Block[];
-  footer?: Block[];
-}): { html: string; text: string } {
+export function render(opts: { school: MailSchool; title: string; greeting: string; blocks: Block[]; footer?: Block[] }): {
+  html: string;
+  text: string;
+} {
   const { school, title, greeting, blocks } = opts;
   const footer = opts.footer ?? [];
   const bodyHtml = blocks.map((b) => b.html).join("\n");

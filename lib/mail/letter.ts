@@ -1,5 +1,20 @@
 import { hoursLabel } from "@/lib/time";
-import { COLOURS, bullets, dateLong, esc, facts, heading, oneLine, para, render, timeOnly, whenShort, type Block, type ComposedMail, type MailSchool } from "./layout";
+import {
+  COLOURS,
+  bullets,
+  dateLong,
+  esc,
+  facts,
+  heading,
+  oneLine,
+  para,
+  render,
+  timeOnly,
+  whenShort,
+  type Block,
+  type ComposedMail,
+  type MailSchool,
+} from "./layout";
 
 export type AttendanceStatus = "attended" | "late" | "left_early" | "absent_excused" | "absent";
 
@@ -42,8 +57,14 @@ export interface WeeklyLetterData {
 /** The progress bar: a two-cell table every mail client draws; its label says the numbers in words too. */
 export function progressBar(done: number, total: number, label: string): Block {
   const pct = total > 0 ? Math.max(0, Math.min(100, Math.round((done / total) * 100))) : 0;
-  const filled = pct > 0 ? `<td width="${pct}%" bgcolor="${COLOURS.wing}" style="background-color:${COLOURS.wing};height:14px;font-size:1px;line-height:1px;">&nbsp;</td>` : "";
-  const empty = pct < 100 ? `<td width="${100 - pct}%" bgcolor="${COLOURS.edge}" style="background-color:${COLOURS.edge};height:14px;font-size:1px;line-height:1px;">&nbsp;</td>` : "";
+  const filled =
+    pct > 0
+      ? `<td width="${pct}%" bgcolor="${COLOURS.wing}" style="background-color:${COLOURS.wing};height:14px;font-size:1px;line-height:1px;">&nbsp;</td>`
+      : "";
+  const empty =
+    pct < 100
+      ? `<td width="${100 - pct}%" bgcolor="${COLOURS.edge}" style="background-color:${COLOURS.edge};height:14px;font-size:1px;line-height:1px;">&nbsp;</td>`
+      : "";
   const words = `${label}: ${pct}%`;
   return {
     html:
@@ -84,7 +105,13 @@ export function composeWeeklyLetter(d: WeeklyLetterData, school: MailSchool): Co
         ["So far", hoursLabel(d.hours.totalMinutes, d.hours.minimumMinutes)],
       ]),
     );
-    blocks.push(progressBar(d.hours.totalMinutes, d.hours.minimumMinutes, `${hoursLabel(d.hours.totalMinutes)} of the ${hoursLabel(d.hours.minimumMinutes)} ${d.hours.courseTitle} minimum`));
+    blocks.push(
+      progressBar(
+        d.hours.totalMinutes,
+        d.hours.minimumMinutes,
+        `${hoursLabel(d.hours.totalMinutes)} of the ${hoursLabel(d.hours.minimumMinutes)} ${d.hours.courseTitle} minimum`,
+      ),
+    );
   }
 
   if (d.progress) {
@@ -113,7 +140,15 @@ export function composeWeeklyLetter(d: WeeklyLetterData, school: MailSchool): Co
   if (d.nextWeek) {
     blocks.push(heading("Next week"));
     if (d.nextWeek.length === 0) blocks.push(para("No sessions are planned yet."));
-    else blocks.push(facts(d.nextWeek.map((s) => [whenShort(s.startsAt, school.timeZone), `${s.title} until ${timeOnly(s.endsAt, school.timeZone)}, ${s.room}`])));
+    else
+      blocks.push(
+        facts(
+          d.nextWeek.map((s) => [
+            whenShort(s.startsAt, school.timeZone),
+            `${s.title} until ${timeOnly(s.endsAt, school.timeZone)}, ${s.room}`,
+          ]),
+        ),
+      );
   }
 
   if (d.note) {

@@ -89,7 +89,14 @@ export async function produceSessionReminders(at: Date): Promise<{ written: numb
       const school = { name: r.school_name, timeZone: r.time_zone, senderName: r.sender_name ?? undefined };
       const mail = composeMail(
         "session.reminder",
-        { name: r.person_name, briefingTitle: r.title, startsAt: r.starts_at, endsAt: r.ends_at, room: r.room, instructorName: r.instructor_name },
+        {
+          name: r.person_name,
+          briefingTitle: r.title,
+          startsAt: r.starts_at,
+          endsAt: r.ends_at,
+          room: r.room,
+          instructorName: r.instructor_name,
+        },
         school,
       );
       const ok = await enqueueMail(t, {
@@ -129,14 +136,14 @@ export async function produceOverdueReminders(at: Date): Promise<number> {
       sender_name: string | null;
     }>(
       `WITH targets AS (${
-         hasView
-           ? // the briefings area's own answer to "who is this assignment for"
-             `SELECT assignment_id AS id, school_id, kind, briefing_id, demo_id, due_on, student_id FROM assignment_students`
-           : `SELECT a.id, a.school_id, a.kind, a.briefing_id, a.demo_id, a.due_on, a.student_id FROM assignments a WHERE a.student_id IS NOT NULL
+        hasView
+          ? // the briefings area's own answer to "who is this assignment for"
+            `SELECT assignment_id AS id, school_id, kind, briefing_id, demo_id, due_on, student_id FROM assignment_students`
+          : `SELECT a.id, a.school_id, a.kind, a.briefing_id, a.demo_id, a.due_on, a.student_id FROM assignments a WHERE a.student_id IS NOT NULL
               UNION
               SELECT a.id, a.school_id, a.kind, a.briefing_id, a.demo_id, a.due_on, m.student_id
                 FROM assignments a JOIN cohort_memberships m ON m.cohort_id = a.cohort_id AND m.to_date IS NULL`
-       }
+      }
        )
        SELECT tg.id, tg.school_id, tg.kind, tg.due_on, tg.student_id, p.name, p.email,
               ${hasDemos ? "COALESCE(br.title, d.name)" : "br.title"} AS title,
@@ -158,7 +165,13 @@ export async function produceOverdueReminders(at: Date): Promise<number> {
     for (const r of rows) {
       const mail = composeMail(
         "assignment.overdue",
-        { name: r.name, title: r.title ?? (r.kind === "demo" ? "Assigned demo" : "Assigned briefing"), assignmentKind: r.kind, dueOn: r.due_on, path: `/assignments#a-${r.id}` },
+        {
+          name: r.name,
+          title: r.title ?? (r.kind === "demo" ? "Assigned demo" : "Assigned briefing"),
+          assignmentKind: r.kind,
+          dueOn: r.due_on,
+          path: `/assignments#a-${r.id}`,
+        },
         { name: r.school_name, timeZone: r.time_zone, senderName: r.sender_name ?? undefined },
       );
       const ok = await enqueueMail(t, {
@@ -214,7 +227,13 @@ export function letterWeek(at: Date, timeZone: string, letterDay: number): { wee
  * with this sponsor, so nothing unshared can reach the mail. Every query is bound to this one
  * student's id.
  */
-export async function gatherLetter(link: LinkRow, school: SchoolRow, weekStart: string, at: Date, t?: Transaction): Promise<Omit<WeeklyLetterData, "unsubscribeUrl" | "oneClickUrl">> {
+export async function gatherLetter(
+  link: LinkRow,
+  school: SchoolRow,
+  weekStart: string,
+  at: Date,
+  t?: Transaction,
+): Promise<Omit<WeeklyLetterData, "unsubscribeUrl" | "oneClickUrl">> {
   const tz = school.time_zone;
   const ws = zonedInstant(weekStart, "00:00", tz);
   const we = zonedInstant(addDays(weekStart, 7), "00:00", tz);
@@ -223,7 +242,11 @@ export async function gatherLetter(link: LinkRow, school: SchoolRow, weekStart: 
   const q = <T extends object>(sql: string, replacements: Record<string, unknown> = {}) =>
     sequelize.query<T>(sql, { replacements: { sid, ws, we, nwe, ...replacements }, type: QueryTypes.SELECT, transaction: t });
   const hasLog = await tablesExist(["ground_log_entries", "training_sessions", "briefing_revisions"], t);
-  const data: Omit<WeeklyLetterData, "unsubscribeUrl" | "oneClickUrl"> = { sponsorName: link.sponsor_name, studentName: link.student_name, weekStart };
+  const data: Omit<WeeklyLetterData, "unsubscribeUrl" | "oneClickUrl"> = {
+    sponsorName: link.sponsor_name,
+    studentName: link.student_name,
+    weekStart,
+  };
 
   const [enrolment] = await q<{ course_id: string; title: string; min_ground_minutes: number }>(
     `SELECT c.id AS course_id, c.title, c.min_ground_minutes FROM enrolments e JOIN courses c ON c.id = e.course_id
@@ -239,13 +262,21 @@ export async function gatherLetter(link: LinkRow, school: SchoolRow, weekStart: 
     : [];
 
   if (link.shares_attendance) {
-    data.attendance = weekEntries.map((e) => ({ startsAt: e.starts_at, title: e.title, status: e.status, creditedMinutes: e.credited_minutes }));
+    data.attendance = weekEntries.map((e) => ({
+      startsAt: e.starts_at,
+      title: e.title,
+      status: e.status,
+      creditedMinutes: e.credited_minutes,
+    }));
   }
 
   if (link.shares_hours && enrolment) {
     let total = 0;
     if (hasLog) {
-      const [row] = await q<{ m: number }>(`SELECT COALESCE(sum(credited_minutes), 0)::int AS m FROM ground_log_current WHERE student_id = :sid AND course_id = :cid`, { cid: enrolment.course_id });
+      const [row] = await q<{ m: number }>(
+        `SELECT COALESCE(sum(credited_minutes), 0)::int AS m FROM ground_log_current WHERE student_id = :sid AND course_id = :cid`,
+        { cid: enrolment.course_id },
+      );
       total = row?.m ?? 0;
     }
     data.hours = {
@@ -279,7 +310,10 @@ export async function gatherLetter(link: LinkRow, school: SchoolRow, weekStart: 
         )
       : [];
     const reasons: string[] = [];
-    if (makeupsToBook.length > 0) reasons.push(`${makeupsToBook.length === 1 ? "one make-up item is" : `${makeupsToBook.length} make-up items are`} still to be booked`);
+    if (makeupsToBook.length > 0)
+      reasons.push(
+        `${makeupsToBook.length === 1 ? "one make-up item is" : `${makeupsToBook.length} make-up items are`} still to be booked`,
+      );
     if (link.shares_attendance) {
       const missed = weekEntries.filter((e) => e.status === "absent").length;
       if (missed > 0) reasons.push(`${missed === 1 ? "one session" : `${missed} sessions`} missed this week without an excuse`);
@@ -324,7 +358,9 @@ export function unsubscribeLinks(sponsorId: string, studentId: string) {
 
 /** The Weekly letter to each sponsor who agreed to it, once per week, from the school's letter day on. */
 export async function produceWeeklyLetters(at: Date): Promise<number> {
-  const schools = await sequelize.query<SchoolRow>(`SELECT id, name, time_zone, settings FROM schools ORDER BY created_at`, { type: QueryTypes.SELECT });
+  const schools = await sequelize.query<SchoolRow>(`SELECT id, name, time_zone, settings FROM schools ORDER BY created_at`, {
+    type: QueryTypes.SELECT,
+  });
   let written = 0;
   for (const school of schools) {
     const { weekStart, due } = letterWeek(at, school.time_zone, school.settings.weeklyLetterDay ?? DEFAULT_SETTINGS.weeklyLetterDay);

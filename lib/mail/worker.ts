@@ -50,7 +50,9 @@ async function main() {
   };
   await tick();
   const timer = setInterval(() => void tick(), cfg.CHALKWING_MAIL_TICK_SECONDS * 1000);
-  console.log(`[mail-worker] running: tick ${cfg.CHALKWING_MAIL_TICK_SECONDS}s, SMTP ${process.env.SMTP_HOST ?? "127.0.0.1"}:${process.env.SMTP_PORT ?? 2525}`);
+  console.log(
+    `[mail-worker] running: tick ${cfg.CHALKWING_MAIL_TICK_SECONDS}s, SMTP ${process.env.SMTP_HOST ?? "127.0.0.1"}:${process.env.SMTP_PORT ?? 2525}`,
+  );
 
   const stop = async () => {
     if (stopping) return;

@@ -54,9 +54,10 @@ run_jest() { # run_jest PROJECT [jest args]
 }
 
 if want static; then
-  phase_start "static checks (TypeScript, ESLint)"
+  phase_start "static checks (TypeScript, ESLint, Prettier)"
   node node_modules/typescript/bin/tsc --noEmit -p tsconfig.json || fail_phase typescript
   node node_modules/eslint/bin/eslint.js . || fail_phase eslint
+  node node_modules/prettier/bin/prettier.cjs --check --log-level warn . || { echo "formatting differs: run npm run format"; fail_phase prettier; }
   phase_end
 fi
 

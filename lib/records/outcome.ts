@@ -5,7 +5,12 @@
  */
 export const LEVELS = ["rote", "understanding", "application", "correlation"] as const;
 export type LevelOfLearning = (typeof LEVELS)[number];
-export const LEVEL_LABEL: Record<LevelOfLearning, string> = { rote: "Rote", understanding: "Understanding", application: "Application", correlation: "Correlation" };
+export const LEVEL_LABEL: Record<LevelOfLearning, string> = {
+  rote: "Rote",
+  understanding: "Understanding",
+  application: "Application",
+  correlation: "Correlation",
+};
 
 export const QUESTION_OUTCOMES = ["solid", "shaky", "not_yet"] as const;
 export type QuestionOutcome = (typeof QUESTION_OUTCOMES)[number];
@@ -50,7 +55,10 @@ export interface ItemOutcome {
 }
 
 /** Applies the default rule. */
-export function evaluateCheck(input: { levelShown: LevelOfLearning; items: RuleItem[]; questions: RuleQuestion[] }): { outcome: CheckOutcome; items: ItemOutcome[] } {
+export function evaluateCheck(input: { levelShown: LevelOfLearning; items: RuleItem[]; questions: RuleQuestion[] }): {
+  outcome: CheckOutcome;
+  items: ItemOutcome[];
+} {
   const items = input.items.map((item): ItemOutcome => {
     const reasons: string[] = [];
     const required = input.questions.filter((q) => q.syllabusItemId === item.id && q.required);
@@ -58,7 +66,9 @@ export function evaluateCheck(input: { levelShown: LevelOfLearning; items: RuleI
     const notSolid = required.filter((q) => q.outcome !== "solid");
     if (notSolid.length > 0) reasons.push(`${notSolid.length} required question${notSolid.length === 1 ? " is" : "s are"} not Solid`);
     if (!levelReaches(input.levelShown, item.requiredLevel)) {
-      reasons.push(`level shown (${LEVEL_LABEL[input.levelShown]}) is below the level ${item.code} requires (${LEVEL_LABEL[item.requiredLevel]})`);
+      reasons.push(
+        `level shown (${LEVEL_LABEL[input.levelShown]}) is below the level ${item.code} requires (${LEVEL_LABEL[item.requiredLevel]})`,
+      );
     }
     return { itemId: item.id, code: item.code, meets: reasons.length === 0, reasons };
   });

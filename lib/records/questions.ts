@@ -94,7 +94,12 @@ export function generateQuestion(kind: QuestionKind, snapshot: AircraftSnapshot,
         ...common,
         text: `${name} at ${fmt(massKg)} kg, ${fmt(altitudeFt)} ft in ISA: what is Vmd as a true airspeed?`,
         inputs: { massKg, altitudeFt },
-        answer: { type: "number", value: tasKt, unit: "kt", display: `${fmt(tasKt, 1)} kt TAS (${fmt(msToKt(r.equivalentAirspeedMs), 1)} kt EAS)` },
+        answer: {
+          type: "number",
+          value: tasKt,
+          unit: "kt",
+          display: `${fmt(tasKt, 1)} kt TAS (${fmt(msToKt(r.equivalentAirspeedMs), 1)} kt EAS)`,
+        },
         tolerance: { relative: NUMERIC_TOLERANCE },
       };
     }
@@ -108,7 +113,12 @@ export function generateQuestion(kind: QuestionKind, snapshot: AircraftSnapshot,
         ...common,
         text: `${name}: Vmd is ${fmt(beforeKt, 1)} kt EAS at ${fmt(massKg)} kg. What does it become with 15 % more mass?`,
         inputs: { massKg },
-        answer: { type: "number", value: afterKt, unit: "kt", display: `${fmt(afterKt, 1)} kt EAS (up ${fmt(afterKt - beforeKt, 1)} kt, about 7 %: Vmd grows with the square root of weight)` },
+        answer: {
+          type: "number",
+          value: afterKt,
+          unit: "kt",
+          display: `${fmt(afterKt, 1)} kt EAS (up ${fmt(afterKt - beforeKt, 1)} kt, about 7 %: Vmd grows with the square root of weight)`,
+        },
         tolerance: { relative: NUMERIC_TOLERANCE },
       };
     }
@@ -120,7 +130,8 @@ export function generateQuestion(kind: QuestionKind, snapshot: AircraftSnapshot,
       const tas = equivalentToTrue(ktToMs(speedKt), altitudeM);
       const r = speedStability({ ...base, massKg }, { altitudeM, trueAirspeedMs: tas });
       const vmdEasKt = msToKt(minimumDragSpeed({ ...base, massKg }, { altitudeM }).equivalentAirspeedMs);
-      const label = r.regime === "stable" ? "Speed-stable (above Vmd)" : r.regime === "unstable" ? "Speed-unstable (below Vmd)" : "Neutral (at Vmd)";
+      const label =
+        r.regime === "stable" ? "Speed-stable (above Vmd)" : r.regime === "unstable" ? "Speed-unstable (below Vmd)" : "Neutral (at Vmd)";
       return {
         ...common,
         text: `${name} at ${fmt(massKg)} kg, flying at ${fmt(speedKt)} kt EAS at ${fmt(altitudeFt)} ft with thrust held: is it on the speed-stable or the speed-unstable side?`,
@@ -137,7 +148,12 @@ export function generateQuestion(kind: QuestionKind, snapshot: AircraftSnapshot,
         ...common,
         text: `${name}, engine off at ${fmt(heightFt)} ft above the ground in still air at best glide: how far can it glide?`,
         inputs: { heightFt },
-        answer: { type: "number", value: nm, unit: "NM", display: `${fmt(nm, 1)} NM (${fmt(r.distanceM / 1000, 1)} km; glide ratio ${fmt(r.glideRatio, 1)} : 1)` },
+        answer: {
+          type: "number",
+          value: nm,
+          unit: "NM",
+          display: `${fmt(nm, 1)} NM (${fmt(r.distanceM / 1000, 1)} km; glide ratio ${fmt(r.glideRatio, 1)} : 1)`,
+        },
         tolerance: { relative: NUMERIC_TOLERANCE },
       };
     }
@@ -158,11 +174,25 @@ export const REFERENCE_AIRCRAFT: AircraftSnapshot[] = [
   {
     name: "Larkhollow LT-2 trainer",
     source: { kind: "reference", id: "lt-2" },
-    aircraft: { massKg: 1050, wingAreaM2: 15.2, wingSpanM: 10.4, zeroLiftDragCoefficient: 0.029, oswaldEfficiency: 0.78, maxLiftCoefficient: 1.45 },
+    aircraft: {
+      massKg: 1050,
+      wingAreaM2: 15.2,
+      wingSpanM: 10.4,
+      zeroLiftDragCoefficient: 0.029,
+      oswaldEfficiency: 0.78,
+      maxLiftCoefficient: 1.45,
+    },
   },
   {
     name: "Larkhollow LT-4 tourer",
     source: { kind: "reference", id: "lt-4" },
-    aircraft: { massKg: 1320, wingAreaM2: 16.4, wingSpanM: 11.0, zeroLiftDragCoefficient: 0.026, oswaldEfficiency: 0.8, maxLiftCoefficient: 1.5 },
+    aircraft: {
+      massKg: 1320,
+      wingAreaM2: 16.4,
+      wingSpanM: 11.0,
+      zeroLiftDragCoefficient: 0.026,
+      oswaldEfficiency: 0.8,
+      maxLiftCoefficient: 1.5,
+    },
   },
 ];

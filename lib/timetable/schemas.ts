@@ -3,7 +3,10 @@ import { z } from "zod";
 // The Timetable's and the Ground log's input schemas, shared by the client forms and the server
 // (server actions and route handlers parse with the same schema).
 
-export const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "a date as yyyy-mm-dd").refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), "not a real date");
+export const isoDate = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, "a date as yyyy-mm-dd")
+  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), "not a real date");
 export const wallTime = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, "a time as hh:mm (24-hour)");
 const uuid = z.string().uuid("not a valid id");
 
@@ -15,7 +18,10 @@ export const scheduleSessionSchema = z
     durationMinutes: z.coerce.number().int("whole minutes").min(15, "at least 15 minutes").max(480, "at most 480 minutes"),
     room: z.string().trim().min(1, "required").max(100, "at most 100 characters"),
     instructorId: z.string().uuid("choose an instructor"),
-    cohortId: z.union([z.literal(""), uuid]).optional().default(""),
+    cohortId: z
+      .union([z.literal(""), uuid])
+      .optional()
+      .default(""),
     studentIds: z.array(uuid).max(200).optional().default([]),
   })
   .refine((v) => v.cohortId !== "" || v.studentIds.length > 0, { message: "choose a cohort or at least one student", path: ["cohortId"] });
@@ -105,13 +111,18 @@ export const weekQuerySchema = z.object({
 
 // ---- rosters
 
-export const addStudentSchema = z.object({
-  name: z.string().trim().min(1, "required").max(200),
-  email: z.string().trim().toLowerCase().email("not a valid e-mail address"),
-  cohortId: z.string().uuid("choose a cohort"),
-  sponsorName: z.string().trim().max(200).optional().default(""),
-  sponsorEmail: z.union([z.literal(""), z.string().trim().toLowerCase().email("not a valid e-mail address")]).optional().default(""),
-}).refine((v) => !v.sponsorEmail || v.sponsorName, { message: "required when a sponsor e-mail is given", path: ["sponsorName"] })
+export const addStudentSchema = z
+  .object({
+    name: z.string().trim().min(1, "required").max(200),
+    email: z.string().trim().toLowerCase().email("not a valid e-mail address"),
+    cohortId: z.string().uuid("choose a cohort"),
+    sponsorName: z.string().trim().max(200).optional().default(""),
+    sponsorEmail: z
+      .union([z.literal(""), z.string().trim().toLowerCase().email("not a valid e-mail address")])
+      .optional()
+      .default(""),
+  })
+  .refine((v) => !v.sponsorEmail || v.sponsorName, { message: "required when a sponsor e-mail is given", path: ["sponsorName"] })
   .refine((v) => !v.sponsorName || v.sponsorEmail, { message: "required when a sponsor name is given", path: ["sponsorEmail"] });
 
 export const moveStudentSchema = z.object({
@@ -119,4 +130,3 @@ export const moveStudentSchema = z.object({
   toCohortId: z.string().uuid("choose a cohort"),
   onDate: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "a date as yyyy-mm-dd"),
 });
-

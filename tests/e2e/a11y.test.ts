@@ -78,7 +78,12 @@ async function axeSerious(p: Page): Promise<AxeViolation[]> {
   });
   return violations
     .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map((v) => ({ id: v.id, impact: v.impact, help: v.help, nodes: v.nodes.slice(0, 5).map((n) => ({ target: n.target, failureSummary: n.failureSummary })) }));
+    .map((v) => ({
+      id: v.id,
+      impact: v.impact,
+      help: v.help,
+      nodes: v.nodes.slice(0, 5).map((n) => ({ target: n.target, failureSummary: n.failureSummary })),
+    }));
 }
 
 const runs = PAGES.flatMap((p) => p.roles.map((role) => [`${p.name} as ${role}`, p, role] as const));
@@ -105,7 +110,10 @@ describe("accessibility crawl", () => {
       if (vp.width === 390) {
         const sizes = await page.evaluate(() => ({ scrollWidth: document.documentElement.scrollWidth, innerWidth: window.innerWidth }));
         const label = `${role} ${target} @390`;
-        expect({ page: label, sidewaysScrollPx: Math.max(0, sizes.scrollWidth - sizes.innerWidth) }).toEqual({ page: label, sidewaysScrollPx: 0 });
+        expect({ page: label, sidewaysScrollPx: Math.max(0, sizes.scrollWidth - sizes.innerWidth) }).toEqual({
+          page: label,
+          sidewaysScrollPx: 0,
+        });
       }
       await page.screenshot({ path: path.join(SCREENSHOT_DIR, `${role}-${spec.name}-${vp.width}.png`), fullPage: true });
     }

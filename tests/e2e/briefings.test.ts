@@ -89,7 +89,9 @@ describe("handout uploads through the running server", () => {
     const { handoutId } = (await res.json()) as { handoutId: string };
     const after = await counts(briefingId);
     expect(after).toEqual({ handouts: before.handouts + 1, revisions: before.revisions + 1 });
-    const { rows } = await db.query<{ byte_size: number; sha256: string }>(`SELECT byte_size, sha256 FROM handouts WHERE id = $1`, [handoutId]);
+    const { rows } = await db.query<{ byte_size: number; sha256: string }>(`SELECT byte_size, sha256 FROM handouts WHERE id = $1`, [
+      handoutId,
+    ]);
     expect(rows[0]).toEqual({ byte_size: MB10, sha256: sha(pdf) });
     const got = await fetch(`${BASE_URL}/api/handouts/${handoutId}`, { headers: { cookie: instructorCookie } });
     expect(got.status).toBe(200);
@@ -128,7 +130,10 @@ describe("handout uploads through the running server", () => {
     expect(r2.status).toBe(415);
     expect(((await r2.json()) as { error: { field: string } }).error.field).toBe("name");
     // an HTML page sent as a PDF
-    const r3 = await upload(briefingId, new Blob(["<html><script>alert(1)</script></html>"]), { name: "notes.pdf", type: "application/pdf" });
+    const r3 = await upload(briefingId, new Blob(["<html><script>alert(1)</script></html>"]), {
+      name: "notes.pdf",
+      type: "application/pdf",
+    });
     expect(r3.status).toBe(415);
     expect(await counts(briefingId)).toEqual(before);
   });
@@ -136,7 +141,9 @@ describe("handout uploads through the running server", () => {
   it("refuses an upload from a student, and an empty file, storing nothing", async () => {
     const before = await counts(briefingId);
     const student = await signInOrThrow("student@chalkwing.test", "chalkwing-demo");
-    expect((await upload(briefingId, new Blob([new Uint8Array(TINY_PNG)]), { name: "a.png", type: "image/png", cookie: student })).status).toBe(403);
+    expect(
+      (await upload(briefingId, new Blob([new Uint8Array(TINY_PNG)]), { name: "a.png", type: "image/png", cookie: student })).status,
+    ).toBe(403);
     const empty = await upload(briefingId, new Blob([]), { name: "empty.png", type: "image/png" });
     expect(empty.status).toBe(400);
     expect(await counts(briefingId)).toEqual(before);
@@ -173,11 +180,15 @@ describe("the briefings list's query parameters", () => {
       expect(body.error.field).toBe(field);
       expect(body.error.message.startsWith(`${field}:`)).toBe(true);
     }
-    const one = (await (await fetch(`${BASE_URL}/api/briefings?sort=title&dir=asc&pageSize=1&page=2`, { headers: { cookie: instructorCookie } })).json()) as {
+    const one = (await (
+      await fetch(`${BASE_URL}/api/briefings?sort=title&dir=asc&pageSize=1&page=2`, { headers: { cookie: instructorCookie } })
+    ).json()) as {
       rows: { title: string }[];
       total: number;
     };
-    const all = (await (await fetch(`${BASE_URL}/api/briefings?sort=title&dir=asc&pageSize=100`, { headers: { cookie: instructorCookie } })).json()) as {
+    const all = (await (
+      await fetch(`${BASE_URL}/api/briefings?sort=title&dir=asc&pageSize=100`, { headers: { cookie: instructorCookie } })
+    ).json()) as {
       rows: { title: string }[];
       total: number;
     };
@@ -296,7 +307,9 @@ describe("briefings end to end in Chromium", () => {
     expect(await refused.text()).not.toContain("%PDF");
     const page404 = await fetch(`${BASE_URL}/briefings/${newId}`, { headers: { cookie: merlin } });
     expect(page404.status).toBe(404);
-    const list = (await (await fetch(`${BASE_URL}/api/briefings?pageSize=100`, { headers: { cookie: merlin } })).json()) as { rows: { id: string }[] };
+    const list = (await (await fetch(`${BASE_URL}/api/briefings?pageSize=100`, { headers: { cookie: merlin } })).json()) as {
+      rows: { id: string }[];
+    };
     expect(list.rows.map((r) => r.id)).not.toContain(newId);
   });
 });

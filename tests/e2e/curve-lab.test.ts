@@ -71,9 +71,15 @@ describe("Curve Lab end to end", () => {
     // Handouts: the chart as PNG, the sampled data as CSV (through lib/csv.ts).
     const [png] = await Promise.all([page.waitForEvent("download"), page.click("text=Export chart (PNG)")]);
     expect(png.suggestedFilename()).toBe("E2E_ gear and mass.png");
-    expect(readFileSync((await png.path())!).subarray(1, 4).toString("latin1")).toBe("PNG");
+    expect(
+      readFileSync((await png.path())!)
+        .subarray(1, 4)
+        .toString("latin1"),
+    ).toBe("PNG");
     const [csv] = await Promise.all([page.waitForEvent("download"), page.click("text=Export data (CSV)")]);
-    const lines = readFileSync((await csv.path())!, "utf8").trim().split("\r\n");
+    const lines = readFileSync((await csv.path())!, "utf8")
+      .trim()
+      .split("\r\n");
     expect(lines).toHaveLength(401); // a header and 400 sampled speeds
     expect(lines[0]).toMatch(/^EAS \(kt\),Max mass: zero-lift drag \(N\),/);
     expect(lines[0]!.split(",")).toHaveLength(1 + 2 * 7);

@@ -58,11 +58,20 @@ async function until(what: string, fn: () => boolean | Promise<boolean>, ms = 60
 test("a mail written to the outbox is sent by the worker to the sink and shows in the chief's Mail tray", async () => {
   const key = `e2e.tray:${randomUUID()}`;
   const title = `Tray check ${key.slice(-6)}`;
-  const mail = composeMail("record.signed", { name: "Ada <Quill>", itemCode: "AER-03", itemTitle: title, signerName: "Instructor", signedOn: "2026-12-01" }, { name: "Larkhollow Flying School", timeZone: "Europe/London" });
-  await sequelize.transaction((t) => enqueueMail(t, { schoolId, kind: "record.signed", idempotencyKey: key, to: "ada.tray@chalkwing.test", ...mail }));
+  const mail = composeMail(
+    "record.signed",
+    { name: "Ada <Quill>", itemCode: "AER-03", itemTitle: title, signerName: "Instructor", signedOn: "2026-12-01" },
+    { name: "Larkhollow Flying School", timeZone: "Europe/London" },
+  );
+  await sequelize.transaction((t) =>
+    enqueueMail(t, { schoolId, kind: "record.signed", idempotencyKey: key, to: "ada.tray@chalkwing.test", ...mail }),
+  );
   const { rows } = await db.query<{ message_id: string }>(`SELECT message_id FROM outbox WHERE idempotency_key = $1`, [key]);
   await until("the sink to receive the mail", () => sinkHas(rows[0]!.message_id));
-  await until("the outbox row to be sent", async () => (await db.query(`SELECT 1 FROM outbox WHERE idempotency_key = $1 AND state = 'sent'`, [key])).rowCount === 1);
+  await until(
+    "the outbox row to be sent",
+    async () => (await db.query(`SELECT 1 FROM outbox WHERE idempotency_key = $1 AND state = 'sent'`, [key])).rowCount === 1,
+  );
 
   const p = await page();
   await signIn(p, DEMO_ACCOUNTS.chief);
@@ -114,7 +123,8 @@ test("unsubscribe: opening the link changes nothing; the button stops the Weekly
   );
   const link = rows[0]!;
   const token = signUnsubscribe({ sponsorId: link.sponsor_id, studentId: link.student_id, kind: "weekly.letter" });
-  const count = async () => Number((await db.query(`SELECT count(*) AS n FROM mail_unsubscribes WHERE sponsor_id = $1`, [link.sponsor_id])).rows[0].n);
+  const count = async () =>
+    Number((await db.query(`SELECT count(*) AS n FROM mail_unsubscribes WHERE sponsor_id = $1`, [link.sponsor_id])).rows[0].n);
   await db.query(`DELETE FROM mail_unsubscribes WHERE sponsor_id = $1`, [link.sponsor_id]);
   try {
     const p = await page();

@@ -43,7 +43,10 @@ describe("Records end to end", () => {
     await signIn(page, "instructor@chalkwing.test");
     await page.goto("/records");
     await screenshot(page, "records-e2e-instructor-list");
-    await Promise.all([page.waitForURL(new RegExp(`/records/${adaId}$`)), page.click("a[data-testid=record-student]:has-text('Ada Quill')")]);
+    await Promise.all([
+      page.waitForURL(new RegExp(`/records/${adaId}$`)),
+      page.click("a[data-testid=record-student]:has-text('Ada Quill')"),
+    ]);
     await page.waitForSelector("form[aria-label='Oral check']");
     await page.uncheck("label:has-text('AER-01') input[name=itemIds]");
     await page.check("label:has-text('AER-03') input[name=itemIds]");
@@ -66,7 +69,9 @@ describe("Records end to end", () => {
     await page.waitForSelector("[data-testid=check-message]:has-text('Check recorded: Meets the standard')", { timeout: 20_000 });
 
     // the stored question keeps the library's answer, inputs, aircraft snapshot and version
-    const { rows: stored } = await db.query<{ generated: { kind: string; inputs: { massKg: number }; libraryVersion: string; aircraft: { name: string } } }>(
+    const { rows: stored } = await db.query<{
+      generated: { kind: string; inputs: { massKg: number }; libraryVersion: string; aircraft: { name: string } };
+    }>(
       `SELECT q.generated FROM oral_check_questions q JOIN oral_checks c ON c.id = q.check_id WHERE c.student_id = $1 AND q.generated IS NOT NULL ORDER BY c.recorded_at DESC LIMIT 1`,
       [adaId],
     );
@@ -139,7 +144,9 @@ describe("Records end to end", () => {
     await sponsor.waitForSelector("[data-testid=progress-grid]");
     expect(await sponsor.textContent("main")).not.toContain("Remarks (internal)");
     await screenshot(sponsor, "records-e2e-progress-sponsor");
-    const other = await sponsor.goto(`/progress/${(await db.query<{ id: string }>(`SELECT id FROM people WHERE email = 'noor.brandt@chalkwing.test'`)).rows[0]!.id}`);
+    const other = await sponsor.goto(
+      `/progress/${(await db.query<{ id: string }>(`SELECT id FROM people WHERE email = 'noor.brandt@chalkwing.test'`)).rows[0]!.id}`,
+    );
     expect(other?.status()).toBe(404);
     expect(await sponsor.textContent("body")).not.toContain("Noor");
 

@@ -25,12 +25,14 @@ afterAll(async () => {
 /** A person of the demo school with a sign-in lock, made directly in the database. */
 async function lockedTarget(label: string): Promise<{ id: string; email: string }> {
   const email = `e2e.${label}.${Date.now()}@chalkwing.test`;
-  const { rows } = await db.query<{ id: string }>(`INSERT INTO people (school_id, name, email, roles) VALUES ($1, $2, $3, ARRAY['student']) RETURNING id`, [
-    await demoSchoolId(db),
-    `E2E ${label}`,
-    email,
-  ]);
-  await db.query(`INSERT INTO sign_in_throttle (email, address, failures, locked_until) VALUES ($1, '192.0.2.1', 10, now() + interval '15 minutes')`, [email]);
+  const { rows } = await db.query<{ id: string }>(
+    `INSERT INTO people (school_id, name, email, roles) VALUES ($1, $2, $3, ARRAY['student']) RETURNING id`,
+    [await demoSchoolId(db), `E2E ${label}`, email],
+  );
+  await db.query(
+    `INSERT INTO sign_in_throttle (email, address, failures, locked_until) VALUES ($1, '192.0.2.1', 10, now() + interval '15 minutes')`,
+    [email],
+  );
   return { id: rows[0]!.id, email };
 }
 async function lockCount(email: string): Promise<number> {
@@ -51,7 +53,11 @@ describe("cross-site requests carrying a session cookie", () => {
     expect(await res.json()).toMatchObject({ error: { status: 403, field: "origin" } });
     expect(await lockCount(target.email)).toBe(1);
     // the same call from the app's own origin goes through: the refusal was the Origin's doing
-    const ok = await fetch(`${BASE_URL}/api/people/${target.id}/unlock`, { method: "POST", headers: { ...headers, origin: BASE_URL }, body: "{}" });
+    const ok = await fetch(`${BASE_URL}/api/people/${target.id}/unlock`, {
+      method: "POST",
+      headers: { ...headers, origin: BASE_URL },
+      body: "{}",
+    });
     expect(ok.status).toBe(200);
     expect(await lockCount(target.email)).toBe(0);
   });
@@ -60,7 +66,13 @@ describe("cross-site requests carrying a session cookie", () => {
     const target = await lockedTarget("origin-action");
     const action = deriveActions().find((a) => a.exportedName === "unlockAccountAction");
     expect(action).toBeDefined();
-    const res = await callAction({ actionId: action!.id, pagePath: "/today", args: [{ personId: target.id }], cookie: chief, origin: "https://evil.example" });
+    const res = await callAction({
+      actionId: action!.id,
+      pagePath: "/today",
+      args: [{ personId: target.id }],
+      cookie: chief,
+      origin: "https://evil.example",
+    });
     expect(res.status).not.toBe(200);
     expect(await res.text()).not.toContain(target.id);
     expect(await lockCount(target.email)).toBe(1);
@@ -69,7 +81,9 @@ describe("cross-site requests carrying a session cookie", () => {
 
 describe("security headers", () => {
   const expectHeaders = (res: Response, what: string) => {
-    const h = Object.fromEntries(["content-security-policy", "x-content-type-options", "referrer-policy"].map((k) => [k, res.headers.get(k)]));
+    const h = Object.fromEntries(
+      ["content-security-policy", "x-content-type-options", "referrer-policy"].map((k) => [k, res.headers.get(k)]),
+    );
     expect({ what, ...h }).toEqual({
       what,
       "content-security-policy": expect.stringContaining("frame-ancestors 'none'"),
@@ -123,7 +137,12 @@ describe("a second server of the same build whose database is unreachable", () =
     const [webPort, deadDbPort] = [await freePort(), await freePort()];
     base = `http://127.0.0.1:${webPort}`;
     server = spawn(process.execPath, ["node_modules/next/dist/bin/next", "start", "-p", String(webPort), "-H", "127.0.0.1"], {
-      env: { ...process.env, NODE_ENV: "production", NEXTAUTH_URL: base, DATABASE_URL: `postgres://chalkwing_app:x@127.0.0.1:${deadDbPort}/nowhere` },
+      env: {
+        ...process.env,
+        NODE_ENV: "production",
+        NEXTAUTH_URL: base,
+        DATABASE_URL: `postgres://chalkwing_app:x@127.0.0.1:${deadDbPort}/nowhere`,
+      },
       stdio: ["ignore", "pipe", "pipe"],
     });
     server.stdout?.on("data", (d: Buffer) => (log += d.toString()));

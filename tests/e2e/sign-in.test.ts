@@ -43,7 +43,12 @@ describe("the four demo accounts", () => {
          FROM schools s JOIN people p ON p.school_id = s.id AND p.active WHERE s.name = 'Larkhollow Flying School' GROUP BY s.id`,
     );
     const want = rows[0]!;
-    for (const [label, n] of [["Students", want.students], ["Instructors", want.instructors], ["Cohorts", want.cohorts], ["Sponsors", want.sponsors]] as const) {
+    for (const [label, n] of [
+      ["Students", want.students],
+      ["Instructors", want.instructors],
+      ["Cohorts", want.cohorts],
+      ["Sponsors", want.sponsors],
+    ] as const) {
       await expect(page.locator(`dt:text-is("${label}") + dd`).textContent()).resolves.toBe(String(n));
     }
     expect(Number(want.students)).toBeGreaterThanOrEqual(24); // the seed's two cohorts of twelve

@@ -17,7 +17,11 @@ afterAll(async () => {
 
 const get = (path: string) => fetch(`${BASE_URL}${path}`, { headers: { cookie: chief, accept: "application/json" } });
 const upload = (mode: string, body: string | Buffer, type = "text/csv") =>
-  fetch(`${BASE_URL}/api/roster/import?mode=${mode}`, { method: "POST", headers: { cookie: chief, origin: BASE_URL, "content-type": type }, body: typeof body === "string" ? body : new Uint8Array(body) });
+  fetch(`${BASE_URL}/api/roster/import?mode=${mode}`, {
+    method: "POST",
+    headers: { cookie: chief, origin: BASE_URL, "content-type": type },
+    body: typeof body === "string" ? body : new Uint8Array(body),
+  });
 
 describe("GET /api/sessions query validation", () => {
   it.each([
@@ -37,13 +41,19 @@ describe("GET /api/sessions query validation", () => {
   });
 
   it("pages and sorts on the server", async () => {
-    const a = (await (await get("/api/sessions?pageSize=3&page=1&sort=starts_at&dir=asc")).json()) as { rows: { startsAt: string }[]; total: number; pages: number };
+    const a = (await (await get("/api/sessions?pageSize=3&page=1&sort=starts_at&dir=asc")).json()) as {
+      rows: { startsAt: string }[];
+      total: number;
+      pages: number;
+    };
     const b = (await (await get("/api/sessions?pageSize=3&page=2&sort=starts_at&dir=asc")).json()) as { rows: { startsAt: string }[] };
     expect(a.rows).toHaveLength(3);
     expect(a.pages).toBe(Math.ceil(a.total / 3));
     expect(a.rows[2]!.startsAt <= b.rows[0]!.startsAt).toBe(true);
     const desc = (await (await get("/api/sessions?pageSize=1&sort=starts_at&dir=desc")).json()) as { rows: { startsAt: string }[] };
-    const last = (await (await get(`/api/sessions?pageSize=1&page=${a.total}&sort=starts_at&dir=asc`)).json()) as { rows: { startsAt: string }[] };
+    const last = (await (await get(`/api/sessions?pageSize=1&page=${a.total}&sort=starts_at&dir=asc`)).json()) as {
+      rows: { startsAt: string }[];
+    };
     expect(desc.rows[0]!.startsAt).toBe(last.rows[0]!.startsAt);
   });
 });
@@ -78,7 +88,12 @@ describe("POST /api/roster/import", () => {
     const res = await upload("commit", csv);
     expect(res.status).toBe(200);
     expect(await res.json()).toEqual({ created: 1, invitations: 1, sponsorsLinked: 0 });
-    const row = (await db.query(`SELECT p.name, c.name AS cohort FROM people p JOIN cohort_memberships m ON m.student_id = p.id JOIN cohorts c ON c.id = m.cohort_id WHERE p.email = $1`, [email])).rows[0];
+    const row = (
+      await db.query(
+        `SELECT p.name, c.name AS cohort FROM people p JOIN cohort_memberships m ON m.student_id = p.id JOIN cohorts c ON c.id = m.cohort_id WHERE p.email = $1`,
+        [email],
+      )
+    ).rows[0];
     expect(row).toEqual({ name: "Solberg, Ingrid", cohort: "Merlin cohort" });
     expect((await db.query(`SELECT kind FROM outbox WHERE to_address = $1`, [email])).rows).toEqual([{ kind: "invitation" }]);
   });

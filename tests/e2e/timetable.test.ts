@@ -56,7 +56,10 @@ describe("Timetable end to end", () => {
     await page.fill("#room", "Hangar classroom");
     await page.selectOption("#cohortId", { label: "Kestrel cohort" });
     await screenshot(page, "timetable-e2e-schedule-form");
-    await Promise.all([page.waitForURL(/\/timetable\/[0-9a-f-]{36}$/, { timeout: 20_000 }), page.click("button[type=submit]:has-text('Schedule the session')")]);
+    await Promise.all([
+      page.waitForURL(/\/timetable\/[0-9a-f-]{36}$/, { timeout: 20_000 }),
+      page.click("button[type=submit]:has-text('Schedule the session')"),
+    ]);
     const sessionUrl = page.url();
     await page.waitForSelector("form[aria-label='Record attendance']");
     expect(await page.textContent("main h1")).toBe(briefingTitle);

@@ -25,17 +25,48 @@ export async function makeSchool(label = "t") {
   return sequelize.transaction(async (t) => {
     const school = await createSchool({ name: `Test school ${tag}`, timeZone: "Europe/London" }, t);
     const course = await createCourse({ schoolId: school.id, code: `C-${tag}`, title: "Test ground course", minGroundMinutes: 35 * 60 }, t);
-    const rev = await createSyllabusRevision({ courseId: course.id, approvedOn: "2026-01-01", effectiveFrom: "2026-01-01", changeNote: "test", stages: DEMO_STAGES }, t);
+    const rev = await createSyllabusRevision(
+      { courseId: course.id, approvedOn: "2026-01-01", effectiveFrom: "2026-01-01", changeNote: "test", stages: DEMO_STAGES },
+      t,
+    );
     const person = (name: string, roles: Role[]) =>
-      createPerson({ schoolId: school.id, name, email: `${name.toLowerCase().replace(/\W+/g, ".")}.${tag}@chalkwing.test`, roles, password: TEST_PASSWORD }, t);
+      createPerson(
+        {
+          schoolId: school.id,
+          name,
+          email: `${name.toLowerCase().replace(/\W+/g, ".")}.${tag}@chalkwing.test`,
+          roles,
+          password: TEST_PASSWORD,
+        },
+        t,
+      );
     const chief = await person("Chief", ["chief", "instructor"]);
     const instructor = await person("Instructor One", ["instructor"]);
     const instructor2 = await person("Instructor Two", ["instructor"]);
     for (const p of [chief, instructor, instructor2]) {
-      await addQualification({ personId: p.id, certificateKind: "Ground instructor", certificateNumber: `GI-${p.id.slice(0, 6)}`, ratings: [], issuedOn: "2020-01-01", recencyOn: "2026-01-01", recencyMonths: 24, courseIds: [course.id], checkInstructor: p === chief }, t);
+      await addQualification(
+        {
+          personId: p.id,
+          certificateKind: "Ground instructor",
+          certificateNumber: `GI-${p.id.slice(0, 6)}`,
+          ratings: [],
+          issuedOn: "2020-01-01",
+          recencyOn: "2026-01-01",
+          recencyMonths: 24,
+          courseIds: [course.id],
+          checkInstructor: p === chief,
+        },
+        t,
+      );
     }
-    const cohortA = await createCohort({ schoolId: school.id, courseId: course.id, name: `A ${tag}`, leadInstructorId: instructor.id, startsOn: "2026-09-01" }, t);
-    const cohortB = await createCohort({ schoolId: school.id, courseId: course.id, name: `B ${tag}`, leadInstructorId: instructor2.id, startsOn: "2026-09-01" }, t);
+    const cohortA = await createCohort(
+      { schoolId: school.id, courseId: course.id, name: `A ${tag}`, leadInstructorId: instructor.id, startsOn: "2026-09-01" },
+      t,
+    );
+    const cohortB = await createCohort(
+      { schoolId: school.id, courseId: course.id, name: `B ${tag}`, leadInstructorId: instructor2.id, startsOn: "2026-09-01" },
+      t,
+    );
     const students = [];
     for (const [i, cohort] of [cohortA, cohortA, cohortA, cohortB, cohortB, cohortB].entries()) {
       const s = await person(`Student ${i + 1}`, ["student"]);
@@ -45,7 +76,12 @@ export async function makeSchool(label = "t") {
     }
     const sponsor = await person("Sponsor", ["sponsor"]);
     await linkSponsor({ sponsorId: sponsor.id, studentId: students[0]!.id }, t);
-    const u = (p: { id: string; name: string; roles: Role[] }): CurrentUser => ({ id: p.id, name: p.name, roles: p.roles, schoolId: school.id });
+    const u = (p: { id: string; name: string; roles: Role[] }): CurrentUser => ({
+      id: p.id,
+      name: p.name,
+      roles: p.roles,
+      schoolId: school.id,
+    });
     return {
       tag,
       school,
@@ -53,7 +89,14 @@ export async function makeSchool(label = "t") {
       revision: rev,
       cohorts: { a: cohortA, b: cohortB },
       people: { chief, instructor, instructor2, sponsor, students },
-      as: { chief: u(chief), instructor: u(instructor), instructor2: u(instructor2), sponsor: u(sponsor), student: u(students[0]!), otherStudent: u(students[3]!) },
+      as: {
+        chief: u(chief),
+        instructor: u(instructor),
+        instructor2: u(instructor2),
+        sponsor: u(sponsor),
+        student: u(students[0]!),
+        otherStudent: u(students[3]!),
+      },
     };
   });
 }

@@ -13,7 +13,15 @@ export async function createAssignmentAction(input: unknown) {
     async (data, { user, t }) =>
       createAssignments(
         user,
-        { kind: data.kind, briefingId: data.briefingId, demoId: data.demoId, cohortId: data.cohortId, studentIds: data.studentIds, dueOn: data.dueOn, note: data.note },
+        {
+          kind: data.kind,
+          briefingId: data.briefingId,
+          demoId: data.demoId,
+          cohortId: data.cohortId,
+          studentIds: data.studentIds,
+          dueOn: data.dueOn,
+          note: data.note,
+        },
         t,
       ),
     { idempotent: "assignment.create" },

@@ -15,7 +15,10 @@ export const dynamic = "force-dynamic";
 export default async function AssignmentsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const signedIn = await getCurrentUser();
   // Students complete, staff manage: either permission opens the page.
-  const user = await requirePagePermission(signedIn && can(signedIn, "assignments.manage") ? "assignments.manage" : "assignments.complete", "/assignments");
+  const user = await requirePagePermission(
+    signedIn && can(signedIn, "assignments.manage") ? "assignments.manage" : "assignments.complete",
+    "/assignments",
+  );
   const today = await schoolToday(user.schoolId);
   const briefingParam = (await searchParams).briefing;
   const initialBriefingId = typeof briefingParam === "string" && uuidParam.safeParse(briefingParam).success ? briefingParam : undefined;
@@ -27,21 +30,46 @@ export default async function AssignmentsPage({ searchParams }: { searchParams: 
         <h1 className="text-display">Assignments</h1>
         <section className="card" aria-labelledby="h-new">
           <h2 id="h-new">New assignment</h2>
-          <div className="mt-3"><AssignmentForm choices={choices} initialBriefingId={initialBriefingId} today={today} /></div>
+          <div className="mt-3">
+            <AssignmentForm choices={choices} initialBriefingId={initialBriefingId} today={today} />
+          </div>
         </section>
         <section className="card" aria-labelledby="h-set">
           <h2 id="h-set">Set so far</h2>
-          {rows.length === 0 ? <p className="mt-2 text-ink-soft">Nothing assigned yet.</p> : (
-            <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Assignments table (scrolls sideways on small screens)">
+          {rows.length === 0 ? (
+            <p className="mt-2 text-ink-soft">Nothing assigned yet.</p>
+          ) : (
+            <div
+              className="mt-2 overflow-x-auto"
+              tabIndex={0}
+              role="region"
+              aria-label="Assignments table (scrolls sideways on small screens)"
+            >
               <table className="data-table" data-testid="staff-assignments">
-                <thead><tr><th scope="col">What</th><th scope="col">For</th><th scope="col">Due</th><th scope="col">Done</th><th scope="col">Overdue</th><th scope="col">Set by</th></tr></thead>
+                <thead>
+                  <tr>
+                    <th scope="col">What</th>
+                    <th scope="col">For</th>
+                    <th scope="col">Due</th>
+                    <th scope="col">Done</th>
+                    <th scope="col">Overdue</th>
+                    <th scope="col">Set by</th>
+                  </tr>
+                </thead>
                 <tbody>
                   {rows.map((a) => (
                     <tr key={a.id}>
-                      <td><Link href={`/assignments/${a.id}`} className="font-semibold">{a.title}</Link> <span className="text-caption text-ink-soft">· {a.kind === "briefing" ? "briefing" : "demo"}</span></td>
+                      <td>
+                        <Link href={`/assignments/${a.id}`} className="font-semibold">
+                          {a.title}
+                        </Link>{" "}
+                        <span className="text-caption text-ink-soft">· {a.kind === "briefing" ? "briefing" : "demo"}</span>
+                      </td>
                       <td>{a.target}</td>
                       <td className="num">{formatDueOn(a.dueOn)}</td>
-                      <td className="num">{a.done} of {a.students}</td>
+                      <td className="num">
+                        {a.done} of {a.students}
+                      </td>
                       <td className="num">{a.overdue}</td>
                       <td>{a.assignedByName}</td>
                     </tr>
@@ -61,16 +89,27 @@ export default async function AssignmentsPage({ searchParams }: { searchParams: 
       <h1 className="text-display">Assignments</h1>
       <section className="card" aria-labelledby="h-mine">
         <h2 id="h-mine">Yours</h2>
-        {mine.length === 0 ? <p className="mt-2 text-ink-soft">Nothing assigned to you.</p> : (
+        {mine.length === 0 ? (
+          <p className="mt-2 text-ink-soft">Nothing assigned to you.</p>
+        ) : (
           <ul className="mt-2 divide-y divide-paper-edge" data-testid="my-assignments">
             {mine.map((a) => (
               <li key={a.id} id={`a-${a.id}`} className="flex flex-wrap items-center justify-between gap-3 py-3">
                 <div className="min-w-0">
                   <p className="font-semibold">
-                    {a.kind === "briefing" && a.briefingId ? <Link href={`/briefings/${a.briefingId}`}>{a.title}</Link> : a.demoId ? <Link href={`/curve-lab/demos/${a.demoId}`}>{a.title}</Link> : a.title}
+                    {a.kind === "briefing" && a.briefingId ? (
+                      <Link href={`/briefings/${a.briefingId}`}>{a.title}</Link>
+                    ) : a.demoId ? (
+                      <Link href={`/curve-lab/demos/${a.demoId}`}>{a.title}</Link>
+                    ) : (
+                      a.title
+                    )}
                     <span className="text-caption font-normal text-ink-soft"> · {a.kind === "briefing" ? "briefing" : "demo"}</span>
                   </p>
-                  <p className="text-caption text-ink-soft">Due {formatDueOn(a.dueOn)} · from {a.assignedByName}{a.note ? ` · “${a.note}”` : ""}</p>
+                  <p className="text-caption text-ink-soft">
+                    Due {formatDueOn(a.dueOn)} · from {a.assignedByName}
+                    {a.note ? ` · “${a.note}”` : ""}
+                  </p>
                 </div>
                 <div className="flex flex-wrap items-center gap-3">
                   <StatusBadge done={a.done} overdue={a.overdue} />

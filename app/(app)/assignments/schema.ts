@@ -12,14 +12,22 @@ export const assignmentSchema = z
     demoId: z.preprocess(emptyToNull, uuid.nullable()),
     cohortId: z.preprocess(emptyToNull, uuid.nullable()),
     studentIds: z.array(uuid).max(200).default([]),
-    dueOn: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Choose a date").refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s), "Not a calendar date"),
+    dueOn: z
+      .string()
+      .regex(/^\d{4}-\d{2}-\d{2}$/, "Choose a date")
+      .refine(
+        (s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s),
+        "Not a calendar date",
+      ),
     note: z.string().trim().max(500, "At most 500 characters").default(""),
   })
   .superRefine((v, ctx) => {
     if (v.kind === "briefing" && !v.briefingId) ctx.addIssue({ code: "custom", path: ["briefingId"], message: "Choose a briefing" });
     if (v.kind === "demo" && !v.demoId) ctx.addIssue({ code: "custom", path: ["demoId"], message: "Choose a demo" });
-    if (!v.cohortId && v.studentIds.length === 0) ctx.addIssue({ code: "custom", path: ["cohortId"], message: "Choose a cohort or at least one student" });
-    if (v.cohortId && v.studentIds.length > 0) ctx.addIssue({ code: "custom", path: ["studentIds"], message: "Choose a cohort or students, not both" });
+    if (!v.cohortId && v.studentIds.length === 0)
+      ctx.addIssue({ code: "custom", path: ["cohortId"], message: "Choose a cohort or at least one student" });
+    if (v.cohortId && v.studentIds.length > 0)
+      ctx.addIssue({ code: "custom", path: ["studentIds"], message: "Choose a cohort or students, not both" });
   });
 export type AssignmentFormInput = z.input<typeof assignmentSchema>;
 

@@ -19,7 +19,11 @@ const COLUMNS = [
 
 export default async function BriefingsPage({ searchParams }: { searchParams: Promise<Search> }) {
   const user = await requirePagePermission("briefings.view", "/briefings");
-  const raw = Object.fromEntries(Object.entries(await searchParams).map(([k, v]) => [k, Array.isArray(v) ? v[0] : v]).filter(([, v]) => v !== undefined && v !== ""));
+  const raw = Object.fromEntries(
+    Object.entries(await searchParams)
+      .map(([k, v]) => [k, Array.isArray(v) ? v[0] : v])
+      .filter(([, v]) => v !== undefined && v !== ""),
+  );
   const parsed = briefingListQuery.safeParse(raw);
   const query = parsed.success ? parsed.data : briefingListQuery.parse({});
   const badField = parsed.success ? null : parsed.error.issues[0];
@@ -27,7 +31,15 @@ export default async function BriefingsPage({ searchParams }: { searchParams: Pr
   const pages = Math.max(1, Math.ceil(result.total / query.pageSize));
   const href = (over: Record<string, string | number | undefined>) => {
     const p = new URLSearchParams();
-    const merged = { q: query.q, item: query.item, sort: query.sort, dir: query.dir, page: query.page, pageSize: query.pageSize === 20 ? undefined : query.pageSize, ...over };
+    const merged = {
+      q: query.q,
+      item: query.item,
+      sort: query.sort,
+      dir: query.dir,
+      page: query.page,
+      pageSize: query.pageSize === 20 ? undefined : query.pageSize,
+      ...over,
+    };
     for (const [k, v] of Object.entries(merged)) if (v !== undefined && v !== "") p.set(k, String(v));
     return `/briefings?${p.toString()}`;
   };
@@ -37,9 +49,17 @@ export default async function BriefingsPage({ searchParams }: { searchParams: Pr
       <header className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <h1 className="text-display">Briefings</h1>
-          <p className="text-ink-soft">{isStudent ? "Briefings scheduled for you or assigned to you." : "Lesson plans for ground sessions. Each change is kept as a numbered revision."}</p>
+          <p className="text-ink-soft">
+            {isStudent
+              ? "Briefings scheduled for you or assigned to you."
+              : "Lesson plans for ground sessions. Each change is kept as a numbered revision."}
+          </p>
         </div>
-        {can(user, "briefings.edit") && <Link href="/briefings/new" className="btn-primary">New briefing</Link>}
+        {can(user, "briefings.edit") && (
+          <Link href="/briefings/new" className="btn-primary">
+            New briefing
+          </Link>
+        )}
       </header>
       {badField && (
         <p role="alert" className="field-error">
@@ -48,22 +68,36 @@ export default async function BriefingsPage({ searchParams }: { searchParams: Pr
       )}
       <form method="get" className="card flex flex-wrap items-end gap-3" aria-label="Filter briefings">
         <div className="min-w-48 flex-1">
-          <label htmlFor="q" className="field-label">Title or objective contains</label>
+          <label htmlFor="q" className="field-label">
+            Title or objective contains
+          </label>
           <input id="q" name="q" defaultValue={query.q ?? ""} className="field-input" maxLength={100} />
         </div>
         <div className="w-40">
-          <label htmlFor="item" className="field-label">Syllabus item code</label>
+          <label htmlFor="item" className="field-label">
+            Syllabus item code
+          </label>
           <input id="item" name="item" defaultValue={query.item ?? ""} className="field-input" placeholder="AER-03" maxLength={20} />
         </div>
         <input type="hidden" name="sort" value={query.sort} />
         <input type="hidden" name="dir" value={query.dir} />
-        <button type="submit" className="btn-quiet">Filter</button>
-        {(query.q || query.item) && <Link href="/briefings" className="btn-quiet">Clear</Link>}
+        <button type="submit" className="btn-quiet">
+          Filter
+        </button>
+        {(query.q || query.item) && (
+          <Link href="/briefings" className="btn-quiet">
+            Clear
+          </Link>
+        )}
       </form>
       <section aria-labelledby="list-title" className="card">
-        <h2 id="list-title" className="sr-only">Briefings found</h2>
+        <h2 id="list-title" className="sr-only">
+          Briefings found
+        </h2>
         <p className="text-caption text-ink-soft" aria-live="polite" data-testid="briefings-total">
-          {result.total === 0 ? "No briefings found." : `${result.total} briefing${result.total === 1 ? "" : "s"} · page ${query.page} of ${pages}`}
+          {result.total === 0
+            ? "No briefings found."
+            : `${result.total} briefing${result.total === 1 ? "" : "s"} · page ${query.page} of ${pages}`}
         </p>
         {result.rows.length > 0 && (
           <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Briefings table (scrolls sideways on small screens)">
@@ -90,12 +124,21 @@ export default async function BriefingsPage({ searchParams }: { searchParams: Pr
               <tbody>
                 {result.rows.map((b) => (
                   <tr key={b.id}>
-                    <td><Link href={`/briefings/${b.id}`} className="font-semibold">{b.title}</Link></td>
+                    <td>
+                      <Link href={`/briefings/${b.id}`} className="font-semibold">
+                        {b.title}
+                      </Link>
+                    </td>
                     <td className="num">{b.minutes}</td>
                     <td className="num">{b.revisionNumber}</td>
-                    <td className="num">{formatInZone(new Date(b.updatedAt), school.timeZone, "d MMM yyyy")} <span className="text-ink-soft">· {b.updatedByName}</span></td>
+                    <td className="num">
+                      {formatInZone(new Date(b.updatedAt), school.timeZone, "d MMM yyyy")}{" "}
+                      <span className="text-ink-soft">· {b.updatedByName}</span>
+                    </td>
                     <td className="num">{b.itemCodes.join(", ") || "—"}</td>
-                    <td className="num">{b.handouts} · {b.demos}</td>
+                    <td className="num">
+                      {b.handouts} · {b.demos}
+                    </td>
                   </tr>
                 ))}
               </tbody>
@@ -104,9 +147,19 @@ export default async function BriefingsPage({ searchParams }: { searchParams: Pr
         )}
         {pages > 1 && (
           <nav aria-label="Pages" className="mt-3 flex items-center gap-2">
-            {query.page > 1 ? <Link className="btn-quiet" href={href({ page: query.page - 1 })}>Previous page</Link> : null}
-            <span className="text-caption text-ink-soft">Page {query.page} of {pages}</span>
-            {query.page < pages ? <Link className="btn-quiet" href={href({ page: query.page + 1 })}>Next page</Link> : null}
+            {query.page > 1 ? (
+              <Link className="btn-quiet" href={href({ page: query.page - 1 })}>
+                Previous page
+              </Link>
+            ) : null}
+            <span className="text-caption text-ink-soft">
+              Page {query.page} of {pages}
+            </span>
+            {query.page < pages ? (
+              <Link className="btn-quiet" href={href({ page: query.page + 1 })}>
+                Next page
+              </Link>
+            ) : null}
           </nav>
         )}
       </section>

@@ -33,7 +33,12 @@ export const reviseBriefingSchema = briefingSchema.extend({ briefingId: uuid });
 
 /** Query parameters of the briefings list (page and GET /api/briefings). A bad one is a 400 naming it. */
 export const briefingListQuery = z.object({
-  q: z.string().trim().max(100, "at most 100 characters").optional().transform((v) => (v ? v : undefined)),
+  q: z
+    .string()
+    .trim()
+    .max(100, "at most 100 characters")
+    .optional()
+    .transform((v) => (v ? v : undefined)),
   item: z
     .string()
     .trim()

@@ -37,11 +37,15 @@ export async function saveDemoAction(input: unknown) {
 const idSchema = z.object({ demoId: z.string().uuid("demoId: not a demo id") });
 
 export async function renameDemoAction(input: unknown) {
-  return runAction("demos.edit", idSchema.extend({ name: demoName }), input, async ({ demoId, name }, { user, t }) => renameDemo(user, demoId, name, t));
+  return runAction("demos.edit", idSchema.extend({ name: demoName }), input, async ({ demoId, name }, { user, t }) =>
+    renameDemo(user, demoId, name, t),
+  );
 }
 
 export async function duplicateDemoAction(input: unknown) {
-  return runAction("demos.edit", idSchema, input, async ({ demoId }, { user, t }) => duplicateDemo(user, demoId, t), { idempotent: "demo.duplicate" });
+  return runAction("demos.edit", idSchema, input, async ({ demoId }, { user, t }) => duplicateDemo(user, demoId, t), {
+    idempotent: "demo.duplicate",
+  });
 }
 
 export async function deleteDemoAction(input: unknown) {
@@ -51,7 +55,10 @@ export async function deleteDemoAction(input: unknown) {
 const callSchema = z.object({
   demoRevisionId: z.string().uuid("demoRevisionId: not a demo revision id"),
   kind: z.enum(CALL_KINDS, { error: "kind must be vmd, stall or gust" }),
-  predictedMs: z.number({ error: "predictedMs must be a number" }).gt(0, "predictedMs must be above 0 m/s").max(500, "predictedMs must be at most 500 m/s"),
+  predictedMs: z
+    .number({ error: "predictedMs must be a number" })
+    .gt(0, "predictedMs must be above 0 m/s")
+    .max(500, "predictedMs must be at most 500 m/s"),
 });
 
 /**
@@ -71,7 +78,15 @@ export async function makeCallAction(input: unknown) {
       if (revision.spec.callKind !== kind) throw new HttpError(400, "kind: this demo does not ask for that call", "kind");
       const actualMs = callAnswer(revision.spec, kind);
       return recordCall(
-        { schoolId: user.schoolId, demoRevisionId, studentId: user.id, markerKind: kind, speedAxis: revision.spec.axis.speed, predictedMs, actualMs },
+        {
+          schoolId: user.schoolId,
+          demoRevisionId,
+          studentId: user.id,
+          markerKind: kind,
+          speedAxis: revision.spec.axis.speed,
+          predictedMs,
+          actualMs,
+        },
         t,
       );
     },

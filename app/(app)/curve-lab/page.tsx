@@ -17,8 +17,12 @@ export default async function CurveLabPage() {
         <h1 className="text-display">Curve Lab</h1>
         {staff && (
           <div className="flex flex-wrap gap-2">
-            <Link href="/curve-lab/airframes" className="btn-quiet">Airframes</Link>
-            <Link href="/curve-lab/demos/new" className="btn-primary">New demo</Link>
+            <Link href="/curve-lab/airframes" className="btn-quiet">
+              Airframes
+            </Link>
+            <Link href="/curve-lab/demos/new" className="btn-primary">
+              New demo
+            </Link>
           </div>
         )}
       </div>

@@ -16,7 +16,12 @@ export const metadata: Metadata = { title: "Ground log" };
 export const dynamic = "force-dynamic";
 
 const STATE_LABEL = { open: "Open", scheduled: "Scheduled", done: "Done", waived: "Waived" } as const;
-const CLOSED_BY = { session: "by a later session", one_to_one: "by a one-to-one briefing", oral_check: "by self-study and an oral check", attendance_amended: "attendance corrected" } as Record<string, string>;
+const CLOSED_BY = {
+  session: "by a later session",
+  one_to_one: "by a one-to-one briefing",
+  oral_check: "by self-study and an oral check",
+  attendance_amended: "attendance corrected",
+} as Record<string, string>;
 
 export default async function GroundLogPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requirePagePermission("groundlog.view", "/ground-log");
@@ -28,117 +33,233 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
   const badParam = asked !== undefined && !uuidParam.safeParse(asked).success;
   const studentId = isStudent ? user.id : !badParam && asked ? asked : choices[0]?.id;
   const allowed = studentId ? await mayViewGroundLog(user, studentId) : false;
-  const student = allowed && studentId ? (isStudent ? { id: user.id, name: user.name } : choices.find((c) => c.id === studentId) ?? null) : null;
+  const student =
+    allowed && studentId ? (isStudent ? { id: user.id, name: user.name } : (choices.find((c) => c.id === studentId) ?? null)) : null;
   const enrolment = student ? await getActiveEnrolment(student.id) : null;
   const hours = student && enrolment ? await groundHoursFor(student.id, enrolment.courseId) : null;
   const log = student ? await logbookFor(user.schoolId, student.id) : [];
   const makeup = student ? await listMakeupFor([student.id]) : [];
   const staff = can(user, "attendance.record");
-  const upcoming = staff && student && makeup.some((m) => m.state === "open")
-    ? (await listSessions({ ...user, id: student.id, roles: ["student"] }, { status: "scheduled", fromInstant: now() }, { pageSize: 20 })).rows
-    : [];
+  const upcoming =
+    staff && student && makeup.some((m) => m.state === "open")
+      ? (await listSessions({ ...user, id: student.id, roles: ["student"] }, { status: "scheduled", fromInstant: now() }, { pageSize: 20 }))
+          .rows
+      : [];
   return (
     <div className="space-y-6">
       <style>{`@media print { header:has(nav[aria-label="Main"]), a[href="#main"], .no-print { display: none !important; } .card { box-shadow: none; border: 0; break-inside: avoid; } }`}</style>
       <header>
         <h1 className="text-display">Ground log</h1>
-        <p className="text-ink-soft">{student ? `${student.name}${enrolment ? ` · ${enrolment.courseTitle}` : ""}` : "Ground-training records"}</p>
+        <p className="text-ink-soft">
+          {student ? `${student.name}${enrolment ? ` · ${enrolment.courseTitle}` : ""}` : "Ground-training records"}
+        </p>
       </header>
       {!isStudent && choices.length > 0 && (
         <form method="get" className="card no-print flex flex-wrap items-end gap-3" aria-label="Choose a student">
           <div className="min-w-60 flex-1">
-            <label htmlFor="gl-student" className="field-label">Student</label>
+            <label htmlFor="gl-student" className="field-label">
+              Student
+            </label>
             <select id="gl-student" name="student" defaultValue={student?.id ?? ""} className="field-input">
-              {choices.map((c) => <option key={c.id} value={c.id}>{c.name}{c.cohortName ? ` (${c.cohortName})` : ""}</option>)}
+              {choices.map((c) => (
+                <option key={c.id} value={c.id}>
+                  {c.name}
+                  {c.cohortName ? ` (${c.cohortName})` : ""}
+                </option>
+              ))}
             </select>
           </div>
-          <button type="submit" className="btn-quiet">Show</button>
+          <button type="submit" className="btn-quiet">
+            Show
+          </button>
         </form>
       )}
-      {badParam && <p role="alert" className="field-error">student: not a valid id.</p>}
-      {!student && <p className="card">{choices.length === 0 && !isStudent ? "No student's Ground log is shared with you." : "No such student, or not one whose Ground log you may see."}</p>}
+      {badParam && (
+        <p role="alert" className="field-error">
+          student: not a valid id.
+        </p>
+      )}
+      {!student && (
+        <p className="card">
+          {choices.length === 0 && !isStudent
+            ? "No student's Ground log is shared with you."
+            : "No such student, or not one whose Ground log you may see."}
+        </p>
+      )}
       {student && (
         <>
           <section className="card" aria-labelledby="hours-title">
             <h2 id="hours-title">Ground hours</h2>
             {hours ? (
               <>
-                <p className="num mt-1 text-title" data-testid="ground-log-hours">{hoursLabel(hours.creditedMinutes, hours.minimumMinutes)}</p>
+                <p className="num mt-1 text-title" data-testid="ground-log-hours">
+                  {hoursLabel(hours.creditedMinutes, hours.minimumMinutes)}
+                </p>
                 <p className="text-caption text-ink-soft">{hours.courseCode}: credited time only, against the course minimum.</p>
                 <div className="mt-3 overflow-x-auto" tabIndex={0} role="region" aria-label="Hours per stage, scrolls sideways">
                   <table className="data-table">
                     <caption className="sr-only">Credited hours per stage</caption>
-                    <thead><tr><th scope="col">Stage</th><th scope="col" className="text-right">Credited</th></tr></thead>
+                    <thead>
+                      <tr>
+                        <th scope="col">Stage</th>
+                        <th scope="col" className="text-right">
+                          Credited
+                        </th>
+                      </tr>
+                    </thead>
                     <tbody>
                       {hours.byStage.map((st) => (
-                        <tr key={st.stageCode ?? "none"}><td>{st.stageCode ? `${st.stageCode} · ` : ""}{st.stageTitle}</td><td className="num text-right">{hoursLabel(st.minutes)}</td></tr>
+                        <tr key={st.stageCode ?? "none"}>
+                          <td>
+                            {st.stageCode ? `${st.stageCode} · ` : ""}
+                            {st.stageTitle}
+                          </td>
+                          <td className="num text-right">{hoursLabel(st.minutes)}</td>
+                        </tr>
                       ))}
-                      {hours.byStage.length === 0 && <tr><td colSpan={2} className="text-ink-soft">No credited time yet.</td></tr>}
+                      {hours.byStage.length === 0 && (
+                        <tr>
+                          <td colSpan={2} className="text-ink-soft">
+                            No credited time yet.
+                          </td>
+                        </tr>
+                      )}
                     </tbody>
                   </table>
                 </div>
               </>
-            ) : <p className="mt-1 text-ink-soft">Not enrolled on a course at the moment.</p>}
+            ) : (
+              <p className="mt-1 text-ink-soft">Not enrolled on a course at the moment.</p>
+            )}
           </section>
           <section className="card" aria-labelledby="logbook-title">
             <div className="flex flex-wrap items-center justify-between gap-2">
               <h2 id="logbook-title">Logbook</h2>
               <div className="no-print flex flex-wrap gap-2">
                 <PrintButton />
-                <a className="btn-quiet" href={`/api/ground-log/${student.id}/logbook`} download>Download CSV</a>
+                <a className="btn-quiet" href={`/api/ground-log/${student.id}/logbook`} download>
+                  Download CSV
+                </a>
               </div>
             </div>
             <ol className="mt-2 divide-y divide-paper-edge sm:hidden print:hidden" aria-label="Logbook lines">
               {log.map((l) => (
                 <li key={l.entryId} className="py-2">
-                  <p className="flex justify-between gap-2"><span className="num font-semibold">{l.date}</span><span className="num">{hoursLabel(l.durationMinutes)} · {ATTENDANCE_LABELS[l.status]}</span></p>
+                  <p className="flex justify-between gap-2">
+                    <span className="num font-semibold">{l.date}</span>
+                    <span className="num">
+                      {hoursLabel(l.durationMinutes)} · {ATTENDANCE_LABELS[l.status]}
+                    </span>
+                  </p>
                   <p>{l.subjects}</p>
-                  <p className="text-caption text-ink-soft">{l.instructorName}, certificate <span className="num">{l.certificateNumber ?? "—"}</span>{l.amended ? ` · amended: ${l.reason}` : ""}</p>
+                  <p className="text-caption text-ink-soft">
+                    {l.instructorName}, certificate <span className="num">{l.certificateNumber ?? "—"}</span>
+                    {l.amended ? ` · amended: ${l.reason}` : ""}
+                  </p>
                 </li>
               ))}
               {log.length === 0 && <li className="py-2 text-ink-soft">No entries yet.</li>}
             </ol>
-            <div className="mt-2 hidden overflow-x-auto sm:block print:block print:overflow-visible" tabIndex={0} role="region" aria-label="Logbook lines, scrolls sideways">
+            <div
+              className="mt-2 hidden overflow-x-auto sm:block print:block print:overflow-visible"
+              tabIndex={0}
+              role="region"
+              aria-label="Logbook lines, scrolls sideways"
+            >
               <table className="data-table" data-testid="logbook">
                 <caption className="sr-only">Logbook lines, one per ground-training entry</caption>
-                <thead><tr><th scope="col">Date</th><th scope="col" className="text-right">Duration</th><th scope="col">Attendance</th><th scope="col">Subjects</th><th scope="col">Instructor</th><th scope="col">Certificate</th></tr></thead>
+                <thead>
+                  <tr>
+                    <th scope="col">Date</th>
+                    <th scope="col" className="text-right">
+                      Duration
+                    </th>
+                    <th scope="col">Attendance</th>
+                    <th scope="col">Subjects</th>
+                    <th scope="col">Instructor</th>
+                    <th scope="col">Certificate</th>
+                  </tr>
+                </thead>
                 <tbody>
                   {log.map((l) => (
                     <tr key={l.entryId}>
                       <td className="num whitespace-nowrap">{l.date}</td>
                       <td className="num text-right whitespace-nowrap">{hoursLabel(l.durationMinutes)}</td>
-                      <td>{ATTENDANCE_LABELS[l.status]}{l.amended ? <span className="block text-caption text-ink-soft">amended: {l.reason}</span> : null}</td>
+                      <td>
+                        {ATTENDANCE_LABELS[l.status]}
+                        {l.amended ? <span className="block text-caption text-ink-soft">amended: {l.reason}</span> : null}
+                      </td>
                       <td>{l.subjects}</td>
                       <td>{l.instructorName}</td>
                       <td className="num">{l.certificateNumber ?? "—"}</td>
                     </tr>
                   ))}
-                  {log.length === 0 && <tr><td colSpan={6} className="text-ink-soft">No entries yet.</td></tr>}
+                  {log.length === 0 && (
+                    <tr>
+                      <td colSpan={6} className="text-ink-soft">
+                        No entries yet.
+                      </td>
+                    </tr>
+                  )}
                 </tbody>
               </table>
             </div>
-            <p className="mt-2 text-caption text-ink-soft">Printed from {school.name}. Entries are never edited: a correction is an amendment and the original stays on record.</p>
+            <p className="mt-2 text-caption text-ink-soft">
+              Printed from {school.name}. Entries are never edited: a correction is an amendment and the original stays on record.
+            </p>
           </section>
           <section className="card" aria-labelledby="makeup-title">
             <h2 id="makeup-title">Make-up items</h2>
-            {makeup.length === 0 ? <p className="mt-1 text-ink-soft">None: nothing missed.</p> : (
+            {makeup.length === 0 ? (
+              <p className="mt-1 text-ink-soft">None: nothing missed.</p>
+            ) : (
               <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Make-up items, scrolls sideways">
                 <table className="data-table" data-testid="makeup">
-                  <thead><tr><th scope="col">Syllabus item</th><th scope="col">Missed</th><th scope="col">State</th>{staff && <th scope="col" className="no-print">Action</th>}</tr></thead>
+                  <thead>
+                    <tr>
+                      <th scope="col">Syllabus item</th>
+                      <th scope="col">Missed</th>
+                      <th scope="col">State</th>
+                      {staff && (
+                        <th scope="col" className="no-print">
+                          Action
+                        </th>
+                      )}
+                    </tr>
+                  </thead>
                   <tbody>
                     {makeup.map((m) => (
                       <tr key={m.id}>
-                        <td>{m.itemCode} {m.itemTitle}</td>
-                        <td>{m.sourceTitle ?? m.sourceKind}{m.sourceStartsAt ? <span className="num block text-caption text-ink-soft">{dateInZone(new Date(m.sourceStartsAt), school.timeZone)}</span> : null}</td>
+                        <td>
+                          {m.itemCode} {m.itemTitle}
+                        </td>
+                        <td>
+                          {m.sourceTitle ?? m.sourceKind}
+                          {m.sourceStartsAt ? (
+                            <span className="num block text-caption text-ink-soft">
+                              {dateInZone(new Date(m.sourceStartsAt), school.timeZone)}
+                            </span>
+                          ) : null}
+                        </td>
                         <td>
                           <span className="font-semibold">{STATE_LABEL[m.state]}</span>
-                          {m.closedByKind && <span className="block text-caption text-ink-soft">{CLOSED_BY[m.closedByKind] ?? m.closedByKind}{m.note ? `: ${m.note}` : ""}</span>}
+                          {m.closedByKind && (
+                            <span className="block text-caption text-ink-soft">
+                              {CLOSED_BY[m.closedByKind] ?? m.closedByKind}
+                              {m.note ? `: ${m.note}` : ""}
+                            </span>
+                          )}
                           {m.waivedReason && <span className="block text-caption text-ink-soft">{m.waivedReason}</span>}
                         </td>
                         {staff && (
                           <td className="no-print">
                             {(m.state === "open" || m.state === "scheduled") && (
-                              <MakeupActions itemId={m.id} state={m.state} canWaive={can(user, "makeup.waive")} sessions={upcoming.map((s) => ({ id: s.id, label: `${s.date} ${s.startLocal} ${s.briefingTitle}` }))} />
+                              <MakeupActions
+                                itemId={m.id}
+                                state={m.state}
+                                canWaive={can(user, "makeup.waive")}
+                                sessions={upcoming.map((s) => ({ id: s.id, label: `${s.date} ${s.startLocal} ${s.briefingTitle}` }))}
+                              />
                             )}
                           </td>
                         )}

@@ -12,7 +12,13 @@ import { MailTabs } from "./_components/mail-tabs";
 export const metadata: Metadata = { title: "Mail tray" };
 export const dynamic = "force-dynamic";
 
-const query = z.object({ m: z.string().max(40).regex(/^[a-z0-9-]+$/).optional() });
+const query = z.object({
+  m: z
+    .string()
+    .max(40)
+    .regex(/^[a-z0-9-]+$/)
+    .optional(),
+});
 
 // Development and demo only: the mail the local sink captured. With the tray off (production),
 // the chief sees the outbox states instead.
@@ -25,7 +31,9 @@ export default async function MailTrayPage({ searchParams }: { searchParams: Pro
       <div className="space-y-6">
         <h1 className="text-display">Mail tray</h1>
         <MailTabs current="/mail" show={tabs} />
-        <p className="card" data-testid="tray-off">The Mail tray is off on this server: mail goes to the real mail service. These are the latest mails and their states.</p>
+        <p className="card" data-testid="tray-off">
+          The Mail tray is off on this server: mail goes to the real mail service. These are the latest mails and their states.
+        </p>
         <OutboxTable rows={await listOutbox(user.schoolId, { limit: 50 })} timeZone={school.timeZone} />
       </div>
     );
@@ -43,20 +51,31 @@ export default async function MailTrayPage({ searchParams }: { searchParams: Pro
         <p className="text-ink-soft">Mail captured by the local mail service, as recipients would see it. Nothing here left the machine.</p>
       </div>
       <MailTabs current="/mail" show={tabs} />
-      {!parsedQuery.success && <p role="alert" className="field-error">m: not a message id; showing the newest.</p>}
+      {!parsedQuery.success && (
+        <p role="alert" className="field-error">
+          m: not a message id; showing the newest.
+        </p>
+      )}
       {messages.length === 0 ? (
         <p className="card">No mail captured yet.</p>
       ) : (
         <div className="grid gap-6 lg:grid-cols-[minmax(0,22rem)_minmax(0,1fr)]">
           <section aria-labelledby="tray-list" className="card p-0">
-            <h2 id="tray-list" className="px-4 pt-3 text-lead font-semibold">Captured ({messages.length})</h2>
+            <h2 id="tray-list" className="px-4 pt-3 text-lead font-semibold">
+              Captured ({messages.length})
+            </h2>
             <ul className="mt-2 max-h-[70vh] overflow-y-auto" data-testid="tray-list">
               {messages.map((m) => (
                 <li key={m.id} className="border-t border-paper-edge">
-                  <Link href={`/mail?m=${m.id}`} aria-current={m.id === selectedId ? "true" : undefined}
-                    className={`block min-h-touch px-4 py-2 no-underline hover:bg-paper-deep ${m.id === selectedId ? "bg-wing-50" : ""}`}>
+                  <Link
+                    href={`/mail?m=${m.id}`}
+                    aria-current={m.id === selectedId ? "true" : undefined}
+                    className={`block min-h-touch px-4 py-2 no-underline hover:bg-paper-deep ${m.id === selectedId ? "bg-wing-50" : ""}`}
+                  >
                     <span className="block font-semibold text-ink">{m.subject || "(no subject)"}</span>
-                    <span className="block break-all text-caption text-ink-soft">{m.envelopeTo.join(", ")} · {m.kind} · <span className="num">{when(m.receivedAt)}</span></span>
+                    <span className="block break-all text-caption text-ink-soft">
+                      {m.envelopeTo.join(", ")} · {m.kind} · <span className="num">{when(m.receivedAt)}</span>
+                    </span>
                   </Link>
                 </li>
               ))}
@@ -67,20 +86,41 @@ export default async function MailTrayPage({ searchParams }: { searchParams: Pro
               <p>That message is not in the tray.</p>
             ) : (
               <>
-                <h2 id="tray-message" className="text-title break-words">{mail.subject}</h2>
+                <h2 id="tray-message" className="text-title break-words">
+                  {mail.subject}
+                </h2>
                 <dl className="grid grid-cols-[auto_minmax(0,1fr)] gap-x-4 gap-y-1 text-caption">
-                  <dt className="text-ink-soft">From</dt><dd className="break-all">{mail.from?.text}</dd>
-                  <dt className="text-ink-soft">To</dt><dd className="break-all">{selected.entry.envelopeTo.join(", ")}</dd>
-                  <dt className="text-ink-soft">Received</dt><dd className="num">{when(selected.entry.receivedAt)}</dd>
-                  <dt className="text-ink-soft">Message-ID</dt><dd className="break-all font-mono">{mail.messageId}</dd>
-                  {mail.headerLines.some((h) => h.key === "list-unsubscribe") && (<><dt className="text-ink-soft">One-click stop</dt><dd>yes (List-Unsubscribe-Post)</dd></>)}
+                  <dt className="text-ink-soft">From</dt>
+                  <dd className="break-all">{mail.from?.text}</dd>
+                  <dt className="text-ink-soft">To</dt>
+                  <dd className="break-all">{selected.entry.envelopeTo.join(", ")}</dd>
+                  <dt className="text-ink-soft">Received</dt>
+                  <dd className="num">{when(selected.entry.receivedAt)}</dd>
+                  <dt className="text-ink-soft">Message-ID</dt>
+                  <dd className="break-all font-mono">{mail.messageId}</dd>
+                  {mail.headerLines.some((h) => h.key === "list-unsubscribe") && (
+                    <>
+                      <dt className="text-ink-soft">One-click stop</dt>
+                      <dd>yes (List-Unsubscribe-Post)</dd>
+                    </>
+                  )}
                 </dl>
                 <h3 className="font-semibold">As HTML</h3>
                 {/* sandbox without allow-scripts: the mail's HTML cannot run code or reach the page */}
-                <iframe title={`HTML part of “${mail.subject ?? ""}”`} sandbox="" srcDoc={typeof mail.html === "string" ? mail.html : "<p>No HTML part</p>"}
-                  className="h-[36rem] w-full rounded-md border border-paper-edge bg-white" data-testid="tray-html" />
+                <iframe
+                  title={`HTML part of “${mail.subject ?? ""}”`}
+                  sandbox=""
+                  srcDoc={typeof mail.html === "string" ? mail.html : "<p>No HTML part</p>"}
+                  className="h-[36rem] w-full rounded-md border border-paper-edge bg-white"
+                  data-testid="tray-html"
+                />
                 <h3 className="font-semibold">As plain text</h3>
-                <pre className="max-h-[30rem] overflow-auto whitespace-pre-wrap break-words rounded-md bg-paper-deep p-3 font-mono text-caption" data-testid="tray-text">{mail.text}</pre>
+                <pre
+                  className="max-h-[30rem] overflow-auto whitespace-pre-wrap break-words rounded-md bg-paper-deep p-3 font-mono text-caption"
+                  data-testid="tray-text"
+                >
+                  {mail.text}
+                </pre>
               </>
             )}
           </section>

@@ -22,16 +22,37 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
   return (
     <div className="space-y-6">
       <h1 className="text-display">People</h1>
-      {!parsed.success && <p role="alert" className="field-error">Filter ignored: {parsed.error.issues[0]?.path.join(".")} is not valid.</p>}
+      {!parsed.success && (
+        <p role="alert" className="field-error">
+          Filter ignored: {parsed.error.issues[0]?.path.join(".")} is not valid.
+        </p>
+      )}
       {rosters.map(({ cohort, members }) => (
         <section key={cohort.id} className="card" aria-labelledby={`c-${cohort.id}`}>
-          <h2 id={`c-${cohort.id}`}>{cohort.name} <span className="text-caption font-normal text-ink-soft">· lead {cohort.leadInstructorName} · from {cohort.startsOn}</span></h2>
+          <h2 id={`c-${cohort.id}`}>
+            {cohort.name}{" "}
+            <span className="text-caption font-normal text-ink-soft">
+              · lead {cohort.leadInstructorName} · from {cohort.startsOn}
+            </span>
+          </h2>
           <ScrollArea label={`${cohort.name} roster`} className="mt-2">
             <table className="data-table">
-              <thead><tr><th scope="col">Student</th><th scope="col">E-mail</th><th scope="col">Member from</th><th scope="col">to</th></tr></thead>
+              <thead>
+                <tr>
+                  <th scope="col">Student</th>
+                  <th scope="col">E-mail</th>
+                  <th scope="col">Member from</th>
+                  <th scope="col">to</th>
+                </tr>
+              </thead>
               <tbody>
                 {members.map((m) => (
-                  <tr key={`${m.studentId}-${m.fromDate}`}><td>{m.name}</td><td className="break-all">{m.email}</td><td className="num">{m.fromDate}</td><td className="num">{m.toDate ?? "—"}</td></tr>
+                  <tr key={`${m.studentId}-${m.fromDate}`}>
+                    <td>{m.name}</td>
+                    <td className="break-all">{m.email}</td>
+                    <td className="num">{m.fromDate}</td>
+                    <td className="num">{m.toDate ?? "—"}</td>
+                  </tr>
                 ))}
               </tbody>
             </table>
@@ -43,24 +64,46 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
           <h2 id="everyone">Everyone at the school</h2>
           <form className="mt-2 flex flex-wrap items-end gap-3" method="get">
             <div>
-              <label htmlFor="q" className="field-label">Name or e-mail</label>
+              <label htmlFor="q" className="field-label">
+                Name or e-mail
+              </label>
               <input id="q" name="q" defaultValue={filter.q ?? ""} className="field-input" />
             </div>
             <div>
-              <label htmlFor="role" className="field-label">Role</label>
+              <label htmlFor="role" className="field-label">
+                Role
+              </label>
               <select id="role" name="role" defaultValue={filter.role ?? ""} className="field-input">
                 <option value="">Any role</option>
-                {ROLES.map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
+                {ROLES.map((r) => (
+                  <option key={r} value={r}>
+                    {ROLE_LABELS[r]}
+                  </option>
+                ))}
               </select>
             </div>
-            <button type="submit" className="btn-quiet">Filter</button>
+            <button type="submit" className="btn-quiet">
+              Filter
+            </button>
           </form>
           <ScrollArea label="Everyone at the school" className="mt-3">
             <table className="data-table">
-              <thead><tr><th scope="col">Name</th><th scope="col">E-mail</th><th scope="col">Roles</th><th scope="col">Status</th></tr></thead>
+              <thead>
+                <tr>
+                  <th scope="col">Name</th>
+                  <th scope="col">E-mail</th>
+                  <th scope="col">Roles</th>
+                  <th scope="col">Status</th>
+                </tr>
+              </thead>
               <tbody>
                 {people.map((p) => (
-                  <tr key={p.id}><td>{p.name}</td><td className="break-all">{p.email}</td><td>{p.roles.map((r) => ROLE_LABELS[r]).join(", ")}</td><td>{p.active ? "Active" : "Deactivated"}</td></tr>
+                  <tr key={p.id}>
+                    <td>{p.name}</td>
+                    <td className="break-all">{p.email}</td>
+                    <td>{p.roles.map((r) => ROLE_LABELS[r]).join(", ")}</td>
+                    <td>{p.active ? "Active" : "Deactivated"}</td>
+                  </tr>
                 ))}
               </tbody>
             </table>

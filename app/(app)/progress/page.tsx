@@ -11,12 +11,15 @@ export default async function ProgressIndexPage() {
   const user = await requirePagePermission("progress.view", "/progress");
   const students = await progressStudentsFor(user);
   if (user.roles.length === 1 && user.roles[0] === "student") redirect(`/progress/${user.id}`);
-  if (students.length === 1 && !user.roles.includes("chief") && !user.roles.includes("instructor")) redirect(`/progress/${students[0]!.id}`);
+  if (students.length === 1 && !user.roles.includes("chief") && !user.roles.includes("instructor"))
+    redirect(`/progress/${students[0]!.id}`);
   return (
     <div className="space-y-6">
       <h1 className="text-display">Progress map</h1>
       {students.length === 0 ? (
-        <p className="text-ink-soft">No Progress map to show{user.roles.includes("sponsor") ? ": the students you sponsor have not shared their progress." : "."}</p>
+        <p className="text-ink-soft">
+          No Progress map to show{user.roles.includes("sponsor") ? ": the students you sponsor have not shared their progress." : "."}
+        </p>
       ) : (
         <ul className="grid gap-2 sm:grid-cols-2 lg:grid-cols-3">
           {students.map((s) => (

@@ -25,7 +25,12 @@ const questionSchema = z.object({
     .object({
       kind: z.enum(QUESTION_KINDS),
       aircraft: z.object({ kind: z.enum(AIRCRAFT_SOURCE_KINDS), id: z.string().min(1).max(100) }),
-      inputs: z.object({ massKg: num(100_000).optional(), altitudeFt: z.number().finite().min(-2000).max(60_000).optional(), speedKt: num(1000).optional(), heightFt: num(60_000).optional() }),
+      inputs: z.object({
+        massKg: num(100_000).optional(),
+        altitudeFt: z.number().finite().min(-2000).max(60_000).optional(),
+        speedKt: num(1000).optional(),
+        heightFt: num(60_000).optional(),
+      }),
     })
     .optional(),
   studentFigure: z.number().finite().nullable().optional(),
@@ -58,10 +63,18 @@ export async function recordCheckAction(input: unknown) {
 }
 
 export async function withdrawCheckAction(input: unknown) {
-  return runAction("records.amend", z.object({ checkId: uuid, reason }), input, async (data, { user, t }) => withdrawOralCheck(t, user, data));
+  return runAction("records.amend", z.object({ checkId: uuid, reason }), input, async (data, { user, t }) =>
+    withdrawOralCheck(t, user, data),
+  );
 }
 
-const signSchema = z.object({ studentId: uuid, itemId: uuid, basisCheckId: uuid.optional(), signedOn: date.optional(), password: z.string().min(1, "re-enter your password").max(200) });
+const signSchema = z.object({
+  studentId: uuid,
+  itemId: uuid,
+  basisCheckId: uuid.optional(),
+  signedOn: date.optional(),
+  password: z.string().min(1, "re-enter your password").max(200),
+});
 
 export async function signOffAction(input: unknown) {
   return runAction("records.sign", signSchema, input, async (data, { user, t }) => {
@@ -72,13 +85,21 @@ export async function signOffAction(input: unknown) {
 }
 
 export async function withdrawSignOffAction(input: unknown) {
-  return runAction("records.amend", z.object({ signOffId: uuid, reason }), input, async (data, { user, t }) => withdrawSignOff(t, user, data));
+  return runAction("records.amend", z.object({ signOffId: uuid, reason }), input, async (data, { user, t }) =>
+    withdrawSignOff(t, user, data),
+  );
 }
 
 export async function amendSignOffAction(input: unknown) {
   return runAction(
     "records.amend",
-    z.object({ signOffId: uuid, reason, basisCheckId: uuid.optional(), signedOn: date.optional(), password: z.string().min(1, "re-enter your password").max(200) }),
+    z.object({
+      signOffId: uuid,
+      reason,
+      basisCheckId: uuid.optional(),
+      signedOn: date.optional(),
+      password: z.string().min(1, "re-enter your password").max(200),
+    }),
     input,
     async (data, { user, t }) => {
       const r = await amendSignOff(t, user, data);
@@ -107,5 +128,7 @@ export async function conductStageCheckAction(input: unknown) {
 }
 
 export async function designateCheckInstructorAction(input: unknown) {
-  return runAction("stagechecks.designate", z.object({ personId: uuid, checkInstructor: z.boolean() }), input, async (data, { user, t }) => designateCheckInstructor(t, user, data));
+  return runAction("stagechecks.designate", z.object({ personId: uuid, checkInstructor: z.boolean() }), input, async (data, { user, t }) =>
+    designateCheckInstructor(t, user, data),
+  );
 }

@@ -45,7 +45,9 @@ export default async function RecordsPage() {
       {instructors.length > 0 && (
         <section className="card" aria-labelledby="check-instructors">
           <h2 id="check-instructors">Check instructors</h2>
-          <p className="text-caption text-ink-soft">Designated check instructors may conduct stage checks, except for students they lead.</p>
+          <p className="text-caption text-ink-soft">
+            Designated check instructors may conduct stage checks, except for students they lead.
+          </p>
           <ul className="mt-2 space-y-2">
             {instructors.map((i) => (
               <li key={i.id} className="flex flex-wrap items-center justify-between gap-2">

@@ -15,18 +15,30 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
   const raw = Object.fromEntries(Object.entries(await searchParams).filter(([, v]) => typeof v === "string")) as Record<string, string>;
   const parsed = registerQuerySchema.safeParse(raw);
   const q = parsed.success ? parsed.data : {};
-  const [{ rows, notes }, options, head] = await Promise.all([signOffRegister(user, toFilter(q)), registerFilterOptions(user.schoolId), chainHead(user.schoolId)]);
+  const [{ rows, notes }, options, head] = await Promise.all([
+    signOffRegister(user, toFilter(q)),
+    registerFilterOptions(user.schoolId),
+    chainHead(user.schoolId),
+  ]);
   const qs = new URLSearchParams(Object.entries(q).filter(([, v]) => v) as [string, string][]).toString();
   return (
     <div className="space-y-6">
       <header className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <h1 className="text-display">Sign-off register</h1>
-          <p className="text-caption text-ink-soft num break-all">Audit chain head {head.hash} · {head.position} events</p>
+          <p className="text-caption text-ink-soft num break-all">
+            Audit chain head {head.hash} · {head.position} events
+          </p>
         </div>
         <div className="flex flex-wrap gap-2">
-          <a className="btn-quiet" href={`/api/register/export${qs ? `?${qs}` : ""}`} data-testid="export-csv" download>Export CSV</a>
-          {can(user, "audit.verify") && <Link className="btn-quiet" href="/register/chain">Verify the audit chain</Link>}
+          <a className="btn-quiet" href={`/api/register/export${qs ? `?${qs}` : ""}`} data-testid="export-csv" download>
+            Export CSV
+          </a>
+          {can(user, "audit.verify") && (
+            <Link className="btn-quiet" href="/register/chain">
+              Verify the audit chain
+            </Link>
+          )}
         </div>
       </header>
       {!parsed.success && (
@@ -36,48 +48,81 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
       )}
       <form method="get" className="card grid gap-3 sm:grid-cols-2 lg:grid-cols-5" aria-label="Filters">
         <div>
-          <label htmlFor="instructor" className="field-label">Signer or examiner</label>
+          <label htmlFor="instructor" className="field-label">
+            Signer or examiner
+          </label>
           <select id="instructor" name="instructor" defaultValue={q.instructor ?? ""} className="field-input">
             <option value="">Anyone</option>
-            {options.instructors.map((i) => <option key={i.id} value={i.id}>{i.name}</option>)}
+            {options.instructors.map((i) => (
+              <option key={i.id} value={i.id}>
+                {i.name}
+              </option>
+            ))}
           </select>
         </div>
         <div>
-          <label htmlFor="cohort" className="field-label">Cohort</label>
+          <label htmlFor="cohort" className="field-label">
+            Cohort
+          </label>
           <select id="cohort" name="cohort" defaultValue={q.cohort ?? ""} className="field-input">
             <option value="">Any</option>
-            {options.cohorts.map((c) => <option key={c.id} value={c.id}>{c.name}</option>)}
+            {options.cohorts.map((c) => (
+              <option key={c.id} value={c.id}>
+                {c.name}
+              </option>
+            ))}
           </select>
         </div>
         <div>
-          <label htmlFor="stage" className="field-label">Stage</label>
+          <label htmlFor="stage" className="field-label">
+            Stage
+          </label>
           <select id="stage" name="stage" defaultValue={q.stage ?? ""} className="field-input">
             <option value="">Any</option>
-            {options.stages.map((s) => <option key={s.id} value={s.id}>{s.label}</option>)}
+            {options.stages.map((s) => (
+              <option key={s.id} value={s.id}>
+                {s.label}
+              </option>
+            ))}
           </select>
         </div>
         <div>
-          <label htmlFor="from" className="field-label">From</label>
+          <label htmlFor="from" className="field-label">
+            From
+          </label>
           <input id="from" name="from" type="date" defaultValue={q.from ?? ""} className="field-input" />
         </div>
         <div>
-          <label htmlFor="to" className="field-label">To</label>
+          <label htmlFor="to" className="field-label">
+            To
+          </label>
           <input id="to" name="to" type="date" defaultValue={q.to ?? ""} className="field-input" />
         </div>
         <div className="flex gap-2 sm:col-span-2 lg:col-span-5">
-          <button type="submit" className="btn-primary">Apply filters</button>
-          <Link href="/register" className="btn-quiet">Clear</Link>
+          <button type="submit" className="btn-primary">
+            Apply filters
+          </button>
+          <Link href="/register" className="btn-quiet">
+            Clear
+          </Link>
         </div>
       </form>
 
       <section className="card" aria-labelledby="notes-title">
-        <h2 id="notes-title">Watch notes <span className="text-caption font-normal text-ink-soft">({notes.length})</span></h2>
-        {notes.length === 0 ? <p className="text-ink-soft">No watch notes.</p> : (
+        <h2 id="notes-title">
+          Watch notes <span className="text-caption font-normal text-ink-soft">({notes.length})</span>
+        </h2>
+        {notes.length === 0 ? (
+          <p className="text-ink-soft">No watch notes.</p>
+        ) : (
           <ul className="mt-2 space-y-1" data-testid="watch-notes">
             {notes.map((n, i) => (
               <li key={`${n.recordId}-${n.kind}-${i}`}>
                 <span className="mr-2 rounded bg-unstable-100 px-1.5 text-caption font-semibold text-unstable-700">{n.label}</span>
-                <Link className="underline" href={`/records/${n.studentId}`}>{n.studentName}</Link>{n.itemCode ? ` · ${n.itemCode}` : ""} · {n.detail}
+                <Link className="underline" href={`/records/${n.studentId}`}>
+                  {n.studentName}
+                </Link>
+                {n.itemCode ? ` · ${n.itemCode}` : ""} · {n.detail}
               </li>
             ))}
           </ul>
@@ -85,21 +130,48 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
       </section>
 
       <section className="card" aria-labelledby="rows-title">
-        <h2 id="rows-title">Sign-offs and stage checks <span className="text-caption font-normal text-ink-soft">({rows.length})</span></h2>
+        <h2 id="rows-title">
+          Sign-offs and stage checks <span className="text-caption font-normal text-ink-soft">({rows.length})</span>
+        </h2>
         <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Sign-offs and stage checks">
           <table className="data-table text-caption" data-testid="register-table">
             <thead>
-              <tr><th scope="col">Date</th><th scope="col">Student</th><th scope="col">Item or stage</th><th scope="col">Signer / examiner</th><th scope="col">Basis</th><th scope="col">State</th><th scope="col">Watch notes</th></tr>
+              <tr>
+                <th scope="col">Date</th>
+                <th scope="col">Student</th>
+                <th scope="col">Item or stage</th>
+                <th scope="col">Signer / examiner</th>
+                <th scope="col">Basis</th>
+                <th scope="col">State</th>
+                <th scope="col">Watch notes</th>
+              </tr>
             </thead>
             <tbody>
               {rows.map((r) => (
                 <tr key={r.id} data-testid="register-row">
                   <td className="num whitespace-nowrap">{r.date}</td>
-                  <td><Link className="underline" href={`/records/${r.studentId}`}>{r.studentName}</Link><br /><span className="text-ink-soft">{r.cohortName ?? ""}</span></td>
-                  <td>{r.itemCode ? <><span className="num font-semibold">{r.itemCode}</span> {r.itemTitle}</> : r.itemTitle}</td>
+                  <td>
+                    <Link className="underline" href={`/records/${r.studentId}`}>
+                      {r.studentName}
+                    </Link>
+                    <br />
+                    <span className="text-ink-soft">{r.cohortName ?? ""}</span>
+                  </td>
+                  <td>
+                    {r.itemCode ? (
+                      <>
+                        <span className="num font-semibold">{r.itemCode}</span> {r.itemTitle}
+                      </>
+                    ) : (
+                      r.itemTitle
+                    )}
+                  </td>
                   <td>{r.signerName}</td>
                   <td>{r.basis}</td>
-                  <td>{STATE_LABEL[r.state]}{r.reason ? `: ${r.reason}` : ""}</td>
+                  <td>
+                    {STATE_LABEL[r.state]}
+                    {r.reason ? `: ${r.reason}` : ""}
+                  </td>
                   <td>{r.notes.map((n) => n.label).join(", ") || "—"}</td>
                 </tr>
               ))}

@@ -5,10 +5,16 @@ import { addStudentSchema, moveStudentSchema, addStudentTx, moveStudent } from "
 
 /** Adds one student (and optionally their sponsor); new accounts get an invitation through the outbox. */
 export async function addStudentAction(input: unknown) {
-  const r = await runAction("roster.manage", addStudentSchema, input, async (data, { user, t }) => {
-    const res = await addStudentTx(user, data, t);
-    return { studentId: res.studentId, invitations: res.invitations };
-  }, { idempotent: "roster.add" });
+  const r = await runAction(
+    "roster.manage",
+    addStudentSchema,
+    input,
+    async (data, { user, t }) => {
+      const res = await addStudentTx(user, data, t);
+      return { studentId: res.studentId, invitations: res.invitations };
+    },
+    { idempotent: "roster.add" },
+  );
   if (r.ok) revalidatePath("/roster");
   return r;
 }

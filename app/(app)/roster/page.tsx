@@ -25,19 +25,31 @@ export default async function RosterPage() {
     <div className="space-y-6">
       <header>
         <h1 className="text-display">Roster</h1>
-        <p className="text-ink-soft">{isChief ? "Every cohort of the school." : "The cohorts you lead."} Students keep their whole cohort history when they move.</p>
+        <p className="text-ink-soft">
+          {isChief ? "Every cohort of the school." : "The cohorts you lead."} Students keep their whole cohort history when they move.
+        </p>
       </header>
       {cohorts.map((c) => {
         const members = students.filter((s) => s.cohortId === c.id);
         return (
           <section key={c.id} className="card" aria-labelledby={`c-${c.id}`}>
             <h2 id={`c-${c.id}`}>
-              {c.name} <span className="text-caption font-normal text-ink-soft">· {c.courseCode} · lead instructor {c.leadInstructorName} · from {c.startsOn} · <span className="num">{members.length}</span> students</span>
+              {c.name}{" "}
+              <span className="text-caption font-normal text-ink-soft">
+                · {c.courseCode} · lead instructor {c.leadInstructorName} · from {c.startsOn} ·{" "}
+                <span className="num">{members.length}</span> students
+              </span>
             </h2>
             <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label={`${c.name} students, scrolls sideways`}>
               <table className="data-table">
                 <thead>
-                  <tr><th scope="col">Student</th><th scope="col">E-mail</th><th scope="col">Cohort history</th><th scope="col">Sponsor</th><th scope="col">Move</th></tr>
+                  <tr>
+                    <th scope="col">Student</th>
+                    <th scope="col">E-mail</th>
+                    <th scope="col">Cohort history</th>
+                    <th scope="col">Sponsor</th>
+                    <th scope="col">Move</th>
+                  </tr>
                 </thead>
                 <tbody>
                   {members.map((m) => (
@@ -46,14 +58,30 @@ export default async function RosterPage() {
                       <td className="whitespace-nowrap">{m.email}</td>
                       <td className="text-caption">
                         {m.history.map((h) => (
-                          <span key={`${h.cohortName}-${h.fromDate}`} className="block num">{h.cohortName}: {h.fromDate} – {h.toDate ?? "now"}</span>
+                          <span key={`${h.cohortName}-${h.fromDate}`} className="block num">
+                            {h.cohortName}: {h.fromDate} – {h.toDate ?? "now"}
+                          </span>
                         ))}
                       </td>
                       <td>{m.sponsors.length ? m.sponsors.join(", ") : "—"}</td>
-                      <td><MoveStudent studentId={m.studentId} studentName={m.name} currentCohortId={c.id} cohorts={allCohorts} today={today} /></td>
+                      <td>
+                        <MoveStudent
+                          studentId={m.studentId}
+                          studentName={m.name}
+                          currentCohortId={c.id}
+                          cohorts={allCohorts}
+                          today={today}
+                        />
+                      </td>
                     </tr>
                   ))}
-                  {members.length === 0 && <tr><td colSpan={5} className="text-ink-soft">No students in this cohort now.</td></tr>}
+                  {members.length === 0 && (
+                    <tr>
+                      <td colSpan={5} className="text-ink-soft">
+                        No students in this cohort now.
+                      </td>
+                    </tr>
+                  )}
                 </tbody>
               </table>
             </div>

@@ -14,7 +14,9 @@ export default async function SettingsPage() {
     <div className="max-w-2xl space-y-6">
       <div>
         <h1 className="text-display">School settings</h1>
-        <p className="text-ink-soft">{school.name} · times are read in {school.timeZone}</p>
+        <p className="text-ink-soft">
+          {school.name} · times are read in {school.timeZone}
+        </p>
       </div>
       <SettingsForm
         initial={{

@@ -24,27 +24,45 @@ export default async function SyllabusPage() {
     <div className="space-y-6">
       <header className="flex flex-wrap items-end justify-between gap-3">
         <h1 className="text-display">Syllabus</h1>
-        {can(user, "syllabus.edit") && <Link href="/syllabus/revisions" className="btn-quiet">Revisions and enrolments</Link>}
+        {can(user, "syllabus.edit") && (
+          <Link href="/syllabus/revisions" className="btn-quiet">
+            Revisions and enrolments
+          </Link>
+        )}
       </header>
       {revisions.length === 0 && <p className="text-ink-soft">No syllabus to show.</p>}
       {revisions.map((rev) => (
         <section key={rev.revisionId} className="space-y-4">
           <header>
-            <h2>{rev.course.code} · {rev.course.title}</h2>
+            <h2>
+              {rev.course.code} · {rev.course.title}
+            </h2>
             <p className="text-caption text-ink-soft">
-              Revision {rev.number} · approved {rev.approvedOn ?? "—"} · effective from {rev.effectiveFrom ?? "—"} · minimum ground time {rev.course.minGroundMinutes / 60} h
+              Revision {rev.number} · approved {rev.approvedOn ?? "—"} · effective from {rev.effectiveFrom ?? "—"} · minimum ground time{" "}
+              {rev.course.minGroundMinutes / 60} h
             </p>
           </header>
           {rev.stages.map((s) => (
             <section key={s.id} className="card" aria-labelledby={`st-${s.id}`}>
-              <h3 id={`st-${s.id}`} className="font-semibold">{s.code} · {s.title}</h3>
+              <h3 id={`st-${s.id}`} className="font-semibold">
+                {s.code} · {s.title}
+              </h3>
               <ScrollArea label={`${s.code} items`} className="mt-2">
                 <table className="data-table">
-                  <thead><tr><th scope="col">Item</th><th scope="col">Objective</th><th scope="col">Completion standard</th><th scope="col">Level</th></tr></thead>
+                  <thead>
+                    <tr>
+                      <th scope="col">Item</th>
+                      <th scope="col">Objective</th>
+                      <th scope="col">Completion standard</th>
+                      <th scope="col">Level</th>
+                    </tr>
+                  </thead>
                   <tbody>
                     {s.items.map((i) => (
                       <tr key={i.id}>
-                        <td><span className="num font-semibold">{i.code}</span> {i.title}</td>
+                        <td>
+                          <span className="num font-semibold">{i.code}</span> {i.title}
+                        </td>
                         <td>{i.objective}</td>
                         <td>{i.completionStandard}</td>
                         <td>{LEVEL_LABEL[i.requiredLevel]}</td>

@@ -3,10 +3,18 @@ import { z } from "zod";
 // The syllabus revision form's schema, shared by the editor and the server action.
 
 const uuid = z.string().uuid();
-const code = z.string().trim().min(1, "Give a code").max(20, "At most 20 characters").regex(/^[A-Za-z0-9-]+$/, "Letters, digits and dashes only");
+const code = z
+  .string()
+  .trim()
+  .min(1, "Give a code")
+  .max(20, "At most 20 characters")
+  .regex(/^[A-Za-z0-9-]+$/, "Letters, digits and dashes only");
 const optionalDate = z.preprocess(
   (v) => (v === "" || v === undefined ? null : v),
-  z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Choose a date").nullable(),
+  z
+    .string()
+    .regex(/^\d{4}-\d{2}-\d{2}$/, "Choose a date")
+    .nullable(),
 );
 
 export const syllabusItemSchema = z.object({

@@ -14,7 +14,11 @@ import { addDaysIso, mondayOf, dayLabel } from "./_components/week";
 export const metadata: Metadata = { title: "Timetable" };
 export const dynamic = "force-dynamic";
 
-export default async function TimetableWeekPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function TimetableWeekPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const user = await requirePagePermission("timetable.view", "/timetable");
   const school = await getSchool(user.schoolId);
   const raw = await searchParams;
@@ -34,7 +38,9 @@ export default async function TimetableWeekPage({ searchParams }: { searchParams
   });
   const choices = staff ? await schedulingChoices(user) : null;
   const feedSince = await calendarFeedCreatedAt(user.id);
-  const keep = new URLSearchParams(Object.entries({ instructor: q.instructor, cohort: q.cohort, room: q.room, mine: q.mine }).filter((e): e is [string, string] => !!e[1]));
+  const keep = new URLSearchParams(
+    Object.entries({ instructor: q.instructor, cohort: q.cohort, room: q.room, mine: q.mine }).filter((e): e is [string, string] => !!e[1]),
+  );
   const weekHref = (d: string) => `/timetable?${new URLSearchParams([...keep, ["week", d]]).toString()}`;
   return (
     <div className="space-y-6">
@@ -42,14 +48,28 @@ export default async function TimetableWeekPage({ searchParams }: { searchParams
         <div>
           <p className="text-caption font-semibold uppercase tracking-wide text-ink-soft">Week view · times in {school.timeZone}</p>
           <h1 className="text-display">Timetable</h1>
-          <p className="text-ink-soft">Week of {dayLabel(monday)} to {dayLabel(days[6]!)} {days[6]!.slice(0, 4)}</p>
+          <p className="text-ink-soft">
+            Week of {dayLabel(monday)} to {dayLabel(days[6]!)} {days[6]!.slice(0, 4)}
+          </p>
         </div>
         <nav aria-label="Timetable views" className="flex flex-wrap gap-2">
-          <Link href={weekHref(addDaysIso(monday, -7))} className="btn-quiet">Previous week</Link>
-          <Link href={weekHref(mondayOf(today))} className="btn-quiet">This week</Link>
-          <Link href={weekHref(addDaysIso(monday, 7))} className="btn-quiet">Next week</Link>
-          <Link href={`/timetable/list?${keep.toString()}`} className="btn-quiet">List view</Link>
-          {staff && <Link href="/timetable/new" className="btn-primary">Schedule a session</Link>}
+          <Link href={weekHref(addDaysIso(monday, -7))} className="btn-quiet">
+            Previous week
+          </Link>
+          <Link href={weekHref(mondayOf(today))} className="btn-quiet">
+            This week
+          </Link>
+          <Link href={weekHref(addDaysIso(monday, 7))} className="btn-quiet">
+            Next week
+          </Link>
+          <Link href={`/timetable/list?${keep.toString()}`} className="btn-quiet">
+            List view
+          </Link>
+          {staff && (
+            <Link href="/timetable/new" className="btn-primary">
+              Schedule a session
+            </Link>
+          )}
         </nav>
       </header>
       {!parsed.success && (
@@ -57,12 +77,24 @@ export default async function TimetableWeekPage({ searchParams }: { searchParams
           Filter ignored: {parsed.error.issues.map((i) => `${i.path.join(".")} ${i.message}`).join("; ")}.
         </p>
       )}
-      {choices && <TimetableFilters action="/timetable" values={{ ...q }} instructors={choices.instructors} cohorts={choices.cohorts} rooms={choices.rooms} hidden={{ week: monday }} />}
+      {choices && (
+        <TimetableFilters
+          action="/timetable"
+          values={{ ...q }}
+          instructors={choices.instructors}
+          cohorts={choices.cohorts}
+          rooms={choices.rooms}
+          hidden={{ week: monday }}
+        />
+      )}
       <section aria-label="Sessions this week" className="grid gap-3 md:grid-cols-7">
         {days.map((d) => {
           const todays = rows.filter((r) => r.date === d);
           return (
-            <div key={d} className={`rounded-card border p-2 ${d === today ? "border-wing-500 bg-white" : "border-paper-edge bg-white/60"}`}>
+            <div
+              key={d}
+              className={`rounded-card border p-2 ${d === today ? "border-wing-500 bg-white" : "border-paper-edge bg-white/60"}`}
+            >
               <h2 className="text-body font-semibold">
                 {dayLabel(d)}
                 {d === today && <span className="ml-1 text-caption font-normal text-wing-700">(today)</span>}
@@ -70,7 +102,11 @@ export default async function TimetableWeekPage({ searchParams }: { searchParams
               {todays.length === 0 ? (
                 <p className="mt-1 text-caption text-ink-faint">No sessions</p>
               ) : (
-                <ul className="mt-2 space-y-2">{todays.map((s) => <SessionCard key={s.id} s={s} />)}</ul>
+                <ul className="mt-2 space-y-2">
+                  {todays.map((s) => (
+                    <SessionCard key={s.id} s={s} />
+                  ))}
+                </ul>
               )}
             </div>
           );

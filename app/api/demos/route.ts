@@ -16,6 +16,13 @@ export const GET = route("demos.view", async ({ user }) => {
   const seen = new Set<string>();
   const rows = assigned
     .filter((a) => (seen.has(a.demoId) ? false : (seen.add(a.demoId), true)))
-    .map((a) => ({ id: a.demoId, primary: a.name, name: a.name, revisionId: a.demoRevisionId, dueOn: a.dueOn, viaBriefingTitle: a.viaBriefingTitle }));
+    .map((a) => ({
+      id: a.demoId,
+      primary: a.name,
+      name: a.name,
+      revisionId: a.demoRevisionId,
+      dueOn: a.dueOn,
+      viaBriefingTitle: a.viaBriefingTitle,
+    }));
   return NextResponse.json({ rows });
 });

@@ -25,7 +25,16 @@ const JS_TARGET_BYTES = 250 * 1024;
 const BLOCKS = 8;
 const BLOCK_EVENTS = 40;
 const WARMUP = 8;
-const FLAGS = ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"];
+const FLAGS = [
+  "--headless",
+  "--no-sandbox",
+  "--disable-gpu",
+  "--disable-quic",
+  "--no-first-run",
+  "--disable-background-networking",
+  "--disable-component-update",
+  "--disable-sync",
+];
 
 function quantile(sorted: number[], q: number): number {
   if (sorted.length === 0) return NaN;
@@ -67,10 +76,16 @@ async function startOwnServer(): Promise<{ url: string; stop: () => void }> {
   const env = { ...process.env, CHALKWING_DIST_DIR: ".next-test-bench", NEXTAUTH_URL: url, NODE_ENV: "production" as const };
   const prelude = `set -e; . lib/ops/common.sh; ensure_secret; bash db/cluster.sh start >/dev/null; bash db/cluster.sh create-db chalkwing_bench --fresh >/dev/null; db_urls chalkwing_bench;`;
   console.log(`[browser] preparing a production build in .next-test-bench and a seeded database (chalkwing_bench)`);
-  await run(`${prelude} tsx_run db/cli.ts migrate >/dev/null; tsx_run db/cli.ts seed >/dev/null; node node_modules/next/dist/bin/next build >/dev/null`, env);
+  await run(
+    `${prelude} tsx_run db/cli.ts migrate >/dev/null; tsx_run db/cli.ts seed >/dev/null; node node_modules/next/dist/bin/next build >/dev/null`,
+    env,
+  );
   const server: ChildProcess = spawn(
     "bash",
-    ["-c", `. lib/ops/common.sh; ensure_secret; db_urls chalkwing_bench; exec node node_modules/next/dist/bin/next start -p ${port} -H 127.0.0.1`],
+    [
+      "-c",
+      `. lib/ops/common.sh; ensure_secret; db_urls chalkwing_bench; exec node node_modules/next/dist/bin/next start -p ${port} -H 127.0.0.1`,
+    ],
     { cwd: ROOT, env, stdio: "ignore" },
   );
   await waitHttp(`${url}/api/health`, 90);
@@ -79,22 +94,43 @@ async function startOwnServer(): Promise<{ url: string; stop: () => void }> {
 
 async function signInCookie(base: string): Promise<{ name: string; value: string }> {
   const csrf = await fetch(`${base}/api/auth/csrf`);
-  const jar = csrf.headers.getSetCookie().map((l) => l.split(";")[0]).join("; ");
+  const jar = csrf.headers
+    .getSetCookie()
+    .map((l) => l.split(";")[0])
+    .join("; ");
   const { csrfToken } = (await csrf.json()) as { csrfToken: string };
   const res = await fetch(`${base}/api/auth/callback/credentials`, {
     method: "POST",
     redirect: "manual",
     headers: { "content-type": "application/x-www-form-urlencoded", cookie: jar, origin: base },
-    body: new URLSearchParams({ csrfToken, email: "instructor@chalkwing.test", password: "chalkwing-demo", callbackUrl: `${base}/today`, json: "true" }).toString(),
+    body: new URLSearchParams({
+      csrfToken,
+      email: "instructor@chalkwing.test",
+      password: "chalkwing-demo",
+      callbackUrl: `${base}/today`,
+      json: "true",
+    }).toString(),
   });
-  const token = res.headers.getSetCookie().map((l) => l.split(";")[0]!).find((p) => p.startsWith("next-auth.session-token="));
+  const token = res.headers
+    .getSetCookie()
+    .map((l) => l.split(";")[0]!)
+    .find((p) => p.startsWith("next-auth.session-token="));
   if (!token) throw new Error(`sign-in as instructor@chalkwing.test failed (${res.status})`);
   return { name: "next-auth.session-token", value: token.slice("next-auth.session-token=".length) };
 }
 
-async function freshContext(base: string, cookie: { name: string; value: string }): Promise<{ context: BrowserContext; close: () => Promise<void> }> {
+async function freshContext(
+  base: string,
+  cookie: { name: string; value: string },
+): Promise<{ context: BrowserContext; close: () => Promise<void> }> {
   const dir = mkdtempSync(path.join(tmpdir(), "chalkwing-bench-"));
-  const context = await chromium.launchPersistentContext(dir, { executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium", headless: true, args: FLAGS, viewport: { width: 1280, height: 900 }, baseURL: base });
+  const context = await chromium.launchPersistentContext(dir, {
+    executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
+    headless: true,
+    args: FLAGS,
+    viewport: { width: 1280, height: 900 },
+    baseURL: base,
+  });
   await context.addCookies([{ ...cookie, url: base }]);
   return {
     context,
@@ -125,7 +161,9 @@ interface AppBlock {
 }
 
 /** Builder page ready to measure: four cases, the page quiet, a request counter attached. */
-async function prepareApp(page: Page): Promise<{ requests: () => number; canvas: { width: number; height: number }; massRange: { min: number; max: number } }> {
+async function prepareApp(
+  page: Page,
+): Promise<{ requests: () => number; canvas: { width: number; height: number }; massRange: { min: number; max: number } }> {
   for (let i = 0; i < 3; i++) await page.click("text=Add case");
   await page.waitForSelector("[data-testid=case-3]");
   await page.waitForLoadState("networkidle");
@@ -139,7 +177,10 @@ async function prepareApp(page: Page): Promise<{ requests: () => number; canvas:
     const canvas = document.querySelector<HTMLCanvasElement>("[data-testid=curve-chart]")!;
     (canvas as unknown as { __benchMark: number }).__benchMark = 42;
     (window as unknown as { __benchChartId: string }).__benchChartId = canvas.dataset.chartId ?? "";
-    return { canvas: { width: canvas.clientWidth, height: canvas.clientHeight }, massRange: { min: Number(slider.min), max: Number(slider.max) } };
+    return {
+      canvas: { width: canvas.clientWidth, height: canvas.clientHeight },
+      massRange: { min: Number(slider.min), max: Number(slider.max) },
+    };
   });
   return { requests: () => requests, ...info };
 }
@@ -185,7 +226,12 @@ async function appBlock(page: Page, from: number, events: number, warmup: number
 }
 
 /** A blank page of the same size with chart.js alone and the same datasets, precomputed. */
-async function prepareBaseline(page: Page, spec: DemoSpec, canvas: { width: number; height: number }, massRange: { min: number; max: number }): Promise<void> {
+async function prepareBaseline(
+  page: Page,
+  spec: DemoSpec,
+  canvas: { width: number; height: number },
+  massRange: { min: number; max: number },
+): Promise<void> {
   const frames: number[][][] = [];
   const frame: Frame = newFrame();
   const cache: { set?: CurveSet<Float64Array> } = {};
@@ -205,7 +251,9 @@ async function prepareBaseline(page: Page, spec: DemoSpec, canvas: { width: numb
     }
     frames.push(sets);
   }
-  await page.setContent(`<!doctype html><html><body style="margin:0;background:#152033"><div style="position:relative;width:${canvas.width}px;height:${canvas.height}px"><canvas id="c"></canvas></div></body></html>`);
+  await page.setContent(
+    `<!doctype html><html><body style="margin:0;background:#152033"><div style="position:relative;width:${canvas.width}px;height:${canvas.height}px"><canvas id="c"></canvas></div></body></html>`,
+  );
   await page.addScriptTag({ path: path.join(ROOT, "node_modules/chart.js/dist/chart.umd.js") });
   await page.evaluate(
     ({ frames, yMax }) => {
@@ -215,7 +263,16 @@ async function prepareBaseline(page: Page, spec: DemoSpec, canvas: { width: numb
       const datasets = frames[0]!.map((flat, d) => {
         const data: { x: number; y: number }[] = [];
         for (let i = 0; i < flat.length; i += 2) data.push({ x: flat[i]!, y: flat[i + 1]! });
-        return { data, parsing: false, normalized: true, borderColor: colours[Math.floor(d / 3)], borderWidth: d % 3 === 2 ? 3.5 : 2.5, borderDash: dashes[d % 3], pointRadius: 0, tension: 0 };
+        return {
+          data,
+          parsing: false,
+          normalized: true,
+          borderColor: colours[Math.floor(d / 3)],
+          borderWidth: d % 3 === 2 ? 3.5 : 2.5,
+          borderDash: dashes[d % 3],
+          pointRadius: 0,
+          tension: 0,
+        };
       });
       const tick = { color: "#c9cdd6", font: { size: 13 } };
       const w = window as unknown as { __chart: unknown; __frames: number[][][] };
@@ -245,7 +302,10 @@ async function baselineBlock(page: Page, from: number, events: number, warmup: n
   await page.bringToFront();
   return page.evaluate(
     async ({ from, events, warmup }) => {
-      const w = window as unknown as { __chart: { data: { datasets: { data: { x: number; y: number }[] }[] }; update: (m: string) => void }; __frames: number[][][] };
+      const w = window as unknown as {
+        __chart: { data: { datasets: { data: { x: number; y: number }[] }[] }; update: (m: string) => void };
+        __frames: number[][][];
+      };
       const chart = w.__chart;
       const frames = w.__frames;
       const times: number[] = [];
@@ -291,13 +351,27 @@ export async function runBrowserBench(): Promise<BenchSection> {
     const appTimes: number[] = [];
     const baseTimes: number[] = [];
     const blockRatios: number[] = [];
-    const checks = { "one redraw per input event": true, "every dataset holds 400 points": true, "same chart instance before and after": true, "no network request while dragging": true };
+    const checks = {
+      "one redraw per input event": true,
+      "every dataset holds 400 points": true,
+      "same chart instance before and after": true,
+      "no network request while dragging": true,
+    };
     for (let blk = 0; blk < BLOCKS; blk++) {
       const r = await appBlock(page, blk * BLOCK_EVENTS, BLOCK_EVENTS, WARMUP);
       const bt = await baselineBlock(baselinePage, blk * BLOCK_EVENTS, BLOCK_EVENTS, WARMUP);
       appTimes.push(...r.times);
       baseTimes.push(...bt);
-      blockRatios.push(quantile([...r.times].sort((x, y) => x - y), 0.5) / quantile([...bt].sort((x, y) => x - y), 0.5));
+      blockRatios.push(
+        quantile(
+          [...r.times].sort((x, y) => x - y),
+          0.5,
+        ) /
+          quantile(
+            [...bt].sort((x, y) => x - y),
+            0.5,
+          ),
+      );
       checks["one redraw per input event"] &&= r.oneRedrawEach;
       checks["every dataset holds 400 points"] &&= r.pointsOk;
       checks["same chart instance before and after"] &&= r.sameInstance;
@@ -308,12 +382,21 @@ export async function runBrowserBench(): Promise<BenchSection> {
     const a = [...appTimes].sort((x, y) => x - y);
     const b = [...baseTimes].sort((x, y) => x - y);
     const ratio = quantile(a, 0.5) / quantile(b, 0.5);
-    lines.push(`[browser] slider input → finished chart redraw, 4 cases × ${SAMPLE_POINTS} points (12 datasets), ${a.length} events in ${BLOCKS} blocks: median ${ms(quantile(a, 0.5))}, p95 ${ms(quantile(a, 0.95))}`);
-    lines.push(`[browser] chart.js alone redrawing the same datasets, same canvas size, interleaved: median ${ms(quantile(b, 0.5))}, p95 ${ms(quantile(b, 0.95))}`);
-    lines.push(`[browser] ratio (median, app / chart.js alone): ${ratio.toFixed(2)} (target ≤ ${RATIO_TARGET}) ${ratio <= RATIO_TARGET ? "PASS" : "FAIL"}; absolute p95 ${ms(quantile(a, 0.95))}`);
+    lines.push(
+      `[browser] slider input → finished chart redraw, 4 cases × ${SAMPLE_POINTS} points (12 datasets), ${a.length} events in ${BLOCKS} blocks: median ${ms(quantile(a, 0.5))}, p95 ${ms(quantile(a, 0.95))}`,
+    );
+    lines.push(
+      `[browser] chart.js alone redrawing the same datasets, same canvas size, interleaved: median ${ms(quantile(b, 0.5))}, p95 ${ms(quantile(b, 0.95))}`,
+    );
+    lines.push(
+      `[browser] ratio (median, app / chart.js alone): ${ratio.toFixed(2)} (target ≤ ${RATIO_TARGET}) ${ratio <= RATIO_TARGET ? "PASS" : "FAIL"}; absolute p95 ${ms(quantile(a, 0.95))}`,
+    );
     lines.push(`[browser] ratio per block (informative): ${blockRatios.map((x) => x.toFixed(2)).join(" ")}`);
-    for (const [name, ok] of Object.entries(checks)) lines.push(`[browser] check: ${name}: ${ok ? "yes" : `NO${name.startsWith("no network") ? ` (${requests} requests)` : ""}`}`);
-    lines.push(`[browser] builder page cold load: ${(js.bytes / 1024).toFixed(1)} kB of compressed JavaScript in ${js.files} files (target ≤ ${JS_TARGET_BYTES / 1024} kB) ${js.bytes <= JS_TARGET_BYTES ? "PASS" : "FAIL"}`);
+    for (const [name, ok] of Object.entries(checks))
+      lines.push(`[browser] check: ${name}: ${ok ? "yes" : `NO${name.startsWith("no network") ? ` (${requests} requests)` : ""}`}`);
+    lines.push(
+      `[browser] builder page cold load: ${(js.bytes / 1024).toFixed(1)} kB of compressed JavaScript in ${js.files} files (target ≤ ${JS_TARGET_BYTES / 1024} kB) ${js.bytes <= JS_TARGET_BYTES ? "PASS" : "FAIL"}`,
+    );
     const pass = ratio <= RATIO_TARGET && Object.values(checks).every(Boolean) && js.bytes <= JS_TARGET_BYTES;
     return { name: "browser", lines, pass };
   } catch (e) {
@@ -341,7 +424,10 @@ function builderSpecAfterAddingCases(airframe: AirframeSnapshot): DemoSpec {
   let s = defaultSpec(airframe);
   for (let i = 0; i < 3; i++) {
     const last = s.cases[s.cases.length - 1]!;
-    const massKg = Math.min(airframe.maxMassKg, Math.max(airframe.emptyMassKg, Math.round((airframe.emptyMassKg + airframe.maxMassKg) / 2)));
+    const massKg = Math.min(
+      airframe.maxMassKg,
+      Math.max(airframe.emptyMassKg, Math.round((airframe.emptyMassKg + airframe.maxMassKg) / 2)),
+    );
     s = { ...s, cases: [...s.cases, { ...last, label: `Case ${s.cases.length + 1}`, massKg }] };
   }
   return s;

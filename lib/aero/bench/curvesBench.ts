@@ -168,7 +168,8 @@ export function runCurvesBench(options: CurvesBenchOptions = {}): CurvesBenchRes
       const set = sets[cursor % setCount]!;
       libOut = sampleCurves(set.library, set.range, { reuse: libOut });
       const i = probe();
-      for (const c of libOut.cases) sink += (c.totalDragN[i] as number) + (c.powerRequiredW[i] as number) * 1e-3 + (c.liftToDrag[i] as number);
+      for (const c of libOut.cases)
+        sink += (c.totalDragN[i] as number) + (c.powerRequiredW[i] as number) * 1e-3 + (c.liftToDrag[i] as number);
       cursor++;
     }
   };

@@ -44,7 +44,10 @@ export const CURVE_LAB_TABLE: AuthzTable = {
   "GET /api/demos": {
     expect: {
       signedOut: 401,
-      chief: { status: 200, check: (res, fx) => expect(rowIds(res)).toEqual(expect.arrayContaining([fx.curveLabBucketDemo, fx.curveLabHeavyLightDemo])) },
+      chief: {
+        status: 200,
+        check: (res, fx) => expect(rowIds(res)).toEqual(expect.arrayContaining([fx.curveLabBucketDemo, fx.curveLabHeavyLightDemo])),
+      },
       instructor: { status: 200, check: (res, fx) => expect(rowIds(res)).toContain(fx.curveLabBucketDemo) },
       // the Kestrel student sees the demo assigned to the Kestrel cohort, not the unassigned one
       student: {
@@ -62,7 +65,10 @@ export const CURVE_LAB_TABLE: AuthzTable = {
     request: () => ({ query: "retired=include" }),
     expect: {
       ...STAFF_ONLY,
-      chief: { status: 200, check: (res, fx) => expect(rowIds(res)).toEqual(expect.arrayContaining([fx.curveLabWrenAirframe, fx.curveLabHeronAirframe])) },
+      chief: {
+        status: 200,
+        check: (res, fx) => expect(rowIds(res)).toEqual(expect.arrayContaining([fx.curveLabWrenAirframe, fx.curveLabHeronAirframe])),
+      },
       instructor: { status: 200, check: (res, fx) => expect(rowIds(res)).toContain(fx.curveLabWrenAirframe) },
     },
     secrets: (fx) => [fx.curveLabWrenAirframe!, "Larkhollow Wren"],

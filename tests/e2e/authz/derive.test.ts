@@ -32,7 +32,15 @@ test("fillPath fills dynamic and catch-all segments, and names a missing one", (
 
 test("deriveRoutes finds the foundation's route files in this checkout", () => {
   const keys = deriveRoutes().map((r) => r.key);
-  expect(keys).toEqual(expect.arrayContaining(["GET /api/health", "GET /api/today", "GET /api/auth/[...nextauth]", "POST /api/auth/[...nextauth]", "POST /api/people/[personId]/unlock"]));
+  expect(keys).toEqual(
+    expect.arrayContaining([
+      "GET /api/health",
+      "GET /api/today",
+      "GET /api/auth/[...nextauth]",
+      "POST /api/auth/[...nextauth]",
+      "POST /api/people/[personId]/unlock",
+    ]),
+  );
 });
 
 test("fillPath uses the fallback only for segments not given", () => {

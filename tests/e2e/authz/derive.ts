@@ -53,7 +53,11 @@ export function exportedMethods(source: string): Method[] {
   for (const m of code.matchAll(direct)) if ((METHODS as readonly string[]).includes(m[1]!)) found.add(m[1] as Method);
   for (const m of code.matchAll(/export\s*\{([^}]*)\}/g)) {
     for (const spec of m[1]!.split(",")) {
-      const name = spec.trim().split(/\s+as\s+/).pop()?.trim();
+      const name = spec
+        .trim()
+        .split(/\s+as\s+/)
+        .pop()
+        ?.trim();
       if (name && (METHODS as readonly string[]).includes(name)) found.add(name as Method);
     }
   }
@@ -65,7 +69,8 @@ export function deriveRoutes(root = process.cwd()): RouteEndpoint[] {
   for (const abs of walk(path.join(root, "app")).sort()) {
     const file = path.relative(root, abs).split(path.sep).join("/");
     const p = appPath(file);
-    for (const method of exportedMethods(readFileSync(abs, "utf8"))) out.push({ kind: "route", key: `${method} ${p}`, method, path: p, file });
+    for (const method of exportedMethods(readFileSync(abs, "utf8")))
+      out.push({ kind: "route", key: `${method} ${p}`, method, path: p, file });
   }
   return out;
 }

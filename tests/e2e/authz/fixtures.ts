@@ -63,7 +63,15 @@ export async function loadFixtures(c: Client): Promise<Fixtures> {
       if (problem) throw new Error(problem);
       if (!(key in target)) {
         // jest's pretty-printer and promise checks probe objects for these names
-        if (key === "then" || key === "toJSON" || key === "asymmetricMatch" || key === "$$typeof" || key === "nodeType" || key === "constructor") return undefined;
+        if (
+          key === "then" ||
+          key === "toJSON" ||
+          key === "asymmetricMatch" ||
+          key === "$$typeof" ||
+          key === "nodeType" ||
+          key === "constructor"
+        )
+          return undefined;
         throw new Error(`unknown fixture "${key}": add it to LOOKUPS in tests/e2e/authz/fixtures.ts`);
       }
       return target[key];

@@ -17,7 +17,12 @@ const ACCOUNTS: Record<Exclude<Caller, "signedOut">, string> = {
   student: "student@chalkwing.test",
   sponsor: "sponsor@chalkwing.test",
 };
-const CALLER_FIXTURE: Record<Exclude<Caller, "signedOut">, string> = { chief: "chief", instructor: "instructor", student: "student", sponsor: "sponsor" };
+const CALLER_FIXTURE: Record<Exclude<Caller, "signedOut">, string> = {
+  chief: "chief",
+  instructor: "instructor",
+  student: "student",
+  sponsor: "sponsor",
+};
 const PLACEHOLDER_ID = "00000000-0000-4000-8000-000000000000";
 const UUID = /[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/gi;
 
@@ -75,7 +80,8 @@ async function send(e: Endpoint, req: EndpointRequest, cookie: string | undefine
   const text = await res.text();
   // proxy.ts sends signed-out visitors of signed-in pages to sign-in before the action runs: that is the 401 of an action
   const location = res.headers.get("location") ?? "";
-  if (res.status >= 300 && res.status < 400 && new URL(location, BASE_URL).pathname === "/sign-in") return { status: 401, json: undefined, text, headers: res.headers };
+  if (res.status >= 300 && res.status < 400 && new URL(location, BASE_URL).pathname === "/sign-in")
+    return { status: 401, json: undefined, text, headers: res.headers };
   if (res.status !== 200) return { status: res.status, json: undefined, text, headers: res.headers };
   const json = actionResultFromRsc(text);
   const r = json as { ok?: boolean; status?: number } | undefined;
@@ -100,7 +106,9 @@ describe("the authorisation table matches the code", () => {
   test("the derivation found the foundation's endpoints", () => {
     // a guard against the derivation silently finding nothing
     const keys = endpoints.map((e) => e.key);
-    expect(keys).toEqual(expect.arrayContaining(["GET /api/health", "GET /api/today", "action app/(app)/today/actions.ts#unlockAccountAction"]));
+    expect(keys).toEqual(
+      expect.arrayContaining(["GET /api/health", "GET /api/today", "action app/(app)/today/actions.ts#unlockAccountAction"]),
+    );
   });
   test("the row fingerprint sees a change in any table (checked inside a rolled-back transaction)", async () => {
     await db.query("BEGIN");
@@ -114,7 +122,8 @@ describe("the authorisation table matches the code", () => {
     }
   });
   test("skipped rows give a reason", () => {
-    for (const [k, row] of Object.entries(TABLE)) if ("skip" in row) expect(`${k}: ${row.skip.trim()}`.length).toBeGreaterThan(k.length + 10);
+    for (const [k, row] of Object.entries(TABLE))
+      if ("skip" in row) expect(`${k}: ${row.skip.trim()}`.length).toBeGreaterThan(k.length + 10);
   });
 });
 
@@ -128,11 +137,19 @@ describe.each(cases.map(({ e, row }) => [e.key, e, row] as const))("%s", (_key, 
     const res = await send(e, req, cookies[caller]);
     const after = watchRows ? await fingerprint(db) : null;
 
-    expect({ caller, status: res.status, body: res.status === want.status ? "" : res.text.slice(0, 300) }).toEqual({ caller, status: want.status, body: "" });
+    expect({ caller, status: res.status, body: res.status === want.status ? "" : res.text.slice(0, 300) }).toEqual({
+      caller,
+      status: want.status,
+      body: "",
+    });
     if (before && after) expect({ caller, changed: changedTables(before, after) }).toEqual({ caller, changed: [] });
     if (!allowed) {
       // no identifier of the target: no secret string and no uuid the caller did not send or own
-      const given = new Set<string>(JSON.stringify(req).match(UUID)?.map((u) => u.toLowerCase()) ?? []);
+      const given = new Set<string>(
+        JSON.stringify(req)
+          .match(UUID)
+          ?.map((u) => u.toLowerCase()) ?? [],
+      );
       given.add(PLACEHOLDER_ID);
       if (caller !== "signedOut") given.add(fx[CALLER_FIXTURE[caller]]!.toLowerCase());
       const leaked = (res.text.match(UUID) ?? []).map((u) => u.toLowerCase()).filter((u) => !given.has(u));

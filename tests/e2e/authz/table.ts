@@ -134,13 +134,26 @@ export const TABLE: AuthzTable = {
   },
   // Public by design (the one-time token is the credential): an unknown token changes nothing.
   "action app/(public)/set-password/[token]/actions.ts#setPasswordAction": {
-    request: () => ({ params: { token: "x".repeat(43) }, args: [{ token: "x".repeat(43), password: "a-long-enough-password", confirm: "a-long-enough-password" }] }),
+    request: () => ({
+      params: { token: "x".repeat(43) },
+      args: [{ token: "x".repeat(43), password: "a-long-enough-password", confirm: "a-long-enough-password" }],
+    }),
     expect: { signedOut: 400, chief: 400, instructor: 400, student: 400, sponsor: 400 },
   },
   "action app/(app)/settings/actions.ts#saveSchoolSettingsAction": {
     // the seeded values, so the positive call changes nothing other tests rely on
     request: () => ({
-      args: [{ mailSenderName: "Larkhollow Flying School", reminderLeadHours: 24, weeklyLetterDay: 5, checkValidityDays: 60, stageCheckPassMarkPercent: 80, lateEntryDays: 7, authority: "Larkhollow regional training standard (fictional)" }],
+      args: [
+        {
+          mailSenderName: "Larkhollow Flying School",
+          reminderLeadHours: 24,
+          weeklyLetterDay: 5,
+          checkValidityDays: 60,
+          stageCheckPassMarkPercent: 80,
+          lateEntryDays: 7,
+          authority: "Larkhollow regional training standard (fictional)",
+        },
+      ],
     }),
     expect: {
       signedOut: 401,
@@ -158,7 +171,9 @@ export const TABLE: AuthzTable = {
   },
   "action app/(app)/mail/actions.ts#addSponsorNoteAction": {
     // the chief writes about the sponsored student; the Kestrel lead may not write about a Merlin student
-    request: (fx, caller) => ({ args: [{ studentId: caller === "instructor" ? fx.otherStudent : fx.student, body: "Harness note for the sponsor." }] }),
+    request: (fx, caller) => ({
+      args: [{ studentId: caller === "instructor" ? fx.otherStudent : fx.student, body: "Harness note for the sponsor." }],
+    }),
     expect: {
       signedOut: 401,
       chief: { status: 200, check: (res) => expect(res.json).toMatchObject({ ok: true }) },

@@ -22,7 +22,9 @@ const pastEntry = (email: string) => ({
 });
 
 export const TIMETABLE_LOOKUPS: Record<string, { sql: string; params?: unknown[] }> = {
-  briefing: { sql: `SELECT b.id FROM briefings b JOIN briefing_revisions r ON r.id = b.current_revision_id ORDER BY b.created_at, r.title LIMIT 1` },
+  briefing: {
+    sql: `SELECT b.id FROM briefings b JOIN briefing_revisions r ON r.id = b.current_revision_id ORDER BY b.created_at, r.title LIMIT 1`,
+  },
   /** tomorrow's Kestrel session (Ada attends): read-only targets */
   kestrelSessionSoon: session("Kestrel cohort", 1, "Hangar classroom"),
   /** reschedule targets: chief moves a Merlin session, the Kestrel lead his own */

@@ -12,7 +12,11 @@ export const TIMETABLE_TABLE: AuthzTable = {
     request: () => ({ query: "status=all&pageSize=100&sort=starts_at&dir=asc" }),
     expect: {
       signedOut: 401,
-      chief: { status: 200, check: (res, fx) => expect(sessionsOf(res).map((r) => r.id)).toEqual(expect.arrayContaining([fx.kestrelSessionSoon, fx.merlinSessionToMove])) },
+      chief: {
+        status: 200,
+        check: (res, fx) =>
+          expect(sessionsOf(res).map((r) => r.id)).toEqual(expect.arrayContaining([fx.kestrelSessionSoon, fx.merlinSessionToMove])),
+      },
       instructor: { status: 200, check: (res, fx) => expect(sessionsOf(res).map((r) => r.id)).toContain(fx.merlinSessionToMove) },
       student: {
         status: 200,
@@ -33,7 +37,13 @@ export const TIMETABLE_TABLE: AuthzTable = {
     request: (fx) => ({ params: { token: `${fx.calendarToken}.ics` } }),
     expect: {
       // the token is the credential: anyone holding it gets the feed, with or without a session
-      signedOut: { status: 200, check: (res, fx) => { expect(res.text).toContain("BEGIN:VCALENDAR"); expect(res.text).toContain(`UID:${fx.kestrelSessionSoon}@sessions.chalkwing.test`); } },
+      signedOut: {
+        status: 200,
+        check: (res, fx) => {
+          expect(res.text).toContain("BEGIN:VCALENDAR");
+          expect(res.text).toContain(`UID:${fx.kestrelSessionSoon}@sessions.chalkwing.test`);
+        },
+      },
       chief: 200,
       instructor: 200,
       student: { status: 200, check: (res, fx) => expect(res.text).not.toContain(fx.merlinSessionToMove) },
@@ -42,7 +52,11 @@ export const TIMETABLE_TABLE: AuthzTable = {
   },
 
   "POST /api/roster/import": {
-    request: (_fx, caller) => ({ query: "mode=preview", rawBody: csv(`harness.preview.${caller}@chalkwing.test`), contentType: "text/csv" }),
+    request: (_fx, caller) => ({
+      query: "mode=preview",
+      rawBody: csv(`harness.preview.${caller}@chalkwing.test`),
+      contentType: "text/csv",
+    }),
     expect: {
       signedOut: 401,
       chief: { status: 200, check: (res) => expect((res.json as { rows: { problems: string[] }[] }).rows[0]!.problems).toEqual([]) },
@@ -57,7 +71,11 @@ export const TIMETABLE_TABLE: AuthzTable = {
     request: (fx, caller) => ({ params: { studentId: caller === "student" ? fx.otherStudent : fx.student } }),
     expect: {
       signedOut: 401,
-      chief: { status: 200, check: (res) => expect(res.text.split("\r\n")[0]).toContain("Date,Minutes credited,Hours,Attendance,Subjects,Instructor,Instructor certificate") },
+      chief: {
+        status: 200,
+        check: (res) =>
+          expect(res.text.split("\r\n")[0]).toContain("Date,Minutes credited,Hours,Attendance,Subjects,Instructor,Instructor certificate"),
+      },
       instructor: { status: 200, check: (res) => expect(res.text).toContain("LHV-GI-0142") },
       student: 404,
       sponsor: { status: 200, check: (res) => expect(res.headers.get("content-disposition")).toContain("logbook-ada-quill.csv") },
@@ -67,7 +85,18 @@ export const TIMETABLE_TABLE: AuthzTable = {
 
   "action app/(app)/timetable/actions.ts#scheduleSessionAction": {
     request: (fx, caller) => ({
-      args: [{ briefingId: fx.briefing, date: caller === "chief" ? "2027-07-01" : "2027-07-02", time: "10:00", durationMinutes: 60, room: "Hangar classroom", instructorId: fx.instructor, cohortId: fx.kestrelCohort, studentIds: [] }],
+      args: [
+        {
+          briefingId: fx.briefing,
+          date: caller === "chief" ? "2027-07-01" : "2027-07-02",
+          time: "10:00",
+          durationMinutes: 60,
+          room: "Hangar classroom",
+          instructorId: fx.instructor,
+          cohortId: fx.kestrelCohort,
+          studentIds: [],
+        },
+      ],
     }),
     expect: {
       signedOut: 401,
@@ -84,8 +113,22 @@ export const TIMETABLE_TABLE: AuthzTable = {
       params: { sessionId: caller === "chief" ? fx.merlinSessionToMove! : fx.kestrelSessionToMove! },
       args: [
         caller === "chief"
-          ? { sessionId: fx.merlinSessionToMove, date: "2027-06-01", time: "10:00", durationMinutes: 90, room: "Briefing room 2", instructorId: fx.otherInstructor }
-          : { sessionId: fx.kestrelSessionToMove, date: "2027-06-02", time: "10:00", durationMinutes: 90, room: "Hangar classroom", instructorId: fx.instructor },
+          ? {
+              sessionId: fx.merlinSessionToMove,
+              date: "2027-06-01",
+              time: "10:00",
+              durationMinutes: 90,
+              room: "Briefing room 2",
+              instructorId: fx.otherInstructor,
+            }
+          : {
+              sessionId: fx.kestrelSessionToMove,
+              date: "2027-06-02",
+              time: "10:00",
+              durationMinutes: 90,
+              room: "Hangar classroom",
+              instructorId: fx.instructor,
+            },
       ],
     }),
     expect: {
@@ -128,7 +171,10 @@ export const TIMETABLE_TABLE: AuthzTable = {
 
   "action app/(app)/timetable/actions.ts#amendEntryAction": {
     // posted from a session's page; which page does not matter to the action
-    request: (fx, caller) => ({ params: { sessionId: fx.kestrelSessionRecorded! }, args: [{ entryId: caller === "chief" ? fx.otherStudentEntry : fx.studentEntry, status: "attended", reason: "Harness correction" }] }),
+    request: (fx, caller) => ({
+      params: { sessionId: fx.kestrelSessionRecorded! },
+      args: [{ entryId: caller === "chief" ? fx.otherStudentEntry : fx.studentEntry, status: "attended", reason: "Harness correction" }],
+    }),
     expect: { signedOut: 401, chief: 200, instructor: 200, student: 403, sponsor: 403 },
     mutates: true,
   },
@@ -147,7 +193,13 @@ export const TIMETABLE_TABLE: AuthzTable = {
 
   "action app/(app)/ground-log/actions.ts#scheduleMakeupAction": {
     request: (fx, caller) => ({ args: [{ itemId: caller === "chief" ? fx.makeupA : fx.makeupB, sessionId: fx.kestrelSessionSoon }] }),
-    expect: { signedOut: 401, chief: { status: 200, check: (res) => expect(ok(res).data?.state).toBe("scheduled") }, instructor: 200, student: 403, sponsor: 403 },
+    expect: {
+      signedOut: 401,
+      chief: { status: 200, check: (res) => expect(ok(res).data?.state).toBe("scheduled") },
+      instructor: 200,
+      student: 403,
+      sponsor: 403,
+    },
     mutates: true,
   },
 
@@ -159,19 +211,37 @@ export const TIMETABLE_TABLE: AuthzTable = {
 
   "action app/(app)/ground-log/actions.ts#waiveMakeupAction": {
     request: (fx) => ({ args: [{ itemId: fx.makeupE, reason: "Harness waiver" }] }),
-    expect: { signedOut: 401, chief: { status: 200, check: (res) => expect(ok(res).data?.state).toBe("waived") }, instructor: 403, student: 403, sponsor: 403 },
+    expect: {
+      signedOut: 401,
+      chief: { status: 200, check: (res) => expect(ok(res).data?.state).toBe("waived") },
+      instructor: 403,
+      student: 403,
+      sponsor: 403,
+    },
     mutates: true,
   },
 
   "action app/(app)/roster/actions.ts#addStudentAction": {
-    request: (fx, caller) => ({ args: [{ name: `Harness Added ${caller}`, email: `harness.added.${caller}@chalkwing.test`, cohortId: fx.kestrelCohort }] }),
-    expect: { signedOut: 401, chief: { status: 200, check: (res) => expect(ok(res).data?.invitations).toBe(1) }, instructor: 200, student: 403, sponsor: 403 },
+    request: (fx, caller) => ({
+      args: [{ name: `Harness Added ${caller}`, email: `harness.added.${caller}@chalkwing.test`, cohortId: fx.kestrelCohort }],
+    }),
+    expect: {
+      signedOut: 401,
+      chief: { status: 200, check: (res) => expect(ok(res).data?.invitations).toBe(1) },
+      instructor: 200,
+      student: 403,
+      sponsor: 403,
+    },
     mutates: true,
   },
 
   "action app/(app)/roster/actions.ts#moveStudentAction": {
     request: (fx, caller) => ({
-      args: [caller === "chief" ? { studentId: fx.merlinMover, toCohortId: fx.kestrelCohort, onDate: "2027-01-15" } : { studentId: fx.kestrelMover, toCohortId: fx.merlinCohort, onDate: "2027-01-15" }],
+      args: [
+        caller === "chief"
+          ? { studentId: fx.merlinMover, toCohortId: fx.kestrelCohort, onDate: "2027-01-15" }
+          : { studentId: fx.kestrelMover, toCohortId: fx.merlinCohort, onDate: "2027-01-15" },
+      ],
     }),
     expect: { signedOut: 401, chief: 200, instructor: 200, student: 403, sponsor: 403 },
     mutates: true,

@@ -46,7 +46,10 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
   await page.goto("/sign-in");
   await page.fill("#email", email);
   await page.fill("#password", password);
-  await Promise.all([page.waitForURL((u) => !u.pathname.startsWith("/sign-in"), { timeout: 15_000 }).catch(() => undefined), page.click("button[type=submit]")]);
+  await Promise.all([
+    page.waitForURL((u) => !u.pathname.startsWith("/sign-in"), { timeout: 15_000 }).catch(() => undefined),
+    page.click("button[type=submit]"),
+  ]);
 }
 
 export async function screenshot(page: Page, name: string): Promise<string> {

@@ -27,7 +27,8 @@ export const FINGERPRINT_ROW: Record<string, { expr: string; where?: string; rea
   "public.outbox": {
     expr: "(x.id, x.school_id, x.kind, x.idempotency_key, x.recipient_id, x.to_address, x.subject)",
     where: "x.kind NOT IN ('session.reminder', 'assignment.overdue', 'weekly.letter')",
-    reason: "the mail worker updates state, attempts and sent_at, and its clock-driven producers add reminders, overdue reminders and Weekly letters",
+    reason:
+      "the mail worker updates state, attempts and sent_at, and its clock-driven producers add reminders, overdue reminders and Weekly letters",
   },
 };
 /** Schemas left out: pg-boss keeps its job queue in its own schema, which a background worker changes. */

@@ -82,7 +82,13 @@ export function actionResultFromRsc(text: string): unknown {
 }
 
 /** Calls a server action over HTTP the way the browser does, posting to a page that uses it. */
-export async function callAction(opts: { actionId: string; pagePath: string; args: unknown[]; cookie?: string | null; origin?: string | null }): Promise<Response> {
+export async function callAction(opts: {
+  actionId: string;
+  pagePath: string;
+  args: unknown[];
+  cookie?: string | null;
+  origin?: string | null;
+}): Promise<Response> {
   const headers: Record<string, string> = {
     "Next-Action": opts.actionId,
     "Content-Type": "text/plain;charset=UTF-8",

@@ -3,7 +3,12 @@ import { sequelize } from "@/db/index";
 import { makeSchool, closeDb, actAs } from "@/tests/helpers/factories";
 import { createBriefingAction } from "@/app/(app)/briefings/actions";
 import { createAssignmentAction, setAssignmentDoneAction } from "@/app/(app)/assignments/actions";
-import { assignmentCompletion, isDemoAssignedToStudent, listAssignedDemosForStudent, listAssignmentsForStudent } from "@/db/access/assignments";
+import {
+  assignmentCompletion,
+  isDemoAssignedToStudent,
+  listAssignedDemosForStudent,
+  listAssignmentsForStudent,
+} from "@/db/access/assignments";
 import { fixedClock, resetClock } from "@/lib/clock";
 
 jest.mock("next/cache", () => ({ revalidatePath: jest.fn() }));
@@ -25,7 +30,9 @@ async function briefing(s: School, demoRevisionIds: string[] = []) {
     title: "Speed stability either side of Vmd",
     objective: "Predict what a gust does below and above Vmd.",
     syllabusItemIds: [],
-    elements: [{ title: "Gust below Vmd", instructorActions: "Show the drag curve.", studentActions: "Predict the response.", minutes: 20 }],
+    elements: [
+      { title: "Gust below Vmd", instructorActions: "Show the drag curve.", studentActions: "Predict the response.", minutes: 20 },
+    ],
     equipment: "",
     demoRevisionIds,
     completionStandard: "Predicts both responses.",
@@ -56,14 +63,27 @@ describe("assignments", () => {
     fixedClock(new Date("2026-10-05T09:00:00Z"));
     const b = await briefing(s);
     actAs(s.as.instructor);
-    const r = await createAssignmentAction({ kind: "briefing", briefingId: b, demoId: "", cohortId: s.cohorts.a.id, studentIds: [], dueOn: "2026-10-10", note: "" });
+    const r = await createAssignmentAction({
+      kind: "briefing",
+      briefingId: b,
+      demoId: "",
+      cohortId: s.cohorts.a.id,
+      studentIds: [],
+      dueOn: "2026-10-10",
+      note: "",
+    });
     if (!r.ok) throw new Error(r.message);
     expect(r.data.mailed).toBe(3);
     const mails = await sequelize.query<{ recipient: string; subject: string; body: string }>(
       `SELECT recipient_id AS recipient, subject, body_text AS body FROM outbox WHERE kind = 'assignment.new' AND school_id = :s`,
       { replacements: { s: s.school.id }, type: QueryTypes.SELECT },
     );
-    expect(mails.map((m) => m.recipient).sort()).toEqual(s.people.students.slice(0, 3).map((p) => p.id).sort());
+    expect(mails.map((m) => m.recipient).sort()).toEqual(
+      s.people.students
+        .slice(0, 3)
+        .map((p) => p.id)
+        .sort(),
+    );
     expect(mails[0]!.body).toContain("Speed stability either side of Vmd");
 
     // Completion across the cohort: nobody done yet; a cohort B student sees nothing.
@@ -98,7 +118,10 @@ describe("assignments", () => {
     expect(await count(`SELECT count(*)::int AS n FROM assignments WHERE school_id = :s`, { s: s.school.id })).toBe(0);
     expect(await count(`SELECT count(*)::int AS n FROM outbox WHERE school_id = :s`, { s: s.school.id })).toBe(0);
     actAs(s.as.student);
-    expect(await createAssignmentAction({ kind: "briefing", briefingId: b, cohortId: s.cohorts.a.id, dueOn: "2026-10-10" })).toMatchObject({ ok: false, status: 403 });
+    expect(await createAssignmentAction({ kind: "briefing", briefingId: b, cohortId: s.cohorts.a.id, dueOn: "2026-10-10" })).toMatchObject({
+      ok: false,
+      status: 403,
+    });
   });
 
   it("overdue is derived from the due date and the school's calendar, not UTC's", async () => {
@@ -145,8 +168,12 @@ describe("assignments", () => {
     const unassigned = await demo(s, "Not assigned");
     const b = await briefing(s, [viaBriefing.demoRevisionId]);
     actAs(s.as.instructor);
-    expect(await createAssignmentAction({ kind: "demo", demoId: direct.demoId, studentIds: [s.people.students[0]!.id], dueOn: "2026-10-08" })).toMatchObject({ ok: true });
-    expect(await createAssignmentAction({ kind: "briefing", briefingId: b, cohortId: s.cohorts.a.id, dueOn: "2026-10-09" })).toMatchObject({ ok: true });
+    expect(
+      await createAssignmentAction({ kind: "demo", demoId: direct.demoId, studentIds: [s.people.students[0]!.id], dueOn: "2026-10-08" }),
+    ).toMatchObject({ ok: true });
+    expect(await createAssignmentAction({ kind: "briefing", briefingId: b, cohortId: s.cohorts.a.id, dueOn: "2026-10-09" })).toMatchObject({
+      ok: true,
+    });
 
     const mine = await listAssignedDemosForStudent(s.school.id, s.people.students[0]!.id);
     expect(mine.map((d) => [d.name, d.demoRevisionId, d.dueOn, d.viaBriefingTitle])).toEqual([

@@ -16,10 +16,13 @@ afterAll(async () => {
 type School = Awaited<ReturnType<typeof makeSchool>>;
 
 async function itemIds(s: School, codes: string[]) {
-  const rows = await sequelize.query<{ id: string; code: string }>(`SELECT id, code FROM syllabus_items WHERE revision_id = :rev AND code IN (:codes)`, {
-    replacements: { rev: s.revision.id, codes },
-    type: QueryTypes.SELECT,
-  });
+  const rows = await sequelize.query<{ id: string; code: string }>(
+    `SELECT id, code FROM syllabus_items WHERE revision_id = :rev AND code IN (:codes)`,
+    {
+      replacements: { rev: s.revision.id, codes },
+      type: QueryTypes.SELECT,
+    },
+  );
   return codes.map((c) => rows.find((r) => r.code === c)!.id);
 }
 
@@ -85,9 +88,9 @@ describe("briefing revisions", () => {
     actAs(s.as.instructor);
     const r = await createBriefingAction(draft(s, []));
     if (!r.ok) throw new Error(r.message);
-    await expect(sequelize.query(`UPDATE briefing_revisions SET title = 'changed' WHERE id = :id`, { replacements: { id: r.data.revisionId } })).rejects.toThrow(
-      /permission denied|immutable/,
-    );
+    await expect(
+      sequelize.query(`UPDATE briefing_revisions SET title = 'changed' WHERE id = :id`, { replacements: { id: r.data.revisionId } }),
+    ).rejects.toThrow(/permission denied|immutable/);
   });
 
   it("refuses items from another syllabus revision, a student writer, and bad fields, writing nothing", async () => {
@@ -99,7 +102,9 @@ describe("briefing revisions", () => {
     const r = await createBriefingAction(draft(s, foreign));
     expect(r).toMatchObject({ ok: false, status: 400 });
     expect(!r.ok && r.message).toMatch(/^syllabusItemIds:/);
-    const bad = await createBriefingAction(draft(s, [], { elements: [{ title: "x", instructorActions: "y", studentActions: "z", minutes: 0 }] }));
+    const bad = await createBriefingAction(
+      draft(s, [], { elements: [{ title: "x", instructorActions: "y", studentActions: "z", minutes: 0 }] }),
+    );
     expect(bad).toMatchObject({ ok: false, status: 400 });
     expect(!bad.ok && bad.fieldErrors?.["elements.0.minutes"]).toBeTruthy();
     actAs(s.as.student);
@@ -132,11 +137,13 @@ describe("syllabus revisions", () => {
   it("a syllabus revision that enrolments or briefing revisions refer to cannot be changed or deleted", async () => {
     const s = await makeSchool("sfrz");
     await expect(
-      sequelize.query(`UPDATE syllabus_items SET completion_standard = 'easier' WHERE revision_id = :r`, { replacements: { r: s.revision.id } }),
+      sequelize.query(`UPDATE syllabus_items SET completion_standard = 'easier' WHERE revision_id = :r`, {
+        replacements: { r: s.revision.id },
+      }),
     ).rejects.toThrow(/referenced by enrolments/);
-    await expect(sequelize.query(`DELETE FROM syllabus_stages WHERE revision_id = :r`, { replacements: { r: s.revision.id } })).rejects.toThrow(
-      /referenced by enrolments/,
-    );
+    await expect(
+      sequelize.query(`DELETE FROM syllabus_stages WHERE revision_id = :r`, { replacements: { r: s.revision.id } }),
+    ).rejects.toThrow(/referenced by enrolments/);
 
     // A fresh revision that nothing refers to yet is made by the chief...
     actAs(s.as.chief);
@@ -144,7 +151,13 @@ describe("syllabus revisions", () => {
       ...st,
       items: st.items.map((i) => (i.code === "AER-03" ? { ...i, completionStandard: "Computes Vmd within 2 kt for two masses." } : i)),
     }));
-    const made = await createSyllabusRevisionAction({ courseId: s.course.id, approvedOn: "2026-10-01", effectiveFrom: "", changeNote: "Tighter AER-03", stages });
+    const made = await createSyllabusRevisionAction({
+      courseId: s.course.id,
+      approvedOn: "2026-10-01",
+      effectiveFrom: "",
+      changeNote: "Tighter AER-03",
+      stages,
+    });
     if (!made.ok) throw new Error(made.message);
     expect(made.data.number).toBe(2);
     const v2 = await getSyllabusRevision(s.school.id, made.data.id);
@@ -155,10 +168,12 @@ describe("syllabus revisions", () => {
     expect(await count(`SELECT count(*)::int AS n FROM enrolments WHERE revision_id = :r`, { r: made.data.id })).toBe(0);
 
     // Once a briefing revision refers to revision 2, it is frozen too.
-    const item = (await sequelize.query<{ id: string }>(`SELECT id FROM syllabus_items WHERE revision_id = :r AND code = 'AER-03'`, {
-      replacements: { r: made.data.id },
-      type: QueryTypes.SELECT,
-    }))[0]!.id;
+    const item = (
+      await sequelize.query<{ id: string }>(`SELECT id FROM syllabus_items WHERE revision_id = :r AND code = 'AER-03'`, {
+        replacements: { r: made.data.id },
+        type: QueryTypes.SELECT,
+      })
+    )[0]!.id;
     actAs(s.as.instructor);
     const b = await createBriefingAction(draft(s, [item], { syllabusRevisionId: made.data.id }));
     expect(b.ok).toBe(true);
@@ -170,12 +185,20 @@ describe("syllabus revisions", () => {
   it("a revision that only another area's record refers to (a make-up item) is frozen too", async () => {
     const s = await makeSchool("sfrz2");
     actAs(s.as.chief);
-    const made = await createSyllabusRevisionAction({ courseId: s.course.id, approvedOn: null, effectiveFrom: null, changeNote: "Second issue", stages: DEMO_STAGES });
+    const made = await createSyllabusRevisionAction({
+      courseId: s.course.id,
+      approvedOn: null,
+      effectiveFrom: null,
+      changeNote: "Second issue",
+      stages: DEMO_STAGES,
+    });
     if (!made.ok) throw new Error(made.message);
-    const item = (await sequelize.query<{ id: string }>(`SELECT id FROM syllabus_items WHERE revision_id = :r AND code = 'AER-02'`, {
-      replacements: { r: made.data.id },
-      type: QueryTypes.SELECT,
-    }))[0]!.id;
+    const item = (
+      await sequelize.query<{ id: string }>(`SELECT id FROM syllabus_items WHERE revision_id = :r AND code = 'AER-02'`, {
+        replacements: { r: made.data.id },
+        type: QueryTypes.SELECT,
+      })
+    )[0]!.id;
     // nothing refers to revision 2 yet: it may still be corrected
     await sequelize.query(`UPDATE syllabus_items SET title = 'Lift-dependent (induced) drag' WHERE id = :i`, { replacements: { i: item } });
     await sequelize.query(
@@ -191,20 +214,37 @@ describe("syllabus revisions", () => {
     const s = await makeSchool("smov");
     const other = await makeSchool("smov2");
     actAs(s.as.chief);
-    const made = await createSyllabusRevisionAction({ courseId: s.course.id, approvedOn: null, effectiveFrom: null, changeNote: "Second issue", stages: DEMO_STAGES });
+    const made = await createSyllabusRevisionAction({
+      courseId: s.course.id,
+      approvedOn: null,
+      effectiveFrom: null,
+      changeNote: "Second issue",
+      stages: DEMO_STAGES,
+    });
     if (!made.ok) throw new Error(made.message);
     const [e] = await sequelize.query<{ id: string }>(`SELECT id FROM enrolments WHERE student_id = :s`, {
       replacements: { s: s.people.students[0]!.id },
       type: QueryTypes.SELECT,
     });
-    expect(await moveEnrolmentAction({ enrolmentId: e!.id, revisionId: made.data.id })).toMatchObject({ ok: true, data: { moved: true, revisionNumber: 2 } });
+    expect(await moveEnrolmentAction({ enrolmentId: e!.id, revisionId: made.data.id })).toMatchObject({
+      ok: true,
+      data: { moved: true, revisionNumber: 2 },
+    });
     expect(await count(`SELECT count(*)::int AS n FROM enrolments WHERE revision_id = :r`, { r: made.data.id })).toBe(1);
     expect(await count(`SELECT count(*)::int AS n FROM enrolments WHERE revision_id = :r`, { r: s.revision.id })).toBe(5);
     // Not to another course's revision, and not by an instructor.
     expect(await moveEnrolmentAction({ enrolmentId: e!.id, revisionId: other.revision.id })).toMatchObject({ ok: false, status: 400 });
     actAs(s.as.instructor);
     expect(await moveEnrolmentAction({ enrolmentId: e!.id, revisionId: s.revision.id })).toMatchObject({ ok: false, status: 403 });
-    expect(await createSyllabusRevisionAction({ courseId: s.course.id, approvedOn: null, effectiveFrom: null, changeNote: "x", stages: DEMO_STAGES })).toMatchObject({
+    expect(
+      await createSyllabusRevisionAction({
+        courseId: s.course.id,
+        approvedOn: null,
+        effectiveFrom: null,
+        changeNote: "x",
+        stages: DEMO_STAGES,
+      }),
+    ).toMatchObject({
       ok: false,
       status: 403,
     });
@@ -214,7 +254,13 @@ describe("syllabus revisions", () => {
     const s = await makeSchool("sdup");
     actAs(s.as.chief);
     const stages = [{ code: "AER", title: "Drag", items: [DEMO_STAGES[0]!.items[0]!, DEMO_STAGES[0]!.items[0]!] }];
-    const r = await createSyllabusRevisionAction({ courseId: s.course.id, approvedOn: null, effectiveFrom: null, changeNote: "dup", stages });
+    const r = await createSyllabusRevisionAction({
+      courseId: s.course.id,
+      approvedOn: null,
+      effectiveFrom: null,
+      changeNote: "dup",
+      stages,
+    });
     expect(r).toMatchObject({ ok: false, status: 400 });
     expect(!r.ok && r.message).toMatch(/^stages: item code AER-01 is used twice/);
     expect(await count(`SELECT count(*)::int AS n FROM syllabus_revisions WHERE course_id = :c`, { c: s.course.id })).toBe(1);

@@ -37,12 +37,24 @@ async function briefing(s: School, title: string, codes: string[], minutes: numb
 }
 
 /** A session of the Timetable's shape (per the cross-area contract), written directly. */
-async function session(s: School, b: { briefingId: string; revisionId: string }, opts: { cohortId?: string; studentId?: string; startsAt: string; room: string }) {
+async function session(
+  s: School,
+  b: { briefingId: string; revisionId: string },
+  opts: { cohortId?: string; studentId?: string; startsAt: string; room: string },
+) {
   const [row] = await sequelize.query<{ id: string }>(
     `INSERT INTO training_sessions (school_id, briefing_id, briefing_revision_id, starts_at, ends_at, room, instructor_id, cohort_id, created_by)
      VALUES (:school, :b, :r, :start::timestamptz, :start::timestamptz + interval '1 hour', :room, :i, :cohort, :i) RETURNING id`,
     {
-      replacements: { school: s.school.id, b: b.briefingId, r: b.revisionId, start: opts.startsAt, room: opts.room, i: s.people.instructor2.id, cohort: opts.cohortId ?? null },
+      replacements: {
+        school: s.school.id,
+        b: b.briefingId,
+        r: b.revisionId,
+        start: opts.startsAt,
+        room: opts.room,
+        i: s.people.instructor2.id,
+        cohort: opts.cohortId ?? null,
+      },
       type: QueryTypes.SELECT,
     },
   );
@@ -61,7 +73,9 @@ describe("who may read a briefing", () => {
     const s = await makeSchool("bsched");
     const b = await briefing(s, "Configuration and drag", ["PRF-03"], [30]);
     const pdf = Buffer.from("%PDF-1.4\n% handout\n");
-    const { handoutId } = await sequelize.transaction((t) => addHandout(s.as.instructor, b.briefingId, { fileName: "config.pdf", contentType: "application/pdf", bytes: pdf }, t));
+    const { handoutId } = await sequelize.transaction((t) =>
+      addHandout(s.as.instructor, b.briefingId, { fileName: "config.pdf", contentType: "application/pdf", bytes: pdf }, t),
+    );
 
     const cohortB = s.people.students[3]!;
     const loneA = s.people.students[1]!;
@@ -79,7 +93,9 @@ describe("who may read a briefing", () => {
     // the rest of cohort A still may not
     expect(await canViewBriefing(viewer(s.people.students[0]!), b.briefingId)).toBe(false);
 
-    await sequelize.query(`UPDATE training_sessions SET status = 'cancelled', cancel_reason = 'room flooded' WHERE id = :id`, { replacements: { id: sid } });
+    await sequelize.query(`UPDATE training_sessions SET status = 'cancelled', cancel_reason = 'room flooded' WHERE id = :id`, {
+      replacements: { id: sid },
+    });
     expect(await canViewBriefing(viewer(cohortB), b.briefingId)).toBe(false);
     // a sponsor never reads briefings
     expect(await canViewBriefing({ id: s.people.sponsor.id, schoolId: s.school.id, roles: ["sponsor"] }, b.briefingId)).toBe(false);

@@ -31,7 +31,10 @@ const trainer = {
 };
 
 async function count(table: string, where = "true", replacements: Record<string, unknown> = {}): Promise<number> {
-  const [r] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM ${table} WHERE ${where}`, { replacements, type: QueryTypes.SELECT });
+  const [r] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM ${table} WHERE ${where}`, {
+    replacements,
+    type: QueryTypes.SELECT,
+  });
   return r!.n;
 }
 
@@ -50,7 +53,17 @@ async function newDemo(s: School, spec: DemoSpec, name = "Bucket") {
 }
 
 function assign(s: School, demoId: string) {
-  return Assignment.create({ schoolId: s.school.id, kind: "demo", briefingId: null, demoId, cohortId: s.cohorts.a.id, studentId: null, dueOn: "2099-01-01", note: "", assignedBy: s.people.instructor.id });
+  return Assignment.create({
+    schoolId: s.school.id,
+    kind: "demo",
+    briefingId: null,
+    demoId,
+    cohortId: s.cohorts.a.id,
+    studentId: null,
+    dueOn: "2099-01-01",
+    note: "",
+    assignedBy: s.people.instructor.id,
+  });
 }
 
 describe("Curve Lab demos: save, revisions, duplicate, delete", () => {
@@ -135,7 +148,11 @@ describe("Curve Lab demos: save, revisions, duplicate, delete", () => {
     expect(r.status).toBe(400);
     expect(Object.keys(r.fieldErrors ?? {})).toContain("spec.cases.0.massKg");
     const five = { ...spec, cases: [0, 1, 2, 3, 4].map(() => spec.cases[0]!) };
-    expect(await saveDemoAction({ demoId: null, name: "Too many", spec: five })).toMatchObject({ ok: false, status: 400, fieldErrors: { "spec.cases": ["cases: at most four cases"] } });
+    expect(await saveDemoAction({ demoId: null, name: "Too many", spec: five })).toMatchObject({
+      ok: false,
+      status: 400,
+      fieldErrors: { "spec.cases": ["cases: at most four cases"] },
+    });
     expect(await count("demos")).toBe(before);
   });
 });
@@ -170,7 +187,10 @@ describe("Call it first", () => {
     expect(await listCallsForDemo(s.as.chief, d.demoId)).toHaveLength(1);
 
     // a called demo is in use: the next save makes revision 2, and calls stay on revision 1
-    expect(await saveDemoAction({ demoId: d.demoId, name: "Call demo", spec: { ...spec, notes: "v2" } })).toMatchObject({ ok: true, data: { revisionNumber: 2 } });
+    expect(await saveDemoAction({ demoId: d.demoId, name: "Call demo", spec: { ...spec, notes: "v2" } })).toMatchObject({
+      ok: true,
+      data: { revisionNumber: 2 },
+    });
     // calls are append-only for the app's role
     await expect(sequelize.query(`UPDATE demo_calls SET error_ms = 0`)).rejects.toThrow(/permission denied/);
   });
@@ -184,7 +204,10 @@ describe("aircraft profiles", () => {
     const bad = await createAirframeAction({ ...trainer, maxMass: 400, oswaldEfficiency: 2 });
     expect(bad).toMatchObject({ ok: false, status: 400 });
     if (bad.ok) return;
-    expect(bad.fieldErrors).toMatchObject({ maxMass: ["Maximum mass must be at least the empty mass"], oswaldEfficiency: ["Oswald efficiency must be between 0.1 and 1"] });
+    expect(bad.fieldErrors).toMatchObject({
+      maxMass: ["Maximum mass must be at least the empty mass"],
+      oswaldEfficiency: ["Oswald efficiency must be between 0.1 and 1"],
+    });
     expect(await count("airframes", "school_id = :id", { id: s.school.id })).toBe(before);
 
     const a = await newAirframe(s);

@@ -69,7 +69,11 @@ test("start creates and starts a cluster in the given folder on the given port; 
   expect(pidAfter).toBe(pidBefore); // the same server, not a restart
   expect(await listening(port)).toBe(true);
   // the roles the app needs exist
-  const roles = await run("bash", [SCRIPT, "psql", "-c", "SELECT string_agg(rolname, ',' ORDER BY rolname) FROM pg_roles WHERE rolname LIKE 'chalkwing_%'"], { env });
+  const roles = await run(
+    "bash",
+    [SCRIPT, "psql", "-c", "SELECT string_agg(rolname, ',' ORDER BY rolname) FROM pg_roles WHERE rolname LIKE 'chalkwing_%'"],
+    { env },
+  );
   expect(roles.stdout.trim()).toBe("chalkwing_app,chalkwing_owner");
   // the main cluster's folder was not used
   expect(dir.startsWith(path.join(process.cwd(), ".data"))).toBe(false);

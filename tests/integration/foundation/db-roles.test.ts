@@ -44,12 +44,16 @@ test("the app role cannot change a table's shape or switch off its triggers", as
 });
 
 test("every migration file in db/migrations is recorded as applied", async () => {
-  const files = readdirSync(path.join(process.cwd(), "db", "migrations")).filter((f) => /^\d{4}-.*\.ts$/.test(f)).sort();
+  const files = readdirSync(path.join(process.cwd(), "db", "migrations"))
+    .filter((f) => /^\d{4}-.*\.ts$/.test(f))
+    .sort();
   // the migration record belongs to the owner role; the app role may not even read it
   await expect(sequelize.query(`SELECT name FROM schema_migrations`)).rejects.toThrow(/permission denied/);
   const owner = new Client({ connectionString: process.env.DATABASE_OWNER_URL });
   await owner.connect();
-  const applied = (await owner.query<{ name: string }>(`SELECT name FROM schema_migrations ORDER BY name`).finally(() => owner.end())).rows.map((r) => r.name);
+  const applied = (
+    await owner.query<{ name: string }>(`SELECT name FROM schema_migrations ORDER BY name`).finally(() => owner.end())
+  ).rows.map((r) => r.name);
   expect(files).toContain("0001-foundation.ts");
   expect(applied).toEqual(expect.arrayContaining(files));
 });

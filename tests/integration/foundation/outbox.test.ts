@@ -13,10 +13,21 @@ beforeAll(async () => {
   s = await makeSchool("outbox");
 });
 
-const mail = (key: string) => ({ schoolId: s.school.id, kind: "test.note", idempotencyKey: key, to: "student@chalkwing.test", subject: "Note", text: "Hello", html: "<p>Hello</p>" });
+const mail = (key: string) => ({
+  schoolId: s.school.id,
+  kind: "test.note",
+  idempotencyKey: key,
+  to: "student@chalkwing.test",
+  subject: "Note",
+  text: "Hello",
+  html: "<p>Hello</p>",
+});
 
 async function count(key: string): Promise<number> {
-  const [r] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM outbox WHERE idempotency_key = :key`, { replacements: { key }, type: QueryTypes.SELECT });
+  const [r] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM outbox WHERE idempotency_key = :key`, {
+    replacements: { key },
+    type: QueryTypes.SELECT,
+  });
   return r?.n ?? -1;
 }
 
@@ -26,7 +37,11 @@ test("rolled back with its transaction: no outbox row", async () => {
     sequelize.transaction(async (t) => {
       expect(await enqueueMail(t, mail(key))).toBe(true);
       // the row is visible inside the transaction…
-      const [inside] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM outbox WHERE idempotency_key = :key`, { replacements: { key }, type: QueryTypes.SELECT, transaction: t });
+      const [inside] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM outbox WHERE idempotency_key = :key`, {
+        replacements: { key },
+        type: QueryTypes.SELECT,
+        transaction: t,
+      });
       expect(inside?.n).toBe(1);
       throw new Error("the change failed");
     }),
@@ -44,6 +59,9 @@ test("committed with its transaction: one queued row; the same key again writes 
     expect(await enqueueMail(t, mail(key))).toBe(false);
   });
   expect(await count(key)).toBe(1);
-  const [row] = await sequelize.query<{ state: string }>(`SELECT state FROM outbox WHERE idempotency_key = :key`, { replacements: { key }, type: QueryTypes.SELECT });
+  const [row] = await sequelize.query<{ state: string }>(`SELECT state FROM outbox WHERE idempotency_key = :key`, {
+    replacements: { key },
+    type: QueryTypes.SELECT,
+  });
   expect(row?.state).toBe("queued");
 });

@@ -29,7 +29,16 @@ function createThing(input: unknown, opts: { fail?: boolean; scope?: string } = 
     schema,
     input,
     async ({ label }, { user, t }) => {
-      await enqueueMail(t, { schoolId: s.school.id, kind: "test.thing", idempotencyKey: `thing:${randomUUID()}`, to: "x@chalkwing.test", subject: label, text: label, html: label, recipientId: user.id });
+      await enqueueMail(t, {
+        schoolId: s.school.id,
+        kind: "test.thing",
+        idempotencyKey: `thing:${randomUUID()}`,
+        to: "x@chalkwing.test",
+        subject: label,
+        text: label,
+        html: label,
+        recipientId: user.id,
+      });
       if (opts.fail) throw new HttpError(422, "label: refused after writing", "label");
       return { label, made: randomUUID() };
     },

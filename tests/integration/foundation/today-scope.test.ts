@@ -7,7 +7,12 @@ describe("Today list is scoped to the caller", () => {
   it("gives an instructor only the students of cohorts they lead, and a sponsor only their own student", async () => {
     const s = await makeSchool("today");
     const mine = await todayFocusList(s.as.instructor);
-    expect(mine.rows.map((r) => r.id).sort()).toEqual(s.people.students.slice(0, 3).map((p) => p.id).sort());
+    expect(mine.rows.map((r) => r.id).sort()).toEqual(
+      s.people.students
+        .slice(0, 3)
+        .map((p) => p.id)
+        .sort(),
+    );
     const sponsor = await todayFocusList(s.as.sponsor);
     expect(sponsor.rows.map((r) => r.id)).toEqual([s.people.students[0]!.id]);
     const chief = await todayFocusList(s.as.chief);

@@ -23,7 +23,15 @@ afterAll(async () => {
   await closeDb();
 });
 
-const settings = { mailSenderName: "Larkhollow ground school", reminderLeadHours: 12, weeklyLetterDay: 3, checkValidityDays: 45, stageCheckPassMarkPercent: 75, lateEntryDays: 5, authority: "Test authority" };
+const settings = {
+  mailSenderName: "Larkhollow ground school",
+  reminderLeadHours: 12,
+  weeklyLetterDay: 3,
+  checkValidityDays: 45,
+  stageCheckPassMarkPercent: 75,
+  lateEntryDays: 5,
+  authority: "Test authority",
+};
 
 async function schoolSettings() {
   const [row] = await sequelize.query<{ settings: Record<string, unknown> }>(`SELECT settings FROM schools WHERE id = :id`, {
@@ -73,38 +81,59 @@ describe("notes for sponsors", () => {
     const first = await addSponsorNoteAction({ studentId: s.people.students[0]!.id, body, idempotencyKey: key });
     const again = await addSponsorNoteAction({ studentId: s.people.students[0]!.id, body, idempotencyKey: key });
     expect(first.ok && again.ok && again.data.id === first.data.id).toBe(true);
-    const [n] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM sponsor_notes WHERE body = :b`, { replacements: { b: body }, type: QueryTypes.SELECT });
+    const [n] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM sponsor_notes WHERE body = :b`, {
+      replacements: { b: body },
+      type: QueryTypes.SELECT,
+    });
     expect(n!.n).toBe(1);
   });
 
   test("another cohort's instructor gets 404 and nothing is written; a student is refused", async () => {
     actAs(s.as.instructor2); // leads cohort B; students[0] is in cohort A
     const body = `Not mine ${randomUUID().slice(0, 6)}`;
-    expect(await addSponsorNoteAction({ studentId: s.people.students[0]!.id, body })).toMatchObject({ ok: false, status: 404, fieldErrors: { studentId: [expect.any(String)] } });
+    expect(await addSponsorNoteAction({ studentId: s.people.students[0]!.id, body })).toMatchObject({
+      ok: false,
+      status: 404,
+      fieldErrors: { studentId: [expect.any(String)] },
+    });
     actAs(s.as.student);
     expect(await addSponsorNoteAction({ studentId: s.people.students[0]!.id, body })).toMatchObject({ ok: false, status: 403 });
-    const [n] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM sponsor_notes WHERE body = :b`, { replacements: { b: body }, type: QueryTypes.SELECT });
+    const [n] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM sponsor_notes WHERE body = :b`, {
+      replacements: { b: body },
+      type: QueryTypes.SELECT,
+    });
     expect(n!.n).toBe(0);
   });
 
   test("an empty note is refused naming the field", async () => {
     actAs(s.as.instructor);
-    expect(await addSponsorNoteAction({ studentId: s.people.students[0]!.id, body: "   " })).toMatchObject({ ok: false, status: 400, fieldErrors: { body: ["write the note"] } });
+    expect(await addSponsorNoteAction({ studentId: s.people.students[0]!.id, body: "   " })).toMatchObject({
+      ok: false,
+      status: 400,
+      fieldErrors: { body: ["write the note"] },
+    });
   });
 });
 
 describe("Send again", () => {
   async function failedMail(schoolId: string) {
     const key = `test.retry:${randomUUID()}`;
-    await sequelize.transaction((t) => enqueueMail(t, { schoolId, kind: "test", idempotencyKey: key, to: "x@chalkwing.test", subject: "s", text: "t", html: "<p>h</p>" }));
-    const [row] = await sequelize.query<{ id: string }>(`UPDATE outbox SET state = 'failed', attempts = 9, last_error = 'connect ECONNREFUSED' WHERE idempotency_key = :k RETURNING id`, {
-      replacements: { k: key },
-      type: QueryTypes.SELECT,
-    });
+    await sequelize.transaction((t) =>
+      enqueueMail(t, { schoolId, kind: "test", idempotencyKey: key, to: "x@chalkwing.test", subject: "s", text: "t", html: "<p>h</p>" }),
+    );
+    const [row] = await sequelize.query<{ id: string }>(
+      `UPDATE outbox SET state = 'failed', attempts = 9, last_error = 'connect ECONNREFUSED' WHERE idempotency_key = :k RETURNING id`,
+      {
+        replacements: { k: key },
+        type: QueryTypes.SELECT,
+      },
+    );
     return row!.id;
   }
   const stateOf = async (id: string) =>
-    (await sequelize.query<{ state: string }>(`SELECT state FROM outbox WHERE id = :id`, { replacements: { id }, type: QueryTypes.SELECT }))[0]!.state;
+    (
+      await sequelize.query<{ state: string }>(`SELECT state FROM outbox WHERE id = :id`, { replacements: { id }, type: QueryTypes.SELECT })
+    )[0]!.state;
 
   test("the chief puts a failed mail back in the queue; a second try is a 409", async () => {
     const id = await failedMail(s.school.id);
@@ -120,17 +149,24 @@ describe("Send again", () => {
     actAs(s.as.chief);
     expect(await retryMailAction({ outboxId: id })).toMatchObject({ ok: false, status: 404 });
     expect(await stateOf(id)).toBe("failed");
-    expect(await retryMailAction({ outboxId: "nope" })).toMatchObject({ ok: false, status: 400, fieldErrors: { outboxId: ["not a mail id"] } });
+    expect(await retryMailAction({ outboxId: "nope" })).toMatchObject({
+      ok: false,
+      status: 400,
+      fieldErrors: { outboxId: ["not a mail id"] },
+    });
   });
 });
 
 describe("set-password links", () => {
   async function invitee() {
     const email = `invitee.${randomUUID().slice(0, 8)}@chalkwing.test`;
-    const [p] = await sequelize.query<{ id: string }>(`INSERT INTO people (school_id, name, email, roles) VALUES (:s, 'Invited Person', :e, ARRAY['student']) RETURNING id`, {
-      replacements: { s: s.school.id, e: email },
-      type: QueryTypes.SELECT,
-    });
+    const [p] = await sequelize.query<{ id: string }>(
+      `INSERT INTO people (school_id, name, email, roles) VALUES (:s, 'Invited Person', :e, ARRAY['student']) RETURNING id`,
+      {
+        replacements: { s: s.school.id, e: email },
+        type: QueryTypes.SELECT,
+      },
+    );
     return { id: p!.id, email };
   }
   const tokenOf = (url: string) => url.split("/set-password/")[1]!;
@@ -139,20 +175,40 @@ describe("set-password links", () => {
     const p = await invitee();
     const link = await sequelize.transaction((t) => createSetPasswordLink(t, p.id));
     const token = tokenOf(link.url);
-    const [stored] = await sequelize.query<{ token_hash: string }>(`SELECT token_hash FROM set_password_tokens WHERE person_id = :p`, { replacements: { p: p.id }, type: QueryTypes.SELECT });
+    const [stored] = await sequelize.query<{ token_hash: string }>(`SELECT token_hash FROM set_password_tokens WHERE person_id = :p`, {
+      replacements: { p: p.id },
+      type: QueryTypes.SELECT,
+    });
     expect(stored!.token_hash).toMatch(/^[0-9a-f]{64}$/);
     expect(stored!.token_hash).not.toContain(token);
 
     expect(await inspectSetPasswordToken(token)).toEqual({ state: "valid", name: "Invited Person", email: p.email });
     expect(await inspectSetPasswordToken(token)).toMatchObject({ state: "valid" });
 
-    expect(await setPasswordAction({ token, password: "short", confirm: "short" })).toMatchObject({ ok: false, status: 400, fieldErrors: { password: ["Password must be at least 10 characters"] } });
-    expect(await setPasswordAction({ token, password: "ä".repeat(37), confirm: "ä".repeat(37) })).toMatchObject({ ok: false, fieldErrors: { password: ["Password must be at most 72 bytes"] } });
-    expect(await setPasswordAction({ token, password: "a-good-password-1", confirm: "a-good-password-2" })).toMatchObject({ ok: false, fieldErrors: { confirm: [expect.any(String)] } });
-    expect(await setPasswordAction({ token, password: "a-good-password-1", confirm: "a-good-password-1" })).toEqual({ ok: true, data: { done: true } });
+    expect(await setPasswordAction({ token, password: "short", confirm: "short" })).toMatchObject({
+      ok: false,
+      status: 400,
+      fieldErrors: { password: ["Password must be at least 10 characters"] },
+    });
+    expect(await setPasswordAction({ token, password: "ä".repeat(37), confirm: "ä".repeat(37) })).toMatchObject({
+      ok: false,
+      fieldErrors: { password: ["Password must be at most 72 bytes"] },
+    });
+    expect(await setPasswordAction({ token, password: "a-good-password-1", confirm: "a-good-password-2" })).toMatchObject({
+      ok: false,
+      fieldErrors: { confirm: [expect.any(String)] },
+    });
+    expect(await setPasswordAction({ token, password: "a-good-password-1", confirm: "a-good-password-1" })).toEqual({
+      ok: true,
+      data: { done: true },
+    });
     expect(await attemptSignIn(p.email, "a-good-password-1", "198.51.100.9")).toMatchObject({ id: p.id });
 
-    expect(await setPasswordAction({ token, password: "another-password-9", confirm: "another-password-9" })).toMatchObject({ ok: false, status: 400, fieldErrors: { token: ["This link has already been used."] } });
+    expect(await setPasswordAction({ token, password: "another-password-9", confirm: "another-password-9" })).toMatchObject({
+      ok: false,
+      status: 400,
+      fieldErrors: { token: ["This link has already been used."] },
+    });
     expect(await inspectSetPasswordToken(token)).toEqual({ state: "used" });
     expect(await attemptSignIn(p.email, "another-password-9", "198.51.100.9")).toBeNull();
   });
@@ -164,14 +220,19 @@ describe("set-password links", () => {
     expect(link.expiresAt.toISOString()).toBe("2026-12-08T10:00:00.000Z");
     clock.set(new Date("2026-12-08T10:00:01Z"));
     expect(await inspectSetPasswordToken(tokenOf(link.url))).toEqual({ state: "expired" });
-    expect(await setPasswordAction({ token: tokenOf(link.url), password: "a-good-password-1", confirm: "a-good-password-1" })).toMatchObject({ ok: false, fieldErrors: { token: [expect.stringContaining("expired")] } });
+    expect(
+      await setPasswordAction({ token: tokenOf(link.url), password: "a-good-password-1", confirm: "a-good-password-1" }),
+    ).toMatchObject({ ok: false, fieldErrors: { token: [expect.stringContaining("expired")] } });
     resetClock();
   });
 
   test("an unknown or malformed token is refused", async () => {
     expect(await inspectSetPasswordToken("x".repeat(43))).toEqual({ state: "unknown" });
     expect(await inspectSetPasswordToken("../../etc")).toEqual({ state: "unknown" });
-    expect(await setPasswordAction({ token: "x".repeat(43), password: "a-good-password-1", confirm: "a-good-password-1" })).toMatchObject({ ok: false, status: 400 });
+    expect(await setPasswordAction({ token: "x".repeat(43), password: "a-good-password-1", confirm: "a-good-password-1" })).toMatchObject({
+      ok: false,
+      status: 400,
+    });
     expect(await setPasswordAction({})).toMatchObject({ ok: false, status: 400 });
   });
 });

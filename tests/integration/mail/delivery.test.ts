@@ -29,7 +29,9 @@ async function queueMail(prefix: string, to = `student.${randomUUID().slice(0, 6
     { name: "Ada Quill", itemCode: "AER-03", itemTitle: "Total drag", signerName: "Instructor One", signedOn: "2026-12-01" },
     { name: school.school.name, timeZone: "Europe/London" },
   );
-  await sequelize.transaction((t) => enqueueMail(t, { schoolId: school.school.id, kind: "record.signed", idempotencyKey: key, to, ...mail }));
+  await sequelize.transaction((t) =>
+    enqueueMail(t, { schoolId: school.school.id, kind: "record.signed", idempotencyKey: key, to, ...mail }),
+  );
   return key;
 }
 
@@ -39,7 +41,8 @@ function worker(port: number, env: Record<string, string> = {}) {
   return w;
 }
 
-const copiesOf = (sink: { received: { messageId: string }[] }, messageId: string) => sink.received.filter((m) => m.messageId === messageId).length;
+const copiesOf = (sink: { received: { messageId: string }[] }, messageId: string) =>
+  sink.received.filter((m) => m.messageId === messageId).length;
 
 describe.each([
   ["before-send", 1],
@@ -150,12 +153,21 @@ test("a rolled-back change leaves no outbox row", async () => {
         replacements: { s: school.school.id, st: school.people.students[0]!.id, a: school.people.instructor.id, b: noteBody },
         transaction: t,
       });
-      const mail = composeMail("check.notyet", { name: "Ada", itemCodes: ["AER-01"], checkedOn: "2026-12-01" }, { name: "X", timeZone: "Europe/London" });
-      expect(await enqueueMail(t, { schoolId: school.school.id, kind: "check.notyet", idempotencyKey: key, to: "a@chalkwing.test", ...mail })).toBe(true);
+      const mail = composeMail(
+        "check.notyet",
+        { name: "Ada", itemCodes: ["AER-01"], checkedOn: "2026-12-01" },
+        { name: "X", timeZone: "Europe/London" },
+      );
+      expect(
+        await enqueueMail(t, { schoolId: school.school.id, kind: "check.notyet", idempotencyKey: key, to: "a@chalkwing.test", ...mail }),
+      ).toBe(true);
       throw new Error("the change fails after the mail was written");
     }),
   ).rejects.toThrow("the change fails");
   expect(await outboxRow(key)).toBeNull();
-  const [n] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM sponsor_notes WHERE body = :b`, { replacements: { b: noteBody }, type: QueryTypes.SELECT });
+  const [n] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM sponsor_notes WHERE body = :b`, {
+    replacements: { b: noteBody },
+    type: QueryTypes.SELECT,
+  });
   expect(n!.n).toBe(0);
 });

@@ -71,7 +71,9 @@ export function spawnWorker(smtpPort: number, extraEnv: Record<string, string> =
   });
   child.stdout?.on("data", (d: Buffer) => (out += d.toString()));
   child.stderr?.on("data", (d: Buffer) => (out += d.toString()));
-  const exited = new Promise<{ code: number | null; signal: NodeJS.Signals | null }>((resolve) => child.once("exit", (code, signal) => resolve({ code, signal })));
+  const exited = new Promise<{ code: number | null; signal: NodeJS.Signals | null }>((resolve) =>
+    child.once("exit", (code, signal) => resolve({ code, signal })),
+  );
   return {
     child,
     output: () => out,
@@ -88,10 +90,17 @@ export function spawnWorker(smtpPort: number, extraEnv: Record<string, string> =
 }
 
 export async function outboxRow(key: string) {
-  const [row] = await sequelize.query<{ id: string; state: string; attempts: number; last_error: string | null; message_id: string; sent_at: Date | null }>(
-    `SELECT id, state, attempts, last_error, message_id, sent_at FROM outbox WHERE idempotency_key = :key`,
-    { replacements: { key }, type: QueryTypes.SELECT },
-  );
+  const [row] = await sequelize.query<{
+    id: string;
+    state: string;
+    attempts: number;
+    last_error: string | null;
+    message_id: string;
+    sent_at: Date | null;
+  }>(`SELECT id, state, attempts, last_error, message_id, sent_at FROM outbox WHERE idempotency_key = :key`, {
+    replacements: { key },
+    type: QueryTypes.SELECT,
+  });
   return row ?? null;
 }
 
@@ -104,7 +113,10 @@ export async function deliveriesOf(outboxId: string): Promise<number> {
 }
 
 /** A briefing with one revision, written straight into the briefings area's tables (contract names). */
-export async function makeBriefing(s: { school: { id: string }; course: { id: string }; revision: { id: string }; people: { instructor: { id: string } } }, title: string) {
+export async function makeBriefing(
+  s: { school: { id: string }; course: { id: string }; revision: { id: string }; people: { instructor: { id: string } } },
+  title: string,
+) {
   return sequelize.transaction(async (t) => {
     const [b] = await sequelize.query<{ id: string }>(
       `INSERT INTO briefings (school_id, course_id, owner_id) VALUES (:s, :c, :o) RETURNING id`,
@@ -115,7 +127,10 @@ export async function makeBriefing(s: { school: { id: string }; course: { id: st
        VALUES (:b, 1, :title, 'Objective', 'Standard', :rev, :o) RETURNING id`,
       { replacements: { b: b!.id, title, rev: s.revision.id, o: s.people.instructor.id }, type: QueryTypes.SELECT, transaction: t },
     );
-    await sequelize.query(`UPDATE briefings SET current_revision_id = :r WHERE id = :b`, { replacements: { r: r!.id, b: b!.id }, transaction: t });
+    await sequelize.query(`UPDATE briefings SET current_revision_id = :r WHERE id = :b`, {
+      replacements: { r: r!.id, b: b!.id },
+      transaction: t,
+    });
     return { id: b!.id, revisionId: r!.id };
   });
 }
@@ -133,13 +148,24 @@ export async function makeSession(
       `INSERT INTO training_sessions (school_id, briefing_id, briefing_revision_id, starts_at, ends_at, room, instructor_id, created_by)
        VALUES (:s, :b, :r, :a, :e, :room, :i, :i) RETURNING id`,
       {
-        replacements: { s: s.school.id, b: briefing.id, r: briefing.revisionId, a: startsAt, e: new Date(startsAt.getTime() + 90 * 60_000), room, i: s.people.instructor.id },
+        replacements: {
+          s: s.school.id,
+          b: briefing.id,
+          r: briefing.revisionId,
+          a: startsAt,
+          e: new Date(startsAt.getTime() + 90 * 60_000),
+          room,
+          i: s.people.instructor.id,
+        },
         type: QueryTypes.SELECT,
         transaction: t,
       },
     );
     for (const sid of studentIds) {
-      await sequelize.query(`INSERT INTO session_attendees (session_id, student_id) VALUES (:id, :sid)`, { replacements: { id: row!.id, sid }, transaction: t });
+      await sequelize.query(`INSERT INTO session_attendees (session_id, student_id) VALUES (:id, :sid)`, {
+        replacements: { id: row!.id, sid },
+        transaction: t,
+      });
     }
     return row!.id;
   });

@@ -48,7 +48,12 @@ describe("session reminders", () => {
   test("one reminder per attendee once the clock reaches the lead time (24 h), and not before", async () => {
     const startsAt = new Date("2027-01-12T09:00:00Z");
     const attendees = s.people.students.slice(0, 3);
-    const sessionId = await makeSession(s, briefing, startsAt, attendees.map((p) => p.id));
+    const sessionId = await makeSession(
+      s,
+      briefing,
+      startsAt,
+      attendees.map((p) => p.id),
+    );
 
     await runDueWork(new Date(startsAt.getTime() - 24 * H - 60_000));
     expect(await reminderRows(sessionId)).toHaveLength(0);
@@ -61,7 +66,10 @@ describe("session reminders", () => {
 
     const sink = await testSink();
     try {
-      await deliverAll(rows.map((r) => r.id), sink.port);
+      await deliverAll(
+        rows.map((r) => r.id),
+        sink.port,
+      );
       expect(sink.received.map((m) => m.envelopeTo[0]).sort()).toEqual(attendees.map((p) => p.email).sort());
       const mail = await parseStored(sink, sink.received[0]!.file);
       // 09:00 UTC on 12 January is 09:00 in London (GMT in winter)
@@ -75,7 +83,9 @@ describe("session reminders", () => {
 
   test("the school's lead time is used: 48 h", async () => {
     const s2 = await makeSchool("mail-lead");
-    await sequelize.query(`UPDATE schools SET settings = settings || '{"reminderLeadHours": 48}'::jsonb WHERE id = :id`, { replacements: { id: s2.school.id } });
+    await sequelize.query(`UPDATE schools SET settings = settings || '{"reminderLeadHours": 48}'::jsonb WHERE id = :id`, {
+      replacements: { id: s2.school.id },
+    });
     const b2 = await makeBriefing(s2, "Speed stability");
     const startsAt = new Date("2027-01-20T10:00:00Z");
     const sessionId = await makeSession(s2, b2, startsAt, [s2.people.students[0]!.id]);
@@ -88,14 +98,22 @@ describe("session reminders", () => {
   test("a reschedule after the reminder went out gives exactly one new reminder, at the new lead time", async () => {
     const startsAt = new Date("2027-01-14T09:00:00Z");
     const attendees = s.people.students.slice(0, 2);
-    const sessionId = await makeSession(s, briefing, startsAt, attendees.map((p) => p.id));
+    const sessionId = await makeSession(
+      s,
+      briefing,
+      startsAt,
+      attendees.map((p) => p.id),
+    );
     const clock = new Date(startsAt.getTime() - 20 * H);
     await runDueWork(clock);
     const first = await reminderRows(sessionId);
     expect(first).toHaveLength(2);
     const sink = await testSink();
     try {
-      await deliverAll(first.map((r) => r.id), sink.port);
+      await deliverAll(
+        first.map((r) => r.id),
+        sink.port,
+      );
 
       const newStart = new Date("2027-01-16T13:00:00Z");
       await moveSession(sessionId, newStart);
@@ -110,7 +128,10 @@ describe("session reminders", () => {
       expect(fresh.map((r) => r.recipient_id).sort()).toEqual(attendees.map((p) => p.id).sort());
       expect(all).toHaveLength(4);
 
-      await deliverAll(fresh.map((r) => r.id), sink.port);
+      await deliverAll(
+        fresh.map((r) => r.id),
+        sink.port,
+      );
       expect(sink.received).toHaveLength(4);
       const perPerson = new Map<string, number>();
       for (const m of sink.received) perPerson.set(m.envelopeTo[0]!, (perPerson.get(m.envelopeTo[0]!) ?? 0) + 1);
@@ -148,12 +169,17 @@ describe("overdue-assignment reminders", () => {
       { replacements: { s: s.school.id, b: b.id, c: s.cohorts.a.id, i: s.people.instructor.id }, type: QueryTypes.SELECT },
     );
     const [done, ...rest] = s.people.students.slice(0, 3);
-    await sequelize.query(`INSERT INTO assignment_completions (assignment_id, student_id, completed_at) VALUES (:a, :s, now())`, { replacements: { a: a!.id, s: done!.id } });
+    await sequelize.query(`INSERT INTO assignment_completions (assignment_id, student_id, completed_at) VALUES (:a, :s, now())`, {
+      replacements: { a: a!.id, s: done!.id },
+    });
     const rows = () =>
-      sequelize.query<{ recipient_id: string; subject: string }>(`SELECT recipient_id, subject FROM outbox WHERE kind = 'assignment.overdue' AND idempotency_key LIKE :p`, {
-        replacements: { p: `assignment.overdue:${a!.id}:%` },
-        type: QueryTypes.SELECT,
-      });
+      sequelize.query<{ recipient_id: string; subject: string }>(
+        `SELECT recipient_id, subject FROM outbox WHERE kind = 'assignment.overdue' AND idempotency_key LIKE :p`,
+        {
+          replacements: { p: `assignment.overdue:${a!.id}:%` },
+          type: QueryTypes.SELECT,
+        },
+      );
     await runDueWork(new Date("2027-02-03T23:30:00Z")); // still the due date in London
     expect(await rows()).toHaveLength(0);
     await runDueWork(new Date("2027-02-04T00:30:00Z"));
@@ -192,7 +218,19 @@ describe("the Weekly letter", () => {
       sequelize.query(
         `INSERT INTO ground_log_entries (school_id, student_id, course_id, session_id, briefing_revision_id, instructor_id, status, credited_minutes, occurred_at, recorded_by)
          VALUES (:school, :sid, :course, :session, :rev, :i, :status, :m, :at, :i)`,
-        { replacements: { school: s.school.id, sid, course: s.course.id, session: sessionId, rev, i: s.people.instructor.id, status, m: minutes, at } },
+        {
+          replacements: {
+            school: s.school.id,
+            sid,
+            course: s.course.id,
+            session: sessionId,
+            rev,
+            i: s.people.instructor.id,
+            status,
+            m: minutes,
+            at,
+          },
+        },
       );
     await log(student.id, ownSession, own.revisionId, "attended", 90, "2026-12-08T10:00:00Z");
     await log(other.id, theirSession, theirs.revisionId, "absent", 0, "2026-12-09T10:00:00Z");
@@ -207,9 +245,20 @@ describe("the Weekly letter", () => {
       `INSERT INTO makeup_items (school_id, student_id, syllabus_item_id, source_kind, source_id) VALUES (:s, :st, :item, 'absence', :src)`,
       { replacements: { s: s.school.id, st: other.id, item: item!.id, src: theirSession } },
     );
-    await sequelize.query(`INSERT INTO sponsor_notes (school_id, student_id, author_id, body, created_at) VALUES (:s, :st, :a, :b, :at), (:s, :st2, :a, :b2, :at)`, {
-      replacements: { s: s.school.id, st: other.id, st2: student.id, a: s.people.instructor.id, b: `${canary}-note`, b2: "Steady progress on the drag curve.", at: "2026-12-10T09:00:00Z" },
-    });
+    await sequelize.query(
+      `INSERT INTO sponsor_notes (school_id, student_id, author_id, body, created_at) VALUES (:s, :st, :a, :b, :at), (:s, :st2, :a, :b2, :at)`,
+      {
+        replacements: {
+          s: s.school.id,
+          st: other.id,
+          st2: student.id,
+          a: s.people.instructor.id,
+          b: `${canary}-note`,
+          b2: "Steady progress on the drag curve.",
+          at: "2026-12-10T09:00:00Z",
+        },
+      },
+    );
     // the student does not share the schedule with this sponsor
     await sequelize.query(`UPDATE sponsor_links SET shares_schedule = false WHERE sponsor_id = :sp AND student_id = :st`, {
       replacements: { sp: s.people.sponsor.id, st: student.id },
@@ -289,11 +338,13 @@ describe("the Weekly letter", () => {
     expect(await count()).toBe(0);
 
     const post = (t: string) =>
-      unsubscribePOST(new NextRequest(`http://127.0.0.1:3206/api/unsubscribe?token=${encodeURIComponent(t)}`, {
-        method: "POST",
-        headers: { "content-type": "application/x-www-form-urlencoded" },
-        body: "List-Unsubscribe=One-Click",
-      }));
+      unsubscribePOST(
+        new NextRequest(`http://127.0.0.1:3206/api/unsubscribe?token=${encodeURIComponent(t)}`, {
+          method: "POST",
+          headers: { "content-type": "application/x-www-form-urlencoded" },
+          body: "List-Unsubscribe=One-Click",
+        }),
+      );
 
     const [payload, mac] = token.split(".") as [string, string];
     const forged = `${payload}.${mac.slice(0, -2)}${mac.endsWith("AA") ? "BB" : "AA"}`;

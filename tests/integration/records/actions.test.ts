@@ -23,7 +23,17 @@ const checkInput = (studentId: string, item: string, over: Record<string, unknow
   levelShown: "understanding",
   durationMinutes: 9,
   occurredAt: new Date(Date.now() - 60_000).toISOString(),
-  questions: [{ syllabusItemId: item, questionText: "Parts of zero-lift drag?", answerSummary: "three", outcome: "solid", required: true, prompted: false, correctiveGiven: false }],
+  questions: [
+    {
+      syllabusItemId: item,
+      questionText: "Parts of zero-lift drag?",
+      answerSummary: "three",
+      outcome: "solid",
+      required: true,
+      prompted: false,
+      correctiveGiven: false,
+    },
+  ],
   ...over,
 });
 
@@ -31,18 +41,42 @@ describe("the Records actions", () => {
   it("bad input is a 400 naming the field, and nothing is written", async () => {
     actAs(s.as.instructor);
     const item = await itemId(s, "AER-01");
-    const [before] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM oral_checks WHERE school_id = :s`, { replacements: { s: s.school.id }, type: QueryTypes.SELECT });
+    const [before] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM oral_checks WHERE school_id = :s`, {
+      replacements: { s: s.school.id },
+      type: QueryTypes.SELECT,
+    });
     const r1 = await recordCheckAction(checkInput(s.people.students[0]!.id, item, { durationMinutes: 0 }));
     expect(r1).toMatchObject({ ok: false, status: 400 });
     expect(r1.ok ? "" : r1.message).toMatch(/^durationMinutes:/);
-    const r2 = await recordCheckAction(checkInput(s.people.students[0]!.id, item, { questions: [{ syllabusItemId: item, outcome: "solid", answerSummary: "", required: true, prompted: false, correctiveGiven: false }] }));
+    const r2 = await recordCheckAction(
+      checkInput(s.people.students[0]!.id, item, {
+        questions: [{ syllabusItemId: item, outcome: "solid", answerSummary: "", required: true, prompted: false, correctiveGiven: false }],
+      }),
+    );
     expect(r2.ok ? "" : r2.message).toMatch(/^questions\.0\.questionText:/);
-    const r3 = await recordCheckAction(checkInput(s.people.students[0]!.id, item, { questions: [{ syllabusItemId: item, outcome: "solid", answerSummary: "", required: true, prompted: false, correctiveGiven: false, generated: { kind: "vmd", aircraft: { kind: "reference", id: "lt-2" }, inputs: { massKg: 1000 } } }] }));
+    const r3 = await recordCheckAction(
+      checkInput(s.people.students[0]!.id, item, {
+        questions: [
+          {
+            syllabusItemId: item,
+            outcome: "solid",
+            answerSummary: "",
+            required: true,
+            prompted: false,
+            correctiveGiven: false,
+            generated: { kind: "vmd", aircraft: { kind: "reference", id: "lt-2" }, inputs: { massKg: 1000 } },
+          },
+        ],
+      }),
+    );
     expect(r3).toMatchObject({ ok: false, status: 400 });
     expect(r3.ok ? "" : r3.message).toMatch(/^questions\.0\.generated\.inputs\.altitudeFt/);
     const r4 = await recordCheckAction(checkInput(s.people.students[0]!.id, item, { sessionId: "00000000-0000-4000-8000-000000000000" }));
     expect(r4.ok ? "" : r4.message).toMatch(/^sessionId:/);
-    const [after] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM oral_checks WHERE school_id = :s`, { replacements: { s: s.school.id }, type: QueryTypes.SELECT });
+    const [after] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM oral_checks WHERE school_id = :s`, {
+      replacements: { s: s.school.id },
+      type: QueryTypes.SELECT,
+    });
     expect(after!.n).toBe(before!.n);
   });
 
@@ -64,7 +98,18 @@ describe("the Records actions", () => {
       checkInput(st, item, {
         levelShown: "application",
         idempotencyKey: "check-key-123456",
-        questions: [{ syllabusItemId: item, outcome: "solid", answerSummary: "76 kt", required: true, prompted: false, correctiveGiven: false, generated: { kind: "vmd", aircraft: { kind: "reference", id: "lt-2" }, inputs: { massKg: 1000, altitudeFt: 4000 } }, studentFigure: 78 }],
+        questions: [
+          {
+            syllabusItemId: item,
+            outcome: "solid",
+            answerSummary: "76 kt",
+            required: true,
+            prompted: false,
+            correctiveGiven: false,
+            generated: { kind: "vmd", aircraft: { kind: "reference", id: "lt-2" }, inputs: { massKg: 1000, altitudeFt: 4000 } },
+            studentFigure: 78,
+          },
+        ],
       }),
     );
     expect(rec).toMatchObject({ ok: true, data: { outcome: "meets" } });
@@ -83,8 +128,18 @@ describe("the Records actions", () => {
 
   it("a stage check by an instructor who is not a check instructor is refused, naming the examiner", async () => {
     actAs(s.as.instructor2);
-    const [stage] = await sequelize.query<{ id: string }>(`SELECT id FROM syllabus_stages WHERE revision_id = :r AND code = 'AER'`, { replacements: { r: s.revision.id }, type: QueryTypes.SELECT });
-    const r = await conductStageCheckAction({ studentId: s.people.students[3]!.id, stageId: stage!.id, result: "pass", oralOutcomes: [], remarks: "", occurredAt: new Date().toISOString() });
+    const [stage] = await sequelize.query<{ id: string }>(`SELECT id FROM syllabus_stages WHERE revision_id = :r AND code = 'AER'`, {
+      replacements: { r: s.revision.id },
+      type: QueryTypes.SELECT,
+    });
+    const r = await conductStageCheckAction({
+      studentId: s.people.students[3]!.id,
+      stageId: stage!.id,
+      result: "pass",
+      oralOutcomes: [],
+      remarks: "",
+      occurredAt: new Date().toISOString(),
+    });
     expect(r).toMatchObject({ ok: false, status: 422 });
     expect(r.ok ? "" : r.message).toMatch(/^examiner:/);
   });

@@ -18,7 +18,16 @@ afterAll(async () => {
 async function freshChain(rows = 6) {
   const s = await makeSchool("chain");
   for (let i = 0; i < rows; i++) {
-    await sequelize.transaction((t) => writeAudit(t, { schoolId: s.school.id, actor: s.as.chief, action: "test.event", recordType: "test", recordId: randomUUID(), after: { i, note: `event ${i}` } }));
+    await sequelize.transaction((t) =>
+      writeAudit(t, {
+        schoolId: s.school.id,
+        actor: s.as.chief,
+        action: "test.event",
+        recordType: "test",
+        recordId: randomUUID(),
+        after: { i, note: `event ${i}` },
+      }),
+    );
   }
   return s.school.id;
 }
@@ -32,10 +41,13 @@ async function asOwnerWithoutTriggers(sql: string, replacements: Record<string, 
 }
 
 async function rowAt(schoolId: string, pos: number) {
-  const [r] = await sequelize.query<{ seq: string; id: string; hash: string }>(`SELECT seq, id, hash FROM audit_events WHERE school_id = :s AND chain_pos = :p`, {
-    replacements: { s: schoolId, p: pos },
-    type: QueryTypes.SELECT,
-  });
+  const [r] = await sequelize.query<{ seq: string; id: string; hash: string }>(
+    `SELECT seq, id, hash FROM audit_events WHERE school_id = :s AND chain_pos = :p`,
+    {
+      replacements: { s: schoolId, p: pos },
+      type: QueryTypes.SELECT,
+    },
+  );
   return r!;
 }
 
@@ -59,9 +71,13 @@ describe("PostgreSQL refuses changes to the audit trail and to signed records", 
     const item = await itemId(s, "AER-01");
     await check(s.as.instructor, s.people.students[0]!.id, [item]);
     const so = await sign(s.as.instructor, { studentId: s.people.students[0]!.id, itemId: item });
-    await expect(owner.query(`UPDATE sign_offs SET statement = 'changed' WHERE id = :id`, { replacements: { id: so.id } })).rejects.toThrow(/append-only/);
+    await expect(owner.query(`UPDATE sign_offs SET statement = 'changed' WHERE id = :id`, { replacements: { id: so.id } })).rejects.toThrow(
+      /append-only/,
+    );
     await expect(owner.query(`DELETE FROM sign_offs WHERE id = :id`, { replacements: { id: so.id } })).rejects.toThrow(/append-only/);
-    await expect(owner.query(`UPDATE audit_events SET after = '{}' WHERE school_id = :s`, { replacements: { s: s.school.id } })).rejects.toThrow(/append-only/);
+    await expect(
+      owner.query(`UPDATE audit_events SET after = '{}' WHERE school_id = :s`, { replacements: { s: s.school.id } }),
+    ).rejects.toThrow(/append-only/);
     await expect(sequelize.query(`UPDATE oral_check_questions SET outcome = 'solid'`)).rejects.toThrow();
     await expect(sequelize.query(`DELETE FROM sign_off_withdrawals`)).rejects.toThrow();
   });
@@ -165,7 +181,14 @@ describe("concurrent writers cannot fork the chain", () => {
     await Promise.all(
       ids.map((id, i) =>
         sequelize.transaction(async (t) => {
-          await writeAudit(t, { schoolId: s.school.id, actor: s.as.instructor, action: "test.concurrent", recordType: "test", recordId: id, after: { i } });
+          await writeAudit(t, {
+            schoolId: s.school.id,
+            actor: s.as.instructor,
+            action: "test.concurrent",
+            recordType: "test",
+            recordId: id,
+            after: { i },
+          });
           // hold the transaction open a moment so the writers overlap
           await sequelize.query(`SELECT pg_sleep(0.01)`, { transaction: t });
         }),
@@ -173,7 +196,10 @@ describe("concurrent writers cannot fork the chain", () => {
     );
     const v = await verifyChain(s.school.id);
     expect(v).toMatchObject({ ok: true, checked: 50 });
-    const rows = await sequelize.query<{ record_id: string }>(`SELECT record_id FROM audit_events WHERE school_id = :s`, { replacements: { s: s.school.id }, type: QueryTypes.SELECT });
+    const rows = await sequelize.query<{ record_id: string }>(`SELECT record_id FROM audit_events WHERE school_id = :s`, {
+      replacements: { s: s.school.id },
+      type: QueryTypes.SELECT,
+    });
     expect(new Set(rows.map((r) => r.record_id))).toEqual(new Set(ids));
   });
 });

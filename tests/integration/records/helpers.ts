@@ -33,7 +33,16 @@ export async function check(
       remarks: "internal remark",
       durationMinutes: 10,
       occurredAt: new Date(Date.now() - 60_000),
-      questions: items.map((id) => ({ syllabusItemId: id, questionText: "Explain it", answerSummary: "explained", outcome: "solid", required: true, prompted: false, correctiveGiven: false, ...question })),
+      questions: items.map((id) => ({
+        syllabusItemId: id,
+        questionText: "Explain it",
+        answerSummary: "explained",
+        outcome: "solid",
+        required: true,
+        prompted: false,
+        correctiveGiven: false,
+        ...question,
+      })),
       ...rest,
     }),
   );

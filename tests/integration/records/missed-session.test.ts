@@ -17,14 +17,37 @@ it("an item signed while the student missed its covering session with no complet
   const st = s.people.students[0]!.id;
   const aer = await makeBriefing(s, "Drag curves", ["AER-01"]);
   const session = await sequelize.transaction((t) =>
-    scheduleSession(s.as.instructor, scheduleSessionSchema.parse({ briefingId: aer.id, date: "2026-11-20", time: "09:00", durationMinutes: 60, room: "Hangar classroom", instructorId: s.people.instructor.id, cohortId: s.cohorts.a.id }), t),
+    scheduleSession(
+      s.as.instructor,
+      scheduleSessionSchema.parse({
+        briefingId: aer.id,
+        date: "2026-11-20",
+        time: "09:00",
+        durationMinutes: 60,
+        room: "Hangar classroom",
+        instructorId: s.people.instructor.id,
+        cohortId: s.cohorts.a.id,
+      }),
+      t,
+    ),
   );
-  await sequelize.transaction((t) => recordAttendance(s.as.instructor, recordAttendanceSchema.parse({ sessionId: session.id, lines: [{ studentId: st, status: "absent" }] }), t));
+  await sequelize.transaction((t) =>
+    recordAttendance(
+      s.as.instructor,
+      recordAttendanceSchema.parse({ sessionId: session.id, lines: [{ studentId: st, status: "absent" }] }),
+      t,
+    ),
+  );
   const item = await itemId(s, "AER-01");
   await check(s.as.instructor, st, [item]);
   // the absence opened a make-up item: no sign-off yet
-  await expect(sign(s.as.instructor, { studentId: st, itemId: item })).rejects.toMatchObject({ reason: "makeup_open" } satisfies Partial<RecordRefusal>);
-  const [m] = await sequelize.query<{ id: string }>(`SELECT id FROM makeup_items WHERE student_id = :st AND syllabus_item_id = :i`, { replacements: { st, i: item }, type: QueryTypes.SELECT });
+  await expect(sign(s.as.instructor, { studentId: st, itemId: item })).rejects.toMatchObject({
+    reason: "makeup_open",
+  } satisfies Partial<RecordRefusal>);
+  const [m] = await sequelize.query<{ id: string }>(`SELECT id FROM makeup_items WHERE student_id = :st AND syllabus_item_id = :i`, {
+    replacements: { st, i: item },
+    type: QueryTypes.SELECT,
+  });
   // the chief waives it: the item can be signed, but the register notes the missed session
   await sequelize.transaction((t) => waiveMakeup(s.as.chief, { itemId: m!.id, reason: "Read the notes instead" }, t));
   const so = await sign(s.as.instructor, { studentId: st, itemId: item });

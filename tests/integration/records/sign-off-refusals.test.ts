@@ -47,19 +47,26 @@ describe("the server refuses a sign-off without its basis, saying why", () => {
   it("a withdrawn check; and after the withdrawal of a sign-off the item can be signed again", async () => {
     const item = await itemId(s, "AER-04");
     const c = await check(s.as.instructor, student, [item]);
-    await sequelize.transaction((t) => withdrawOralCheck(t, s.as.instructor, { checkId: c.id, reason: "recorded against the wrong student" }));
+    await sequelize.transaction((t) =>
+      withdrawOralCheck(t, s.as.instructor, { checkId: c.id, reason: "recorded against the wrong student" }),
+    );
     expect(await refusal(sign(s.as.instructor, { studentId: student, itemId: item }))).toBe("check_withdrawn");
     await check(s.as.instructor, student, [item]);
     const first = await sign(s.as.instructor, { studentId: student, itemId: item });
     expect(await refusal(sign(s.as.instructor, { studentId: student, itemId: item }))).toBe("already_signed");
-    await sequelize.transaction((t) => withdrawSignOff(t, s.as.instructor, { signOffId: first.id, reason: "signed before the debrief was complete" }));
+    await sequelize.transaction((t) =>
+      withdrawSignOff(t, s.as.instructor, { signOffId: first.id, reason: "signed before the debrief was complete" }),
+    );
     expect((await currentSignOffs(student)).some((x) => x.itemId === item)).toBe(false);
     const second = await sign(s.as.instructor, { studentId: student, itemId: item });
     expect(second.generation).toBe(2);
     const current = (await currentSignOffs(student)).filter((x) => x.itemId === item);
     expect(current.map((x) => x.id)).toEqual([second.id]);
     // both stay visible
-    const [n] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM sign_offs WHERE student_id = :st AND syllabus_item_id = :i`, { replacements: { st: student, i: item }, type: QueryTypes.SELECT });
+    const [n] = await sequelize.query<{ n: number }>(
+      `SELECT count(*)::int AS n FROM sign_offs WHERE student_id = :st AND syllabus_item_id = :i`,
+      { replacements: { st: student, i: item }, type: QueryTypes.SELECT },
+    );
     expect(n!.n).toBe(2);
     expect(await auditCount(s.school.id, "signoff.withdrawn", first.id)).toBe(1);
   });
@@ -117,14 +124,19 @@ describe("the signer must be qualified for the course and current on that date",
     const st = s3.people.students[3]!.id;
     const item = await itemId(s3, "AER-01");
     await check(s3.as.instructor2, st, [item]);
-    await sequelize.query(`UPDATE instructor_qualifications SET recency_on = '2023-01-15', recency_months = 24 WHERE person_id = :p`, { replacements: { p: s3.people.instructor2.id } });
+    await sequelize.query(`UPDATE instructor_qualifications SET recency_on = '2023-01-15', recency_months = 24 WHERE person_id = :p`, {
+      replacements: { p: s3.people.instructor2.id },
+    });
     expect(await refusal(sign(s3.as.instructor2, { studentId: st, itemId: item }))).toBe("signer_not_current");
   });
 
   it("recency is counted in calendar months (31 January + 1 month ends on 28 February)", async () => {
     const s4 = await makeSchool("months");
     const p = s4.people.instructor2.id;
-    await sequelize.query(`UPDATE instructor_qualifications SET issued_on = '2020-01-01', recency_on = '2025-01-31', recency_months = 1 WHERE person_id = :p`, { replacements: { p } });
+    await sequelize.query(
+      `UPDATE instructor_qualifications SET issued_on = '2020-01-01', recency_on = '2025-01-31', recency_months = 1 WHERE person_id = :p`,
+      { replacements: { p } },
+    );
     expect((await signerStanding(p, s4.course.id, "2025-02-27")).current).toBe(true);
     const end = await signerStanding(p, s4.course.id, "2025-02-28");
     expect(end.current).toBe(false);

@@ -14,7 +14,10 @@ afterAll(closeDb);
 const AER = ["AER-01", "AER-02", "AER-03", "AER-04", "AER-05"];
 
 async function stageId(s: School, code: string) {
-  const [r] = await sequelize.query<{ id: string }>(`SELECT id FROM syllabus_stages WHERE revision_id = :r AND code = :c`, { replacements: { r: s.revision.id, c: code }, type: QueryTypes.SELECT });
+  const [r] = await sequelize.query<{ id: string }>(`SELECT id FROM syllabus_stages WHERE revision_id = :r AND code = :c`, {
+    replacements: { r: s.revision.id, c: code },
+    type: QueryTypes.SELECT,
+  });
   return r!.id;
 }
 async function signAllAer(s: School, studentId: string, user = s.as.instructor) {
@@ -22,8 +25,25 @@ async function signAllAer(s: School, studentId: string, user = s.as.instructor) 
   await check(user, studentId, ids);
   for (const id of ids) await sign(user, { studentId, itemId: id });
 }
-const conduct = (s: School, user: School["as"]["chief"], studentId: string, stage: string, over: Partial<Parameters<typeof conductStageCheck>[2]> = {}) =>
-  sequelize.transaction((t) => conductStageCheck(t, user, { studentId, stageId: stage, result: "pass", oralOutcomes: [], writtenScorePercent: 90, remarks: "", occurredAt: new Date(Date.now() - 60_000), ...over }));
+const conduct = (
+  s: School,
+  user: School["as"]["chief"],
+  studentId: string,
+  stage: string,
+  over: Partial<Parameters<typeof conductStageCheck>[2]> = {},
+) =>
+  sequelize.transaction((t) =>
+    conductStageCheck(t, user, {
+      studentId,
+      stageId: stage,
+      result: "pass",
+      oralOutcomes: [],
+      writtenScorePercent: 90,
+      remarks: "",
+      occurredAt: new Date(Date.now() - 60_000),
+      ...over,
+    }),
+  );
 async function reason(p: Promise<unknown>) {
   try {
     await p;
@@ -50,17 +70,26 @@ describe("stage checks", () => {
     const { student: ref } = await requireStudentFor(s.as.chief, student, "staff");
     expect((await stageReadiness(ref))[0]).toMatchObject({ code: "AER", ready: true, signedCount: 5 });
     expect(await reason(conduct(s, s.as.instructor2, student, aer))).toBe("examiner_not_allowed");
-    await sequelize.transaction((t) => designateCheckInstructor(t, s.as.chief, { personId: s.people.instructor.id, checkInstructor: true }));
+    await sequelize.transaction((t) =>
+      designateCheckInstructor(t, s.as.chief, { personId: s.people.instructor.id, checkInstructor: true }),
+    );
     // designated now, but the lead instructor of this student
     expect(await reason(conduct(s, s.as.instructor, student, aer))).toBe("examiner_is_lead");
     expect(await reason(conduct(s, s.as.chief, student, aer, { writtenScorePercent: 70 }))).toBe("written_below_pass_mark");
   });
 
   it("a fail opens make-up items; a recheck waits for them; a pass unlocks the next stage", async () => {
-    const failed = await conduct(s, s.as.chief, student, aer, { result: "fail", writtenScorePercent: 60, oralOutcomes: [{ itemId: await itemId(s, "AER-04"), outcome: "not_yet" }] });
+    const failed = await conduct(s, s.as.chief, student, aer, {
+      result: "fail",
+      writtenScorePercent: 60,
+      oralOutcomes: [{ itemId: await itemId(s, "AER-04"), outcome: "not_yet" }],
+    });
     expect(failed.makeupItemsOpened).toBe(1);
     expect(await reason(conduct(s, s.as.chief, student, aer))).toBe("not_ready");
-    await sequelize.query(`UPDATE makeup_items SET state = 'done', closed_at = now(), closed_by_kind = 'one_to_one' WHERE source_id = :id`, { replacements: { id: failed.id } });
+    await sequelize.query(
+      `UPDATE makeup_items SET state = 'done', closed_at = now(), closed_by_kind = 'one_to_one' WHERE source_id = :id`,
+      { replacements: { id: failed.id } },
+    );
     expect(await reason(check(s.as.instructor, student, [await itemId(s, "ATM-01")]))).toBe("stage_locked");
     const passed = await conduct(s, s.as.chief, student, aer);
     expect(passed.attempt).toBe(2);
@@ -73,7 +102,9 @@ describe("stage checks", () => {
   it("the chief may examine their own student with a reason, which raises a watch note", async () => {
     const s2 = await makeSchool("override");
     const st = s2.people.students[0]!.id;
-    await sequelize.query(`UPDATE cohorts SET lead_instructor_id = :chief WHERE id = :c`, { replacements: { chief: s2.people.chief.id, c: s2.cohorts.a.id } });
+    await sequelize.query(`UPDATE cohorts SET lead_instructor_id = :chief WHERE id = :c`, {
+      replacements: { chief: s2.people.chief.id, c: s2.cohorts.a.id },
+    });
     await signAllAer(s2, st, s2.as.chief);
     const stage = await stageId(s2, "AER");
     expect(await reason(conduct(s2, s2.as.chief, st, stage))).toBe("examiner_is_lead");
@@ -95,7 +126,10 @@ describe("the register's watch notes and filters", () => {
     await sequelize.transaction((t) => withdrawSignOff(t, s.as.instructor, { signOffId: so.id, reason: "Wrong student's check used" }));
     await check(s.as.instructor, a, [aer2], { question: { outcome: "not_yet" } });
     await check(s.as.instructor, a, [aer2], { question: { outcome: "not_yet" } });
-    const late = await check(s.as.instructor2, b, [aer1], { occurredAt: new Date(Date.now() - 20 * 86_400_000), levelShown: "understanding" });
+    const late = await check(s.as.instructor2, b, [aer1], {
+      occurredAt: new Date(Date.now() - 20 * 86_400_000),
+      levelShown: "understanding",
+    });
     // a check dated today, signed for yesterday: before its check
     const yesterday = new Date(Date.now() - 86_400_000).toISOString().slice(0, 10);
     await check(s.as.instructor2, b, [aer2]);
@@ -107,7 +141,11 @@ describe("the register's watch notes and filters", () => {
     expect(kinds(late.id)).toContain("late_entry");
     expect(kinds(early.id)).toContain("signed_before_check");
     expect(notes.some((n) => n.kind === "repeated_not_yet" && n.itemCode === "AER-02" && n.studentId === a)).toBe(true);
-    expect(rows.find((r) => r.id === so.id)).toMatchObject({ state: "withdrawn", reason: "Wrong student's check used", studentName: "Student 1" });
+    expect(rows.find((r) => r.id === so.id)).toMatchObject({
+      state: "withdrawn",
+      reason: "Wrong student's check used",
+      studentName: "Student 1",
+    });
 
     const byInstructor2 = await signOffRegister(s.as.chief, { instructorId: s.people.instructor2.id });
     expect(byInstructor2.rows.map((r) => r.id)).toEqual([early.id]);
@@ -138,10 +176,16 @@ describe("the Progress map is scoped and keeps remarks from students and sponsor
     expect(JSON.stringify(sponsor)).not.toContain("secret remark");
     expect(JSON.stringify(sponsor)).not.toContain("Explain it");
     // not theirs: 404 for the other cohort's lead, another student, the sponsor of someone else
-    for (const [who, id] of [[s.as.instructor2, ada], [s.as.otherStudent, ada], [s.as.sponsor, s.people.students[1]!.id]] as const) {
+    for (const [who, id] of [
+      [s.as.instructor2, ada],
+      [s.as.otherStudent, ada],
+      [s.as.sponsor, s.people.students[1]!.id],
+    ] as const) {
       await expect(progressFor(who, id)).rejects.toMatchObject({ status: 404 });
     }
-    await sequelize.query(`UPDATE sponsor_links SET shares_progress = false WHERE sponsor_id = :s`, { replacements: { s: s.people.sponsor.id } });
+    await sequelize.query(`UPDATE sponsor_links SET shares_progress = false WHERE sponsor_id = :s`, {
+      replacements: { s: s.people.sponsor.id },
+    });
     await expect(progressFor(s.as.sponsor, ada)).rejects.toBeInstanceOf(HttpError);
     // the student acknowledges the debrief once; another student cannot
     await expect(sequelize.transaction((t) => acknowledgeOralCheck(t, s.as.otherStudent, c.id))).rejects.toMatchObject({ status: 404 });
@@ -155,7 +199,10 @@ describe("the Progress map is scoped and keeps remarks from students and sponsor
     const s = await makeSchool("notyet");
     const c = await check(s.as.instructor, s.people.students[0]!.id, [await itemId(s, "AER-02")], { question: { outcome: "not_yet" } });
     expect(c.notYetMailed).toBe(true);
-    const [m] = await sequelize.query<{ subject: string; to_address: string }>(`SELECT subject, to_address FROM outbox WHERE kind = 'check.notyet' AND idempotency_key LIKE :k`, { replacements: { k: `check.notyet:${c.id}:%` }, type: QueryTypes.SELECT });
+    const [m] = await sequelize.query<{ subject: string; to_address: string }>(
+      `SELECT subject, to_address FROM outbox WHERE kind = 'check.notyet' AND idempotency_key LIKE :k`,
+      { replacements: { k: `check.notyet:${c.id}:%` }, type: QueryTypes.SELECT },
+    );
     expect(m!.to_address).toBe(s.people.students[0]!.email);
     expect(m!.subject).toMatch(/one item to revisit/);
   });

@@ -34,10 +34,24 @@ function events(text: string) {
 describe("the personal iCalendar feed", () => {
   it("parses with node-ical; UID is stable, SEQUENCE grows with each change, a cancelled session stays as CANCELLED", async () => {
     const b = await makeBriefing(s, "Pressure and density altitude", ["ATM-02"]);
-    const input = scheduleSessionSchema.parse({ briefingId: b.id, date: "2026-11-10", time: "09:00", durationMinutes: 60, room: "Briefing room 2", instructorId: s.people.instructor.id, cohortId: s.cohorts.a.id });
+    const input = scheduleSessionSchema.parse({
+      briefingId: b.id,
+      date: "2026-11-10",
+      time: "09:00",
+      durationMinutes: 60,
+      room: "Briefing room 2",
+      instructorId: s.people.instructor.id,
+      cohortId: s.cohorts.a.id,
+    });
     const a = await sequelize.transaction((t) => scheduleSession(s.as.instructor, input, t));
     const other = await sequelize.transaction((t) => scheduleSession(s.as.instructor, { ...input, date: "2026-11-12" }, t));
-    const notMine = await sequelize.transaction((t) => scheduleSession(s.as.chief, { ...input, date: "2026-11-12", instructorId: s.people.instructor2.id, cohortId: s.cohorts.b.id, room: "Elsewhere" }, t));
+    const notMine = await sequelize.transaction((t) =>
+      scheduleSession(
+        s.as.chief,
+        { ...input, date: "2026-11-12", instructorId: s.people.instructor2.id, cohortId: s.cohorts.b.id, room: "Elsewhere" },
+        t,
+      ),
+    );
     actAsNobody();
     const { path } = await sequelize.transaction((t) => resetCalendarToken(s.as.student, t));
 
@@ -52,7 +66,20 @@ describe("the personal iCalendar feed", () => {
     expect(first.start.toISOString()).toBe("2026-11-10T09:00:00.000Z");
     expect(first.location).toBe("Briefing room 2");
 
-    await sequelize.transaction((t) => rescheduleSession(s.as.instructor, { sessionId: a.id, date: "2026-11-10", time: "11:00", durationMinutes: 60, room: "Briefing room 2", instructorId: s.people.instructor.id }, t));
+    await sequelize.transaction((t) =>
+      rescheduleSession(
+        s.as.instructor,
+        {
+          sessionId: a.id,
+          date: "2026-11-10",
+          time: "11:00",
+          durationMinutes: 60,
+          room: "Briefing room 2",
+          instructorId: s.people.instructor.id,
+        },
+        t,
+      ),
+    );
     feed = await fetchFeed(path);
     ev = events(feed.text);
     const moved = ev.find((e) => e.uid === first.uid)!;
@@ -76,7 +103,10 @@ describe("the personal iCalendar feed", () => {
     expect((await fetchFeed(second.path)).status).toBe(200);
     expect((await fetchFeed("/api/calendar/not-a-token.ics")).status).toBe(404);
     expect((await fetchFeed(second.path.replace(".ics", ""))).status).toBe(404);
-    const [row] = await sequelize.query<{ token_hash: string }>(`SELECT token_hash FROM calendar_feeds WHERE person_id = :p`, { replacements: { p: s.people.instructor.id }, type: QueryTypes.SELECT });
+    const [row] = await sequelize.query<{ token_hash: string }>(`SELECT token_hash FROM calendar_feeds WHERE person_id = :p`, {
+      replacements: { p: s.people.instructor.id },
+      type: QueryTypes.SELECT,
+    });
     expect(row!.token_hash).toMatch(/^[0-9a-f]{64}$/);
     expect(row!.token_hash).not.toContain(second.token);
   });

@@ -28,10 +28,19 @@ beforeAll(async () => {
 });
 
 async function session(briefingId: string, date: string, durationMinutes: number) {
-  const input = scheduleSessionSchema.parse({ briefingId, date, time: "09:00", durationMinutes, room: "Hangar classroom", instructorId: s.people.instructor.id, cohortId: s.cohorts.a.id });
+  const input = scheduleSessionSchema.parse({
+    briefingId,
+    date,
+    time: "09:00",
+    durationMinutes,
+    room: "Hangar classroom",
+    instructorId: s.people.instructor.id,
+    cohortId: s.cohorts.a.id,
+  });
   return sequelize.transaction((t) => scheduleSession(s.as.instructor, input, t));
 }
-const record = (sessionId: string, lines: unknown[]) => sequelize.transaction((t) => recordAttendance(s.as.instructor, recordAttendanceSchema.parse({ sessionId, lines }), t));
+const record = (sessionId: string, lines: unknown[]) =>
+  sequelize.transaction((t) => recordAttendance(s.as.instructor, recordAttendanceSchema.parse({ sessionId, lines }), t));
 
 describe("credited minutes", () => {
   it("attended earns the session length, late and left early lose their minutes, absence earns none", () => {
@@ -40,8 +49,12 @@ describe("credited minutes", () => {
     expect(creditFor(90, { status: "left_early", lateMinutes: 0, earlyMinutes: 30 }).credited).toBe(60);
     expect(creditFor(90, { status: "absent", lateMinutes: 0, earlyMinutes: 0 }).credited).toBe(0);
     expect(creditFor(90, { status: "attended", lateMinutes: 0, earlyMinutes: 0, creditedMinutes: 80 }).credited).toBe(80);
-    expect(() => creditFor(90, { status: "attended", lateMinutes: 0, earlyMinutes: 0, creditedMinutes: 95 })).toThrow(/creditedMinutes: at most 90/);
-    expect(() => creditFor(90, { status: "absent", lateMinutes: 0, earlyMinutes: 0, creditedMinutes: 10 })).toThrow(/absence earns no minutes/);
+    expect(() => creditFor(90, { status: "attended", lateMinutes: 0, earlyMinutes: 0, creditedMinutes: 95 })).toThrow(
+      /creditedMinutes: at most 90/,
+    );
+    expect(() => creditFor(90, { status: "absent", lateMinutes: 0, earlyMinutes: 0, creditedMinutes: 10 })).toThrow(
+      /absence earns no minutes/,
+    );
     expect(() => creditFor(60, { status: "late", lateMinutes: 60, earlyMinutes: 0 })).toThrow(/lateMinutes/);
   });
 
@@ -73,9 +86,24 @@ describe("credited minutes", () => {
     await expect(record(s1.id, [{ studentId: a!.id, status: "attended" }])).rejects.toMatchObject({ status: 409 });
     // a session with attendance can no longer be moved or cancelled
     await expect(
-      sequelize.transaction((t) => rescheduleSession(s.as.instructor, { sessionId: s1.id, date: "2026-11-16", time: "10:00", durationMinutes: 90, room: "Hangar classroom", instructorId: s.people.instructor.id }, t)),
+      sequelize.transaction((t) =>
+        rescheduleSession(
+          s.as.instructor,
+          {
+            sessionId: s1.id,
+            date: "2026-11-16",
+            time: "10:00",
+            durationMinutes: 90,
+            room: "Hangar classroom",
+            instructorId: s.people.instructor.id,
+          },
+          t,
+        ),
+      ),
     ).rejects.toMatchObject({ status: 409 });
-    await expect(sequelize.transaction((t) => cancelSession(s.as.instructor, { sessionId: s1.id, reason: "too late" }, t))).rejects.toMatchObject({ status: 409 });
+    await expect(
+      sequelize.transaction((t) => cancelSession(s.as.instructor, { sessionId: s1.id, reason: "too late" }, t)),
+    ).rejects.toMatchObject({ status: 409 });
   });
 
   it("an amendment changes the total while the original entry stays", async () => {
@@ -88,7 +116,11 @@ describe("credited minutes", () => {
     );
     expect(orig!.credited_minutes).toBe(75);
     const amended = await sequelize.transaction((t) =>
-      amendEntry(s.as.instructor, amendEntrySchema.parse({ entryId: orig!.id, status: "late", lateMinutes: 5, reason: "Arrived at 09:05, not 09:15" }), t),
+      amendEntry(
+        s.as.instructor,
+        amendEntrySchema.parse({ entryId: orig!.id, status: "late", lateMinutes: 5, reason: "Arrived at 09:05, not 09:15" }),
+        t,
+      ),
     );
     expect(amended.credited).toBe(85);
     expect(await creditedMinutesFor(a.id, s.course.id)).toBe(before + 10);
@@ -102,7 +134,9 @@ describe("credited minutes", () => {
     ]);
     // the original cannot be amended a second time: only the latest entry can
     await expect(
-      sequelize.transaction((t) => amendEntry(s.as.instructor, amendEntrySchema.parse({ entryId: orig!.id, status: "attended", reason: "second try" }), t)),
+      sequelize.transaction((t) =>
+        amendEntry(s.as.instructor, amendEntrySchema.parse({ entryId: orig!.id, status: "attended", reason: "second try" }), t),
+      ),
     ).rejects.toMatchObject({ status: 409 });
     const log = await logbookFor(s.school.id, a.id);
     expect(log.map((l) => [l.date, l.durationMinutes, l.amended])).toEqual([
@@ -114,11 +148,20 @@ describe("credited minutes", () => {
   });
 
   it("the app's database role cannot UPDATE, DELETE or TRUNCATE ground log entries", async () => {
-    const [e] = await sequelize.query<{ id: string }>(`SELECT id FROM ground_log_entries WHERE school_id = :s LIMIT 1`, { replacements: { s: s.school.id }, type: QueryTypes.SELECT });
-    await expect(sequelize.query(`UPDATE ground_log_entries SET credited_minutes = 999 WHERE id = :id`, { replacements: { id: e!.id } })).rejects.toThrow(/permission denied/);
-    await expect(sequelize.query(`DELETE FROM ground_log_entries WHERE id = :id`, { replacements: { id: e!.id } })).rejects.toThrow(/permission denied/);
+    const [e] = await sequelize.query<{ id: string }>(`SELECT id FROM ground_log_entries WHERE school_id = :s LIMIT 1`, {
+      replacements: { s: s.school.id },
+      type: QueryTypes.SELECT,
+    });
+    await expect(
+      sequelize.query(`UPDATE ground_log_entries SET credited_minutes = 999 WHERE id = :id`, { replacements: { id: e!.id } }),
+    ).rejects.toThrow(/permission denied/);
+    await expect(sequelize.query(`DELETE FROM ground_log_entries WHERE id = :id`, { replacements: { id: e!.id } })).rejects.toThrow(
+      /permission denied/,
+    );
     await expect(sequelize.query(`TRUNCATE ground_log_entries`)).rejects.toThrow(/permission denied/);
-    expect(await count(`SELECT count(*)::int AS n FROM ground_log_entries WHERE id = :id AND credited_minutes <> 999`, { id: e!.id })).toBe(1);
+    expect(await count(`SELECT count(*)::int AS n FROM ground_log_entries WHERE id = :id AND credited_minutes <> 999`, { id: e!.id })).toBe(
+      1,
+    );
   });
 });
 
@@ -150,18 +193,49 @@ describe("make-up items", () => {
     await record(missed.id, [{ studentId: st.id, status: "absent" }]);
     const [item] = (await listMakeupFor([st.id])).filter((m) => m.itemCode === "ATM-01" && m.state === "open");
     // an instructor may not waive it: that is the chief's
-    await expect(sequelize.transaction((t) => waiveMakeup(s.as.instructor, { itemId: item!.id, reason: "Not mine to waive" }, t))).rejects.toMatchObject({ status: 403 });
+    await expect(
+      sequelize.transaction((t) => waiveMakeup(s.as.instructor, { itemId: item!.id, reason: "Not mine to waive" }, t)),
+    ).rejects.toMatchObject({ status: 403 });
     // it cannot be planned into a session the student does not attend
     const notTheirs = await sequelize.transaction((t) =>
-      scheduleSession(s.as.instructor, scheduleSessionSchema.parse({ briefingId: aer.id, date: "2026-11-28", time: "15:00", durationMinutes: 30, room: "Office", instructorId: s.people.instructor.id, studentIds: [s.people.students[0]!.id] }), t),
+      scheduleSession(
+        s.as.instructor,
+        scheduleSessionSchema.parse({
+          briefingId: aer.id,
+          date: "2026-11-28",
+          time: "15:00",
+          durationMinutes: 30,
+          room: "Office",
+          instructorId: s.people.instructor.id,
+          studentIds: [s.people.students[0]!.id],
+        }),
+        t,
+      ),
     );
-    await expect(sequelize.transaction((t) => scheduleMakeup(s.as.instructor, { itemId: item!.id, sessionId: notTheirs.id }, t))).rejects.toMatchObject({ status: 400, field: "sessionId" });
+    await expect(
+      sequelize.transaction((t) => scheduleMakeup(s.as.instructor, { itemId: item!.id, sessionId: notTheirs.id }, t)),
+    ).rejects.toMatchObject({ status: 400, field: "sessionId" });
     // a one-to-one catch-up session for that student only, on another briefing
     const catchUp = await sequelize.transaction((t) =>
-      scheduleSession(s.as.instructor, scheduleSessionSchema.parse({ briefingId: aer.id, date: "2026-11-27", time: "15:00", durationMinutes: 30, room: "Office", instructorId: s.people.instructor.id, studentIds: [st.id] }), t),
+      scheduleSession(
+        s.as.instructor,
+        scheduleSessionSchema.parse({
+          briefingId: aer.id,
+          date: "2026-11-27",
+          time: "15:00",
+          durationMinutes: 30,
+          room: "Office",
+          instructorId: s.people.instructor.id,
+          studentIds: [st.id],
+        }),
+        t,
+      ),
     );
     await sequelize.transaction((t) => scheduleMakeup(s.as.instructor, { itemId: item!.id, sessionId: catchUp.id }, t));
-    expect((await listMakeupFor([st.id])).find((m) => m.id === item!.id)).toMatchObject({ state: "scheduled", scheduledSessionId: catchUp.id });
+    expect((await listMakeupFor([st.id])).find((m) => m.id === item!.id)).toMatchObject({
+      state: "scheduled",
+      scheduledSessionId: catchUp.id,
+    });
     setClock(() => new Date("2026-11-30T12:00:00Z"));
     await record(catchUp.id, [{ studentId: st.id, status: "attended" }]);
     expect((await listMakeupFor([st.id])).find((m) => m.id === item!.id)).toMatchObject({ state: "done", closedByKind: "session" });
@@ -170,9 +244,13 @@ describe("make-up items", () => {
   it("self-study closed by an oral check, and a waiver needs the chief's reason", async () => {
     const b = s.people.students[1]!;
     const [item] = await listMakeupFor([b.id]);
-    await sequelize.transaction((t) => closeMakeup(s.as.instructor, { itemId: item!.id, how: "oral_check", note: "Self-study; oral check on 2026-11-25" }, t));
+    await sequelize.transaction((t) =>
+      closeMakeup(s.as.instructor, { itemId: item!.id, how: "oral_check", note: "Self-study; oral check on 2026-11-25" }, t),
+    );
     expect((await listMakeupFor([b.id]))[0]).toMatchObject({ state: "done", closedByKind: "oral_check" });
-    await expect(sequelize.transaction((t) => waiveMakeup(s.as.chief, { itemId: item!.id, reason: "Already done" }, t))).rejects.toMatchObject({ status: 409 });
+    await expect(
+      sequelize.transaction((t) => waiveMakeup(s.as.chief, { itemId: item!.id, reason: "Already done" }, t)),
+    ).rejects.toMatchObject({ status: 409 });
   });
 
   it("amending an absence to attended closes its make-up items; the chief can waive with a reason", async () => {
@@ -180,7 +258,8 @@ describe("make-up items", () => {
     const sx = await session(atm.id, "2026-11-24", 60);
     await record(sx.id, [{ studentId: d.id, status: "absent" }]);
     const [entry] = await sequelize.query<{ id: string }>(`SELECT id FROM ground_log_entries WHERE session_id = :s AND student_id = :st`, {
-      replacements: { s: sx.id, st: d.id }, type: QueryTypes.SELECT,
+      replacements: { s: sx.id, st: d.id },
+      type: QueryTypes.SELECT,
     });
     let items = (await listMakeupFor([d.id])).filter((m) => m.state === "open");
     expect(items.map((m) => m.itemCode)).toEqual(["ATM-01"]);
@@ -188,7 +267,13 @@ describe("make-up items", () => {
     items = await listMakeupFor([d.id]);
     expect(items.find((m) => m.id === items[0]!.id)).toMatchObject({ state: "waived", waivedReason: "Covered in the ATM workshop" });
     const before = await creditedMinutesFor(d.id, s.course.id);
-    await sequelize.transaction((t) => amendEntry(s.as.instructor, amendEntrySchema.parse({ entryId: entry!.id, status: "attended", reason: "Was in the room; register misread" }), t));
+    await sequelize.transaction((t) =>
+      amendEntry(
+        s.as.instructor,
+        amendEntrySchema.parse({ entryId: entry!.id, status: "attended", reason: "Was in the room; register misread" }),
+        t,
+      ),
+    );
     expect(await creditedMinutesFor(d.id, s.course.id)).toBe(before + 60);
   });
 });

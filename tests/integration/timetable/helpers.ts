@@ -5,7 +5,11 @@ import type { makeSchool } from "@/tests/helpers/factories";
 type School = Awaited<ReturnType<typeof makeSchool>>;
 
 /** A briefing with one revision covering the given syllabus item codes (written straight to the briefings tables). */
-export async function makeBriefing(s: School, title: string, itemCodes: string[]): Promise<{ id: string; revisionId: string; itemIds: string[] }> {
+export async function makeBriefing(
+  s: School,
+  title: string,
+  itemCodes: string[],
+): Promise<{ id: string; revisionId: string; itemIds: string[] }> {
   return sequelize.transaction(async (t) => {
     const [b] = await sequelize.query<{ id: string }>(
       `INSERT INTO briefings (school_id, course_id, owner_id) VALUES (:s, :c, :o) RETURNING id`,
@@ -21,9 +25,15 @@ export async function makeBriefing(s: School, title: string, itemCodes: string[]
       { replacements: { rev: s.revision.id, codes: itemCodes.length ? itemCodes : ["-"] }, type: QueryTypes.SELECT, transaction: t },
     );
     for (const i of items) {
-      await sequelize.query(`INSERT INTO briefing_revision_items (briefing_revision_id, syllabus_item_id) VALUES (:r, :i)`, { replacements: { r: r!.id, i: i.id }, transaction: t });
+      await sequelize.query(`INSERT INTO briefing_revision_items (briefing_revision_id, syllabus_item_id) VALUES (:r, :i)`, {
+        replacements: { r: r!.id, i: i.id },
+        transaction: t,
+      });
     }
-    await sequelize.query(`UPDATE briefings SET current_revision_id = :r WHERE id = :b`, { replacements: { r: r!.id, b: b!.id }, transaction: t });
+    await sequelize.query(`UPDATE briefings SET current_revision_id = :r WHERE id = :b`, {
+      replacements: { r: r!.id, b: b!.id },
+      transaction: t,
+    });
     return { id: b!.id, revisionId: r!.id, itemIds: items.map((i) => i.id) };
   });
 }

@@ -13,8 +13,12 @@ beforeAll(async () => {
   s = await makeSchool("roster");
 });
 
-const people = (emails: string[]) => count(`SELECT count(*)::int AS n FROM people WHERE lower(email) = ANY(ARRAY[:e]::text[])`, { e: emails.map((e) => e.toLowerCase()) });
-const outboxTo = (emails: string[]) => count(`SELECT count(*)::int AS n FROM outbox WHERE lower(to_address) = ANY(ARRAY[:e]::text[])`, { e: emails.map((e) => e.toLowerCase()) });
+const people = (emails: string[]) =>
+  count(`SELECT count(*)::int AS n FROM people WHERE lower(email) = ANY(ARRAY[:e]::text[])`, { e: emails.map((e) => e.toLowerCase()) });
+const outboxTo = (emails: string[]) =>
+  count(`SELECT count(*)::int AS n FROM outbox WHERE lower(to_address) = ANY(ARRAY[:e]::text[])`, {
+    e: emails.map((e) => e.toLowerCase()),
+  });
 
 describe("roster CSV import", () => {
   it("reads a file with a UTF-8 byte-order mark, ';' delimiters and quoted commas, and imports it in one go", async () => {
@@ -40,13 +44,28 @@ describe("roster CSV import", () => {
          JOIN sponsor_links l ON l.student_id = p.id JOIN people sp ON sp.id = l.sponsor_id WHERE p.email = :e`,
       { replacements: { e: e1 }, type: QueryTypes.SELECT },
     );
-    expect(chidi).toEqual({ name: "Okafor, Chidi", email: e1, roles: ["student"], cohort: s.cohorts.a.name, sponsor: "Okafor; Grace, Mrs" });
-    expect(await count(`SELECT count(*)::int AS n FROM enrolments e JOIN people p ON p.id = e.student_id WHERE p.email = ANY(ARRAY[:e]::text[]) AND e.status = 'active'`, { e: [e1, e2] })).toBe(2);
+    expect(chidi).toEqual({
+      name: "Okafor, Chidi",
+      email: e1,
+      roles: ["student"],
+      cohort: s.cohorts.a.name,
+      sponsor: "Okafor; Grace, Mrs",
+    });
+    expect(
+      await count(
+        `SELECT count(*)::int AS n FROM enrolments e JOIN people p ON p.id = e.student_id WHERE p.email = ANY(ARRAY[:e]::text[]) AND e.status = 'active'`,
+        { e: [e1, e2] },
+      ),
+    ).toBe(2);
     const invites = await sequelize.query<{ kind: string; to_address: string; body_text: string }>(
       `SELECT kind, to_address, body_text FROM outbox WHERE to_address = ANY(ARRAY[:e]::text[]) ORDER BY to_address`,
       { replacements: { e: [e1, e2, sp] }, type: QueryTypes.SELECT },
     );
-    expect(invites.map((m) => [m.kind, m.to_address])).toEqual([["invitation", e1], ["invitation", sp], ["invitation", e2]]);
+    expect(invites.map((m) => [m.kind, m.to_address])).toEqual([
+      ["invitation", e1],
+      ["invitation", sp],
+      ["invitation", e2],
+    ]);
     expect(invites[0]!.body_text).toMatch(/\/set-password\/[A-Za-z0-9_-]{43}/);
   });
 
@@ -78,13 +97,18 @@ describe("roster CSV import", () => {
     const asLead = await previewRosterImport(s.as.instructor, `name,email,cohort\nX,x.${s.tag}@example.test,${s.cohorts.b.name}\n`);
     expect(asLead.rows[0]!.problems).toEqual([`cohort: no cohort named "${s.cohorts.b.name}" that you may add to`]);
     const noHeader = await previewRosterImport(s.as.chief, "student,address\nA,b@example.test\n");
-    expect(noHeader.fileProblems).toEqual(['file: the header has no "name" column', 'file: the header has no "e-mail" column', 'file: the header has no "cohort" column']);
+    expect(noHeader.fileProblems).toEqual([
+      'file: the header has no "name" column',
+      'file: the header has no "e-mail" column',
+      'file: the header has no "cohort" column',
+    ]);
   });
 
   it("a row that passed the preview but whose e-mail is taken before the import leaves zero people and zero outbox mails", async () => {
     const emails = [1, 2, 3].map((i) => `late${i}.${s.tag}@example.test`);
     const sponsor = `late-sponsor.${s.tag}@example.test`;
-    const csv = `name,email,cohort,sponsor name,sponsor email\n` +
+    const csv =
+      `name,email,cohort,sponsor name,sponsor email\n` +
       `Late One,${emails[0]},${s.cohorts.a.name},Late Sponsor,${sponsor}\n` +
       `Late Two,${emails[1]},${s.cohorts.a.name},,\n` +
       `Late Three,${emails[2]},${s.cohorts.a.name},,\n`;
@@ -92,10 +116,18 @@ describe("roster CSV import", () => {
     expect(preview.rows.every((r) => r.problems.length === 0)).toBe(true);
     // meanwhile, someone else creates an account with the third e-mail
     await createPerson({ schoolId: s.school.id, name: "Quicker", email: emails[2]!, roles: ["student"] });
-    await expect(sequelize.transaction((t) => commitRosterImport(s.as.chief, csv, t))).rejects.toMatchObject({ status: 409, message: "line 4: e-mail: already belongs to an account" });
+    await expect(sequelize.transaction((t) => commitRosterImport(s.as.chief, csv, t))).rejects.toMatchObject({
+      status: 409,
+      message: "line 4: e-mail: already belongs to an account",
+    });
     expect(await people([emails[0]!, emails[1]!, sponsor])).toBe(0);
     expect(await outboxTo([...emails, sponsor])).toBe(0);
-    expect(await count(`SELECT count(*)::int AS n FROM cohort_memberships m JOIN people p ON p.id = m.student_id WHERE p.email = ANY(ARRAY[:e]::text[])`, { e: emails })).toBe(0);
+    expect(
+      await count(
+        `SELECT count(*)::int AS n FROM cohort_memberships m JOIN people p ON p.id = m.student_id WHERE p.email = ANY(ARRAY[:e]::text[])`,
+        { e: emails },
+      ),
+    ).toBe(0);
   });
 });
 
@@ -139,6 +171,8 @@ describe("moving a student between cohorts", () => {
     ]);
     expect((await listRoster(s.as.instructor)).some((r) => r.studentId === st.id)).toBe(false);
     // the old lead may no longer move them
-    await expect(sequelize.transaction((t) => moveStudent(s.as.instructor, { studentId: st.id, toCohortId: s.cohorts.a.id, onDate: "2026-10-05" }, t))).rejects.toMatchObject({ status: 403, field: "studentId" });
+    await expect(
+      sequelize.transaction((t) => moveStudent(s.as.instructor, { studentId: st.id, toCohortId: s.cohorts.a.id, onDate: "2026-10-05" }, t)),
+    ).rejects.toMatchObject({ status: 403, field: "studentId" });
   });
 });

@@ -54,13 +54,23 @@ describe("the database refuses double-booking", () => {
     expect(err.status).toBe(409);
     expect(err.field).toBe("instructorId");
     expect(err.message).toMatch(/Instructor One already teaches "Drag and the minimum-drag speed" Tue 3 Nov 1[01]:[03]0–1[01]:[03]0/);
-    expect(await count(`SELECT count(*)::int AS n FROM training_sessions WHERE school_id = :s AND starts_at::date = '2026-11-03'`, { s: s.school.id })).toBe(1);
+    expect(
+      await count(`SELECT count(*)::int AS n FROM training_sessions WHERE school_id = :s AND starts_at::date = '2026-11-03'`, {
+        s: s.school.id,
+      }),
+    ).toBe(1);
   });
 
   it("two concurrent sessions in one room (different instructors): exactly one is created", async () => {
     const { ok, refused } = await settleBoth(
       schedule({ date: "2026-11-04", time: "10:00", room: "Briefing room 2", studentIds: [s.people.students[0]!.id] }),
-      schedule({ date: "2026-11-04", time: "10:15", room: "  briefing ROOM 2 ", instructorId: s.people.instructor2.id, studentIds: [s.people.students[1]!.id] }),
+      schedule({
+        date: "2026-11-04",
+        time: "10:15",
+        room: "  briefing ROOM 2 ",
+        instructorId: s.people.instructor2.id,
+        studentIds: [s.people.students[1]!.id],
+      }),
     );
     expect(ok).toHaveLength(1);
     const err = refused[0]!.reason as HttpError;
@@ -73,14 +83,24 @@ describe("the database refuses double-booking", () => {
     const student = s.people.students[2]!;
     const { ok, refused } = await settleBoth(
       schedule({ date: "2026-11-05", time: "14:00", room: "Room C", studentIds: [student.id] }),
-      schedule({ date: "2026-11-05", time: "14:45", room: "Room D", instructorId: s.people.instructor2.id, studentIds: [student.id, s.people.students[3]!.id] }),
+      schedule({
+        date: "2026-11-05",
+        time: "14:45",
+        room: "Room D",
+        instructorId: s.people.instructor2.id,
+        studentIds: [student.id, s.people.students[3]!.id],
+      }),
     );
     expect(ok).toHaveLength(1);
     const err = refused[0]!.reason as HttpError;
     expect(err.status).toBe(409);
     expect(err.field).toBe("studentIds");
     expect(err.message).toContain(`${student.name} is already in "Drag and the minimum-drag speed" Thu 5 Nov 14:`);
-    expect(await count(`SELECT count(*)::int AS n FROM session_attendees WHERE student_id = :st AND starts_at::date = '2026-11-05'`, { st: student.id })).toBe(1);
+    expect(
+      await count(`SELECT count(*)::int AS n FROM session_attendees WHERE student_id = :st AND starts_at::date = '2026-11-05'`, {
+        st: student.id,
+      }),
+    ).toBe(1);
   });
 
   it("back-to-back sessions of one instructor, room and cohort are allowed", async () => {
@@ -93,7 +113,9 @@ describe("the database refuses double-booking", () => {
 
   it("a cancelled session blocks nothing, and cancelling tells each attendee once through the outbox", async () => {
     const first = await schedule({ date: "2026-11-09", time: "09:00", cohortId: s.cohorts.a.id });
-    await expect(schedule({ date: "2026-11-09", time: "09:30", cohortId: s.cohorts.a.id, room: "Elsewhere" })).rejects.toMatchObject({ status: 409 });
+    await expect(schedule({ date: "2026-11-09", time: "09:30", cohortId: s.cohorts.a.id, room: "Elsewhere" })).rejects.toMatchObject({
+      status: 409,
+    });
     const c = await sequelize.transaction((t) => cancelSession(s.as.chief, { sessionId: first.id, reason: "Instructor unwell" }, t));
     expect(c.sequence).toBe(1);
     const again = await schedule({ date: "2026-11-09", time: "09:30", cohortId: s.cohorts.a.id });
@@ -104,7 +126,9 @@ describe("the database refuses double-booking", () => {
     );
     expect(mails).toHaveLength(3);
     expect(mails.every((m) => m.idempotency_key.startsWith(`session.cancelled:${first.id}:1:`))).toBe(true);
-    await expect(sequelize.transaction((t) => cancelSession(s.as.chief, { sessionId: first.id, reason: "again" }, t))).rejects.toMatchObject({ status: 409 });
+    await expect(
+      sequelize.transaction((t) => cancelSession(s.as.chief, { sessionId: first.id, reason: "again" }, t)),
+    ).rejects.toMatchObject({ status: 409 });
   });
 });
 
@@ -112,33 +136,80 @@ describe("rescheduling", () => {
   it("moves the session, grows its sequence, keeps attendees' ranges in sync and mails each attendee with the new sequence", async () => {
     const a = await schedule({ date: "2026-11-10", time: "09:00", cohortId: s.cohorts.b.id, instructorId: s.people.instructor2.id });
     const r1 = await sequelize.transaction((t) =>
-      rescheduleSession(s.as.chief, { sessionId: a.id, date: "2026-11-10", time: "13:00", durationMinutes: 90, room: "Hangar classroom", instructorId: s.people.instructor2.id }, t),
+      rescheduleSession(
+        s.as.chief,
+        {
+          sessionId: a.id,
+          date: "2026-11-10",
+          time: "13:00",
+          durationMinutes: 90,
+          room: "Hangar classroom",
+          instructorId: s.people.instructor2.id,
+        },
+        t,
+      ),
     );
     const r2 = await sequelize.transaction((t) =>
-      rescheduleSession(s.as.chief, { sessionId: a.id, date: "2026-11-11", time: "13:00", durationMinutes: 90, room: "Hangar classroom", instructorId: s.people.instructor2.id }, t),
+      rescheduleSession(
+        s.as.chief,
+        {
+          sessionId: a.id,
+          date: "2026-11-11",
+          time: "13:00",
+          durationMinutes: 90,
+          room: "Hangar classroom",
+          instructorId: s.people.instructor2.id,
+        },
+        t,
+      ),
     );
     expect([r1.sequence, r2.sequence]).toEqual([1, 2]);
-    const att = await sequelize.query<{ starts_at: Date; ends_at: Date }>(`SELECT starts_at, ends_at FROM session_attendees WHERE session_id = :id`, {
-      replacements: { id: a.id }, type: QueryTypes.SELECT,
-    });
+    const att = await sequelize.query<{ starts_at: Date; ends_at: Date }>(
+      `SELECT starts_at, ends_at FROM session_attendees WHERE session_id = :id`,
+      {
+        replacements: { id: a.id },
+        type: QueryTypes.SELECT,
+      },
+    );
     expect(att).toHaveLength(3);
     for (const x of att) {
       expect(new Date(x.starts_at).toISOString()).toBe("2026-11-11T13:00:00.000Z"); // London is on GMT in November
       expect(new Date(x.ends_at).toISOString()).toBe("2026-11-11T14:30:00.000Z");
     }
-    expect(await count(`SELECT count(*)::int AS n FROM outbox WHERE idempotency_key LIKE :k`, { k: `session.rescheduled:${a.id}:1:%` })).toBe(3);
-    expect(await count(`SELECT count(*)::int AS n FROM outbox WHERE idempotency_key LIKE :k`, { k: `session.rescheduled:${a.id}:2:%` })).toBe(3);
+    expect(
+      await count(`SELECT count(*)::int AS n FROM outbox WHERE idempotency_key LIKE :k`, { k: `session.rescheduled:${a.id}:1:%` }),
+    ).toBe(3);
+    expect(
+      await count(`SELECT count(*)::int AS n FROM outbox WHERE idempotency_key LIKE :k`, { k: `session.rescheduled:${a.id}:2:%` }),
+    ).toBe(3);
   });
 
   it("a reschedule onto a busy instructor is refused with a 409 and changes nothing", async () => {
     const busy = await schedule({ date: "2026-11-12", time: "09:00", room: "Room E", studentIds: [s.people.students[0]!.id] });
     const other = await schedule({ date: "2026-11-12", time: "11:00", room: "Room F", studentIds: [s.people.students[1]!.id] });
     await expect(
-      sequelize.transaction((t) => rescheduleSession(s.as.chief, { sessionId: other.id, date: "2026-11-12", time: "09:30", durationMinutes: 60, room: "Room F", instructorId: s.people.instructor.id }, t)),
+      sequelize.transaction((t) =>
+        rescheduleSession(
+          s.as.chief,
+          {
+            sessionId: other.id,
+            date: "2026-11-12",
+            time: "09:30",
+            durationMinutes: 60,
+            room: "Room F",
+            instructorId: s.people.instructor.id,
+          },
+          t,
+        ),
+      ),
     ).rejects.toMatchObject({ status: 409, field: "instructorId" });
-    const [row] = await sequelize.query<{ sequence: number; starts_at: Date }>(`SELECT sequence, starts_at FROM training_sessions WHERE id = :id`, {
-      replacements: { id: other.id }, type: QueryTypes.SELECT,
-    });
+    const [row] = await sequelize.query<{ sequence: number; starts_at: Date }>(
+      `SELECT sequence, starts_at FROM training_sessions WHERE id = :id`,
+      {
+        replacements: { id: other.id },
+        type: QueryTypes.SELECT,
+      },
+    );
     expect(row!.sequence).toBe(0);
     expect(new Date(row!.starts_at).toISOString()).toBe(other.startsAt.toISOString());
     expect(busy.id).not.toBe(other.id);
@@ -149,8 +220,20 @@ describe("daylight-saving changes in Europe/London", () => {
   // Source: UK summer time rules (BST begins 01:00 GMT on the last Sunday of March, ends 01:00 GMT on the
   // last Sunday of October); for 2027 that is 28 March, for 2026 it is 25 October. Common practice.
   it("a weekly slot keeps its 10:00 wall-clock time on both sides of the spring change, with the same length", async () => {
-    const before = await schedule({ date: "2027-03-27", time: "10:00", durationMinutes: 90, room: "DST room", studentIds: [s.people.students[4]!.id] });
-    const after = await schedule({ date: "2027-03-29", time: "10:00", durationMinutes: 90, room: "DST room", studentIds: [s.people.students[4]!.id] });
+    const before = await schedule({
+      date: "2027-03-27",
+      time: "10:00",
+      durationMinutes: 90,
+      room: "DST room",
+      studentIds: [s.people.students[4]!.id],
+    });
+    const after = await schedule({
+      date: "2027-03-29",
+      time: "10:00",
+      durationMinutes: 90,
+      room: "DST room",
+      studentIds: [s.people.students[4]!.id],
+    });
     expect(before.startsAt.toISOString()).toBe("2027-03-27T10:00:00.000Z"); // GMT
     expect(after.startsAt.toISOString()).toBe("2027-03-29T09:00:00.000Z"); // BST = UTC+1
     for (const x of [before, after]) {
@@ -161,7 +244,13 @@ describe("daylight-saving changes in Europe/London", () => {
   });
 
   it("a session running through the autumn change keeps its real length: 00:30 for 120 min ends at 01:30 wall-clock", async () => {
-    const x = await schedule({ date: "2026-10-25", time: "00:30", durationMinutes: 120, room: "Night room", studentIds: [s.people.students[5]!.id] });
+    const x = await schedule({
+      date: "2026-10-25",
+      time: "00:30",
+      durationMinutes: 120,
+      room: "Night room",
+      studentIds: [s.people.students[5]!.id],
+    });
     expect(x.startsAt.toISOString()).toBe("2026-10-24T23:30:00.000Z"); // 00:30 BST
     expect(x.endsAt.toISOString()).toBe("2026-10-25T01:30:00.000Z");
     expect(formatInZone(x.endsAt, "Europe/London", "HH:mm")).toBe("01:30"); // 01:30 GMT, after the clocks went back
@@ -180,7 +269,14 @@ describe("who sees which sessions", () => {
     expect(mine.total).toBeGreaterThan(0);
     expect(all.total).toBeGreaterThan(mine.total);
     const attendeeOf = async (studentId: string) =>
-      (await sequelize.query<{ id: string }>(`SELECT session_id AS id FROM session_attendees WHERE student_id = :st`, { replacements: { st: studentId }, type: QueryTypes.SELECT })).map((r) => r.id).sort();
+      (
+        await sequelize.query<{ id: string }>(`SELECT session_id AS id FROM session_attendees WHERE student_id = :st`, {
+          replacements: { st: studentId },
+          type: QueryTypes.SELECT,
+        })
+      )
+        .map((r) => r.id)
+        .sort();
     expect(mine.rows.map((r) => r.id).sort()).toEqual(await attendeeOf(s.people.students[0]!.id));
     expect(theirs.rows.map((r) => r.id).sort()).toEqual(await attendeeOf(s.people.students[3]!.id));
   });

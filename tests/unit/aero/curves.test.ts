@@ -1,12 +1,4 @@
-import {
-  dragAt,
-  minimumDragSpeed,
-  minimumPowerSpeed,
-  sampleCurves,
-  stallSpeed,
-  standardAtmosphere,
-  type CurveCase,
-} from "@/lib/aero";
+import { dragAt, minimumDragSpeed, minimumPowerSpeed, sampleCurves, stallSpeed, standardAtmosphere, type CurveCase } from "@/lib/aero";
 import { CJ1, CP1 } from "./fixtures";
 import { expectInputError, expectRelative } from "./helpers";
 

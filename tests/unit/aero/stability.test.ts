@@ -51,7 +51,8 @@ describe("speed stability on the drag curve at constant thrust (boundary Vmd)", 
         const scale = dragAt(plane, { ...H, trueAirspeedMs: v }).totalDragN / v;
         expect(Math.abs(s.dragSlopeNPerMs - numeric)).toBeLessThanOrEqual(1e-6 * scale);
         const numericPower =
-          (dragAt(plane, { ...H, trueAirspeedMs: v + dv }).powerRequiredW - dragAt(plane, { ...H, trueAirspeedMs: v - dv }).powerRequiredW) /
+          (dragAt(plane, { ...H, trueAirspeedMs: v + dv }).powerRequiredW -
+            dragAt(plane, { ...H, trueAirspeedMs: v - dv }).powerRequiredW) /
           (2 * dv);
         expect(Math.abs(s.powerSlopeWPerMs - numericPower)).toBeLessThanOrEqual(1e-6 * scale * v);
       }),

@@ -22,16 +22,19 @@ const PLANES = [
 ] as const;
 
 describe("common practice: zero-lift drag grows with V^2, induced drag falls with 1/V^2", () => {
-  it.each(PLANES)("%s: doubling 100 -> 200 kt gives zero-lift drag x4, its power x8, induced drag x1/4, induced power x1/2", (_n, plane) => {
-    // Common practice; FAA Flight Training Handbook AC 61-21A (Seen: avstop.com straightandlevelflight2.html).
-    // The relations are exact in a parabolic polar: tolerance 1e-12 relative.
-    const slow = dragAt(plane, { altitudeM: 0, trueAirspeedMs: ktToMs(100) });
-    const fast = dragAt(plane, { altitudeM: 0, trueAirspeedMs: ktToMs(200) });
-    expectRelative(fast.zeroLiftDragN / slow.zeroLiftDragN, 4, 1e-12);
-    expectRelative((fast.zeroLiftDragN * ktToMs(200)) / (slow.zeroLiftDragN * ktToMs(100)), 8, 1e-12);
-    expectRelative(fast.liftDependentDragN / slow.liftDependentDragN, 0.25, 1e-12);
-    expectRelative((fast.liftDependentDragN * ktToMs(200)) / (slow.liftDependentDragN * ktToMs(100)), 0.5, 1e-12);
-  });
+  it.each(PLANES)(
+    "%s: doubling 100 -> 200 kt gives zero-lift drag x4, its power x8, induced drag x1/4, induced power x1/2",
+    (_n, plane) => {
+      // Common practice; FAA Flight Training Handbook AC 61-21A (Seen: avstop.com straightandlevelflight2.html).
+      // The relations are exact in a parabolic polar: tolerance 1e-12 relative.
+      const slow = dragAt(plane, { altitudeM: 0, trueAirspeedMs: ktToMs(100) });
+      const fast = dragAt(plane, { altitudeM: 0, trueAirspeedMs: ktToMs(200) });
+      expectRelative(fast.zeroLiftDragN / slow.zeroLiftDragN, 4, 1e-12);
+      expectRelative((fast.zeroLiftDragN * ktToMs(200)) / (slow.zeroLiftDragN * ktToMs(100)), 8, 1e-12);
+      expectRelative(fast.liftDependentDragN / slow.liftDependentDragN, 0.25, 1e-12);
+      expectRelative((fast.liftDependentDragN * ktToMs(200)) / (slow.liftDependentDragN * ktToMs(100)), 0.5, 1e-12);
+    },
+  );
 });
 
 describe("common practice: at Vmd", () => {

@@ -104,9 +104,7 @@ describe("condition rules", () => {
       expectInputError(() => standardAtmosphere(bad), "altitudeM");
       expectInputError(() => equivalentToTrue(50, bad), "altitudeM");
     }
-    expect(expectInputError(() => standardAtmosphere(-1000), "altitudeM").message).toBe(
-      "altitudeM must be between -610 and 20000 m",
-    );
+    expect(expectInputError(() => standardAtmosphere(-1000), "altitudeM").message).toBe("altitudeM must be between -610 and 20000 m");
     expect(expectInputError(() => standardAtmosphere(Number.NaN), "altitudeM").message).toBe("altitudeM must be a finite number");
   });
 
@@ -194,7 +192,10 @@ describe("helper and curve-range rules", () => {
     expectInputError(() => sampleCurves(cases, { minSpeedMs: 80, maxSpeedMs: 20, points: 5 }), "maxSpeedMs");
     expectInputError(() => sampleCurves(cases, { minSpeedMs: 20, maxSpeedMs: 80, points: 1 }), "points");
     expectInputError(() => sampleCurves(cases, { minSpeedMs: 20, maxSpeedMs: 80, points: 10.5 }), "points");
-    expectInputError(() => sampleCurves(cases, { minSpeedMs: 20, maxSpeedMs: 80, points: 5, speedAxis: "indicated" as "true" }), "speedAxis");
+    expectInputError(
+      () => sampleCurves(cases, { minSpeedMs: 20, maxSpeedMs: 80, points: 5, speedAxis: "indicated" as "true" }),
+      "speedAxis",
+    );
     expectInputError(() => sampleCurves("x" as unknown as [], { minSpeedMs: 20, maxSpeedMs: 80, points: 5 }), "cases");
   });
 

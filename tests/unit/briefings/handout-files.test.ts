@@ -24,7 +24,9 @@ describe("handout type from content", () => {
 
 describe("download names", () => {
   it("keeps an ordinary name as it is", () => {
-    expect(contentDisposition("drag-curve.pdf", "application/pdf")).toBe(`attachment; filename="drag-curve.pdf"; filename*=UTF-8''drag-curve.pdf`);
+    expect(contentDisposition("drag-curve.pdf", "application/pdf")).toBe(
+      `attachment; filename="drag-curve.pdf"; filename*=UTF-8''drag-curve.pdf`,
+    );
   });
 
   it.each([

@@ -2,12 +2,19 @@ import { render, screen, fireEvent, waitFor } from "@testing-library/react";
 import { lbToKg } from "@/lib/aero";
 
 jest.mock("next/navigation", () => ({ useRouter: () => ({ push: jest.fn(), replace: jest.fn(), refresh: jest.fn() }) }));
-const actions = { createAirframeAction: jest.fn(), updateAirframeAction: jest.fn(), duplicateAirframeAction: jest.fn(), retireAirframeAction: jest.fn() };
+const actions = {
+  createAirframeAction: jest.fn(),
+  updateAirframeAction: jest.fn(),
+  duplicateAirframeAction: jest.fn(),
+  retireAirframeAction: jest.fn(),
+};
 jest.mock("@/app/(app)/curve-lab/airframes/actions", () => actions);
 
 /* eslint-disable @typescript-eslint/no-require-imports -- loaded after the mocks above */
-const { AirframeForm } = require("@/app/(app)/curve-lab/airframes/_components/airframe-form") as typeof import("@/app/(app)/curve-lab/airframes/_components/airframe-form");
-const { formValuesFor, airframeFormSchema } = require("@/app/(app)/curve-lab/airframes/_lib/airframe-schema") as typeof import("@/app/(app)/curve-lab/airframes/_lib/airframe-schema");
+const { AirframeForm } =
+  require("@/app/(app)/curve-lab/airframes/_components/airframe-form") as typeof import("@/app/(app)/curve-lab/airframes/_components/airframe-form");
+const { formValuesFor, airframeFormSchema } =
+  require("@/app/(app)/curve-lab/airframes/_lib/airframe-schema") as typeof import("@/app/(app)/curve-lab/airframes/_lib/airframe-schema");
 /* eslint-enable @typescript-eslint/no-require-imports */
 
 function type(label: RegExp | string, value: string) {

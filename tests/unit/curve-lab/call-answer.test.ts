@@ -11,7 +11,12 @@ const trainer: AirframeSnapshot = {
   wingSpanM: 9.8,
   oswaldEfficiency: 0.78,
   zeroLiftDragCoefficient: 0.032,
-  configurations: { clean: { cd0Increment: 0, maxLiftCoefficient: 1.45 }, gearDown: null, flaps1: { cd0Increment: 0.012, maxLiftCoefficient: 1.75 }, flaps2: null },
+  configurations: {
+    clean: { cd0Increment: 0, maxLiftCoefficient: 1.45 },
+    gearDown: null,
+    flaps1: { cd0Increment: 0.012, maxLiftCoefficient: 1.75 },
+    flaps2: null,
+  },
 };
 
 function specAt(altitudeM: number, axis: "equivalent" | "true"): DemoSpec {
@@ -23,8 +28,12 @@ describe("Call it first answers", () => {
   it("Vmd and stall answers are lib/aero's own figures for the first case, on the demo's axis", () => {
     const s = specAt(ftToM(6000), "true");
     const c = s.cases[0]!;
-    expect(callAnswer(s, "vmd")).toBe(minimumDragSpeed(aircraftFor(s.airframe, c), { altitudeM: c.altitudeM, isaDeviationK: 0 }).trueAirspeedMs);
-    expect(callAnswer(s, "stall")).toBe(stallSpeed(aircraftFor(s.airframe, c), { altitudeM: c.altitudeM, isaDeviationK: 0 }).trueAirspeedMs);
+    expect(callAnswer(s, "vmd")).toBe(
+      minimumDragSpeed(aircraftFor(s.airframe, c), { altitudeM: c.altitudeM, isaDeviationK: 0 }).trueAirspeedMs,
+    );
+    expect(callAnswer(s, "stall")).toBe(
+      stallSpeed(aircraftFor(s.airframe, c), { altitudeM: c.altitudeM, isaDeviationK: 0 }).trueAirspeedMs,
+    );
   });
 
   it.each([

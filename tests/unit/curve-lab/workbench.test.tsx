@@ -13,8 +13,10 @@ const actions = {
 };
 jest.mock("@/app/(app)/curve-lab/actions", () => actions);
 
-// eslint-disable-next-line @typescript-eslint/no-require-imports -- loaded after the mocks above
-const { DemoWorkbench } = require("@/app/(app)/curve-lab/_components/demo-workbench") as typeof import("@/app/(app)/curve-lab/_components/demo-workbench");
+// loaded after the mocks above
+const { DemoWorkbench } =
+  // eslint-disable-next-line @typescript-eslint/no-require-imports
+  require("@/app/(app)/curve-lab/_components/demo-workbench") as typeof import("@/app/(app)/curve-lab/_components/demo-workbench");
 
 const wren: AirframeSnapshot = {
   id: "00000000-0000-4000-8000-000000000001",
@@ -39,7 +41,17 @@ function libraryVmdKt(spec: DemoSpec, massKg: number, altitudeM = 0): string {
 }
 
 function renderBuilder(spec: DemoSpec) {
-  return render(<DemoWorkbench mode="builder" demoId={null} demoRevisionId={null} revisionNumber={null} name="Test" initialSpec={spec} airframes={[wren]} />);
+  return render(
+    <DemoWorkbench
+      mode="builder"
+      demoId={null}
+      demoRevisionId={null}
+      revisionNumber={null}
+      name="Test"
+      initialSpec={spec}
+      airframes={[wren]}
+    />,
+  );
 }
 
 describe("demo builder", () => {
@@ -66,7 +78,11 @@ describe("demo builder", () => {
     expect(canvas.dataset.chartId).toBe(chartId);
     expect(Number(canvas.dataset.renders)).toBe(rendersBefore + 1);
     // only the drawn curves are in the chart: zero-lift, lift-dependent and total drag of the one case
-    expect(chart.data.datasets.map((d) => d.label)).toEqual(["Zero-lift drag, case 1", "Lift-dependent drag, case 1", "Total drag, case 1"]);
+    expect(chart.data.datasets.map((d) => d.label)).toEqual([
+      "Zero-lift drag, case 1",
+      "Lift-dependent drag, case 1",
+      "Total drag, case 1",
+    ]);
     const total = chart.data.datasets.find((d) => d.label === "Total drag, case 1")!.data as { x: number; y: number }[];
     expect(total).toHaveLength(400);
     // Lowest sampled total drag ≈ W / (L/D)max at 600 kg (the sampled minimum sits within 1 % of it).
@@ -96,7 +112,9 @@ describe("demo builder", () => {
     renderBuilder(spec);
     const kase = screen.getByTestId("case-0");
     fireEvent.change(within(kase).getByLabelText(/Configuration, case 1/), { target: { value: "flaps2" } });
-    const vs = stallSpeed(aircraftFor(spec.airframe, { ...spec.cases[0]!, configuration: "flaps2" }), { altitudeM: 0 }).equivalentAirspeedMs;
+    const vs = stallSpeed(aircraftFor(spec.airframe, { ...spec.cases[0]!, configuration: "flaps2" }), {
+      altitudeM: 0,
+    }).equivalentAirspeedMs;
     expect(screen.getByTestId("readout-stall")).toHaveTextContent(`${msToKt(vs).toFixed(0)} kt`);
   });
 

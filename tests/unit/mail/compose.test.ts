@@ -9,12 +9,27 @@ const evil = `<script>alert("x")</script> & 'quote'`;
 
 const samples: { [K in keyof MailDataByKind]: MailDataByKind[K] } = {
   invitation: { name: evil, setPasswordUrl: "http://127.0.0.1:3000/set-password/abc", expiresAt: new Date("2026-07-08T10:00:00Z") },
-  "session.rescheduled": { name: evil, briefingTitle: evil, previousStartsAt: new Date("2026-07-01T08:00:00Z"), startsAt: new Date("2026-07-02T08:00:00Z"), endsAt: new Date("2026-07-02T09:30:00Z"), room: evil, instructorName: evil },
+  "session.rescheduled": {
+    name: evil,
+    briefingTitle: evil,
+    previousStartsAt: new Date("2026-07-01T08:00:00Z"),
+    startsAt: new Date("2026-07-02T08:00:00Z"),
+    endsAt: new Date("2026-07-02T09:30:00Z"),
+    room: evil,
+    instructorName: evil,
+  },
   "session.cancelled": { name: evil, briefingTitle: evil, startsAt: new Date("2026-07-01T08:00:00Z"), room: evil, reason: evil },
   "assignment.new": { name: evil, title: evil, assignmentKind: "briefing", dueOn: "2026-07-03", path: "/assignments#a-1" },
   "record.signed": { name: evil, itemCode: "AER-03", itemTitle: evil, signerName: evil, signedOn: "2026-07-01" },
   "check.notyet": { name: evil, itemCodes: ["AER-01", evil], checkedOn: "2026-07-01" },
-  "session.reminder": { name: evil, briefingTitle: evil, startsAt: new Date("2026-07-02T08:00:00Z"), endsAt: new Date("2026-07-02T09:30:00Z"), room: evil, instructorName: evil },
+  "session.reminder": {
+    name: evil,
+    briefingTitle: evil,
+    startsAt: new Date("2026-07-02T08:00:00Z"),
+    endsAt: new Date("2026-07-02T09:30:00Z"),
+    room: evil,
+    instructorName: evil,
+  },
   "assignment.overdue": { name: evil, title: evil, assignmentKind: "demo", dueOn: "2026-07-03", path: "/assignments#a-1" },
 };
 
@@ -40,7 +55,11 @@ test("times are shown in the school's zone: 08:00 UTC in July is 09:00 in London
   expect(m.subject).toBe("Session moved: Drag, now Thursday 2 July 2026, 09:00");
   expect(m.text).toContain("Thursday 2 July 2026, 09:00 to 10:30");
   expect(m.text).toContain("Was: Wednesday 1 July 2026, 09:00");
-  const ny = composeMail("session.rescheduled", { ...samples["session.rescheduled"], briefingTitle: "Drag" }, { ...school, timeZone: "America/New_York" });
+  const ny = composeMail(
+    "session.rescheduled",
+    { ...samples["session.rescheduled"], briefingTitle: "Drag" },
+    { ...school, timeZone: "America/New_York" },
+  );
   expect(ny.subject).toBe("Session moved: Drag, now Thursday 2 July 2026, 04:00");
 });
 
@@ -71,7 +90,15 @@ describe("the Weekly letter", () => {
   });
   test("says behind with the plain reasons and the make-ups to book", () => {
     const m = composeWeeklyLetter(
-      { ...base, progress: { signedItems: [{ code: "AER-01", title: "Zero-lift drag" }], stagesPassed: [], behindReasons: ["one make-up item is still to be booked"], makeupsToBook: [{ code: "AER-02", title: "Lift-dependent drag" }] } },
+      {
+        ...base,
+        progress: {
+          signedItems: [{ code: "AER-01", title: "Zero-lift drag" }],
+          stagesPassed: [],
+          behindReasons: ["one make-up item is still to be booked"],
+          makeupsToBook: [{ code: "AER-02", title: "Lift-dependent drag" }],
+        },
+      },
       school,
     );
     expect(m.text).toContain("Behind, because:\n\n- one make-up item is still to be booked");
@@ -98,7 +125,11 @@ describe("unsubscribe tokens", () => {
     process.env.CHALKWING_SIGNING_SECRET = "unit-test-signing-secret-0123456789";
   });
   test("a genuine token names its sponsor, student and kind", () => {
-    expect(verifyUnsubscribe(signUnsubscribe({ sponsorId: sp, studentId: st, kind: "weekly.letter" }))).toEqual({ sponsorId: sp, studentId: st, kind: "weekly.letter" });
+    expect(verifyUnsubscribe(signUnsubscribe({ sponsorId: sp, studentId: st, kind: "weekly.letter" }))).toEqual({
+      sponsorId: sp,
+      studentId: st,
+      kind: "weekly.letter",
+    });
   });
   test("altered, swapped, re-signed with another secret, or malformed tokens are refused", () => {
     const good = signUnsubscribe({ sponsorId: sp, studentId: st, kind: "weekly.letter" });

@@ -8,7 +8,14 @@ import { evaluateCheck } from "@/lib/records/outcome";
 const CP1: AircraftSnapshot = {
   name: "CP-1 (Anderson Ex. 6.7)",
   source: { kind: "reference", id: "cp-1" },
-  aircraft: { massKg: 13127.5 / 9.80665, wingAreaM2: 16.165, wingSpanM: 10.912, zeroLiftDragCoefficient: 0.025, oswaldEfficiency: 0.8, maxLiftCoefficient: 1.4 },
+  aircraft: {
+    massKg: 13127.5 / 9.80665,
+    wingAreaM2: 16.165,
+    wingSpanM: 10.912,
+    zeroLiftDragCoefficient: 0.025,
+    oswaldEfficiency: 0.8,
+    maxLiftCoefficient: 1.4,
+  },
 };
 
 describe("generated questions", () => {
@@ -64,7 +71,9 @@ describe("generated questions", () => {
     expect(slow.answer.value).toBe("unstable");
     expect(fast.answer.value).toBe("stable");
     const lib = speedStability(a.aircraft, { altitudeM: ftToM(4000), trueAirspeedMs: equivalentToTrue(ktToMs(70), ftToM(4000)) });
-    expect(generateQuestion("stability_side", a, { massKg: a.aircraft.massKg, altitudeFt: 4000, speedKt: 70 }).answer.value).toBe(lib.regime);
+    expect(generateQuestion("stability_side", a, { massKg: a.aircraft.massKg, altitudeFt: 4000, speedKt: 70 }).answer.value).toBe(
+      lib.regime,
+    );
   });
 
   it("glide distance equals the library's", () => {

@@ -24,7 +24,10 @@ async function pageTexts(bytes: Uint8Array): Promise<string[]> {
 
 describe("the printable training record", () => {
   it("numbers its pages 'Page x of y' and prints the audit chain's head hash on every page", async () => {
-    const checks = Array.from({ length: 40 }, (_, i) => ({ heading: `2026-11-${String((i % 28) + 1).padStart(2, "0")} · AER-0${(i % 5) + 1} · Meets the standard`, lines: ["1. [AER-01] Name the parts of zero-lift drag - Solid", "2. [AER-03] Vmd at 1,000 kg - Solid"] }));
+    const checks = Array.from({ length: 40 }, (_, i) => ({
+      heading: `2026-11-${String((i % 28) + 1).padStart(2, "0")} · AER-0${(i % 5) + 1} · Meets the standard`,
+      lines: ["1. [AER-01] Name the parts of zero-lift drag - Solid", "2. [AER-03] Vmd at 1,000 kg - Solid"],
+    }));
     const bytes = await trainingRecordPdf({
       schoolName: "Larkhollow Flying School",
       studentName: "Zofia Wróbel",

@@ -23,21 +23,42 @@ export default async function AssignmentPage({ params }: { params: Promise<{ ass
   return (
     <div className="space-y-6">
       <header>
-        <p className="text-caption font-semibold uppercase tracking-wide text-ink-soft">Assignment · {a.kind === "briefing" ? "briefing" : "demo"}</p>
-        <h1 className="text-display">{a.kind === "briefing" && a.briefingId ? <Link href={`/briefings/${a.briefingId}`}>{a.title}</Link> : a.title}</h1>
-        <p className="text-ink-soft">For {a.target} · due {formatDueOn(a.dueOn)} · set by {a.assignedByName}</p>
+        <p className="text-caption font-semibold uppercase tracking-wide text-ink-soft">
+          Assignment · {a.kind === "briefing" ? "briefing" : "demo"}
+        </p>
+        <h1 className="text-display">
+          {a.kind === "briefing" && a.briefingId ? <Link href={`/briefings/${a.briefingId}`}>{a.title}</Link> : a.title}
+        </h1>
+        <p className="text-ink-soft">
+          For {a.target} · due {formatDueOn(a.dueOn)} · set by {a.assignedByName}
+        </p>
       </header>
       <section className="card" aria-labelledby="h-completion">
-        <h2 id="h-completion">Completion <span className="text-caption font-normal text-ink-soft">· <span className="num">{a.done}</span> of <span className="num">{a.students}</span> done</span></h2>
+        <h2 id="h-completion">
+          Completion{" "}
+          <span className="text-caption font-normal text-ink-soft">
+            · <span className="num">{a.done}</span> of <span className="num">{a.students}</span> done
+          </span>
+        </h2>
         <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Completion table (scrolls sideways on small screens)">
           <table className="data-table" data-testid="completion-table">
-            <thead><tr><th scope="col">Student</th><th scope="col">State</th><th scope="col">Marked done</th></tr></thead>
+            <thead>
+              <tr>
+                <th scope="col">Student</th>
+                <th scope="col">State</th>
+                <th scope="col">Marked done</th>
+              </tr>
+            </thead>
             <tbody>
               {data.rows.map((r) => (
                 <tr key={r.studentId}>
                   <td>{r.name}</td>
-                  <td><StatusBadge done={r.done} overdue={r.overdue} /></td>
-                  <td className="num">{r.completedAt ? formatInZone(new Date(r.completedAt), school.timeZone, "d MMM yyyy HH:mm") : "—"}</td>
+                  <td>
+                    <StatusBadge done={r.done} overdue={r.overdue} />
+                  </td>
+                  <td className="num">
+                    {r.completedAt ? formatInZone(new Date(r.completedAt), school.timeZone, "d MMM yyyy HH:mm") : "—"}
+                  </td>
                 </tr>
               ))}
             </tbody>

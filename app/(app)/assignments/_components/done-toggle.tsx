@@ -24,7 +24,11 @@ export function DoneToggle({ assignmentId, done, title }: { assignmentId: string
         {done ? "Not done yet" : "Mark done"}
         <span className="sr-only">: {title}</span>
       </button>
-      {error && <span role="alert" className="field-error">{error}</span>}
+      {error && (
+        <span role="alert" className="field-error">
+          {error}
+        </span>
+      )}
     </span>
   );
 }

@@ -36,34 +36,68 @@ export default async function BriefingPage({
   return (
     <article className="space-y-6" aria-labelledby="briefing-title">
       <header className="space-y-2">
-        <p className="text-caption font-semibold uppercase tracking-wide text-ink-soft">Briefing · revision {r.number}{isCurrent ? " (current)" : ` of ${b.currentNumber}`}</p>
-        <h1 id="briefing-title" className="text-display">{r.title}</h1>
+        <p className="text-caption font-semibold uppercase tracking-wide text-ink-soft">
+          Briefing · revision {r.number}
+          {isCurrent ? " (current)" : ` of ${b.currentNumber}`}
+        </p>
+        <h1 id="briefing-title" className="text-display">
+          {r.title}
+        </h1>
         {!isCurrent && (
-          <p className="caution" role="note">You are reading an earlier revision. <Link href={`/briefings/${b.id}`}>Read the current one (revision {b.currentNumber})</Link>.</p>
+          <p className="caution" role="note">
+            You are reading an earlier revision. <Link href={`/briefings/${b.id}`}>Read the current one (revision {b.currentNumber})</Link>.
+          </p>
         )}
         <div className="flex flex-wrap gap-2">
-          {can(user, "briefings.edit") && <Link href={`/briefings/${b.id}/edit`} className="btn-primary">Edit (makes revision {b.currentNumber + 1})</Link>}
-          {can(user, "assignments.manage") && <Link href={`/assignments?briefing=${b.id}`} className="btn-quiet">Assign to students</Link>}
+          {can(user, "briefings.edit") && (
+            <Link href={`/briefings/${b.id}/edit`} className="btn-primary">
+              Edit (makes revision {b.currentNumber + 1})
+            </Link>
+          )}
+          {can(user, "assignments.manage") && (
+            <Link href={`/assignments?briefing=${b.id}`} className="btn-quiet">
+              Assign to students
+            </Link>
+          )}
         </div>
       </header>
 
       <section className="card space-y-3" aria-labelledby="h-objective">
         <h2 id="h-objective">Objective</h2>
         <p className="whitespace-pre-line">{r.objective}</p>
-        <h3 className="font-semibold">Syllabus items covered <span className="text-caption font-normal text-ink-soft">· syllabus revision {r.syllabusRevisionNumber}</span></h3>
-        {b.items.length === 0 ? <p className="text-ink-soft">None named.</p> : (
+        <h3 className="font-semibold">
+          Syllabus items covered{" "}
+          <span className="text-caption font-normal text-ink-soft">· syllabus revision {r.syllabusRevisionNumber}</span>
+        </h3>
+        {b.items.length === 0 ? (
+          <p className="text-ink-soft">None named.</p>
+        ) : (
           <ul className="space-y-1">
-            {b.items.map((i) => <li key={i.id}><span className="num font-semibold">{i.code}</span> {i.title}</li>)}
+            {b.items.map((i) => (
+              <li key={i.id}>
+                <span className="num font-semibold">{i.code}</span> {i.title}
+              </li>
+            ))}
           </ul>
         )}
       </section>
 
       <section className="card" aria-labelledby="h-elements">
-        <h2 id="h-elements">Elements <span className="text-caption font-normal text-ink-soft">· <span className="num">{total}</span> min in all</span></h2>
+        <h2 id="h-elements">
+          Elements{" "}
+          <span className="text-caption font-normal text-ink-soft">
+            · <span className="num">{total}</span> min in all
+          </span>
+        </h2>
         <ol className="mt-2 space-y-3 sm:hidden">
           {r.elements.map((e, i) => (
             <li key={i} className="rounded-md border border-paper-edge p-3">
-              <p className="font-semibold"><span className="num">{i + 1}.</span> {e.title} <span className="text-caption font-normal text-ink-soft">· <span className="num">{e.minutes}</span> min</span></p>
+              <p className="font-semibold">
+                <span className="num">{i + 1}.</span> {e.title}{" "}
+                <span className="text-caption font-normal text-ink-soft">
+                  · <span className="num">{e.minutes}</span> min
+                </span>
+              </p>
               <p className="mt-1 text-caption font-semibold text-ink-soft">Instructor&apos;s actions</p>
               <p className="whitespace-pre-line">{e.instructorActions}</p>
               <p className="mt-1 text-caption font-semibold text-ink-soft">Students&apos; actions</p>
@@ -71,9 +105,22 @@ export default async function BriefingPage({
             </li>
           ))}
         </ol>
-        <div className="mt-2 hidden overflow-x-auto sm:block" tabIndex={0} role="region" aria-label="Elements table (scrolls sideways on small screens)">
+        <div
+          className="mt-2 hidden overflow-x-auto sm:block"
+          tabIndex={0}
+          role="region"
+          aria-label="Elements table (scrolls sideways on small screens)"
+        >
           <table className="data-table">
-            <thead><tr><th scope="col">#</th><th scope="col">Element</th><th scope="col">Instructor&apos;s actions</th><th scope="col">Students&apos; actions</th><th scope="col">Min</th></tr></thead>
+            <thead>
+              <tr>
+                <th scope="col">#</th>
+                <th scope="col">Element</th>
+                <th scope="col">Instructor&apos;s actions</th>
+                <th scope="col">Students&apos; actions</th>
+                <th scope="col">Min</th>
+              </tr>
+            </thead>
             <tbody>
               {r.elements.map((e, i) => (
                 <tr key={i}>
@@ -97,7 +144,8 @@ export default async function BriefingPage({
             <ul className="space-y-1" data-testid="briefing-demos">
               {b.demos.map((d) => (
                 <li key={d.demoRevisionId}>
-                  <Link href={`/curve-lab/demos/${d.demoId}`}>{d.name}</Link> <span className="text-caption text-ink-soft">· demo revision {d.revisionNumber}</span>
+                  <Link href={`/curve-lab/demos/${d.demoId}`}>{d.name}</Link>{" "}
+                  <span className="text-caption text-ink-soft">· demo revision {d.revisionNumber}</span>
                 </li>
               ))}
             </ul>
@@ -111,12 +159,18 @@ export default async function BriefingPage({
 
       <section className="card space-y-3" aria-labelledby="h-handouts">
         <h2 id="h-handouts">Handouts</h2>
-        {b.handouts.length === 0 ? <p className="text-ink-soft">No handouts with this revision.</p> : (
+        {b.handouts.length === 0 ? (
+          <p className="text-ink-soft">No handouts with this revision.</p>
+        ) : (
           <ul className="space-y-1" data-testid="handouts">
             {b.handouts.map((h) => (
               <li key={h.id}>
-                <a href={`/api/handouts/${h.id}`} download className="inline-flex min-h-touch items-center break-all">{h.fileName}</a>{" "}
-                <span className="text-caption text-ink-soft">· {KIND[h.contentType]} · {size(h.byteSize)}</span>
+                <a href={`/api/handouts/${h.id}`} download className="inline-flex min-h-touch items-center break-all">
+                  {h.fileName}
+                </a>{" "}
+                <span className="text-caption text-ink-soft">
+                  · {KIND[h.contentType]} · {size(h.byteSize)}
+                </span>
               </li>
             ))}
           </ul>
@@ -128,11 +182,24 @@ export default async function BriefingPage({
         <h2 id="h-revisions">Revisions</h2>
         <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Revisions table (scrolls sideways on small screens)">
           <table className="data-table">
-            <thead><tr><th scope="col">Revision</th><th scope="col">Made</th><th scope="col">By</th><th scope="col">What changed</th></tr></thead>
+            <thead>
+              <tr>
+                <th scope="col">Revision</th>
+                <th scope="col">Made</th>
+                <th scope="col">By</th>
+                <th scope="col">What changed</th>
+              </tr>
+            </thead>
             <tbody>
               {b.revisions.map((x) => (
                 <tr key={x.number} aria-current={x.number === r.number ? "true" : undefined}>
-                  <td className="num">{x.number === r.number ? <strong>{x.number} (shown)</strong> : <Link href={`/briefings/${b.id}?revision=${x.number}`}>{x.number}</Link>}</td>
+                  <td className="num">
+                    {x.number === r.number ? (
+                      <strong>{x.number} (shown)</strong>
+                    ) : (
+                      <Link href={`/briefings/${b.id}?revision=${x.number}`}>{x.number}</Link>
+                    )}
+                  </td>
                   <td className="num">{formatInZone(new Date(x.createdAt), school.timeZone, "d MMM yyyy HH:mm")}</td>
                   <td>{x.createdByName}</td>
                   <td>{x.changeNote || "—"}</td>

@@ -20,7 +20,11 @@ export interface BriefingEditorProps {
 }
 
 function FieldError({ id, message }: { id: string; message?: string }) {
-  return message ? <p id={id} className="field-error" role="alert">{message}</p> : null;
+  return message ? (
+    <p id={id} className="field-error" role="alert">
+      {message}
+    </p>
+  ) : null;
 }
 
 export function BriefingEditor({ briefingId, nextNumber, initial, choices, handouts }: BriefingEditorProps) {
@@ -67,31 +71,56 @@ export function BriefingEditor({ briefingId, nextNumber, initial, choices, hando
 
   return (
     <form onSubmit={onSubmit} className="space-y-6" noValidate aria-label={briefingId ? "Edit briefing" : "New briefing"}>
-      {formError && <p role="alert" className="field-error" data-testid="form-error">{formError}</p>}
+      {formError && (
+        <p role="alert" className="field-error" data-testid="form-error">
+          {formError}
+        </p>
+      )}
       <section className="card space-y-4" aria-labelledby="sec-what">
         <h2 id="sec-what">What the briefing teaches</h2>
         <div className="grid gap-4 sm:grid-cols-2">
           <div>
-            <label htmlFor="courseId" className="field-label">Course</label>
+            <label htmlFor="courseId" className="field-label">
+              Course
+            </label>
             <select id="courseId" className="field-input" disabled={!!briefingId} {...register("courseId")}>
-              {choices.courses.map((c) => <option key={c.id} value={c.id}>{c.code} · {c.title}</option>)}
+              {choices.courses.map((c) => (
+                <option key={c.id} value={c.id}>
+                  {c.code} · {c.title}
+                </option>
+              ))}
             </select>
           </div>
           <div>
-            <label htmlFor="syllabusRevisionId" className="field-label">Syllabus revision</label>
-            <select id="syllabusRevisionId" className="field-input" {...register("syllabusRevisionId")} {...aria("syllabusRevisionId", "e-syl")}>
-              {revisions.map((r) => <option key={r.id} value={r.id}>Revision {r.number}</option>)}
+            <label htmlFor="syllabusRevisionId" className="field-label">
+              Syllabus revision
+            </label>
+            <select
+              id="syllabusRevisionId"
+              className="field-input"
+              {...register("syllabusRevisionId")}
+              {...aria("syllabusRevisionId", "e-syl")}
+            >
+              {revisions.map((r) => (
+                <option key={r.id} value={r.id}>
+                  Revision {r.number}
+                </option>
+              ))}
             </select>
             <FieldError id="e-syl" message={err("syllabusRevisionId")} />
           </div>
         </div>
         <div>
-          <label htmlFor="title" className="field-label">Title</label>
+          <label htmlFor="title" className="field-label">
+            Title
+          </label>
           <input id="title" className="field-input" {...register("title")} {...aria("title", "e-title")} />
           <FieldError id="e-title" message={err("title")} />
         </div>
         <div>
-          <label htmlFor="objective" className="field-label">Objective</label>
+          <label htmlFor="objective" className="field-label">
+            Objective
+          </label>
           <textarea id="objective" rows={3} className="field-input py-2" {...register("objective")} {...aria("objective", "e-objective")} />
           <FieldError id="e-objective" message={err("objective")} />
         </div>
@@ -101,7 +130,9 @@ export function BriefingEditor({ briefingId, nextNumber, initial, choices, hando
             {items.map((i) => (
               <label key={i.id} className="flex min-h-touch items-center gap-2">
                 <input type="checkbox" value={i.id} className="size-5" {...register("syllabusItemIds")} />
-                <span><span className="num font-semibold">{i.code}</span> {i.title}</span>
+                <span>
+                  <span className="num font-semibold">{i.code}</span> {i.title}
+                </span>
               </label>
             ))}
           </div>
@@ -112,7 +143,13 @@ export function BriefingEditor({ briefingId, nextNumber, initial, choices, hando
       <section className="card space-y-4" aria-labelledby="sec-elements">
         <div className="flex flex-wrap items-baseline justify-between gap-2">
           <h2 id="sec-elements">Elements, in order</h2>
-          <p className="text-caption text-ink-soft" aria-live="polite">Total <span className="num" data-testid="total-minutes">{minutes}</span> min</p>
+          <p className="text-caption text-ink-soft" aria-live="polite">
+            Total{" "}
+            <span className="num" data-testid="total-minutes">
+              {minutes}
+            </span>{" "}
+            min
+          </p>
         </div>
         <FieldError id="e-elements" message={err("elements") ?? err("elements.root")} />
         <ol className="space-y-4">
@@ -122,44 +159,97 @@ export function BriefingEditor({ briefingId, nextNumber, initial, choices, hando
                 <legend className="font-semibold">Element {idx + 1}</legend>
                 <div className="grid gap-3 sm:grid-cols-[1fr_8rem]">
                   <div>
-                    <label htmlFor={`el-${idx}-title`} className="field-label">Element title</label>
-                    <input id={`el-${idx}-title`} className="field-input" {...register(`elements.${idx}.title`)} {...aria(`elements.${idx}.title`, `e-el-${idx}-title`)} />
+                    <label htmlFor={`el-${idx}-title`} className="field-label">
+                      Element title
+                    </label>
+                    <input
+                      id={`el-${idx}-title`}
+                      className="field-input"
+                      {...register(`elements.${idx}.title`)}
+                      {...aria(`elements.${idx}.title`, `e-el-${idx}-title`)}
+                    />
                     <FieldError id={`e-el-${idx}-title`} message={err(`elements.${idx}.title`)} />
                   </div>
                   <div>
-                    <label htmlFor={`el-${idx}-minutes`} className="field-label">Minutes</label>
-                    <input id={`el-${idx}-minutes`} type="number" inputMode="numeric" min={1} max={480} className="field-input num" {...register(`elements.${idx}.minutes`)} {...aria(`elements.${idx}.minutes`, `e-el-${idx}-minutes`)} />
+                    <label htmlFor={`el-${idx}-minutes`} className="field-label">
+                      Minutes
+                    </label>
+                    <input
+                      id={`el-${idx}-minutes`}
+                      type="number"
+                      inputMode="numeric"
+                      min={1}
+                      max={480}
+                      className="field-input num"
+                      {...register(`elements.${idx}.minutes`)}
+                      {...aria(`elements.${idx}.minutes`, `e-el-${idx}-minutes`)}
+                    />
                     <FieldError id={`e-el-${idx}-minutes`} message={err(`elements.${idx}.minutes`)} />
                   </div>
                 </div>
                 <div className="grid gap-3 sm:grid-cols-2">
                   <div>
-                    <label htmlFor={`el-${idx}-ia`} className="field-label">Instructor&apos;s actions</label>
-                    <textarea id={`el-${idx}-ia`} rows={3} className="field-input py-2" {...register(`elements.${idx}.instructorActions`)} {...aria(`elements.${idx}.instructorActions`, `e-el-${idx}-ia`)} />
+                    <label htmlFor={`el-${idx}-ia`} className="field-label">
+                      Instructor&apos;s actions
+                    </label>
+                    <textarea
+                      id={`el-${idx}-ia`}
+                      rows={3}
+                      className="field-input py-2"
+                      {...register(`elements.${idx}.instructorActions`)}
+                      {...aria(`elements.${idx}.instructorActions`, `e-el-${idx}-ia`)}
+                    />
                     <FieldError id={`e-el-${idx}-ia`} message={err(`elements.${idx}.instructorActions`)} />
                   </div>
                   <div>
-                    <label htmlFor={`el-${idx}-sa`} className="field-label">Students&apos; actions</label>
-                    <textarea id={`el-${idx}-sa`} rows={3} className="field-input py-2" {...register(`elements.${idx}.studentActions`)} {...aria(`elements.${idx}.studentActions`, `e-el-${idx}-sa`)} />
+                    <label htmlFor={`el-${idx}-sa`} className="field-label">
+                      Students&apos; actions
+                    </label>
+                    <textarea
+                      id={`el-${idx}-sa`}
+                      rows={3}
+                      className="field-input py-2"
+                      {...register(`elements.${idx}.studentActions`)}
+                      {...aria(`elements.${idx}.studentActions`, `e-el-${idx}-sa`)}
+                    />
                     <FieldError id={`e-el-${idx}-sa`} message={err(`elements.${idx}.studentActions`)} />
                   </div>
                 </div>
                 <div className="flex flex-wrap gap-2">
-                  <button type="button" className="btn-quiet" disabled={idx === 0} onClick={() => elements.move(idx, idx - 1)} >Move up<span className="sr-only"> element {idx + 1}</span></button>
-                  <button type="button" className="btn-quiet" disabled={idx === elements.fields.length - 1} onClick={() => elements.move(idx, idx + 1)} >Move down<span className="sr-only"> element {idx + 1}</span></button>
-                  <button type="button" className="btn-quiet" disabled={elements.fields.length === 1} onClick={() => elements.remove(idx)} >Remove<span className="sr-only"> element {idx + 1}</span></button>
+                  <button type="button" className="btn-quiet" disabled={idx === 0} onClick={() => elements.move(idx, idx - 1)}>
+                    Move up<span className="sr-only"> element {idx + 1}</span>
+                  </button>
+                  <button
+                    type="button"
+                    className="btn-quiet"
+                    disabled={idx === elements.fields.length - 1}
+                    onClick={() => elements.move(idx, idx + 1)}
+                  >
+                    Move down<span className="sr-only"> element {idx + 1}</span>
+                  </button>
+                  <button type="button" className="btn-quiet" disabled={elements.fields.length === 1} onClick={() => elements.remove(idx)}>
+                    Remove<span className="sr-only"> element {idx + 1}</span>
+                  </button>
                 </div>
               </fieldset>
             </li>
           ))}
         </ol>
-        <button type="button" className="btn-quiet" onClick={() => elements.append({ title: "", instructorActions: "", studentActions: "", minutes: 10 })}>Add an element</button>
+        <button
+          type="button"
+          className="btn-quiet"
+          onClick={() => elements.append({ title: "", instructorActions: "", studentActions: "", minutes: 10 })}
+        >
+          Add an element
+        </button>
       </section>
 
       <section className="card space-y-4" aria-labelledby="sec-material">
         <h2 id="sec-material">Material and standard</h2>
         <div>
-          <label htmlFor="equipment" className="field-label">Equipment</label>
+          <label htmlFor="equipment" className="field-label">
+            Equipment
+          </label>
           <textarea id="equipment" rows={2} className="field-input py-2" {...register("equipment")} />
         </div>
         <fieldset>
@@ -171,7 +261,13 @@ export function BriefingEditor({ briefingId, nextNumber, initial, choices, hando
               {choices.demos.map((d) => (
                 <label key={d.demoRevisionId} className="flex min-h-touch items-center gap-2">
                   <input type="checkbox" value={d.demoRevisionId} className="size-5" {...register("demoRevisionIds")} />
-                  <span>{d.name} <span className="text-caption text-ink-soft">· revision {d.revisionNumber}{d.current ? "" : " (earlier)"}</span></span>
+                  <span>
+                    {d.name}{" "}
+                    <span className="text-caption text-ink-soft">
+                      · revision {d.revisionNumber}
+                      {d.current ? "" : " (earlier)"}
+                    </span>
+                  </span>
                 </label>
               ))}
             </div>
@@ -192,17 +288,29 @@ export function BriefingEditor({ briefingId, nextNumber, initial, choices, hando
           </fieldset>
         )}
         <div>
-          <label htmlFor="completionStandard" className="field-label">Completion standard</label>
-          <textarea id="completionStandard" rows={3} className="field-input py-2" {...register("completionStandard")} {...aria("completionStandard", "e-cs")} />
+          <label htmlFor="completionStandard" className="field-label">
+            Completion standard
+          </label>
+          <textarea
+            id="completionStandard"
+            rows={3}
+            className="field-input py-2"
+            {...register("completionStandard")}
+            {...aria("completionStandard", "e-cs")}
+          />
           <FieldError id="e-cs" message={err("completionStandard")} />
         </div>
         <div>
-          <label htmlFor="changeNote" className="field-label">What changed (kept with revision {nextNumber})</label>
+          <label htmlFor="changeNote" className="field-label">
+            What changed (kept with revision {nextNumber})
+          </label>
           <input id="changeNote" className="field-input" {...register("changeNote")} />
         </div>
       </section>
       <div className="flex flex-wrap items-center gap-3">
-        <button type="submit" className="btn-primary" disabled={isSubmitting}>{briefingId ? `Save as revision ${nextNumber}` : "Save briefing"}</button>
+        <button type="submit" className="btn-primary" disabled={isSubmitting}>
+          {briefingId ? `Save as revision ${nextNumber}` : "Save briefing"}
+        </button>
         <p className="text-caption text-ink-soft">Handouts are added from the briefing&apos;s page once it is saved.</p>
       </div>
     </form>

@@ -43,11 +43,28 @@ export function HandoutUpload({ briefingId }: { briefingId: string }) {
   return (
     <form onSubmit={upload} className="flex flex-wrap items-end gap-3" aria-label="Add a handout">
       <div>
-        <label htmlFor="handout-file" className="field-label">Add a handout (PDF, PNG or JPEG, up to 10 MB)</label>
-        <input id="handout-file" ref={input} type="file" accept=".pdf,.png,.jpg,.jpeg,application/pdf,image/png,image/jpeg" className="field-input py-2" />
+        <label htmlFor="handout-file" className="field-label">
+          Add a handout (PDF, PNG or JPEG, up to 10 MB)
+        </label>
+        <input
+          id="handout-file"
+          ref={input}
+          type="file"
+          accept=".pdf,.png,.jpg,.jpeg,application/pdf,image/png,image/jpeg"
+          className="field-input py-2"
+        />
       </div>
-      <button type="submit" className="btn-quiet" disabled={busy}>{busy ? "Uploading…" : "Upload"}</button>
-      <p aria-live="polite" role="status" className={message?.ok ? "text-caption text-solid-800" : "field-error"} data-testid="upload-status">{message?.text}</p>
+      <button type="submit" className="btn-quiet" disabled={busy}>
+        {busy ? "Uploading…" : "Upload"}
+      </button>
+      <p
+        aria-live="polite"
+        role="status"
+        className={message?.ok ? "text-caption text-solid-800" : "field-error"}
+        data-testid="upload-status"
+      >
+        {message?.text}
+      </p>
     </form>
   );
 }

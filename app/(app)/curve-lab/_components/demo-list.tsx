@@ -25,21 +25,48 @@ export function DemoList({ staff }: { staff: boolean }) {
     },
   });
   if (q.isPending) return <p aria-busy="true">Loading demos…</p>;
-  if (q.isError) return <p role="alert" className="field-error">{q.error.message}</p>;
-  if (q.data.length === 0) return <p className="text-ink-soft" data-testid="demo-list-empty">{staff ? "No demos yet: build one from an airframe." : "No demos are assigned to you yet."}</p>;
+  if (q.isError)
+    return (
+      <p role="alert" className="field-error">
+        {q.error.message}
+      </p>
+    );
+  if (q.data.length === 0)
+    return (
+      <p className="text-ink-soft" data-testid="demo-list-empty">
+        {staff ? "No demos yet: build one from an airframe." : "No demos are assigned to you yet."}
+      </p>
+    );
   return (
     <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="List, scrolls sideways">
       <table className="data-table" data-testid="demo-list">
         <thead>
           <tr>
             <th scope="col">Demo</th>
-            {staff ? (<><th scope="col">Airframe</th><th scope="col">Cases</th><th scope="col">Revision</th><th scope="col">Owner</th><th scope="col">Use</th></>) : (<><th scope="col">Due</th><th scope="col">Through</th></>)}
+            {staff ? (
+              <>
+                <th scope="col">Airframe</th>
+                <th scope="col">Cases</th>
+                <th scope="col">Revision</th>
+                <th scope="col">Owner</th>
+                <th scope="col">Use</th>
+              </>
+            ) : (
+              <>
+                <th scope="col">Due</th>
+                <th scope="col">Through</th>
+              </>
+            )}
           </tr>
         </thead>
         <tbody>
           {q.data.map((r) => (
             <tr key={r.id}>
-              <td><Link href={`/curve-lab/demos/${r.id}`} className="inline-flex min-h-touch items-center font-semibold">{r.name}</Link></td>
+              <td>
+                <Link href={`/curve-lab/demos/${r.id}`} className="inline-flex min-h-touch items-center font-semibold">
+                  {r.name}
+                </Link>
+              </td>
               {staff ? (
                 <>
                   <td>{r.airframeName}</td>

@@ -70,7 +70,10 @@ export function DemoWorkbench(props: WorkbenchProps) {
     if (callKind === "stall") return { regions: false, markers: ["stall"], curves: [] };
     return { regions: true, markers: ["vmd", "vmp", "bestGlide"], curves: [] };
   }, [calling, callKind]);
-  const callSpec = useMemo<DemoSpec>(() => (callKind === "gust" ? { ...spec, markers: { ...spec.markers, chosen: true } } : spec), [spec, callKind]);
+  const callSpec = useMemo<DemoSpec>(
+    () => (callKind === "gust" ? { ...spec, markers: { ...spec.markers, chosen: true } } : spec),
+    [spec, callKind],
+  );
 
   const unit = spec.axis.unit;
   const u = speedUnitLabel(unit);
@@ -85,7 +88,10 @@ export function DemoWorkbench(props: WorkbenchProps) {
   }, []);
 
   const locked = calling; // the call is about the saved first case: sliders wait for the reveal
-  const configs = useMemo(() => CONFIGURATION_KEYS.filter((k) => k === "clean" || spec.airframe.configurations[k] !== null), [spec.airframe]);
+  const configs = useMemo(
+    () => CONFIGURATION_KEYS.filter((k) => k === "clean" || spec.airframe.configurations[k] !== null),
+    [spec.airframe],
+  );
 
   function chooseAirframe(id: string) {
     const a = props.airframes?.find((x) => x.id === id);
@@ -128,7 +134,13 @@ export function DemoWorkbench(props: WorkbenchProps) {
       return;
     }
     const d = r.data;
-    setStatus({ kind: "ok", text: d.newRevision && props.demoId ? `Saved as revision ${d.revisionNumber}: students keep the revision they were given.` : `Saved (revision ${d.revisionNumber}).` });
+    setStatus({
+      kind: "ok",
+      text:
+        d.newRevision && props.demoId
+          ? `Saved as revision ${d.revisionNumber}: students keep the revision they were given.`
+          : `Saved (revision ${d.revisionNumber}).`,
+    });
     if (!props.demoId) router.replace(`/curve-lab/demos/${d.demoId}`);
     else router.refresh();
   }
@@ -179,14 +191,40 @@ export function DemoWorkbench(props: WorkbenchProps) {
     setTimeout(() => URL.revokeObjectURL(a.href), 1000);
   }
   async function exportCsv() {
-    const [{ toCsv }, { sampleCurves }, { curveCaseFor }] = await Promise.all([import("@/lib/csv"), import("@/lib/aero"), import("@/components/charts/demo-spec")]);
-    const set = sampleCurves(spec.cases.map((c) => curveCaseFor(spec.airframe, c)), { minSpeedMs: spec.range.minSpeedMs, maxSpeedMs: spec.range.maxSpeedMs, points: 400, speedAxis: spec.axis.speed }, { arrays: "plain" });
+    const [{ toCsv }, { sampleCurves }, { curveCaseFor }] = await Promise.all([
+      import("@/lib/csv"),
+      import("@/lib/aero"),
+      import("@/components/charts/demo-spec"),
+    ]);
+    const set = sampleCurves(
+      spec.cases.map((c) => curveCaseFor(spec.airframe, c)),
+      { minSpeedMs: spec.range.minSpeedMs, maxSpeedMs: spec.range.maxSpeedMs, points: 400, speedAxis: spec.axis.speed },
+      { arrays: "plain" },
+    );
     const axis = spec.axis.speed === "true" ? "TAS" : "EAS";
     const header = [`${axis} (${u})`];
-    for (const c of spec.cases) header.push(`${c.label}: zero-lift drag (N)`, `${c.label}: lift-dependent drag (N)`, `${c.label}: ideal induced drag (N)`, `${c.label}: lift-dependent increment (N)`, `${c.label}: total drag (N)`, `${c.label}: power required (kW)`, `${c.label}: L/D`);
+    for (const c of spec.cases)
+      header.push(
+        `${c.label}: zero-lift drag (N)`,
+        `${c.label}: lift-dependent drag (N)`,
+        `${c.label}: ideal induced drag (N)`,
+        `${c.label}: lift-dependent increment (N)`,
+        `${c.label}: total drag (N)`,
+        `${c.label}: power required (kW)`,
+        `${c.label}: L/D`,
+      );
     const rows = set.speedsMs.map((v, i) => {
       const row: (string | number)[] = [speedInUnit(v, unit).toFixed(2)];
-      for (const c of set.cases) row.push(c.zeroLiftDragN[i]!.toFixed(1), c.liftDependentDragN[i]!.toFixed(1), c.idealInducedDragN[i]!.toFixed(1), c.liftDependentIncrementN[i]!.toFixed(1), c.totalDragN[i]!.toFixed(1), (c.powerRequiredW[i]! / 1000).toFixed(3), c.liftToDrag[i]!.toFixed(3));
+      for (const c of set.cases)
+        row.push(
+          c.zeroLiftDragN[i]!.toFixed(1),
+          c.liftDependentDragN[i]!.toFixed(1),
+          c.idealInducedDragN[i]!.toFixed(1),
+          c.liftDependentIncrementN[i]!.toFixed(1),
+          c.totalDragN[i]!.toFixed(1),
+          (c.powerRequiredW[i]! / 1000).toFixed(3),
+          c.liftToDrag[i]!.toFixed(3),
+        );
       return row;
     });
     const blob = new Blob([toCsv(header, rows)], { type: "text/csv;charset=utf-8" });
@@ -206,32 +244,71 @@ export function DemoWorkbench(props: WorkbenchProps) {
       {mode === "builder" && (
         <section aria-label="Demo" className="card flex flex-wrap items-end gap-3">
           <div className="min-w-56 flex-1">
-            <label htmlFor="demo-name" className="field-label">Demo name</label>
+            <label htmlFor="demo-name" className="field-label">
+              Demo name
+            </label>
             <input id="demo-name" className="field-input" value={name} maxLength={120} onChange={(e) => setName(e.target.value)} />
           </div>
           {props.airframes && (
             <div className="min-w-56">
-              <label htmlFor="demo-airframe" className="field-label">Airframe</label>
-              <select id="demo-airframe" className="field-input" value={spec.airframe.id ?? ""} onChange={(e) => chooseAirframe(e.target.value)}>
-                {spec.airframe.id && !props.airframes.some((a) => a.id === spec.airframe.id) && <option value={spec.airframe.id}>{spec.airframe.name} (as saved)</option>}
+              <label htmlFor="demo-airframe" className="field-label">
+                Airframe
+              </label>
+              <select
+                id="demo-airframe"
+                className="field-input"
+                value={spec.airframe.id ?? ""}
+                onChange={(e) => chooseAirframe(e.target.value)}
+              >
+                {spec.airframe.id && !props.airframes.some((a) => a.id === spec.airframe.id) && (
+                  <option value={spec.airframe.id}>{spec.airframe.name} (as saved)</option>
+                )}
                 {props.airframes.map((a) => (
-                  <option key={a.id} value={a.id ?? ""}>{a.name}</option>
+                  <option key={a.id} value={a.id ?? ""}>
+                    {a.name}
+                  </option>
                 ))}
               </select>
             </div>
           )}
           {props.canChange !== false && (
-            <button type="button" className="btn-primary" onClick={save} disabled={busy} data-testid="save-demo">Save</button>
+            <button type="button" className="btn-primary" onClick={save} disabled={busy} data-testid="save-demo">
+              Save
+            </button>
           )}
-          {props.demoId && props.canChange !== false && <button type="button" className="btn-quiet" onClick={rename} disabled={busy}>Rename</button>}
-          {props.demoId && <button type="button" className="btn-quiet" onClick={duplicate} disabled={busy}>Duplicate</button>}
           {props.demoId && props.canChange !== false && (
-            <button type="button" className="btn-quiet" onClick={remove} disabled={busy || props.inUse} title={props.inUse ? "In use: kept for the students and briefings that use it" : undefined}>Delete</button>
+            <button type="button" className="btn-quiet" onClick={rename} disabled={busy}>
+              Rename
+            </button>
           )}
-          {props.demoId && <a className="btn-quiet" href={`/curve-lab/demos/${props.demoId}/projector`}>Projector view</a>}
+          {props.demoId && (
+            <button type="button" className="btn-quiet" onClick={duplicate} disabled={busy}>
+              Duplicate
+            </button>
+          )}
+          {props.demoId && props.canChange !== false && (
+            <button
+              type="button"
+              className="btn-quiet"
+              onClick={remove}
+              disabled={busy || props.inUse}
+              title={props.inUse ? "In use: kept for the students and briefings that use it" : undefined}
+            >
+              Delete
+            </button>
+          )}
+          {props.demoId && (
+            <a className="btn-quiet" href={`/curve-lab/demos/${props.demoId}/projector`}>
+              Projector view
+            </a>
+          )}
           <p aria-live="polite" className="basis-full text-caption" data-testid="demo-status">
             {status && <span className={status.kind === "error" ? "font-semibold text-notyet-800" : "text-solid-800"}>{status.text}</span>}
-            {!status && props.inUse && props.revisionNumber !== null && <span className="text-ink-soft">Revision {props.revisionNumber}, in use: saving makes a new revision so students keep what was taught.</span>}
+            {!status && props.inUse && props.revisionNumber !== null && (
+              <span className="text-ink-soft">
+                Revision {props.revisionNumber}, in use: saving makes a new revision so students keep what was taught.
+              </span>
+            )}
           </p>
         </section>
       )}
@@ -242,25 +319,56 @@ export function DemoWorkbench(props: WorkbenchProps) {
           <p>{CALL_PROMPTS[callKind]} Place your marker: drag the slider, type a speed, or click on the chart.</p>
           <div className="flex flex-wrap items-end gap-3">
             <div className="min-w-64 flex-1">
-              <label htmlFor="call-slider" className="field-label">Your call ({u})</label>
-              <input id="call-slider" type="range" className="mt-2 block min-h-touch w-full" min={rangeMin} max={rangeMax} step={step} disabled={!calling}
+              <label htmlFor="call-slider" className="field-label">
+                Your call ({u})
+              </label>
+              <input
+                id="call-slider"
+                type="range"
+                className="mt-2 block min-h-touch w-full"
+                min={rangeMin}
+                max={rangeMax}
+                step={step}
+                disabled={!calling}
                 value={guessMs === null ? (rangeMin + rangeMax) / 2 : speedInUnit(guessMs, unit)}
-                onChange={(e) => setGuessMs(speedFromUnit(Number(e.target.value), unit))} />
+                onChange={(e) => setGuessMs(speedFromUnit(Number(e.target.value), unit))}
+              />
             </div>
             <div className="w-32">
-              <label htmlFor="call-number" className="field-label">Speed ({u})</label>
-              <input id="call-number" type="number" className="field-input num" min={rangeMin} max={rangeMax} step={step} disabled={!calling}
+              <label htmlFor="call-number" className="field-label">
+                Speed ({u})
+              </label>
+              <input
+                id="call-number"
+                type="number"
+                className="field-input num"
+                min={rangeMin}
+                max={rangeMax}
+                step={step}
+                disabled={!calling}
                 value={guessMs === null ? "" : Number(speedInUnit(guessMs, unit).toFixed(1))}
-                onChange={(e) => setGuessMs(e.target.value === "" ? null : speedFromUnit(Number(e.target.value), unit))} />
+                onChange={(e) => setGuessMs(e.target.value === "" ? null : speedFromUnit(Number(e.target.value), unit))}
+              />
             </div>
-            <button type="button" className="btn-primary" disabled={!calling || guessMs === null || busy} onClick={makeCall} data-testid="make-call">Call it and reveal</button>
+            <button
+              type="button"
+              className="btn-primary"
+              disabled={!calling || guessMs === null || busy}
+              onClick={makeCall}
+              data-testid="make-call"
+            >
+              Call it and reveal
+            </button>
           </div>
           <div aria-live="polite" data-testid="call-result">
             {answer && (
               <p className="text-lead">
                 Your call <span className="num font-semibold">{formatSpeed(answer.actualMs + answer.errorMs, unit)}</span> · answer{" "}
                 <span className="num font-semibold">{formatSpeed(answer.actualMs, unit)}</span> · you were{" "}
-                <span className="num font-semibold">{fmt(Math.abs(speedInUnit(answer.errorMs, unit)), 1)} {u} {answer.errorMs >= 0 ? "fast" : "slow"}</span>.
+                <span className="num font-semibold">
+                  {fmt(Math.abs(speedInUnit(answer.errorMs, unit)), 1)} {u} {answer.errorMs >= 0 ? "fast" : "slow"}
+                </span>
+                .
               </p>
             )}
           </div>
@@ -284,8 +392,22 @@ export function DemoWorkbench(props: WorkbenchProps) {
           <Legend labels={caseLabels} curves={spec.curves} hidden={conceal?.curves ?? NO_CURVES} />
           <p className="text-caption text-chalk-dim">{AXIS_ASSUMPTION}</p>
           <div className="flex flex-wrap gap-2">
-            <button type="button" className="btn border border-board-600 text-chalk hover:bg-board-700" onClick={exportPng} disabled={calling}>Export chart (PNG)</button>
-            <button type="button" className="btn border border-board-600 text-chalk hover:bg-board-700" onClick={exportCsv} disabled={calling}>Export data (CSV)</button>
+            <button
+              type="button"
+              className="btn border border-board-600 text-chalk hover:bg-board-700"
+              onClick={exportPng}
+              disabled={calling}
+            >
+              Export chart (PNG)
+            </button>
+            <button
+              type="button"
+              className="btn border border-board-600 text-chalk hover:bg-board-700"
+              onClick={exportCsv}
+              disabled={calling}
+            >
+              Export data (CSV)
+            </button>
           </div>
         </section>
 
@@ -294,27 +416,46 @@ export function DemoWorkbench(props: WorkbenchProps) {
             <section className="card space-y-1" aria-labelledby="readouts-h">
               <h2 id="readouts-h">{focused.label}</h2>
               <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 num">
-                <dt>Vmd</dt><dd data-testid="readout-vmd">{formatSpeed(figures.vmdMs, unit)}</dd>
-                <dt>Vmp</dt><dd data-testid="readout-vmp">{formatSpeed(figures.vmpMs, unit)}</dd>
-                <dt>Stall</dt><dd data-testid="readout-stall">{formatSpeed(figures.stallMs, unit)} ({CONFIGURATION_LABELS[focused.configuration].toLowerCase()})</dd>
-                <dt>(L/D)max</dt><dd>{fmt(figures.maxLiftToDrag, 1)}</dd>
-                <dt>Best glide</dt><dd>{formatSpeed(figures.bestGlideMs, unit)}, {fmt(figures.glideRatio, 1)}:1</dd>
+                <dt>Vmd</dt>
+                <dd data-testid="readout-vmd">{formatSpeed(figures.vmdMs, unit)}</dd>
+                <dt>Vmp</dt>
+                <dd data-testid="readout-vmp">{formatSpeed(figures.vmpMs, unit)}</dd>
+                <dt>Stall</dt>
+                <dd data-testid="readout-stall">
+                  {formatSpeed(figures.stallMs, unit)} ({CONFIGURATION_LABELS[focused.configuration].toLowerCase()})
+                </dd>
+                <dt>(L/D)max</dt>
+                <dd>{fmt(figures.maxLiftToDrag, 1)}</dd>
+                <dt>Best glide</dt>
+                <dd>
+                  {formatSpeed(figures.bestGlideMs, unit)}, {fmt(figures.glideRatio, 1)}:1
+                </dd>
               </dl>
               <p className="text-caption text-ink-soft">Speeds as {spec.axis.speed === "true" ? "TAS" : "EAS (IAS = CAS = EAS here)"}.</p>
             </section>
           ) : (
-            <section className="card"><p>Readouts appear after your call.</p></section>
+            <section className="card">
+              <p>Readouts appear after your call.</p>
+            </section>
           )}
           {!calling && (
             <section className="card space-y-1" aria-labelledby="whatif-h">
               <h2 id="whatif-h">What if</h2>
-              <ul className="list-disc space-y-1 pl-5" data-testid="what-if">{whatIfLines.map((l) => <li key={l}>{l}</li>)}</ul>
+              <ul className="list-disc space-y-1 pl-5" data-testid="what-if">
+                {whatIfLines.map((l) => (
+                  <li key={l}>{l}</li>
+                ))}
+              </ul>
             </section>
           )}
           {!calling && (
             <section className="space-y-2" aria-label="What a gust does">
-              <p className="rounded-md border-l-4 border-unstable-500 bg-unstable-100 p-2 text-caption"><strong>Below Vmd: speed-unstable.</strong> {GUST_BELOW_VMD}</p>
-              <p className="rounded-md border-l-4 border-stable-500 bg-stable-100 p-2 text-caption"><strong>Above Vmd: speed-stable.</strong> {GUST_ABOVE_VMD}</p>
+              <p className="rounded-md border-l-4 border-unstable-500 bg-unstable-100 p-2 text-caption">
+                <strong>Below Vmd: speed-unstable.</strong> {GUST_BELOW_VMD}
+              </p>
+              <p className="rounded-md border-l-4 border-stable-500 bg-stable-100 p-2 text-caption">
+                <strong>Above Vmd: speed-stable.</strong> {GUST_ABOVE_VMD}
+              </p>
             </section>
           )}
         </aside>
@@ -323,19 +464,46 @@ export function DemoWorkbench(props: WorkbenchProps) {
       <section aria-labelledby="cases-h" className="card space-y-3">
         <div className="flex flex-wrap items-center justify-between gap-2">
           <h2 id="cases-h">Cases</h2>
-          {mode === "builder" && <button type="button" className="btn-quiet" onClick={addCase} disabled={spec.cases.length >= 4}>Add case</button>}
+          {mode === "builder" && (
+            <button type="button" className="btn-quiet" onClick={addCase} disabled={spec.cases.length >= 4}>
+              Add case
+            </button>
+          )}
         </div>
         {locked && <p className="text-caption text-ink-soft">The sliders unlock after your call.</p>}
         <div className="grid gap-3 md:grid-cols-2">
           {spec.cases.map((c, i) => (
-            <CaseEditor key={i} index={i} c={c} airframe={spec.airframe} configs={configs} mode={mode} locked={locked} focused={focus === i}
-              canRemove={mode === "builder" && spec.cases.length > 1} onChange={updateCase} onFocus={setFocus} onRemove={removeCase} />
+            <CaseEditor
+              key={i}
+              index={i}
+              c={c}
+              airframe={spec.airframe}
+              configs={configs}
+              mode={mode}
+              locked={locked}
+              focused={focus === i}
+              canRemove={mode === "builder" && spec.cases.length > 1}
+              onChange={updateCase}
+              onFocus={setFocus}
+              onRemove={removeCase}
+            />
           ))}
         </div>
       </section>
 
-      <ShowPanel curves={spec.curves} markers={spec.markers} axis={spec.axis} range={spec.range} chosenSpeedMs={spec.chosenSpeedMs} callKind={spec.callKind} notes={spec.notes}
-        mode={mode} locked={locked} setSpec={setSpec} answerText={mode === "builder" && spec.callKind ? formatSpeed(callAnswer(spec, spec.callKind), unit) : null} />
+      <ShowPanel
+        curves={spec.curves}
+        markers={spec.markers}
+        axis={spec.axis}
+        range={spec.range}
+        chosenSpeedMs={spec.chosenSpeedMs}
+        callKind={spec.callKind}
+        notes={spec.notes}
+        mode={mode}
+        locked={locked}
+        setSpec={setSpec}
+        answerText={mode === "builder" && spec.callKind ? formatSpeed(callAnswer(spec, spec.callKind), unit) : null}
+      />
     </div>
   );
 }
@@ -355,47 +523,128 @@ interface CaseEditorProps {
 }
 
 /** One case's sliders; memoised so moving one case's slider re-renders only that case. */
-const CaseEditor = memo(function CaseEditor({ index, c, airframe, configs, mode, locked, focused, canRemove, onChange, onFocus, onRemove }: CaseEditorProps) {
+const CaseEditor = memo(function CaseEditor({
+  index,
+  c,
+  airframe,
+  configs,
+  mode,
+  locked,
+  focused,
+  canRemove,
+  onChange,
+  onFocus,
+  onRemove,
+}: CaseEditorProps) {
   return (
     <fieldset className="space-y-2 rounded-md border border-paper-edge p-3" data-testid={`case-${index}`}>
       <legend className="px-1 font-semibold">
-        <span aria-hidden="true" className="mr-2 inline-block h-3 w-3 rounded-full align-middle" style={{ background: CASE_COLOURS[index], outline: "1px solid #414a5c" }} />
+        <span
+          aria-hidden="true"
+          className="mr-2 inline-block h-3 w-3 rounded-full align-middle"
+          style={{ background: CASE_COLOURS[index], outline: "1px solid #414a5c" }}
+        />
         Case {index + 1}
       </legend>
       <div className="flex flex-wrap items-end gap-2">
         <label className="flex min-h-touch items-center gap-2 text-caption">
-          <input type="radio" name="focus" checked={focused} onChange={() => onFocus(index)} className="h-5 w-5" /> Focus (readouts, regions)
+          <input type="radio" name="focus" checked={focused} onChange={() => onFocus(index)} className="h-5 w-5" /> Focus (readouts,
+          regions)
         </label>
-        {canRemove && <button type="button" className="btn-quiet" onClick={() => onRemove(index)}>Remove case {index + 1}</button>}
+        {canRemove && (
+          <button type="button" className="btn-quiet" onClick={() => onRemove(index)}>
+            Remove case {index + 1}
+          </button>
+        )}
       </div>
       {mode === "builder" && (
         <div>
-          <label htmlFor={`label-${index}`} className="field-label">Label</label>
-          <input id={`label-${index}`} className="field-input" maxLength={40} value={c.label} onChange={(e) => onChange(index, { label: e.target.value })} />
+          <label htmlFor={`label-${index}`} className="field-label">
+            Label
+          </label>
+          <input
+            id={`label-${index}`}
+            className="field-input"
+            maxLength={40}
+            value={c.label}
+            onChange={(e) => onChange(index, { label: e.target.value })}
+          />
         </div>
       )}
       <div>
-        <label htmlFor={`mass-${index}`} className="field-label">Mass, case {index + 1}: <span className="num">{fmt(c.massKg)} kg ({fmt(kgToLb(c.massKg))} lb)</span></label>
-        <input id={`mass-${index}`} data-testid={`mass-${index}`} type="range" className="mt-1 block min-h-touch w-full" disabled={locked}
-          min={Math.floor(airframe.emptyMassKg)} max={Math.ceil(airframe.maxMassKg)} step={1} value={c.massKg}
+        <label htmlFor={`mass-${index}`} className="field-label">
+          Mass, case {index + 1}:{" "}
+          <span className="num">
+            {fmt(c.massKg)} kg ({fmt(kgToLb(c.massKg))} lb)
+          </span>
+        </label>
+        <input
+          id={`mass-${index}`}
+          data-testid={`mass-${index}`}
+          type="range"
+          className="mt-1 block min-h-touch w-full"
+          disabled={locked}
+          min={Math.floor(airframe.emptyMassKg)}
+          max={Math.ceil(airframe.maxMassKg)}
+          step={1}
+          value={c.massKg}
           aria-valuetext={`${fmt(c.massKg)} kg (${fmt(kgToLb(c.massKg))} lb)`}
-          onChange={(e) => onChange(index, { massKg: clamp(Number(e.target.value), airframe.emptyMassKg, airframe.maxMassKg) })} />
+          onChange={(e) => onChange(index, { massKg: clamp(Number(e.target.value), airframe.emptyMassKg, airframe.maxMassKg) })}
+        />
       </div>
       <div>
-        <label htmlFor={`alt-${index}`} className="field-label">Pressure altitude, case {index + 1}: <span className="num">{fmt(mToFt(c.altitudeM))} ft</span></label>
-        <input id={`alt-${index}`} type="range" className="mt-1 block min-h-touch w-full" disabled={locked} min={0} max={14000} step={100}
-          value={Math.round(mToFt(c.altitudeM) / 100) * 100} aria-valuetext={`${fmt(mToFt(c.altitudeM))} ft`}
-          onChange={(e) => onChange(index, { altitudeM: ftToM(Number(e.target.value)) })} />
+        <label htmlFor={`alt-${index}`} className="field-label">
+          Pressure altitude, case {index + 1}: <span className="num">{fmt(mToFt(c.altitudeM))} ft</span>
+        </label>
+        <input
+          id={`alt-${index}`}
+          type="range"
+          className="mt-1 block min-h-touch w-full"
+          disabled={locked}
+          min={0}
+          max={14000}
+          step={100}
+          value={Math.round(mToFt(c.altitudeM) / 100) * 100}
+          aria-valuetext={`${fmt(mToFt(c.altitudeM))} ft`}
+          onChange={(e) => onChange(index, { altitudeM: ftToM(Number(e.target.value)) })}
+        />
       </div>
       <div>
-        <label htmlFor={`isa-${index}`} className="field-label">ISA deviation, case {index + 1}: <span className="num">{c.isaDeviationK > 0 ? "+" : ""}{fmt(c.isaDeviationK)} K</span></label>
-        <input id={`isa-${index}`} type="range" className="mt-1 block min-h-touch w-full" disabled={locked} min={-30} max={30} step={1} value={c.isaDeviationK}
-          onChange={(e) => onChange(index, { isaDeviationK: Number(e.target.value) })} />
+        <label htmlFor={`isa-${index}`} className="field-label">
+          ISA deviation, case {index + 1}:{" "}
+          <span className="num">
+            {c.isaDeviationK > 0 ? "+" : ""}
+            {fmt(c.isaDeviationK)} K
+          </span>
+        </label>
+        <input
+          id={`isa-${index}`}
+          type="range"
+          className="mt-1 block min-h-touch w-full"
+          disabled={locked}
+          min={-30}
+          max={30}
+          step={1}
+          value={c.isaDeviationK}
+          onChange={(e) => onChange(index, { isaDeviationK: Number(e.target.value) })}
+        />
       </div>
       <div>
-        <label htmlFor={`conf-${index}`} className="field-label">Configuration, case {index + 1}</label>
-        <select id={`conf-${index}`} className="field-input" disabled={locked} value={c.configuration} onChange={(e) => onChange(index, { configuration: e.target.value as ConfigurationKey })}>
-          {configs.map((k) => <option key={k} value={k}>{CONFIGURATION_LABELS[k]}</option>)}
+        <label htmlFor={`conf-${index}`} className="field-label">
+          Configuration, case {index + 1}
+        </label>
+        <select
+          id={`conf-${index}`}
+          className="field-input"
+          disabled={locked}
+          value={c.configuration}
+          onChange={(e) => onChange(index, { configuration: e.target.value as ConfigurationKey })}
+        >
+          {configs.map((k) => (
+            <option key={k} value={k}>
+              {CONFIGURATION_LABELS[k]}
+            </option>
+          ))}
         </select>
       </div>
     </fieldset>
@@ -417,7 +666,19 @@ interface ShowPanelProps {
 }
 
 /** What the chart shows (curves, markers, axis, range, Call it first, notes); memoised so a mass slider does not re-render it. */
-const ShowPanel = memo(function ShowPanel({ curves, markers, axis, range, chosenSpeedMs, callKind, notes, mode, locked, setSpec, answerText }: ShowPanelProps) {
+const ShowPanel = memo(function ShowPanel({
+  curves,
+  markers,
+  axis,
+  range,
+  chosenSpeedMs,
+  callKind,
+  notes,
+  mode,
+  locked,
+  setSpec,
+  answerText,
+}: ShowPanelProps) {
   const unit = axis.unit;
   const u = speedUnitLabel(unit);
   const rangeMin = speedInUnit(range.minSpeedMs, unit);
@@ -431,7 +692,13 @@ const ShowPanel = memo(function ShowPanel({ curves, markers, axis, range, chosen
           <legend className="field-label">Curves</legend>
           {CURVE_KEYS.map((k) => (
             <label key={k} className="flex min-h-touch items-center gap-2">
-              <input type="checkbox" className="h-5 w-5" checked={curves[k] ?? false} disabled={locked} onChange={(e) => setSpec((s) => ({ ...s, curves: { ...s.curves, [k]: e.target.checked } }))} />
+              <input
+                type="checkbox"
+                className="h-5 w-5"
+                checked={curves[k] ?? false}
+                disabled={locked}
+                onChange={(e) => setSpec((s) => ({ ...s, curves: { ...s.curves, [k]: e.target.checked } }))}
+              />
               {CURVE_LABELS[k]}
             </label>
           ))}
@@ -440,7 +707,13 @@ const ShowPanel = memo(function ShowPanel({ curves, markers, axis, range, chosen
           <legend className="field-label">Markers</legend>
           {MARKER_KEYS.map((k) => (
             <label key={k} className="flex min-h-touch items-center gap-2">
-              <input type="checkbox" className="h-5 w-5" checked={markers[k] ?? false} disabled={locked} onChange={(e) => setSpec((s) => ({ ...s, markers: { ...s.markers, [k]: e.target.checked } }))} />
+              <input
+                type="checkbox"
+                className="h-5 w-5"
+                checked={markers[k] ?? false}
+                disabled={locked}
+                onChange={(e) => setSpec((s) => ({ ...s, markers: { ...s.markers, [k]: e.target.checked } }))}
+              />
               {MARKER_LABELS[k]}
             </label>
           ))}
@@ -451,13 +724,27 @@ const ShowPanel = memo(function ShowPanel({ curves, markers, axis, range, chosen
             <div className="flex flex-wrap gap-3">
               {(["equivalent", "true"] as const).map((v) => (
                 <label key={v} className="flex min-h-touch items-center gap-2">
-                  <input type="radio" name="axis-speed" className="h-5 w-5" checked={axis.speed === v} disabled={locked} onChange={() => setSpec((s) => ({ ...s, axis: { ...s.axis, speed: v } }))} />
+                  <input
+                    type="radio"
+                    name="axis-speed"
+                    className="h-5 w-5"
+                    checked={axis.speed === v}
+                    disabled={locked}
+                    onChange={() => setSpec((s) => ({ ...s, axis: { ...s.axis, speed: v } }))}
+                  />
                   {v === "true" ? "TAS" : "IAS/EAS"}
                 </label>
               ))}
               {(["kt", "ms"] as const).map((v) => (
                 <label key={v} className="flex min-h-touch items-center gap-2">
-                  <input type="radio" name="axis-unit" className="h-5 w-5" checked={axis.unit === v} disabled={locked} onChange={() => setSpec((s) => ({ ...s, axis: { ...s.axis, unit: v } }))} />
+                  <input
+                    type="radio"
+                    name="axis-unit"
+                    className="h-5 w-5"
+                    checked={axis.unit === v}
+                    disabled={locked}
+                    onChange={() => setSpec((s) => ({ ...s, axis: { ...s.axis, unit: v } }))}
+                  />
                   {speedUnitLabel(v)}
                 </label>
               ))}
@@ -465,43 +752,101 @@ const ShowPanel = memo(function ShowPanel({ curves, markers, axis, range, chosen
           </fieldset>
           <div className="grid grid-cols-2 gap-2">
             <div>
-              <label htmlFor="range-min" className="field-label">From ({u})</label>
-              <input id="range-min" type="number" className="field-input num" disabled={locked} min={1} step={step} value={Number(rangeMin.toFixed(1))}
-                onChange={(e) => { const v = speedFromUnit(Number(e.target.value), unit); if (v >= 1 && v < range.maxSpeedMs) setSpec((s) => ({ ...s, range: { ...s.range, minSpeedMs: v } })); }} />
+              <label htmlFor="range-min" className="field-label">
+                From ({u})
+              </label>
+              <input
+                id="range-min"
+                type="number"
+                className="field-input num"
+                disabled={locked}
+                min={1}
+                step={step}
+                value={Number(rangeMin.toFixed(1))}
+                onChange={(e) => {
+                  const v = speedFromUnit(Number(e.target.value), unit);
+                  if (v >= 1 && v < range.maxSpeedMs) setSpec((s) => ({ ...s, range: { ...s.range, minSpeedMs: v } }));
+                }}
+              />
             </div>
             <div>
-              <label htmlFor="range-max" className="field-label">To ({u})</label>
-              <input id="range-max" type="number" className="field-input num" disabled={locked} step={step} value={Number(rangeMax.toFixed(1))}
-                onChange={(e) => { const v = speedFromUnit(Number(e.target.value), unit); if (v > range.minSpeedMs && v <= 500) setSpec((s) => ({ ...s, range: { ...s.range, maxSpeedMs: v } })); }} />
+              <label htmlFor="range-max" className="field-label">
+                To ({u})
+              </label>
+              <input
+                id="range-max"
+                type="number"
+                className="field-input num"
+                disabled={locked}
+                step={step}
+                value={Number(rangeMax.toFixed(1))}
+                onChange={(e) => {
+                  const v = speedFromUnit(Number(e.target.value), unit);
+                  if (v > range.minSpeedMs && v <= 500) setSpec((s) => ({ ...s, range: { ...s.range, maxSpeedMs: v } }));
+                }}
+              />
             </div>
           </div>
           <div>
-            <label htmlFor="chosen" className="field-label">Chosen speed: <span className="num">{formatSpeed(chosenSpeedMs, unit)}</span></label>
-            <input id="chosen" type="range" className="mt-1 block min-h-touch w-full" disabled={locked} min={rangeMin} max={rangeMax} step={step} value={speedInUnit(chosenSpeedMs, unit)}
-              onChange={(e) => setSpec((s) => ({ ...s, chosenSpeedMs: speedFromUnit(Number(e.target.value), unit) }))} />
+            <label htmlFor="chosen" className="field-label">
+              Chosen speed: <span className="num">{formatSpeed(chosenSpeedMs, unit)}</span>
+            </label>
+            <input
+              id="chosen"
+              type="range"
+              className="mt-1 block min-h-touch w-full"
+              disabled={locked}
+              min={rangeMin}
+              max={rangeMax}
+              step={step}
+              value={speedInUnit(chosenSpeedMs, unit)}
+              onChange={(e) => setSpec((s) => ({ ...s, chosenSpeedMs: speedFromUnit(Number(e.target.value), unit) }))}
+            />
           </div>
         </div>
       </div>
       {mode === "builder" && (
         <div className="grid gap-3 md:grid-cols-[16rem_1fr]">
           <div>
-            <label htmlFor="call-kind" className="field-label">Call it first (students)</label>
-            <select id="call-kind" className="field-input" value={callKind ?? ""} onChange={(e) => setSpec((s) => ({ ...s, callKind: e.target.value === "" ? null : (e.target.value as CallKind) }))}>
+            <label htmlFor="call-kind" className="field-label">
+              Call it first (students)
+            </label>
+            <select
+              id="call-kind"
+              className="field-input"
+              value={callKind ?? ""}
+              onChange={(e) => setSpec((s) => ({ ...s, callKind: e.target.value === "" ? null : (e.target.value as CallKind) }))}
+            >
               <option value="">No call</option>
               <option value="vmd">Where is Vmd?</option>
               <option value="stall">Where is the stall speed?</option>
               <option value="gust">Where does the speed settle after a gust?</option>
             </select>
-            {answerText && <p className="mt-1 text-caption text-ink-soft">Answer for case 1 now: <span className="num">{answerText}</span></p>}
+            {answerText && (
+              <p className="mt-1 text-caption text-ink-soft">
+                Answer for case 1 now: <span className="num">{answerText}</span>
+              </p>
+            )}
           </div>
           <div>
-            <label htmlFor="notes" className="field-label">Teaching notes</label>
-            <textarea id="notes" className="field-input min-h-24 py-2" maxLength={4000} value={notes} onChange={(e) => setSpec((s) => ({ ...s, notes: e.target.value }))} />
+            <label htmlFor="notes" className="field-label">
+              Teaching notes
+            </label>
+            <textarea
+              id="notes"
+              className="field-input min-h-24 py-2"
+              maxLength={4000}
+              value={notes}
+              onChange={(e) => setSpec((s) => ({ ...s, notes: e.target.value }))}
+            />
           </div>
         </div>
       )}
       {mode === "student" && notes && (
-        <div><h3 className="field-label">Notes from your instructor</h3><p className="whitespace-pre-wrap">{notes}</p></div>
+        <div>
+          <h3 className="field-label">Notes from your instructor</h3>
+          <p className="whitespace-pre-wrap">{notes}</p>
+        </div>
       )}
     </section>
   );
@@ -516,7 +861,17 @@ const Legend = memo(function Legend({ labels, curves, hidden }: { labels: string
       {labels.map((label, i) =>
         CURVE_KEYS.filter((k) => curves[k] && !hidden.includes(k)).map((k) => (
           <li key={`${i}-${k}`} className="flex items-center gap-2">
-            <svg width="28" height="8" aria-hidden="true"><line x1="0" y1="4" x2="28" y2="4" stroke={CASE_COLOURS[i]} strokeWidth={k === "total" ? 3.5 : 2.5} strokeDasharray={CURVE_DASH[k].join(" ")} /></svg>
+            <svg width="28" height="8" aria-hidden="true">
+              <line
+                x1="0"
+                y1="4"
+                x2="28"
+                y2="4"
+                stroke={CASE_COLOURS[i]}
+                strokeWidth={k === "total" ? 3.5 : 2.5}
+                strokeDasharray={CURVE_DASH[k].join(" ")}
+              />
+            </svg>
             {label}: {CURVE_LABELS[k]}
           </li>
         )),

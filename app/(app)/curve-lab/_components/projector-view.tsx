@@ -32,15 +32,24 @@ export function ProjectorView({ name, spec: saved, backHref }: { name: string; s
     return { ...saved, cases, curves };
   }, [saved, allCases, focus, curves]);
   const chartFocus = allCases ? focus : 0;
-  const conceal = useMemo(() => (markers && regions ? null : { regions: !regions, markers: markers ? [] : [...MARKER_KEYS], curves: [] }), [markers, regions]);
+  const conceal = useMemo(
+    () => (markers && regions ? null : { regions: !regions, markers: markers ? [] : [...MARKER_KEYS], curves: [] }),
+    [markers, regions],
+  );
 
   // Rendered over everything, straight into <body>; the app shell behind it is made inert so
   // keyboard focus cannot wander into hidden navigation.
-  const mounted = useSyncExternalStore(noSubscription, () => true, () => false);
+  const mounted = useSyncExternalStore(
+    noSubscription,
+    () => true,
+    () => false,
+  );
   const host = mounted ? document.body : null;
   useEffect(() => {
     if (!host || !root.current) return;
-    const others = Array.from(host.children).filter((el): el is HTMLElement => el instanceof HTMLElement && el !== root.current && !el.inert);
+    const others = Array.from(host.children).filter(
+      (el): el is HTMLElement => el instanceof HTMLElement && el !== root.current && !el.inert,
+    );
     for (const el of others) el.inert = true;
     root.current.focus();
     return () => {
@@ -80,38 +89,75 @@ export function ProjectorView({ name, spec: saved, backHref }: { name: string; s
 
   if (!host) return null;
   return createPortal(
-    <div ref={root} tabIndex={0} role="region" aria-label="Projector view" data-testid="projector" className="fixed inset-0 z-50 flex flex-col gap-3 overflow-auto bg-board-950 p-6 text-[28px] leading-snug text-chalk outline-none">
+    <div
+      ref={root}
+      tabIndex={0}
+      role="region"
+      aria-label="Projector view"
+      data-testid="projector"
+      className="fixed inset-0 z-50 flex flex-col gap-3 overflow-auto bg-board-950 p-6 text-[28px] leading-snug text-chalk outline-none"
+    >
       <header className="flex flex-wrap items-baseline justify-between gap-x-8 gap-y-2">
         <h1 className="text-[40px] font-bold">{name}</h1>
         <p className="flex flex-wrap items-baseline gap-x-6" data-testid="projector-readout">
-          <span><span aria-hidden="true" className="mr-2 inline-block h-5 w-5 rounded-full align-middle" style={{ background: CASE_COLOURS[focus] }} />{c.label}</span>
+          <span>
+            <span
+              aria-hidden="true"
+              className="mr-2 inline-block h-5 w-5 rounded-full align-middle"
+              style={{ background: CASE_COLOURS[focus] }}
+            />
+            {c.label}
+          </span>
           <span className="num">Vmd {formatSpeed(fig.vmdMs, unit)}</span>
           <span className="num">Vmp {formatSpeed(fig.vmpMs, unit)}</span>
           <span className="num">stall {formatSpeed(fig.stallMs, unit)}</span>
           <span className="num">(L/D)max {fig.maxLiftToDrag.toFixed(1)}</span>
         </p>
       </header>
-      <CurveChart spec={spec} focus={chartFocus} variant="projector" conceal={conceal} className="min-h-[26rem] flex-1" label={`Drag against speed, ${name}`} />
+      <CurveChart
+        spec={spec}
+        focus={chartFocus}
+        variant="projector"
+        conceal={conceal}
+        className="min-h-[26rem] flex-1"
+        label={`Drag against speed, ${name}`}
+      />
       <footer className="grid gap-3 lg:grid-cols-[1fr_auto]">
         <div className="space-y-1">
-          <p><strong className="text-[#f2c27a]">Below Vmd, speed-unstable:</strong> a gust&apos;s speed change grows.</p>
-          <p><strong className="text-[#8fe0d4]">Above Vmd, speed-stable:</strong> the speed comes back.</p>
+          <p>
+            <strong className="text-[#f2c27a]">Below Vmd, speed-unstable:</strong> a gust&apos;s speed change grows.
+          </p>
+          <p>
+            <strong className="text-[#8fe0d4]">Above Vmd, speed-stable:</strong> the speed comes back.
+          </p>
           <p className="text-chalk-dim">{AXIS_ASSUMPTION}</p>
           <Caution className="text-[28px]! leading-snug!" />
         </div>
         <section aria-label="Keys" className="rounded-card border-2 border-board-600 p-3" data-testid="key-legend">
           <h2 className="sr-only">Keys</h2>
           <dl className="grid grid-cols-[auto_1fr] gap-x-4 xl:grid-cols-[auto_1fr_auto_1fr]">
-            <dt className="font-mono">← →</dt><dd>step through the cases</dd>
-            <dt className="font-mono">1–4</dt><dd>go to a case</dd>
-            <dt className="font-mono">A</dt><dd>all cases / this case only</dd>
+            <dt className="font-mono">← →</dt>
+            <dd>step through the cases</dd>
+            <dt className="font-mono">1–4</dt>
+            <dd>go to a case</dd>
+            <dt className="font-mono">A</dt>
+            <dd>all cases / this case only</dd>
             {CURVE_SHORTCUTS.map(([k, curve]) => (
-              <div key={k} className="contents"><dt className="font-mono">{k.toUpperCase()}</dt><dd>{CURVE_LABELS[curve]} {curves[curve] ? "on" : "off"}</dd></div>
+              <div key={k} className="contents">
+                <dt className="font-mono">{k.toUpperCase()}</dt>
+                <dd>
+                  {CURVE_LABELS[curve]} {curves[curve] ? "on" : "off"}
+                </dd>
+              </div>
             ))}
-            <dt className="font-mono">M</dt><dd>markers {markers ? "on" : "off"}</dd>
-            <dt className="font-mono">R</dt><dd>stable/unstable regions {regions ? "on" : "off"}</dd>
-            <dt className="font-mono">F</dt><dd>full screen</dd>
-            <dt className="font-mono">Q</dt><dd>leave the Projector view</dd>
+            <dt className="font-mono">M</dt>
+            <dd>markers {markers ? "on" : "off"}</dd>
+            <dt className="font-mono">R</dt>
+            <dd>stable/unstable regions {regions ? "on" : "off"}</dd>
+            <dt className="font-mono">F</dt>
+            <dd>full screen</dd>
+            <dt className="font-mono">Q</dt>
+            <dd>leave the Projector view</dd>
           </dl>
         </section>
       </footer>

@@ -6,9 +6,15 @@ import { airframeFormSchema } from "./_lib/airframe-schema";
 
 /** Creates an aircraft profile from the form (any units); nothing is written when a field is wrong. */
 export async function createAirframeAction(input: unknown) {
-  return runAction("airframes.edit", airframeFormSchema, input, async (data, { user, t }) => createAirframe(user.schoolId, user.id, data, t), {
-    idempotent: "airframe.create",
-  });
+  return runAction(
+    "airframes.edit",
+    airframeFormSchema,
+    input,
+    async (data, { user, t }) => createAirframe(user.schoolId, user.id, data, t),
+    {
+      idempotent: "airframe.create",
+    },
+  );
 }
 
 const idSchema = z.object({ airframeId: z.string().uuid("airframeId: not an aircraft profile id") });
@@ -23,7 +29,9 @@ export async function updateAirframeAction(input: unknown) {
 }
 
 export async function duplicateAirframeAction(input: unknown) {
-  return runAction("airframes.edit", idSchema, input, async ({ airframeId }, { user, t }) => duplicateAirframe(user.schoolId, airframeId, user.id, t));
+  return runAction("airframes.edit", idSchema, input, async ({ airframeId }, { user, t }) =>
+    duplicateAirframe(user.schoolId, airframeId, user.id, t),
+  );
 }
 
 export async function retireAirframeAction(input: unknown) {

@@ -12,14 +12,22 @@ export default async function AirframesPage() {
   const user = await requirePagePermission("airframes.view", "/curve-lab/airframes");
   return (
     <div className="space-y-4">
-      <nav aria-label="Breadcrumb" className="text-caption"><Link href="/curve-lab">Curve Lab</Link> / Airframes</nav>
+      <nav aria-label="Breadcrumb" className="text-caption">
+        <Link href="/curve-lab">Curve Lab</Link> / Airframes
+      </nav>
       <div className="flex flex-wrap items-center justify-between gap-3">
         <h1 className="text-display">Airframes</h1>
-        {can(user, "airframes.edit") && <Link href="/curve-lab/airframes/new" className="btn-primary">New profile</Link>}
+        {can(user, "airframes.edit") && (
+          <Link href="/curve-lab/airframes/new" className="btn-primary">
+            New profile
+          </Link>
+        )}
       </div>
       <Caution />
       <p className="text-caption text-ink-soft">{AXIS_ASSUMPTION}</p>
-      <section className="card" aria-label="Aircraft profiles"><AirframeList /></section>
+      <section className="card" aria-label="Aircraft profiles">
+        <AirframeList />
+      </section>
     </div>
   );
 }

@@ -5,7 +5,17 @@ import { scheduleMakeupAction, closeMakeupAction, waiveMakeupAction } from "../a
 import { makeupCloseSchema, makeupWaiveSchema } from "@/lib/timetable/schemas";
 
 /** Plan, close or waive one make-up item. */
-export function MakeupActions({ itemId, state, canWaive, sessions }: { itemId: string; state: "open" | "scheduled"; canWaive: boolean; sessions: { id: string; label: string }[] }) {
+export function MakeupActions({
+  itemId,
+  state,
+  canWaive,
+  sessions,
+}: {
+  itemId: string;
+  state: "open" | "scheduled";
+  canWaive: boolean;
+  sessions: { id: string; label: string }[];
+}) {
   const router = useRouter();
   const [mode, setMode] = useState<"none" | "plan" | "close" | "waive">("none");
   const [value, setValue] = useState("");
@@ -34,9 +44,26 @@ export function MakeupActions({ itemId, state, canWaive, sessions }: { itemId: s
   if (mode === "none") {
     return (
       <div className="flex flex-wrap gap-2">
-        {state === "open" && sessions.length > 0 && <button type="button" className="btn-quiet" onClick={() => { setMode("plan"); setValue(sessions[0]!.id); }}>Plan into a session</button>}
-        <button type="button" className="btn-quiet" onClick={() => setMode("close")}>Mark done</button>
-        {canWaive && <button type="button" className="btn-quiet" onClick={() => setMode("waive")}>Waive</button>}
+        {state === "open" && sessions.length > 0 && (
+          <button
+            type="button"
+            className="btn-quiet"
+            onClick={() => {
+              setMode("plan");
+              setValue(sessions[0]!.id);
+            }}
+          >
+            Plan into a session
+          </button>
+        )}
+        <button type="button" className="btn-quiet" onClick={() => setMode("close")}>
+          Mark done
+        </button>
+        {canWaive && (
+          <button type="button" className="btn-quiet" onClick={() => setMode("waive")}>
+            Waive
+          </button>
+        )}
       </div>
     );
   }
@@ -44,37 +71,62 @@ export function MakeupActions({ itemId, state, canWaive, sessions }: { itemId: s
     <form onSubmit={submit} className="min-w-60 space-y-2" noValidate>
       {mode === "plan" && (
         <div>
-          <label htmlFor={`mk-s-${itemId}`} className="field-label">Session</label>
+          <label htmlFor={`mk-s-${itemId}`} className="field-label">
+            Session
+          </label>
           <select id={`mk-s-${itemId}`} className="field-input" value={value} onChange={(e) => setValue(e.target.value)}>
-            {sessions.map((s) => <option key={s.id} value={s.id}>{s.label}</option>)}
+            {sessions.map((s) => (
+              <option key={s.id} value={s.id}>
+                {s.label}
+              </option>
+            ))}
           </select>
         </div>
       )}
       {mode === "close" && (
         <>
           <div>
-            <label htmlFor={`mk-h-${itemId}`} className="field-label">Made up by</label>
-            <select id={`mk-h-${itemId}`} className="field-input" value={how} onChange={(e) => setHow(e.target.value as "one_to_one" | "oral_check")}>
+            <label htmlFor={`mk-h-${itemId}`} className="field-label">
+              Made up by
+            </label>
+            <select
+              id={`mk-h-${itemId}`}
+              className="field-input"
+              value={how}
+              onChange={(e) => setHow(e.target.value as "one_to_one" | "oral_check")}
+            >
               <option value="one_to_one">A one-to-one briefing</option>
               <option value="oral_check">Self-study, closed by an oral check</option>
             </select>
           </div>
           <div>
-            <label htmlFor={`mk-n-${itemId}`} className="field-label">Note (optional)</label>
+            <label htmlFor={`mk-n-${itemId}`} className="field-label">
+              Note (optional)
+            </label>
             <input id={`mk-n-${itemId}`} className="field-input" value={value} onChange={(e) => setValue(e.target.value)} />
           </div>
         </>
       )}
       {mode === "waive" && (
         <div>
-          <label htmlFor={`mk-w-${itemId}`} className="field-label">Reason for the waiver</label>
+          <label htmlFor={`mk-w-${itemId}`} className="field-label">
+            Reason for the waiver
+          </label>
           <input id={`mk-w-${itemId}`} className="field-input" value={value} onChange={(e) => setValue(e.target.value)} />
         </div>
       )}
-      {msg && <p role="alert" className="field-error">{msg}</p>}
+      {msg && (
+        <p role="alert" className="field-error">
+          {msg}
+        </p>
+      )}
       <div className="flex gap-2">
-        <button type="submit" className="btn-primary">Save</button>
-        <button type="button" className="btn-quiet" onClick={() => setMode("none")}>Back</button>
+        <button type="submit" className="btn-primary">
+          Save
+        </button>
+        <button type="button" className="btn-quiet" onClick={() => setMode("none")}>
+          Back
+        </button>
       </div>
     </form>
   );

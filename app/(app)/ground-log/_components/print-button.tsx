@@ -1,4 +1,8 @@
 "use client";
 export function PrintButton() {
-  return <button type="button" className="btn-quiet" onClick={() => window.print()}>Print</button>;
+  return (
+    <button type="button" className="btn-quiet" onClick={() => window.print()}>
+      Print
+    </button>
+  );
 }

@@ -10,8 +10,12 @@ export function MailTabs({ current, show }: { current: (typeof TABS)[number]["hr
   return (
     <nav aria-label="Mail pages" className="flex flex-wrap gap-2">
       {TABS.filter((t) => show.includes(t.href)).map((t) => (
-        <Link key={t.href} href={t.href} aria-current={t.href === current ? "page" : undefined}
-          className={t.href === current ? "btn bg-wing-700 text-white" : "btn-quiet"}>
+        <Link
+          key={t.href}
+          href={t.href}
+          aria-current={t.href === current ? "page" : undefined}
+          className={t.href === current ? "btn bg-wing-700 text-white" : "btn-quiet"}
+        >
           {t.label}
         </Link>
       ))}

@@ -14,7 +14,11 @@ export function NoteForm({ students }: { students: { id: string; name: string }[
     const f = new FormData(e.currentTarget);
     setBusy(true);
     setStatus(null);
-    const res = await addSponsorNoteAction({ studentId: String(f.get("studentId") ?? ""), body: String(f.get("body") ?? ""), idempotencyKey: keyRef.current });
+    const res = await addSponsorNoteAction({
+      studentId: String(f.get("studentId") ?? ""),
+      body: String(f.get("body") ?? ""),
+      idempotencyKey: keyRef.current,
+    });
     setBusy(false);
     if (res.ok) {
       setErrors({});
@@ -30,23 +34,58 @@ export function NoteForm({ students }: { students: { id: string; name: string }[
   return (
     <form ref={formRef} onSubmit={onSubmit} noValidate className="card space-y-4">
       <div>
-        <label htmlFor="studentId" className="field-label">Student</label>
-        <select id="studentId" name="studentId" defaultValue="" className="field-input"
-          aria-invalid={errors.studentId ? true : undefined} aria-describedby={errors.studentId ? "studentId-error" : undefined}>
-          <option value="" disabled>Choose a student</option>
-          {students.map((s) => <option key={s.id} value={s.id}>{s.name}</option>)}
+        <label htmlFor="studentId" className="field-label">
+          Student
+        </label>
+        <select
+          id="studentId"
+          name="studentId"
+          defaultValue=""
+          className="field-input"
+          aria-invalid={errors.studentId ? true : undefined}
+          aria-describedby={errors.studentId ? "studentId-error" : undefined}
+        >
+          <option value="" disabled>
+            Choose a student
+          </option>
+          {students.map((s) => (
+            <option key={s.id} value={s.id}>
+              {s.name}
+            </option>
+          ))}
         </select>
-        {errors.studentId && <p id="studentId-error" className="field-error">{errors.studentId[0]}</p>}
+        {errors.studentId && (
+          <p id="studentId-error" className="field-error">
+            {errors.studentId[0]}
+          </p>
+        )}
       </div>
       <div>
-        <label htmlFor="body" className="field-label">Note for the sponsors</label>
-        <textarea id="body" name="body" rows={4} maxLength={2000} className="field-input py-2"
-          aria-invalid={errors.body ? true : undefined} aria-describedby={errors.body ? "body-error" : undefined} />
-        {errors.body && <p id="body-error" className="field-error">{errors.body[0]}</p>}
+        <label htmlFor="body" className="field-label">
+          Note for the sponsors
+        </label>
+        <textarea
+          id="body"
+          name="body"
+          rows={4}
+          maxLength={2000}
+          className="field-input py-2"
+          aria-invalid={errors.body ? true : undefined}
+          aria-describedby={errors.body ? "body-error" : undefined}
+        />
+        {errors.body && (
+          <p id="body-error" className="field-error">
+            {errors.body[0]}
+          </p>
+        )}
       </div>
       <div className="flex flex-wrap items-center gap-4">
-        <button type="submit" disabled={busy} className="btn-primary">{busy ? "Saving…" : "Save note"}</button>
-        <p aria-live="polite" role="status" data-testid="note-status">{status}</p>
+        <button type="submit" disabled={busy} className="btn-primary">
+          {busy ? "Saving…" : "Save note"}
+        </button>
+        <p aria-live="polite" role="status" data-testid="note-status">
+          {status}
+        </p>
       </div>
     </form>
   );

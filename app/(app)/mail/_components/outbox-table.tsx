@@ -36,7 +36,9 @@ export function OutboxTable({ rows, timeZone }: { rows: OutboxListRow[]; timeZon
         <tbody>
           {rows.map((r) => (
             <tr key={r.id}>
-              <td><StateBadge state={r.state} /></td>
+              <td>
+                <StateBadge state={r.state} />
+              </td>
               <td className="whitespace-nowrap">{r.kind}</td>
               <td className="break-all">{r.to}</td>
               <td>{r.subject}</td>
@@ -45,7 +47,11 @@ export function OutboxTable({ rows, timeZone }: { rows: OutboxListRow[]; timeZon
               <td className="num">{r.attempts}</td>
               <td className="text-caption">
                 {r.lastError ?? "—"}
-                {r.state === "failed" && <div className="mt-1"><RetryButton outboxId={r.id} /></div>}
+                {r.state === "failed" && (
+                  <div className="mt-1">
+                    <RetryButton outboxId={r.id} />
+                  </div>
+                )}
               </td>
             </tr>
           ))}

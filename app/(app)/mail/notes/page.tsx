@@ -16,7 +16,10 @@ export default async function SponsorNotesPage() {
     <div className="max-w-3xl space-y-6">
       <div>
         <h1 className="text-display">Notes for sponsors</h1>
-        <p className="text-ink-soft">A short note about a student for their sponsors. The next Weekly letter carries the latest note of the past seven days. Sponsors read it as written: keep it plain and kind.</p>
+        <p className="text-ink-soft">
+          A short note about a student for their sponsors. The next Weekly letter carries the latest note of the past seven days. Sponsors
+          read it as written: keep it plain and kind.
+        </p>
       </div>
       {can(user, "mail.tray") && <MailTabs current="/mail/notes" show={["/mail", "/mail/outbox", "/mail/notes"]} />}
       {students.length === 0 ? (
@@ -25,7 +28,9 @@ export default async function SponsorNotesPage() {
         <NoteForm students={students.map((s) => ({ id: s.id, name: s.name }))} />
       )}
       <section aria-labelledby="recent-notes" className="card">
-        <h2 id="recent-notes" className="text-lead font-semibold">Recent notes</h2>
+        <h2 id="recent-notes" className="text-lead font-semibold">
+          Recent notes
+        </h2>
         {notes.length === 0 ? (
           <p className="mt-2 text-ink-soft">No notes yet.</p>
         ) : (
@@ -33,7 +38,8 @@ export default async function SponsorNotesPage() {
             {notes.map((n) => (
               <li key={n.id} className="py-3">
                 <p className="text-caption text-ink-soft">
-                  About <strong className="text-ink">{n.studentName}</strong> · by {n.authorName} · <span className="num">{formatInZone(new Date(n.createdAt), school.timeZone, "d MMM yyyy HH:mm")}</span>
+                  About <strong className="text-ink">{n.studentName}</strong> · by {n.authorName} ·{" "}
+                  <span className="num">{formatInZone(new Date(n.createdAt), school.timeZone, "d MMM yyyy HH:mm")}</span>
                 </p>
                 <p className="mt-1 whitespace-pre-wrap break-words">{n.body}</p>
               </li>

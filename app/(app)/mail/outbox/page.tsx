@@ -22,14 +22,31 @@ export default async function OutboxPage({ searchParams }: { searchParams: Promi
     <div className="space-y-6">
       <div>
         <h1 className="text-display">Outbox</h1>
-        <p className="text-ink-soft">Every mail the school sends passes through here: queued until the worker sends it, then sent; failed after its retries ran out.</p>
+        <p className="text-ink-soft">
+          Every mail the school sends passes through here: queued until the worker sends it, then sent; failed after its retries ran out.
+        </p>
       </div>
       <MailTabs current="/mail/outbox" show={["/mail", "/mail/outbox", "/mail/notes"]} />
-      {!parsed.success && <p role="alert" className="field-error">state: not one of {OUTBOX_STATES.join(", ")}; showing all.</p>}
+      {!parsed.success && (
+        <p role="alert" className="field-error">
+          state: not one of {OUTBOX_STATES.join(", ")}; showing all.
+        </p>
+      )}
       <nav aria-label="Filter by state" className="flex flex-wrap gap-2">
-        <Link href="/mail/outbox" aria-current={!state ? "page" : undefined} className={!state ? "btn bg-wing-700 text-white" : "btn-quiet"}>All</Link>
+        <Link
+          href="/mail/outbox"
+          aria-current={!state ? "page" : undefined}
+          className={!state ? "btn bg-wing-700 text-white" : "btn-quiet"}
+        >
+          All
+        </Link>
         {OUTBOX_STATES.map((s) => (
-          <Link key={s} href={`/mail/outbox?state=${s}`} aria-current={state === s ? "page" : undefined} className={state === s ? "btn bg-wing-700 text-white" : "btn-quiet"}>
+          <Link
+            key={s}
+            href={`/mail/outbox?state=${s}`}
+            aria-current={state === s ? "page" : undefined}
+            className={state === s ? "btn bg-wing-700 text-white" : "btn-quiet"}
+          >
             {s} <span className="num">({counts[s]})</span>
           </Link>
         ))}

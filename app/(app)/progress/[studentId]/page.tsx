@@ -37,40 +37,96 @@ export default async function ProgressPage({ params }: { params: Promise<{ stude
   return (
     <div className="space-y-6">
       <header>
-        <p className="text-caption"><Link className="underline" href="/progress">Progress map</Link></p>
+        <p className="text-caption">
+          <Link className="underline" href="/progress">
+            Progress map
+          </Link>
+        </p>
         <h1 className="text-display">{map.student.name}</h1>
         <p className="text-ink-soft">
           {map.student.courseCode} {map.student.courseTitle} · {map.student.cohortName ?? "no cohort"} · enrolled {map.student.enrolledOn}
-          {map.access !== "sponsor" && <> · <a className="underline" href={`/api/records/${map.student.id}/training-record`}>Training record (PDF)</a></>}
-          {map.access === "staff" && can(user, "checks.record") && <> · <Link className="underline" href={`/records/${map.student.id}`}>Record a check</Link></>}
+          {map.access !== "sponsor" && (
+            <>
+              {" "}
+              ·{" "}
+              <a className="underline" href={`/api/records/${map.student.id}/training-record`}>
+                Training record (PDF)
+              </a>
+            </>
+          )}
+          {map.access === "staff" && can(user, "checks.record") && (
+            <>
+              {" "}
+              ·{" "}
+              <Link className="underline" href={`/records/${map.student.id}`}>
+                Record a check
+              </Link>
+            </>
+          )}
         </p>
       </header>
       <Caution />
       {map.ground && (
         <section className="card" aria-labelledby="ground">
           <h2 id="ground">Ground log</h2>
-          <p className="num text-lead" data-testid="ground-hours">{hoursLabel(map.ground.minutes, map.ground.minimumMinutes)}</p>
-          <div className="mt-1 h-3 w-full overflow-hidden rounded bg-paper-deep" role="img" aria-label={`${Math.round((100 * map.ground.minutes) / Math.max(1, map.ground.minimumMinutes))} % of the minimum ground time`}>
-            <div className="h-full bg-wing-600" style={{ width: `${Math.min(100, (100 * map.ground.minutes) / Math.max(1, map.ground.minimumMinutes))}%` }} />
+          <p className="num text-lead" data-testid="ground-hours">
+            {hoursLabel(map.ground.minutes, map.ground.minimumMinutes)}
+          </p>
+          <div
+            className="mt-1 h-3 w-full overflow-hidden rounded bg-paper-deep"
+            role="img"
+            aria-label={`${Math.round((100 * map.ground.minutes) / Math.max(1, map.ground.minimumMinutes))} % of the minimum ground time`}
+          >
+            <div
+              className="h-full bg-wing-600"
+              style={{ width: `${Math.min(100, (100 * map.ground.minutes) / Math.max(1, map.ground.minimumMinutes))}%` }}
+            />
           </div>
         </section>
       )}
       <section aria-labelledby="grid-title" className="space-y-4">
         <h2 id="grid-title">Syllabus</h2>
         <p className="text-caption text-ink-soft">
-          {(Object.keys(ITEM_STATUS_LABEL) as ItemStatus[]).map((s) => <span key={s} className="mr-3">{STATUS_MARK[s]} {ITEM_STATUS_LABEL[s]}</span>)}
+          {(Object.keys(ITEM_STATUS_LABEL) as ItemStatus[]).map((s) => (
+            <span key={s} className="mr-3">
+              {STATUS_MARK[s]} {ITEM_STATUS_LABEL[s]}
+            </span>
+          ))}
         </p>
         {map.stages.map((s) => (
           <section key={s.stageId} className="card" aria-labelledby={`stage-${s.stageId}`}>
             <h3 id={`stage-${s.stageId}`} className="font-semibold">
-              {s.code} · {s.title} <span className="text-caption font-normal text-ink-soft">· {s.passed ? "stage check passed" : s.ready ? "ready for the stage check" : `waiting for ${s.waitingFor}`} · {s.signedCount} of {s.itemCount} signed</span>
+              {s.code} · {s.title}{" "}
+              <span className="text-caption font-normal text-ink-soft">
+                · {s.passed ? "stage check passed" : s.ready ? "ready for the stage check" : `waiting for ${s.waitingFor}`} ·{" "}
+                {s.signedCount} of {s.itemCount} signed
+              </span>
             </h3>
             <ul className="mt-2 grid gap-2 sm:grid-cols-2 lg:grid-cols-3" data-testid="progress-grid">
               {s.items.map((i) => (
-                <li key={i.id} className={`rounded-md border-2 p-2 ${STATUS_STYLE[i.status]}`} data-testid={`item-${i.code}`} data-status={i.status}>
-                  <p className="font-semibold"><span className="num">{i.code}</span> {i.title}</p>
-                  <p className="text-caption"><span aria-hidden="true">{STATUS_MARK[i.status]} </span>{ITEM_STATUS_LABEL[i.status]}{i.signedOn ? ` ${i.signedOn} (${i.signerName})` : ""}</p>
-                  <p className="text-caption text-ink-soft">Requires {LEVEL_LABEL[i.requiredLevel].toLowerCase()}{i.lastOutcome && <> · last check <OutcomeBadge outcome={i.lastOutcome} /></>}</p>
+                <li
+                  key={i.id}
+                  className={`rounded-md border-2 p-2 ${STATUS_STYLE[i.status]}`}
+                  data-testid={`item-${i.code}`}
+                  data-status={i.status}
+                >
+                  <p className="font-semibold">
+                    <span className="num">{i.code}</span> {i.title}
+                  </p>
+                  <p className="text-caption">
+                    <span aria-hidden="true">{STATUS_MARK[i.status]} </span>
+                    {ITEM_STATUS_LABEL[i.status]}
+                    {i.signedOn ? ` ${i.signedOn} (${i.signerName})` : ""}
+                  </p>
+                  <p className="text-caption text-ink-soft">
+                    Requires {LEVEL_LABEL[i.requiredLevel].toLowerCase()}
+                    {i.lastOutcome && (
+                      <>
+                        {" "}
+                        · last check <OutcomeBadge outcome={i.lastOutcome} />
+                      </>
+                    )}
+                  </p>
                 </li>
               ))}
             </ul>
@@ -87,15 +143,37 @@ export default async function ProgressPage({ params }: { params: Promise<{ stude
         <ul className="mt-2 space-y-3">
           {map.checks.map((c) => (
             <li key={c.id} className="border-b border-paper-edge pb-2" data-testid="progress-check">
-              <p className="font-semibold">{formatInZone(c.occurredAt, school.timeZone, "d MMM yyyy")} · {c.itemCodes.join(", ")} · {CHECK_OUTCOME_LABEL[c.outcome]}{c.withdrawn ? " (withdrawn)" : ""}</p>
-              <p className="text-caption text-ink-soft">with {c.instructorName} · level shown {LEVEL_LABEL[c.levelShown].toLowerCase()}</p>
+              <p className="font-semibold">
+                {formatInZone(c.occurredAt, school.timeZone, "d MMM yyyy")} · {c.itemCodes.join(", ")} · {CHECK_OUTCOME_LABEL[c.outcome]}
+                {c.withdrawn ? " (withdrawn)" : ""}
+              </p>
+              <p className="text-caption text-ink-soft">
+                with {c.instructorName} · level shown {LEVEL_LABEL[c.levelShown].toLowerCase()}
+              </p>
               {c.questions.length > 0 && (
                 <ol className="mt-1 list-decimal pl-5 text-caption">
-                  {c.questions.map((q) => <li key={q.position}>{q.text} <OutcomeBadge outcome={q.outcome} />{q.generated && <> · answer {q.generated.answer.display}</>}</li>)}
+                  {c.questions.map((q) => (
+                    <li key={q.position}>
+                      {q.text} <OutcomeBadge outcome={q.outcome} />
+                      {q.generated && <> · answer {q.generated.answer.display}</>}
+                    </li>
+                  ))}
                 </ol>
               )}
-              {c.remarks && <p className="text-caption"><span className="font-semibold">Remarks (internal):</span> {c.remarks}</p>}
-              {isSelf && !c.withdrawn && (c.acknowledgedAt ? <p className="text-caption">You acknowledged this debrief on {formatInZone(c.acknowledgedAt, school.timeZone, "d MMM yyyy")}.</p> : <AcknowledgeButton checkId={c.id} />)}
+              {c.remarks && (
+                <p className="text-caption">
+                  <span className="font-semibold">Remarks (internal):</span> {c.remarks}
+                </p>
+              )}
+              {isSelf &&
+                !c.withdrawn &&
+                (c.acknowledgedAt ? (
+                  <p className="text-caption">
+                    You acknowledged this debrief on {formatInZone(c.acknowledgedAt, school.timeZone, "d MMM yyyy")}.
+                  </p>
+                ) : (
+                  <AcknowledgeButton checkId={c.id} />
+                ))}
             </li>
           ))}
         </ul>

@@ -10,14 +10,23 @@ export function AcknowledgeButton({ checkId }: { checkId: string }) {
   const router = useRouter();
   return (
     <span className="mt-1 inline-flex flex-wrap items-center gap-2">
-      <button type="button" className="btn-quiet" disabled={pending} onClick={() => start(async () => {
-        const r = await acknowledgeCheckAction({ checkId });
-        setMessage(r.ok ? "Acknowledged" : r.message);
-        router.refresh();
-      })}>
+      <button
+        type="button"
+        className="btn-quiet"
+        disabled={pending}
+        onClick={() =>
+          start(async () => {
+            const r = await acknowledgeCheckAction({ checkId });
+            setMessage(r.ok ? "Acknowledged" : r.message);
+            router.refresh();
+          })
+        }
+      >
         I have had the debrief
       </button>
-      <span aria-live="polite" className="text-caption">{message}</span>
+      <span aria-live="polite" className="text-caption">
+        {message}
+      </span>
     </span>
   );
 }

@@ -20,13 +20,33 @@ export function OutcomeChart({ data }: { data: { date: string; solid: number; sh
               { label: "Not yet", data: data.map((d) => d.notYet), backgroundColor: "#b8324f" },
             ],
           }}
-          options={{ maintainAspectRatio: false, responsive: true, scales: { x: { stacked: true }, y: { stacked: true, ticks: { precision: 0 }, title: { display: true, text: "questions" } } } }}
+          options={{
+            maintainAspectRatio: false,
+            responsive: true,
+            scales: { x: { stacked: true }, y: { stacked: true, ticks: { precision: 0 }, title: { display: true, text: "questions" } } },
+          }}
         />
       </div>
       <figcaption className="mt-2 overflow-x-auto" tabIndex={0} aria-label="Outcomes per date">
         <table className="data-table text-caption">
-          <thead><tr><th scope="col">Date</th><th scope="col">Solid</th><th scope="col">Shaky</th><th scope="col">Not yet</th></tr></thead>
-          <tbody>{data.map((d) => <tr key={d.date}><td className="num">{d.date}</td><td className="num">{d.solid}</td><td className="num">{d.shaky}</td><td className="num">{d.notYet}</td></tr>)}</tbody>
+          <thead>
+            <tr>
+              <th scope="col">Date</th>
+              <th scope="col">Solid</th>
+              <th scope="col">Shaky</th>
+              <th scope="col">Not yet</th>
+            </tr>
+          </thead>
+          <tbody>
+            {data.map((d) => (
+              <tr key={d.date}>
+                <td className="num">{d.date}</td>
+                <td className="num">{d.solid}</td>
+                <td className="num">{d.shaky}</td>
+                <td className="num">{d.notYet}</td>
+              </tr>
+            ))}
+          </tbody>
         </table>
       </figcaption>
     </figure>

@@ -34,7 +34,10 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
   const progress = await progressFor(user, student.id, { asExaminer: true }).catch(() => null);
   if (!progress) notFound();
   const aircraft = await listQuestionAircraft(user.schoolId, undefined, student.id);
-  const sessions = (await recentSessionsOf(student.id, user.schoolId)).map((x) => ({ id: x.id, label: `${formatInZone(x.startsAt, school.timeZone, "d MMM HH:mm")} · ${x.title}` }));
+  const sessions = (await recentSessionsOf(student.id, user.schoolId)).map((x) => ({
+    id: x.id,
+    label: `${formatInZone(x.startsAt, school.timeZone, "d MMM HH:mm")} · ${x.title}`,
+  }));
   const signed = new Map((await currentSignOffs(student.id)).map((s) => [s.itemId, s]));
   const openStages = progress.stages.filter((s, i) => !s.passed && (i === 0 || progress.stages[i - 1]!.passed));
   const openItems = openStages.flatMap((s) => s.items);
@@ -46,7 +49,8 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
           const p = await planSignOff(user, { studentId: student.id, itemId: i.id });
           return { item: i, statement: p.statement, refusal: null as string | null };
         } catch (e) {
-          if (e instanceof RecordRefusal || e instanceof HttpError) return { item: i, statement: null, refusal: e.message.replace(/^[\w.]+: /, "") };
+          if (e instanceof RecordRefusal || e instanceof HttpError)
+            return { item: i, statement: null, refusal: e.message.replace(/^[\w.]+: /, "") };
           throw e;
         }
       }),
@@ -56,11 +60,22 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
   return (
     <div className="space-y-6">
       <header>
-        <p className="text-caption"><Link className="underline" href="/records">Records</Link> / {student.name}</p>
+        <p className="text-caption">
+          <Link className="underline" href="/records">
+            Records
+          </Link>{" "}
+          / {student.name}
+        </p>
         <h1 className="text-display">{student.name}</h1>
         <p className="text-ink-soft">
-          {student.courseCode} · {student.cohortName ?? "no cohort"} · lead {student.leadInstructorName ?? "—"} · <Link className="underline" href={`/progress/${student.id}`}>Progress map</Link> ·{" "}
-          <a className="underline" href={`/api/records/${student.id}/training-record`}>Training record (PDF)</a>
+          {student.courseCode} · {student.cohortName ?? "no cohort"} · lead {student.leadInstructorName ?? "—"} ·{" "}
+          <Link className="underline" href={`/progress/${student.id}`}>
+            Progress map
+          </Link>{" "}
+          ·{" "}
+          <a className="underline" href={`/api/records/${student.id}/training-record`}>
+            Training record (PDF)
+          </a>
         </p>
       </header>
       <Caution />
@@ -84,11 +99,18 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
           <ul className="space-y-3" data-testid="recent-outcomes">
             {recent.map((c) => (
               <li key={c.id} className="border-b border-paper-edge pb-2">
-                <p className="text-caption text-ink-soft num">{formatInZone(c.occurredAt, school.timeZone, "d MMM yyyy HH:mm")} · {c.instructorName}</p>
-                <p className="font-semibold">{c.itemCodes.join(", ")} · {CHECK_OUTCOME_LABEL[c.outcome]}{c.withdrawn ? " (withdrawn)" : c.amendedBy ? " (amended)" : ""}</p>
+                <p className="text-caption text-ink-soft num">
+                  {formatInZone(c.occurredAt, school.timeZone, "d MMM yyyy HH:mm")} · {c.instructorName}
+                </p>
+                <p className="font-semibold">
+                  {c.itemCodes.join(", ")} · {CHECK_OUTCOME_LABEL[c.outcome]}
+                  {c.withdrawn ? " (withdrawn)" : c.amendedBy ? " (amended)" : ""}
+                </p>
                 <ul className="mt-1 flex flex-wrap gap-1">
                   {c.questions.map((q) => (
-                    <li key={q.position}><OutcomeBadge outcome={q.outcome} prefix={q.itemCode} /></li>
+                    <li key={q.position}>
+                      <OutcomeBadge outcome={q.outcome} prefix={q.itemCode} />
+                    </li>
                   ))}
                 </ul>
               </li>
@@ -101,7 +123,13 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
         <h2 id="signoffs">Sign-offs</h2>
         <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Sign-offs">
           <table className="data-table">
-            <thead><tr><th scope="col">Item</th><th scope="col">Status</th><th scope="col">Sign-off</th></tr></thead>
+            <thead>
+              <tr>
+                <th scope="col">Item</th>
+                <th scope="col">Status</th>
+                <th scope="col">Sign-off</th>
+              </tr>
+            </thead>
             <tbody>
               {progress.stages.flatMap((s) =>
                 s.items.map((i) => {
@@ -109,12 +137,21 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
                   const plan = plans.find((p) => p.item.id === i.id);
                   return (
                     <tr key={i.id}>
-                      <td><span className="num font-semibold">{i.code}</span> {i.title}<br /><span className="text-caption text-ink-soft">requires {LEVEL_LABEL[i.requiredLevel].toLowerCase()}</span></td>
-                      <td>{ITEM_STATUS_LABEL[i.status]}{i.lastOutcome && <> · last {OUTCOME_LABEL[i.lastOutcome]}</>}</td>
+                      <td>
+                        <span className="num font-semibold">{i.code}</span> {i.title}
+                        <br />
+                        <span className="text-caption text-ink-soft">requires {LEVEL_LABEL[i.requiredLevel].toLowerCase()}</span>
+                      </td>
+                      <td>
+                        {ITEM_STATUS_LABEL[i.status]}
+                        {i.lastOutcome && <> · last {OUTCOME_LABEL[i.lastOutcome]}</>}
+                      </td>
                       <td>
                         {so ? (
                           <div className="space-y-1">
-                            <p>Signed for {so.signedOn} by {so.signerName}</p>
+                            <p>
+                              Signed for {so.signedOn} by {so.signerName}
+                            </p>
                             {can(user, "records.amend") && (
                               <div className="flex flex-wrap gap-2">
                                 <WithdrawButton kind="signOff" id={so.id} label={`Withdraw sign-off of ${i.code}`} />
@@ -123,9 +160,13 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
                             )}
                           </div>
                         ) : plan?.statement ? (
-                          can(user, "records.sign") ? <SignOffPanel studentId={student.id} itemId={i.id} itemCode={i.code} statement={plan.statement} /> : null
+                          can(user, "records.sign") ? (
+                            <SignOffPanel studentId={student.id} itemId={i.id} itemCode={i.code} statement={plan.statement} />
+                          ) : null
                         ) : plan?.refusal ? (
-                          <p className="text-caption text-ink-soft" data-testid={`refusal-${i.code}`}>Not yet signable: {plan.refusal}</p>
+                          <p className="text-caption text-ink-soft" data-testid={`refusal-${i.code}`}>
+                            Not yet signable: {plan.refusal}
+                          </p>
                         ) : (
                           <p className="text-caption text-ink-soft">{s.passed ? "Stage passed" : "Stage not open"}</p>
                         )}
@@ -145,8 +186,16 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
           {progress.stages.map((s) => (
             <li key={s.stageId} className="space-y-2">
               <p>
-                <span className="font-semibold">{s.code} · {s.title}</span>: {s.passed ? "passed" : s.ready ? "ready for its stage check" : `waiting for ${s.waitingFor}`}
-                {s.attempts.length > 0 && <span className="text-caption text-ink-soft"> · attempts: {s.attempts.map((a) => `${a.attempt} ${a.result} (${a.examinerName})`).join(", ")}</span>}
+                <span className="font-semibold">
+                  {s.code} · {s.title}
+                </span>
+                : {s.passed ? "passed" : s.ready ? "ready for its stage check" : `waiting for ${s.waitingFor}`}
+                {s.attempts.length > 0 && (
+                  <span className="text-caption text-ink-soft">
+                    {" "}
+                    · attempts: {s.attempts.map((a) => `${a.attempt} ${a.result} (${a.examinerName})`).join(", ")}
+                  </span>
+                )}
               </p>
               {s.ready && can(user, "stagechecks.conduct") && canExamine && (
                 <StageCheckForm
@@ -170,12 +219,23 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
           {progress.checks.map((c) => (
             <li key={c.id} className="border-b border-paper-edge pb-3" data-testid="check-history">
               <p className="font-semibold">
-                {formatInZone(c.occurredAt, school.timeZone, "d MMM yyyy HH:mm")} · {c.itemCodes.join(", ")} · {CHECK_OUTCOME_LABEL[c.outcome]} · level {LEVEL_LABEL[c.levelShown].toLowerCase()} · {c.durationMinutes} min · {c.instructorName}
+                {formatInZone(c.occurredAt, school.timeZone, "d MMM yyyy HH:mm")} · {c.itemCodes.join(", ")} ·{" "}
+                {CHECK_OUTCOME_LABEL[c.outcome]} · level {LEVEL_LABEL[c.levelShown].toLowerCase()} · {c.durationMinutes} min ·{" "}
+                {c.instructorName}
               </p>
-              {c.withdrawn && <p className="text-notyet-800">Withdrawn by {c.withdrawn.byName}: {c.withdrawn.reason}</p>}
+              {c.withdrawn && (
+                <p className="text-notyet-800">
+                  Withdrawn by {c.withdrawn.byName}: {c.withdrawn.reason}
+                </p>
+              )}
               {c.amends && <p className="text-caption">Amends an earlier check: {c.amends.reason}</p>}
               {c.amendedBy && <p className="text-caption">Amended by a later check.</p>}
-              <p className="text-caption text-ink-soft">Recorded {formatInZone(c.recordedAt, school.timeZone, "d MMM yyyy HH:mm")}{c.acknowledgedAt ? ` · debrief acknowledged ${formatInZone(c.acknowledgedAt, school.timeZone, "d MMM yyyy")}` : " · debrief not yet acknowledged"}</p>
+              <p className="text-caption text-ink-soft">
+                Recorded {formatInZone(c.recordedAt, school.timeZone, "d MMM yyyy HH:mm")}
+                {c.acknowledgedAt
+                  ? ` · debrief acknowledged ${formatInZone(c.acknowledgedAt, school.timeZone, "d MMM yyyy")}`
+                  : " · debrief not yet acknowledged"}
+              </p>
               <ol className="mt-1 list-decimal space-y-1 pl-5">
                 {c.questions.map((q) => (
                   <li key={q.position}>
@@ -184,12 +244,23 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
                     {q.correctiveGiven && <span className="text-caption"> · corrective instruction given</span>}
                     {!q.required && <span className="text-caption"> · not a required element</span>}
                     {q.answerSummary && <span className="block text-caption text-ink-soft">Answer: {q.answerSummary}</span>}
-                    {q.generated && <span className="block text-caption text-ink-soft">Computed answer: {q.generated.answer.display} (lib/aero {q.generated.libraryVersion}{q.studentFigure !== null ? `; student said ${q.studentFigure}` : ""})</span>}
+                    {q.generated && (
+                      <span className="block text-caption text-ink-soft">
+                        Computed answer: {q.generated.answer.display} (lib/aero {q.generated.libraryVersion}
+                        {q.studentFigure !== null ? `; student said ${q.studentFigure}` : ""})
+                      </span>
+                    )}
                   </li>
                 ))}
               </ol>
-              {c.remarks && <p className="mt-1 text-caption"><span className="font-semibold">Remarks (internal):</span> {c.remarks}</p>}
-              {!c.withdrawn && !c.amendedBy && can(user, "records.amend") && <WithdrawButton kind="check" id={c.id} label="Withdraw this check" />}
+              {c.remarks && (
+                <p className="mt-1 text-caption">
+                  <span className="font-semibold">Remarks (internal):</span> {c.remarks}
+                </p>
+              )}
+              {!c.withdrawn && !c.amendedBy && can(user, "records.amend") && (
+                <WithdrawButton kind="check" id={c.id} label="Withdraw this check" />
+              )}
             </li>
           ))}
         </ul>

@@ -25,7 +25,9 @@ export function DesignateToggle({ personId, name, designated }: { personId: stri
       >
         {designated ? "Stop designating" : "Designate"}
       </button>
-      <span aria-live="polite" className="text-caption">{message}</span>
+      <span aria-live="polite" className="text-caption">
+        {message}
+      </span>
     </span>
   );
 }

@@ -13,7 +13,13 @@ type Out = z.output<typeof addStudentSchema>;
 export function AddStudentForm({ cohorts }: { cohorts: { id: string; name: string }[] }) {
   const router = useRouter();
   const [msg, setMsg] = useState<{ ok: boolean; text: string } | null>(null);
-  const { register, handleSubmit, reset, setError, formState: { errors, isSubmitting } } = useForm<In, unknown, Out>({
+  const {
+    register,
+    handleSubmit,
+    reset,
+    setError,
+    formState: { errors, isSubmitting },
+  } = useForm<In, unknown, Out>({
     resolver: zodResolver(addStudentSchema),
     defaultValues: { name: "", email: "", cohortId: cohorts[0]?.id ?? "", sponsorName: "", sponsorEmail: "" },
   });
@@ -26,13 +32,27 @@ export function AddStudentForm({ cohorts }: { cohorts: { id: string; name: strin
       return;
     }
     setMsg({ ok: false, text: r.message });
-    for (const [f, m] of Object.entries(r.fieldErrors ?? {})) if (["name", "email", "cohortId", "sponsorName", "sponsorEmail"].includes(f)) setError(f as keyof In, { message: m[0] });
+    for (const [f, m] of Object.entries(r.fieldErrors ?? {}))
+      if (["name", "email", "cohortId", "sponsorName", "sponsorEmail"].includes(f)) setError(f as keyof In, { message: m[0] });
   }
   const field = (name: keyof In, label: string, type = "text") => (
     <div>
-      <label htmlFor={`add-${name}`} className="field-label">{label}</label>
-      <input id={`add-${name}`} type={type} className="field-input" aria-invalid={!!errors[name]} aria-describedby={`add-${name}-error`} {...register(name)} />
-      {errors[name] && <p id={`add-${name}-error`} className="field-error">{String(errors[name]?.message)}</p>}
+      <label htmlFor={`add-${name}`} className="field-label">
+        {label}
+      </label>
+      <input
+        id={`add-${name}`}
+        type={type}
+        className="field-input"
+        aria-invalid={!!errors[name]}
+        aria-describedby={`add-${name}-error`}
+        {...register(name)}
+      />
+      {errors[name] && (
+        <p id={`add-${name}-error`} className="field-error">
+          {String(errors[name]?.message)}
+        </p>
+      )}
     </div>
   );
   return (
@@ -41,17 +61,31 @@ export function AddStudentForm({ cohorts }: { cohorts: { id: string; name: strin
       {field("name", "Name")}
       {field("email", "E-mail", "email")}
       <div>
-        <label htmlFor="add-cohortId" className="field-label">Cohort</label>
+        <label htmlFor="add-cohortId" className="field-label">
+          Cohort
+        </label>
         <select id="add-cohortId" className="field-input" {...register("cohortId")}>
-          {cohorts.map((c) => <option key={c.id} value={c.id}>{c.name}</option>)}
+          {cohorts.map((c) => (
+            <option key={c.id} value={c.id}>
+              {c.name}
+            </option>
+          ))}
         </select>
         {errors.cohortId && <p className="field-error">{errors.cohortId.message}</p>}
       </div>
       {field("sponsorName", "Sponsor's name (optional)")}
       {field("sponsorEmail", "Sponsor's e-mail (optional)", "email")}
       <p className="text-caption text-ink-soft">New accounts get an invitation to set a password.</p>
-      <div aria-live="polite">{msg && <p role={msg.ok ? "status" : "alert"} className={msg.ok ? "font-semibold text-solid-800" : "field-error"}>{msg.text}</p>}</div>
-      <button type="submit" className="btn-primary" disabled={isSubmitting}>Add the student</button>
+      <div aria-live="polite">
+        {msg && (
+          <p role={msg.ok ? "status" : "alert"} className={msg.ok ? "font-semibold text-solid-800" : "field-error"}>
+            {msg.text}
+          </p>
+        )}
+      </div>
+      <button type="submit" className="btn-primary" disabled={isSubmitting}>
+        Add the student
+      </button>
     </form>
   );
 }

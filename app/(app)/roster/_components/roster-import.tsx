@@ -29,7 +29,11 @@ export function RosterImport() {
   const [busy, setBusy] = useState(false);
 
   async function send(mode: "preview" | "commit", body: string) {
-    const res = await fetch(`/api/roster/import?mode=${mode}`, { method: "POST", headers: { "content-type": "text/csv; charset=utf-8" }, body });
+    const res = await fetch(`/api/roster/import?mode=${mode}`, {
+      method: "POST",
+      headers: { "content-type": "text/csv; charset=utf-8" },
+      body,
+    });
     const json = await res.json();
     return { ok: res.ok, json };
   }
@@ -62,26 +66,56 @@ export function RosterImport() {
       router.refresh();
     } else setMsg({ ok: false, text: `Nothing was imported. ${r.json?.error?.message ?? ""}` });
   }
-  const blocked = !preview || preview.fileProblems.length > 0 || preview.rows.some((r) => r.problems.length > 0) || preview.rows.length === 0;
+  const blocked =
+    !preview || preview.fileProblems.length > 0 || preview.rows.some((r) => r.problems.length > 0) || preview.rows.length === 0;
   return (
     <section className="card space-y-3" aria-labelledby="imp-title">
       <h2 id="imp-title">Import a roster file</h2>
-      <p className="text-caption text-ink-soft">A CSV file with the columns name, e-mail, cohort, and optionally sponsor name and sponsor e-mail. Commas or semicolons; a header row first.</p>
+      <p className="text-caption text-ink-soft">
+        A CSV file with the columns name, e-mail, cohort, and optionally sponsor name and sponsor e-mail. Commas or semicolons; a header row
+        first.
+      </p>
       <div>
-        <label htmlFor="roster-file" className="field-label">CSV file</label>
+        <label htmlFor="roster-file" className="field-label">
+          CSV file
+        </label>
         <input id="roster-file" type="file" accept=".csv,text/csv" className="field-input py-2" onChange={onFile} />
       </div>
       <div aria-live="polite">
         {busy && <p>Working…</p>}
-        {msg && <p role={msg.ok ? "status" : "alert"} className={msg.ok ? "font-semibold text-solid-800" : "field-error"} data-testid="import-message">{msg.text}</p>}
+        {msg && (
+          <p
+            role={msg.ok ? "status" : "alert"}
+            className={msg.ok ? "font-semibold text-solid-800" : "field-error"}
+            data-testid="import-message"
+          >
+            {msg.text}
+          </p>
+        )}
       </div>
       {preview && (
         <>
-          {preview.fileProblems.map((p) => <p key={p} role="alert" className="field-error">{p}</p>)}
-          <p>{preview.readyCount} of {preview.rows.length} rows ready. {blocked ? "Fix the file and choose it again: nothing is imported while any row has a problem." : ""}</p>
+          {preview.fileProblems.map((p) => (
+            <p key={p} role="alert" className="field-error">
+              {p}
+            </p>
+          ))}
+          <p>
+            {preview.readyCount} of {preview.rows.length} rows ready.{" "}
+            {blocked ? "Fix the file and choose it again: nothing is imported while any row has a problem." : ""}
+          </p>
           <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Preview of the file, scrolls sideways">
             <table className="data-table" data-testid="import-preview">
-              <thead><tr><th scope="col">Line</th><th scope="col">Name</th><th scope="col">E-mail</th><th scope="col">Cohort</th><th scope="col">Sponsor</th><th scope="col">Problems</th></tr></thead>
+              <thead>
+                <tr>
+                  <th scope="col">Line</th>
+                  <th scope="col">Name</th>
+                  <th scope="col">E-mail</th>
+                  <th scope="col">Cohort</th>
+                  <th scope="col">Sponsor</th>
+                  <th scope="col">Problems</th>
+                </tr>
+              </thead>
               <tbody>
                 {preview.rows.map((r) => (
                   <tr key={r.line} className={r.problems.length ? "bg-notyet-100" : ""}>
@@ -89,14 +123,19 @@ export function RosterImport() {
                     <td>{r.name || "—"}</td>
                     <td className="break-all">{r.email || "—"}</td>
                     <td>{r.cohort || "—"}</td>
-                    <td>{r.sponsorName}{r.sponsorEmail ? ` <${r.sponsorEmail}>` : ""}</td>
+                    <td>
+                      {r.sponsorName}
+                      {r.sponsorEmail ? ` <${r.sponsorEmail}>` : ""}
+                    </td>
                     <td>{r.problems.length ? r.problems.join("; ") : "Ready"}</td>
                   </tr>
                 ))}
               </tbody>
             </table>
           </div>
-          <button type="button" className="btn-primary" disabled={blocked || busy} onClick={onImport}>Import {preview.rows.length} students</button>
+          <button type="button" className="btn-primary" disabled={blocked || busy} onClick={onImport}>
+            Import {preview.rows.length} students
+          </button>
         </>
       )}
     </section>

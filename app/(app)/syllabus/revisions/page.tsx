@@ -11,44 +11,84 @@ import { MoveEnrolment } from "../_components/move-enrolment";
 export const metadata: Metadata = { title: "Syllabus revisions" };
 export const dynamic = "force-dynamic";
 
-export default async function SyllabusRevisionsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function SyllabusRevisionsPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const user = await requirePagePermission("syllabus.edit", "/syllabus/revisions");
   const courses = await listCoursesWithLatestRevision(user.schoolId);
   const param = (await searchParams).course;
   const courseId = typeof param === "string" && uuidParam.safeParse(param).success ? param : await defaultCourseId(user.schoolId);
   const course = courses.find((c) => c.id === courseId);
   if (!course) notFound();
-  const [revisions, enrolments, school] = await Promise.all([listSyllabusRevisions(user.schoolId, course.id), listActiveEnrolments(user.schoolId, course.id), getSchool(user.schoolId)]);
+  const [revisions, enrolments, school] = await Promise.all([
+    listSyllabusRevisions(user.schoolId, course.id),
+    listActiveEnrolments(user.schoolId, course.id),
+    getSchool(user.schoolId),
+  ]);
   const choices = revisions.map((r) => ({ id: r.id, number: r.number }));
   return (
     <div className="space-y-6">
       <header className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <h1 className="text-display">Syllabus revisions</h1>
-          <p className="text-ink-soft">{course.code} · {course.title}. A revision never changes once something refers to it; a change is a new revision.</p>
+          <p className="text-ink-soft">
+            {course.code} · {course.title}. A revision never changes once something refers to it; a change is a new revision.
+          </p>
         </div>
-        <Link href={`/syllabus/revisions/new?course=${course.id}`} className="btn-primary">Make revision {(course.revisionNumber ?? 0) + 1}</Link>
+        <Link href={`/syllabus/revisions/new?course=${course.id}`} className="btn-primary">
+          Make revision {(course.revisionNumber ?? 0) + 1}
+        </Link>
       </header>
       {courses.length > 1 && (
         <nav aria-label="Courses" className="flex flex-wrap gap-2">
-          {courses.map((c) => <Link key={c.id} href={`/syllabus/revisions?course=${c.id}`} className={c.id === course.id ? "btn-quiet border-wing-700 bg-wing-50 text-wing-800" : "btn-quiet"} aria-current={c.id === course.id ? "page" : undefined}>{c.code}{c.id === course.id ? " (shown)" : ""}</Link>)}
+          {courses.map((c) => (
+            <Link
+              key={c.id}
+              href={`/syllabus/revisions?course=${c.id}`}
+              className={c.id === course.id ? "btn-quiet border-wing-700 bg-wing-50 text-wing-800" : "btn-quiet"}
+              aria-current={c.id === course.id ? "page" : undefined}
+            >
+              {c.code}
+              {c.id === course.id ? " (shown)" : ""}
+            </Link>
+          ))}
         </nav>
       )}
       <section className="card" aria-labelledby="h-revs">
         <h2 id="h-revs">Revisions</h2>
         <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Revisions table (scrolls sideways on small screens)">
           <table className="data-table" data-testid="syllabus-revisions">
-            <thead><tr><th scope="col">Revision</th><th scope="col">Approved</th><th scope="col">Effective from</th><th scope="col">Items</th><th scope="col">Active enrolments</th><th scope="col">Briefing revisions</th><th scope="col">What changed</th></tr></thead>
+            <thead>
+              <tr>
+                <th scope="col">Revision</th>
+                <th scope="col">Approved</th>
+                <th scope="col">Effective from</th>
+                <th scope="col">Items</th>
+                <th scope="col">Active enrolments</th>
+                <th scope="col">Briefing revisions</th>
+                <th scope="col">What changed</th>
+              </tr>
+            </thead>
             <tbody>
               {revisions.map((r) => (
                 <tr key={r.id}>
-                  <td className="num font-semibold">{r.number}{r.latest ? " (latest)" : ""}</td>
+                  <td className="num font-semibold">
+                    {r.number}
+                    {r.latest ? " (latest)" : ""}
+                  </td>
                   <td className="num">{r.approvedOn ?? "—"}</td>
                   <td className="num">{r.effectiveFrom ?? "—"}</td>
                   <td className="num">{r.items}</td>
                   <td className="num">{r.activeEnrolments}</td>
                   <td className="num">{r.briefingRevisions}</td>
-                  <td>{r.changeNote || "—"} <span className="text-caption text-ink-soft">· made {formatInZone(new Date(r.createdAt), school.timeZone, "d MMM yyyy")}</span></td>
+                  <td>
+                    {r.changeNote || "—"}{" "}
+                    <span className="text-caption text-ink-soft">
+                      · made {formatInZone(new Date(r.createdAt), school.timeZone, "d MMM yyyy")}
+                    </span>
+                  </td>
                 </tr>
               ))}
             </tbody>
@@ -60,14 +100,28 @@ export default async function SyllabusRevisionsPage({ searchParams }: { searchPa
         <p className="text-caption text-ink-soft">Each student stays on their revision until you move them.</p>
         <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Enrolments table (scrolls sideways on small screens)">
           <table className="data-table">
-            <thead><tr><th scope="col">Student</th><th scope="col">Enrolled</th><th scope="col">On revision</th><th scope="col">Move to</th></tr></thead>
+            <thead>
+              <tr>
+                <th scope="col">Student</th>
+                <th scope="col">Enrolled</th>
+                <th scope="col">On revision</th>
+                <th scope="col">Move to</th>
+              </tr>
+            </thead>
             <tbody>
               {enrolments.map((e) => (
                 <tr key={e.enrolmentId}>
                   <td>{e.studentName}</td>
                   <td className="num">{e.enrolledOn}</td>
                   <td className="num">{e.revisionNumber}</td>
-                  <td><MoveEnrolment enrolmentId={e.enrolmentId} studentName={e.studentName} currentRevisionId={e.revisionId} revisions={choices} /></td>
+                  <td>
+                    <MoveEnrolment
+                      enrolmentId={e.enrolmentId}
+                      studentName={e.studentName}
+                      currentRevisionId={e.revisionId}
+                      revisions={choices}
+                    />
+                  </td>
                 </tr>
               ))}
             </tbody>

@@ -29,10 +29,17 @@ export default async function SessionPage({ params }: { params: Promise<{ sessio
   return (
     <div className="space-y-6">
       <header>
-        <p className="text-caption"><Link href={`/timetable?week=${s.date}`} className="underline">← Timetable, week of this session</Link></p>
+        <p className="text-caption">
+          <Link href={`/timetable?week=${s.date}`} className="underline">
+            ← Timetable, week of this session
+          </Link>
+        </p>
         <h1 className="text-display">{s.briefingTitle}</h1>
         <p className="text-ink-soft">
-          <span className="num">{formatInZone(starts, school.timeZone, "EEEE d MMMM yyyy")}, {s.startLocal}–{s.endLocal}</span> ({s.durationMinutes} min) · {s.room}
+          <span className="num">
+            {formatInZone(starts, school.timeZone, "EEEE d MMMM yyyy")}, {s.startLocal}–{s.endLocal}
+          </span>{" "}
+          ({s.durationMinutes} min) · {s.room}
         </p>
         {s.status === "cancelled" && (
           <p className="mt-2 rounded-md border-l-4 border-notyet-600 bg-notyet-100 px-3 py-2" role="status">
@@ -43,25 +50,49 @@ export default async function SessionPage({ params }: { params: Promise<{ sessio
       <section className="card" aria-labelledby="about">
         <h2 id="about">About this session</h2>
         <dl className="mt-2 grid gap-x-6 gap-y-1 sm:grid-cols-[max-content_1fr]">
-          <dt className="font-semibold">Instructor</dt><dd>{s.instructorName}</dd>
-          <dt className="font-semibold">Cohort</dt><dd>{s.cohortName ?? "Individual students"}</dd>
-          <dt className="font-semibold">Briefing</dt><dd>revision {s.revisionNumber}: {s.objective}</dd>
+          <dt className="font-semibold">Instructor</dt>
+          <dd>{s.instructorName}</dd>
+          <dt className="font-semibold">Cohort</dt>
+          <dd>{s.cohortName ?? "Individual students"}</dd>
+          <dt className="font-semibold">Briefing</dt>
+          <dd>
+            revision {s.revisionNumber}: {s.objective}
+          </dd>
           <dt className="font-semibold">Syllabus items</dt>
           <dd>{s.syllabusItems.length ? s.syllabusItems.map((i) => `${i.code} ${i.title}`).join("; ") : "None listed"}</dd>
-          <dt className="font-semibold">Changes</dt><dd className="num">{s.sequence === 0 ? "None" : `${s.sequence} since scheduled`}</dd>
-          {s.attendees.length > 0 && (<><dt className="font-semibold">Students</dt><dd>{s.attendees.map((a) => a.name).join(", ")}</dd></>)}
+          <dt className="font-semibold">Changes</dt>
+          <dd className="num">{s.sequence === 0 ? "None" : `${s.sequence} since scheduled`}</dd>
+          {s.attendees.length > 0 && (
+            <>
+              <dt className="font-semibold">Students</dt>
+              <dd>{s.attendees.map((a) => a.name).join(", ")}</dd>
+            </>
+          )}
         </dl>
       </section>
-      {mayRecord && s.status === "scheduled" && (
-        s.ended ? (
+      {mayRecord &&
+        s.status === "scheduled" &&
+        (s.ended ? (
           <AttendanceSheet sessionId={s.id} sessionMinutes={s.durationMinutes} lines={sheet} />
         ) : (
-          <section className="card"><h2>Attendance</h2><p className="mt-1 text-ink-soft">Attendance is recorded once the session has ended ({s.endLocal}). Each student then earns up to {hoursLabel(s.durationMinutes)} of ground time.</p></section>
-        )
-      )}
+          <section className="card">
+            <h2>Attendance</h2>
+            <p className="mt-1 text-ink-soft">
+              Attendance is recorded once the session has ended ({s.endLocal}). Each student then earns up to{" "}
+              {hoursLabel(s.durationMinutes)} of ground time.
+            </p>
+          </section>
+        ))}
       {choices && (
         <SessionChanges
-          session={{ id: s.id, date: s.date, time: s.startLocal, durationMinutes: s.durationMinutes, room: s.room, instructorId: s.instructorId }}
+          session={{
+            id: s.id,
+            date: s.date,
+            time: s.startLocal,
+            durationMinutes: s.durationMinutes,
+            room: s.room,
+            instructorId: s.instructorId,
+          }}
           instructors={choices.instructors}
           rooms={choices.rooms}
         />

@@ -22,15 +22,30 @@ export function CalendarLink({ since }: { since: string | null }) {
         Subscribe to your sessions from a calendar program (iCalendar). The link is secret: anyone who has it sees your sessions.
         {since ? ` Your current link was made ${since}; a new one stops the old one at once.` : " You have no link yet."}
       </p>
-      <button type="button" onClick={reset} disabled={busy} className="btn-quiet mt-3">{since || url ? "Replace my calendar link" : "Make my calendar link"}</button>
+      <button type="button" onClick={reset} disabled={busy} className="btn-quiet mt-3">
+        {since || url ? "Replace my calendar link" : "Make my calendar link"}
+      </button>
       <div aria-live="polite">
         {url && (
           <p className="mt-3">
-            <label htmlFor="feed-url" className="field-label">Your new link (shown only now)</label>
-            <input id="feed-url" readOnly value={url} className="field-input font-mono text-caption" data-testid="feed-url" onFocus={(e) => e.currentTarget.select()} />
+            <label htmlFor="feed-url" className="field-label">
+              Your new link (shown only now)
+            </label>
+            <input
+              id="feed-url"
+              readOnly
+              value={url}
+              className="field-input font-mono text-caption"
+              data-testid="feed-url"
+              onFocus={(e) => e.currentTarget.select()}
+            />
           </p>
         )}
-        {error && <p role="alert" className="field-error">{error}</p>}
+        {error && (
+          <p role="alert" className="field-error">
+            {error}
+          </p>
+        )}
       </div>
     </section>
   );

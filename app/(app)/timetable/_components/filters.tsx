@@ -16,33 +16,55 @@ export function TimetableFilters({
 }) {
   return (
     <form method="get" action={action} className="card flex flex-wrap items-end gap-3" aria-label="Filter the Timetable">
-      {Object.entries(hidden ?? {}).map(([k, v]) => <input key={k} type="hidden" name={k} value={v} />)}
+      {Object.entries(hidden ?? {}).map(([k, v]) => (
+        <input key={k} type="hidden" name={k} value={v} />
+      ))}
       <div className="min-w-40 flex-1">
-        <label htmlFor="f-instructor" className="field-label">Instructor</label>
+        <label htmlFor="f-instructor" className="field-label">
+          Instructor
+        </label>
         <select id="f-instructor" name="instructor" defaultValue={values.instructor ?? ""} className="field-input">
           <option value="">Any instructor</option>
-          {instructors.map((i) => <option key={i.id} value={i.id}>{i.name}</option>)}
+          {instructors.map((i) => (
+            <option key={i.id} value={i.id}>
+              {i.name}
+            </option>
+          ))}
         </select>
       </div>
       <div className="min-w-40 flex-1">
-        <label htmlFor="f-cohort" className="field-label">Cohort</label>
+        <label htmlFor="f-cohort" className="field-label">
+          Cohort
+        </label>
         <select id="f-cohort" name="cohort" defaultValue={values.cohort ?? ""} className="field-input">
           <option value="">Any cohort</option>
-          {cohorts.map((c) => <option key={c.id} value={c.id}>{c.name}</option>)}
+          {cohorts.map((c) => (
+            <option key={c.id} value={c.id}>
+              {c.name}
+            </option>
+          ))}
         </select>
       </div>
       <div className="min-w-40 flex-1">
-        <label htmlFor="f-room" className="field-label">Room</label>
+        <label htmlFor="f-room" className="field-label">
+          Room
+        </label>
         <select id="f-room" name="room" defaultValue={values.room ?? ""} className="field-input">
           <option value="">Any room</option>
-          {rooms.map((r) => <option key={r} value={r}>{r}</option>)}
+          {rooms.map((r) => (
+            <option key={r} value={r}>
+              {r}
+            </option>
+          ))}
         </select>
       </div>
       <label className="flex min-h-touch items-center gap-2">
         <input type="checkbox" name="mine" value="1" defaultChecked={values.mine === "1"} className="h-5 w-5" />
         Only mine
       </label>
-      <button type="submit" className="btn-quiet">Show</button>
+      <button type="submit" className="btn-quiet">
+        Show
+      </button>
     </form>
   );
 }

@@ -26,9 +26,24 @@ export function ScheduleForm({ choices, defaults }: { choices: SchedulingChoices
   const router = useRouter();
   const [message, setMessage] = useState<string | null>(null);
   const [key] = useState(newKey);
-  const { register, handleSubmit, setValue, setError, formState: { errors, isSubmitting } } = useForm<In, unknown, Out>({
+  const {
+    register,
+    handleSubmit,
+    setValue,
+    setError,
+    formState: { errors, isSubmitting },
+  } = useForm<In, unknown, Out>({
     resolver: zodResolver(scheduleSessionSchema),
-    defaultValues: { briefingId: "", date: defaults.date, time: "09:00", durationMinutes: 60, room: choices.rooms[0] ?? "", instructorId: defaults.instructorId, cohortId: "", studentIds: [] },
+    defaultValues: {
+      briefingId: "",
+      date: defaults.date,
+      time: "09:00",
+      durationMinutes: 60,
+      room: choices.rooms[0] ?? "",
+      instructorId: defaults.instructorId,
+      cohortId: "",
+      studentIds: [],
+    },
   });
   async function onSubmit(data: Out) {
     setMessage(null);
@@ -42,11 +57,18 @@ export function ScheduleForm({ choices, defaults }: { choices: SchedulingChoices
       if (field in scheduleSessionSchema.shape) setError(field as keyof In, { message: msgs[0] });
     }
   }
-  const err = (f: keyof In) => errors[f]?.message && <p id={`${f}-error`} className="field-error">{String(errors[f]?.message)}</p>;
+  const err = (f: keyof In) =>
+    errors[f]?.message && (
+      <p id={`${f}-error`} className="field-error">
+        {String(errors[f]?.message)}
+      </p>
+    );
   return (
     <form onSubmit={handleSubmit(onSubmit)} className="card grid max-w-3xl gap-4 sm:grid-cols-2" noValidate aria-label="Schedule a session">
       <div className="sm:col-span-2">
-        <label htmlFor="briefingId" className="field-label">Briefing</label>
+        <label htmlFor="briefingId" className="field-label">
+          Briefing
+        </label>
         <select
           id="briefingId"
           className="field-input"
@@ -60,59 +82,150 @@ export function ScheduleForm({ choices, defaults }: { choices: SchedulingChoices
           })}
         >
           <option value="">Choose a briefing</option>
-          {choices.briefings.map((b) => <option key={b.id} value={b.id}>{b.title} (revision {b.revisionNumber}{b.minutes ? `, ${b.minutes} min` : ""})</option>)}
+          {choices.briefings.map((b) => (
+            <option key={b.id} value={b.id}>
+              {b.title} (revision {b.revisionNumber}
+              {b.minutes ? `, ${b.minutes} min` : ""})
+            </option>
+          ))}
         </select>
         {err("briefingId")}
       </div>
       <div>
-        <label htmlFor="date" className="field-label">Date</label>
-        <input id="date" type="date" className="field-input" aria-invalid={!!errors.date} aria-describedby="date-error" {...register("date")} />
+        <label htmlFor="date" className="field-label">
+          Date
+        </label>
+        <input
+          id="date"
+          type="date"
+          className="field-input"
+          aria-invalid={!!errors.date}
+          aria-describedby="date-error"
+          {...register("date")}
+        />
         {err("date")}
       </div>
       <div>
-        <label htmlFor="time" className="field-label">Start time</label>
-        <input id="time" type="time" className="field-input" aria-invalid={!!errors.time} aria-describedby="time-error" {...register("time")} />
+        <label htmlFor="time" className="field-label">
+          Start time
+        </label>
+        <input
+          id="time"
+          type="time"
+          className="field-input"
+          aria-invalid={!!errors.time}
+          aria-describedby="time-error"
+          {...register("time")}
+        />
         {err("time")}
       </div>
       <div>
-        <label htmlFor="durationMinutes" className="field-label">Length (minutes)</label>
-        <input id="durationMinutes" type="number" min={15} max={480} step={5} className="field-input num" aria-invalid={!!errors.durationMinutes} aria-describedby="durationMinutes-error" {...register("durationMinutes")} />
+        <label htmlFor="durationMinutes" className="field-label">
+          Length (minutes)
+        </label>
+        <input
+          id="durationMinutes"
+          type="number"
+          min={15}
+          max={480}
+          step={5}
+          className="field-input num"
+          aria-invalid={!!errors.durationMinutes}
+          aria-describedby="durationMinutes-error"
+          {...register("durationMinutes")}
+        />
         {err("durationMinutes")}
       </div>
       <div>
-        <label htmlFor="room" className="field-label">Room</label>
-        <input id="room" list="room-list" className="field-input" aria-invalid={!!errors.room} aria-describedby="room-error" {...register("room")} />
-        <datalist id="room-list">{choices.rooms.map((r) => <option key={r} value={r} />)}</datalist>
+        <label htmlFor="room" className="field-label">
+          Room
+        </label>
+        <input
+          id="room"
+          list="room-list"
+          className="field-input"
+          aria-invalid={!!errors.room}
+          aria-describedby="room-error"
+          {...register("room")}
+        />
+        <datalist id="room-list">
+          {choices.rooms.map((r) => (
+            <option key={r} value={r} />
+          ))}
+        </datalist>
         {err("room")}
       </div>
       <div>
-        <label htmlFor="instructorId" className="field-label">Instructor</label>
-        <select id="instructorId" className="field-input" aria-invalid={!!errors.instructorId} aria-describedby="instructorId-error" {...register("instructorId")}>
+        <label htmlFor="instructorId" className="field-label">
+          Instructor
+        </label>
+        <select
+          id="instructorId"
+          className="field-input"
+          aria-invalid={!!errors.instructorId}
+          aria-describedby="instructorId-error"
+          {...register("instructorId")}
+        >
           <option value="">Choose an instructor</option>
-          {choices.instructors.map((i) => <option key={i.id} value={i.id}>{i.name}</option>)}
+          {choices.instructors.map((i) => (
+            <option key={i.id} value={i.id}>
+              {i.name}
+            </option>
+          ))}
         </select>
         {err("instructorId")}
       </div>
       <div>
-        <label htmlFor="cohortId" className="field-label">Cohort</label>
-        <select id="cohortId" className="field-input" aria-invalid={!!errors.cohortId} aria-describedby="cohortId-error" {...register("cohortId")}>
+        <label htmlFor="cohortId" className="field-label">
+          Cohort
+        </label>
+        <select
+          id="cohortId"
+          className="field-input"
+          aria-invalid={!!errors.cohortId}
+          aria-describedby="cohortId-error"
+          {...register("cohortId")}
+        >
           <option value="">No cohort (students below)</option>
-          {choices.cohorts.map((c) => <option key={c.id} value={c.id}>{c.name}</option>)}
+          {choices.cohorts.map((c) => (
+            <option key={c.id} value={c.id}>
+              {c.name}
+            </option>
+          ))}
         </select>
         {err("cohortId")}
       </div>
       <div className="sm:col-span-2">
-        <label htmlFor="studentIds" className="field-label">Individual students (in addition to the cohort; Ctrl or ⌘ to choose several)</label>
-        <select id="studentIds" multiple size={6} className="field-input h-auto" aria-describedby="studentIds-error" {...register("studentIds")}>
-          {choices.students.map((s) => <option key={s.id} value={s.id}>{s.name}</option>)}
+        <label htmlFor="studentIds" className="field-label">
+          Individual students (in addition to the cohort; Ctrl or ⌘ to choose several)
+        </label>
+        <select
+          id="studentIds"
+          multiple
+          size={6}
+          className="field-input h-auto"
+          aria-describedby="studentIds-error"
+          {...register("studentIds")}
+        >
+          {choices.students.map((s) => (
+            <option key={s.id} value={s.id}>
+              {s.name}
+            </option>
+          ))}
         </select>
         {err("studentIds")}
       </div>
       <div className="sm:col-span-2" aria-live="polite">
-        {message && <p role="alert" className="field-error" data-testid="form-message">{message}</p>}
+        {message && (
+          <p role="alert" className="field-error" data-testid="form-message">
+            {message}
+          </p>
+        )}
       </div>
       <div className="sm:col-span-2">
-        <button type="submit" className="btn-primary" disabled={isSubmitting}>{isSubmitting ? "Scheduling…" : "Schedule the session"}</button>
+        <button type="submit" className="btn-primary" disabled={isSubmitting}>
+          {isSubmitting ? "Scheduling…" : "Schedule the session"}
+        </button>
       </div>
     </form>
   );

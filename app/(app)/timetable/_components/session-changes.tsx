@@ -24,64 +24,123 @@ export function SessionChanges({
 }) {
   const router = useRouter();
   const [msg, setMsg] = useState<{ text: string; ok: boolean } | null>(null);
-  const r = useForm<RIn, unknown, ROut>({ resolver: zodResolver(rescheduleSessionSchema), defaultValues: { sessionId: session.id, date: session.date, time: session.time, durationMinutes: session.durationMinutes, room: session.room, instructorId: session.instructorId } });
-  const c = useForm<CIn, unknown, COut>({ resolver: zodResolver(cancelSessionSchema), defaultValues: { sessionId: session.id, reason: "" } });
+  const r = useForm<RIn, unknown, ROut>({
+    resolver: zodResolver(rescheduleSessionSchema),
+    defaultValues: {
+      sessionId: session.id,
+      date: session.date,
+      time: session.time,
+      durationMinutes: session.durationMinutes,
+      room: session.room,
+      instructorId: session.instructorId,
+    },
+  });
+  const c = useForm<CIn, unknown, COut>({
+    resolver: zodResolver(cancelSessionSchema),
+    defaultValues: { sessionId: session.id, reason: "" },
+  });
   async function reschedule(data: ROut) {
     const res = await rescheduleSessionAction({ ...data, idempotencyKey: `rs-${crypto.randomUUID()}` });
-    setMsg(res.ok ? { ok: true, text: `Moved. ${res.data.told} student${res.data.told === 1 ? " is" : "s are"} told by mail.` } : { ok: false, text: res.message });
+    setMsg(
+      res.ok
+        ? { ok: true, text: `Moved. ${res.data.told} student${res.data.told === 1 ? " is" : "s are"} told by mail.` }
+        : { ok: false, text: res.message },
+    );
     if (res.ok) router.refresh();
   }
   async function cancel(data: COut) {
     const res = await cancelSessionAction({ ...data, idempotencyKey: `cs-${crypto.randomUUID()}` });
-    setMsg(res.ok ? { ok: true, text: `Cancelled. ${res.data.told} student${res.data.told === 1 ? " is" : "s are"} told by mail.` } : { ok: false, text: res.message });
+    setMsg(
+      res.ok
+        ? { ok: true, text: `Cancelled. ${res.data.told} student${res.data.told === 1 ? " is" : "s are"} told by mail.` }
+        : { ok: false, text: res.message },
+    );
     if (res.ok) router.refresh();
   }
   const re = r.formState.errors;
   return (
     <div className="grid gap-6 lg:grid-cols-2">
       <form onSubmit={r.handleSubmit(reschedule)} className="card grid gap-3 sm:grid-cols-2" aria-labelledby="rs-title" noValidate>
-        <h2 id="rs-title" className="sm:col-span-2">Reschedule</h2>
+        <h2 id="rs-title" className="sm:col-span-2">
+          Reschedule
+        </h2>
         <div>
-          <label htmlFor="rs-date" className="field-label">Date</label>
+          <label htmlFor="rs-date" className="field-label">
+            Date
+          </label>
           <input id="rs-date" type="date" className="field-input" {...r.register("date")} />
           {re.date && <p className="field-error">{re.date.message}</p>}
         </div>
         <div>
-          <label htmlFor="rs-time" className="field-label">Start time</label>
+          <label htmlFor="rs-time" className="field-label">
+            Start time
+          </label>
           <input id="rs-time" type="time" className="field-input" {...r.register("time")} />
           {re.time && <p className="field-error">{re.time.message}</p>}
         </div>
         <div>
-          <label htmlFor="rs-len" className="field-label">Length (minutes)</label>
+          <label htmlFor="rs-len" className="field-label">
+            Length (minutes)
+          </label>
           <input id="rs-len" type="number" min={15} max={480} step={5} className="field-input num" {...r.register("durationMinutes")} />
           {re.durationMinutes && <p className="field-error">{re.durationMinutes.message}</p>}
         </div>
         <div>
-          <label htmlFor="rs-room" className="field-label">Room</label>
+          <label htmlFor="rs-room" className="field-label">
+            Room
+          </label>
           <input id="rs-room" list="rs-rooms" className="field-input" {...r.register("room")} />
-          <datalist id="rs-rooms">{rooms.map((x) => <option key={x} value={x} />)}</datalist>
+          <datalist id="rs-rooms">
+            {rooms.map((x) => (
+              <option key={x} value={x} />
+            ))}
+          </datalist>
           {re.room && <p className="field-error">{re.room.message}</p>}
         </div>
         <div className="sm:col-span-2">
-          <label htmlFor="rs-instructor" className="field-label">Instructor</label>
+          <label htmlFor="rs-instructor" className="field-label">
+            Instructor
+          </label>
           <select id="rs-instructor" className="field-input" {...r.register("instructorId")}>
-            {instructors.map((i) => <option key={i.id} value={i.id}>{i.name}</option>)}
+            {instructors.map((i) => (
+              <option key={i.id} value={i.id}>
+                {i.name}
+              </option>
+            ))}
           </select>
         </div>
-        <div className="sm:col-span-2"><button type="submit" className="btn-primary" disabled={r.formState.isSubmitting}>Move the session</button></div>
+        <div className="sm:col-span-2">
+          <button type="submit" className="btn-primary" disabled={r.formState.isSubmitting}>
+            Move the session
+          </button>
+        </div>
       </form>
       <form onSubmit={c.handleSubmit(cancel)} className="card space-y-3" aria-labelledby="cs-title" noValidate>
         <h2 id="cs-title">Cancel</h2>
-        <p className="text-ink-soft">The session stays on the Timetable and in calendar feeds, marked cancelled, and frees the room, the instructor and the students.</p>
+        <p className="text-ink-soft">
+          The session stays on the Timetable and in calendar feeds, marked cancelled, and frees the room, the instructor and the students.
+        </p>
         <div>
-          <label htmlFor="cs-reason" className="field-label">Reason (sent to the students)</label>
+          <label htmlFor="cs-reason" className="field-label">
+            Reason (sent to the students)
+          </label>
           <textarea id="cs-reason" rows={3} className="field-input py-2" {...c.register("reason")} />
           {c.formState.errors.reason && <p className="field-error">{c.formState.errors.reason.message}</p>}
         </div>
-        <button type="submit" className="btn-quiet border-notyet-600 text-notyet-800" disabled={c.formState.isSubmitting}>Cancel the session</button>
+        <button type="submit" className="btn-quiet border-notyet-600 text-notyet-800" disabled={c.formState.isSubmitting}>
+          Cancel the session
+        </button>
       </form>
       <div aria-live="polite" className="lg:col-span-2">
-        {msg && <p role={msg.ok ? "status" : "alert"} className={msg.ok ? "font-semibold text-solid-800" : "field-error"} data-testid="change-message">{msg.text}</p>}
+        {msg && (
+          <p
+            role={msg.ok ? "status" : "alert"}
+            className={msg.ok ? "font-semibold text-solid-800" : "field-error"}
+            data-testid="change-message"
+          >
+            {msg.text}
+          </p>
+        )}
       </div>
     </div>
   );

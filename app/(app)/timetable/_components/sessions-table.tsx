@@ -36,7 +36,14 @@ export function SessionsTable({
   cohorts: { id: string; name: string }[];
   rooms: string[];
 }) {
-  const [params, setParams] = useState<Record<string, string>>({ sort: "starts_at", dir: "asc", status: "all", page: "1", pageSize: "20", ...initial });
+  const [params, setParams] = useState<Record<string, string>>({
+    sort: "starts_at",
+    dir: "asc",
+    status: "all",
+    page: "1",
+    pageSize: "20",
+    ...initial,
+  });
   const qs = new URLSearchParams(Object.entries(params).filter(([, v]) => v !== "")).toString();
   const { data, error, isPending } = useQuery<Page, Error>({
     queryKey: ["sessions", qs],
@@ -55,15 +62,27 @@ export function SessionsTable({
       <h2 id="list-title">Sessions</h2>
       <div className="flex flex-wrap items-end gap-3">
         <div>
-          <label htmlFor="l-from" className="field-label">From</label>
-          <input id="l-from" type="date" className="field-input" value={params.from ?? ""} onChange={(e) => set({ from: e.target.value })} />
+          <label htmlFor="l-from" className="field-label">
+            From
+          </label>
+          <input
+            id="l-from"
+            type="date"
+            className="field-input"
+            value={params.from ?? ""}
+            onChange={(e) => set({ from: e.target.value })}
+          />
         </div>
         <div>
-          <label htmlFor="l-to" className="field-label">To</label>
+          <label htmlFor="l-to" className="field-label">
+            To
+          </label>
           <input id="l-to" type="date" className="field-input" value={params.to ?? ""} onChange={(e) => set({ to: e.target.value })} />
         </div>
         <div>
-          <label htmlFor="l-status" className="field-label">Status</label>
+          <label htmlFor="l-status" className="field-label">
+            Status
+          </label>
           <select id="l-status" className="field-input" value={params.status} onChange={(e) => set({ status: e.target.value })}>
             <option value="all">Scheduled and cancelled</option>
             <option value="scheduled">Scheduled</option>
@@ -73,45 +92,86 @@ export function SessionsTable({
         {staff && (
           <>
             <div>
-              <label htmlFor="l-instructor" className="field-label">Instructor</label>
-              <select id="l-instructor" className="field-input" value={params.instructor ?? ""} onChange={(e) => set({ instructor: e.target.value })}>
+              <label htmlFor="l-instructor" className="field-label">
+                Instructor
+              </label>
+              <select
+                id="l-instructor"
+                className="field-input"
+                value={params.instructor ?? ""}
+                onChange={(e) => set({ instructor: e.target.value })}
+              >
                 <option value="">Any instructor</option>
-                {instructors.map((i) => <option key={i.id} value={i.id}>{i.name}</option>)}
+                {instructors.map((i) => (
+                  <option key={i.id} value={i.id}>
+                    {i.name}
+                  </option>
+                ))}
               </select>
             </div>
             <div>
-              <label htmlFor="l-cohort" className="field-label">Cohort</label>
+              <label htmlFor="l-cohort" className="field-label">
+                Cohort
+              </label>
               <select id="l-cohort" className="field-input" value={params.cohort ?? ""} onChange={(e) => set({ cohort: e.target.value })}>
                 <option value="">Any cohort</option>
-                {cohorts.map((c) => <option key={c.id} value={c.id}>{c.name}</option>)}
+                {cohorts.map((c) => (
+                  <option key={c.id} value={c.id}>
+                    {c.name}
+                  </option>
+                ))}
               </select>
             </div>
             <div>
-              <label htmlFor="l-room" className="field-label">Room</label>
+              <label htmlFor="l-room" className="field-label">
+                Room
+              </label>
               <select id="l-room" className="field-input" value={params.room ?? ""} onChange={(e) => set({ room: e.target.value })}>
                 <option value="">Any room</option>
-                {rooms.map((r) => <option key={r} value={r}>{r}</option>)}
+                {rooms.map((r) => (
+                  <option key={r} value={r}>
+                    {r}
+                  </option>
+                ))}
               </select>
             </div>
             <label className="flex min-h-touch items-center gap-2">
-              <input type="checkbox" className="h-5 w-5" checked={params.mine === "1"} onChange={(e) => set({ mine: e.target.checked ? "1" : "" })} />
+              <input
+                type="checkbox"
+                className="h-5 w-5"
+                checked={params.mine === "1"}
+                onChange={(e) => set({ mine: e.target.checked ? "1" : "" })}
+              />
               Only mine
             </label>
           </>
         )}
       </div>
-      <div aria-live="polite">{error && <p role="alert" className="field-error">{error.message}</p>}</div>
+      <div aria-live="polite">
+        {error && (
+          <p role="alert" className="field-error">
+            {error.message}
+          </p>
+        )}
+      </div>
       <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Sessions, scrolls sideways">
         <table className="data-table" data-testid="sessions-table">
           <thead>
             <tr>
               {COLUMNS.map((c) => (
-                <th key={c.label} scope="col" aria-sort={c.key && params.sort === c.key ? (params.dir === "asc" ? "ascending" : "descending") : undefined}>
+                <th
+                  key={c.label}
+                  scope="col"
+                  aria-sort={c.key && params.sort === c.key ? (params.dir === "asc" ? "ascending" : "descending") : undefined}
+                >
                   {c.key ? (
                     <button type="button" className="min-h-touch uppercase" onClick={() => sortBy(c.key!)}>
-                      {c.label}{params.sort === c.key ? (params.dir === "asc" ? " ↑" : " ↓") : ""}
+                      {c.label}
+                      {params.sort === c.key ? (params.dir === "asc" ? " ↑" : " ↓") : ""}
                     </button>
-                  ) : c.label}
+                  ) : (
+                    c.label
+                  )}
                 </th>
               ))}
             </tr>
@@ -119,8 +179,12 @@ export function SessionsTable({
           <tbody>
             {data?.rows.map((s) => (
               <tr key={s.id}>
-                <td className="num whitespace-nowrap">{s.date} {s.startLocal}–{s.endLocal}</td>
-                <td><Link href={`/timetable/${s.id}`}>{s.briefingTitle}</Link></td>
+                <td className="num whitespace-nowrap">
+                  {s.date} {s.startLocal}–{s.endLocal}
+                </td>
+                <td>
+                  <Link href={`/timetable/${s.id}`}>{s.briefingTitle}</Link>
+                </td>
                 <td>{s.room}</td>
                 <td>{s.instructorName}</td>
                 <td>{s.cohortName ?? "Individual students"}</td>
@@ -128,16 +192,36 @@ export function SessionsTable({
               </tr>
             ))}
             {data && data.rows.length === 0 && (
-              <tr><td colSpan={6} className="text-ink-soft">No sessions match.</td></tr>
+              <tr>
+                <td colSpan={6} className="text-ink-soft">
+                  No sessions match.
+                </td>
+              </tr>
             )}
           </tbody>
         </table>
       </div>
       {data && (
         <nav aria-label="Pages" className="flex flex-wrap items-center gap-3">
-          <button type="button" className="btn-quiet" disabled={data.page <= 1} onClick={() => setParams((p) => ({ ...p, page: String(data.page - 1) }))}>Previous page</button>
-          <span className="num">Page {data.page} of {data.pages} · {data.total} sessions</span>
-          <button type="button" className="btn-quiet" disabled={data.page >= data.pages} onClick={() => setParams((p) => ({ ...p, page: String(data.page + 1) }))}>Next page</button>
+          <button
+            type="button"
+            className="btn-quiet"
+            disabled={data.page <= 1}
+            onClick={() => setParams((p) => ({ ...p, page: String(data.page - 1) }))}
+          >
+            Previous page
+          </button>
+          <span className="num">
+            Page {data.page} of {data.pages} · {data.total} sessions
+          </span>
+          <button
+            type="button"
+            className="btn-quiet"
+            disabled={data.page >= data.pages}
+            onClick={() => setParams((p) => ({ ...p, page: String(data.page + 1) }))}
+          >
+            Next page
+          </button>
         </nav>
       )}
     </section>

@@ -8,7 +8,11 @@ import { SessionsTable } from "../_components/sessions-table";
 export const metadata: Metadata = { title: "Timetable: list" };
 export const dynamic = "force-dynamic";
 
-export default async function TimetableListPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function TimetableListPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const user = await requirePagePermission("timetable.view", "/timetable/list");
   const school = await getSchool(user.schoolId);
   const staff = can(user, "timetable.schedule");
@@ -23,8 +27,14 @@ export default async function TimetableListPage({ searchParams }: { searchParams
           <h1 className="text-display">Timetable</h1>
         </div>
         <nav aria-label="Timetable views" className="flex flex-wrap gap-2">
-          <Link href="/timetable" className="btn-quiet">Week view</Link>
-          {staff && <Link href="/timetable/new" className="btn-primary">Schedule a session</Link>}
+          <Link href="/timetable" className="btn-quiet">
+            Week view
+          </Link>
+          {staff && (
+            <Link href="/timetable/new" className="btn-primary">
+              Schedule a session
+            </Link>
+          )}
         </nav>
       </header>
       <SessionsTable staff={staff} initial={initial} instructors={choices.instructors} cohorts={choices.cohorts} rooms={choices.rooms} />

@@ -17,14 +17,24 @@ export default async function NewSessionPage() {
   return (
     <div className="space-y-6">
       <header>
-        <p className="text-caption"><Link href="/timetable" className="underline">← Timetable</Link></p>
+        <p className="text-caption">
+          <Link href="/timetable" className="underline">
+            ← Timetable
+          </Link>
+        </p>
         <h1 className="text-display">Schedule a session</h1>
         <p className="text-ink-soft">Date and time are in the school&apos;s time zone ({school.timeZone}).</p>
       </header>
       {choices.briefings.length === 0 ? (
         <p className="card">There is no briefing to schedule yet. Write one under Briefings first.</p>
       ) : (
-        <ScheduleForm choices={choices} defaults={{ date: dateInZone(now(), school.timeZone), instructorId: choices.instructors.some((i) => i.id === user.id) ? user.id : "" }} />
+        <ScheduleForm
+          choices={choices}
+          defaults={{
+            date: dateInZone(now(), school.timeZone),
+            instructorId: choices.instructors.some((i) => i.id === user.id) ? user.id : "",
+          }}
+        />
       )}
     </div>
   );

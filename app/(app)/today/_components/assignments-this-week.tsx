@@ -17,7 +17,12 @@ export async function AssignmentsThisWeek({ user }: { user: CurrentUser }) {
         <ul className="mt-1 space-y-1">
           {open.map((a) => (
             <li key={a.id} className="flex flex-wrap items-baseline gap-x-2">
-              <Link href={a.kind === "briefing" && a.briefingId ? `/briefings/${a.briefingId}` : `/assignments#a-${a.id}`} className="font-medium">{a.title}</Link>
+              <Link
+                href={a.kind === "briefing" && a.briefingId ? `/briefings/${a.briefingId}` : `/assignments#a-${a.id}`}
+                className="font-medium"
+              >
+                {a.title}
+              </Link>
               <span className={a.overdue ? "text-caption font-semibold text-notyet-800" : "text-caption text-ink-soft"}>
                 {a.overdue ? "Overdue: " : "Due "}
                 {format(parseISO(a.dueOn), "EEE d MMM")}
@@ -26,7 +31,9 @@ export async function AssignmentsThisWeek({ user }: { user: CurrentUser }) {
           ))}
         </ul>
       )}
-      <Link href="/assignments" className="mt-1 inline-flex min-h-touch items-center text-caption">All your assignments</Link>
+      <Link href="/assignments" className="mt-1 inline-flex min-h-touch items-center text-caption">
+        All your assignments
+      </Link>
     </div>
   );
 }

@@ -16,7 +16,9 @@ export async function AttendanceDue({ user }: { user: CurrentUser }) {
             <li key={s.id} className="py-1">
               <Link href={`/timetable/${s.id}`} className="flex min-h-touch flex-wrap items-center justify-between gap-x-4">
                 <span className="font-medium">{s.briefingTitle}</span>
-                <span className="num text-caption text-ink-soft">{s.date} {s.startLocal}–{s.endLocal} · {s.cohortName ?? `${s.attendeeCount} students`} · {s.room}</span>
+                <span className="num text-caption text-ink-soft">
+                  {s.date} {s.startLocal}–{s.endLocal} · {s.cohortName ?? `${s.attendeeCount} students`} · {s.room}
+                </span>
               </Link>
             </li>
           ))}

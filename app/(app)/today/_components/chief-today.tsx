@@ -6,7 +6,9 @@ export async function ChiefToday({ user }: { user: CurrentUser }) {
   const { counts, locked, currency } = await chiefSummary(user);
   return (
     <section aria-labelledby="chief-title" className="space-y-4">
-      <h2 id="chief-title" className="sr-only">School overview</h2>
+      <h2 id="chief-title" className="sr-only">
+        School overview
+      </h2>
       <dl className="grid grid-cols-2 gap-3 sm:grid-cols-4">
         {[
           ["Students", counts.students],
@@ -24,14 +26,23 @@ export async function ChiefToday({ user }: { user: CurrentUser }) {
         <section className="card" aria-labelledby="currency-title">
           <h2 id="currency-title">Instructor currency</h2>
           <table className="data-table mt-2">
-            <thead><tr><th scope="col">Instructor</th><th scope="col">Certificate</th><th scope="col">Recency due</th></tr></thead>
+            <thead>
+              <tr>
+                <th scope="col">Instructor</th>
+                <th scope="col">Certificate</th>
+                <th scope="col">Recency due</th>
+              </tr>
+            </thead>
             <tbody>
               {currency.map((c) => (
                 <tr key={c.certificateNumber}>
                   <td>{c.name}</td>
                   <td className="num">{c.certificateNumber}</td>
                   <td className="num">
-                    {c.dueOn} {c.overdue && <span className="ml-1 rounded bg-notyet-100 px-1.5 text-caption font-semibold text-notyet-800">lapsed</span>}
+                    {c.dueOn}{" "}
+                    {c.overdue && (
+                      <span className="ml-1 rounded bg-notyet-100 px-1.5 text-caption font-semibold text-notyet-800">lapsed</span>
+                    )}
                   </td>
                 </tr>
               ))}
@@ -46,7 +57,9 @@ export async function ChiefToday({ user }: { user: CurrentUser }) {
             <ul className="mt-2 space-y-2" data-testid="locked-accounts">
               {locked.map((l) => (
                 <li key={`${l.personId}-${l.address}`} className="flex flex-wrap items-center justify-between gap-2">
-                  <span>{l.name} <span className="text-caption text-ink-soft">({l.email})</span></span>
+                  <span>
+                    {l.name} <span className="text-caption text-ink-soft">({l.email})</span>
+                  </span>
                   <UnlockButton personId={l.personId} name={l.name} />
                 </li>
               ))}

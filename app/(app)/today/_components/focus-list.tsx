@@ -18,7 +18,11 @@ export function FocusList() {
   return (
     <section className="card" aria-labelledby="focus-title" aria-busy={isPending}>
       <h2 id="focus-title">{data?.title ?? "Loading…"}</h2>
-      {isError && <p role="alert" className="mt-2 text-notyet-800">Could not load this list. Reload the page to try again.</p>}
+      {isError && (
+        <p role="alert" className="mt-2 text-notyet-800">
+          Could not load this list. Reload the page to try again.
+        </p>
+      )}
       {data && data.rows.length === 0 && <p className="mt-2 text-ink-soft">Nothing here yet.</p>}
       {data && data.rows.length > 0 && (
         <ul className="mt-3 divide-y divide-paper-edge" data-testid="focus-list">

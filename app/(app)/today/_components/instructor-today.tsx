@@ -13,7 +13,9 @@ export async function InstructorToday({ user }: { user: CurrentUser }) {
           {cohorts.map((c) => (
             <li key={c.id}>
               <span className="font-semibold">{c.name}</span>{" "}
-              <span className="text-ink-soft">· {c.courseCode} · started {c.startsOn} · <span className="num">{c.memberCount}</span> students</span>
+              <span className="text-ink-soft">
+                · {c.courseCode} · started {c.startsOn} · <span className="num">{c.memberCount}</span> students
+              </span>
             </li>
           ))}
         </ul>

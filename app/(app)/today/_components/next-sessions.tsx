@@ -6,7 +6,11 @@ import { now } from "@/lib/clock";
 /** The student's next sessions (This week): scheduled and cancelled ones in the next seven days. */
 export async function NextSessions({ user }: { user: CurrentUser }) {
   const from = now();
-  const { rows } = await listSessions(user, { fromInstant: from, toInstant: new Date(from.getTime() + 7 * 24 * 3600_000) }, { pageSize: 10 });
+  const { rows } = await listSessions(
+    user,
+    { fromInstant: from, toInstant: new Date(from.getTime() + 7 * 24 * 3600_000) },
+    { pageSize: 10 },
+  );
   return (
     <section className="card" aria-labelledby="next-title">
       <h2 id="next-title">Next sessions</h2>
@@ -18,13 +22,24 @@ export async function NextSessions({ user }: { user: CurrentUser }) {
             <li key={s.id} className="py-1">
               <Link href={`/timetable/${s.id}`} className="flex min-h-touch flex-wrap items-center justify-between gap-x-4">
                 <span className={`font-medium ${s.status === "cancelled" ? "line-through" : ""}`}>{s.briefingTitle}</span>
-                <span className="num text-caption text-ink-soft">{s.date} {s.startLocal}–{s.endLocal} · {s.room}{s.status === "cancelled" ? " · Cancelled" : ""}</span>
+                <span className="num text-caption text-ink-soft">
+                  {s.date} {s.startLocal}–{s.endLocal} · {s.room}
+                  {s.status === "cancelled" ? " · Cancelled" : ""}
+                </span>
               </Link>
             </li>
           ))}
         </ul>
       )}
-      <p className="mt-2 text-caption"><Link href="/timetable" className="underline">Your week on the Timetable</Link> · <Link href="/ground-log" className="underline">Your Ground log</Link></p>
+      <p className="mt-2 text-caption">
+        <Link href="/timetable" className="underline">
+          Your week on the Timetable
+        </Link>{" "}
+        ·{" "}
+        <Link href="/ground-log" className="underline">
+          Your Ground log
+        </Link>
+      </p>
     </section>
   );
 }

@@ -11,27 +11,47 @@ export async function RecordsToday({ user }: { user: CurrentUser }) {
       <div className="grid gap-4 md:grid-cols-3">
         <div>
           <h3 className="font-semibold">Stage checks waiting</h3>
-          {waiting.length === 0 ? <p className="text-ink-soft">None waiting.</p> : (
+          {waiting.length === 0 ? (
+            <p className="text-ink-soft">None waiting.</p>
+          ) : (
             <ul className="text-caption">
               {waiting.slice(0, 6).map((w) => (
-                <li key={`${w.studentId}-${w.stageCode}`}><Link className="underline" href={`/records/${w.studentId}`}>{w.studentName}</Link> · {w.stageCode} · {w.days === null ? "ready" : `waiting ${w.days} day${w.days === 1 ? "" : "s"}`}</li>
+                <li key={`${w.studentId}-${w.stageCode}`}>
+                  <Link className="underline" href={`/records/${w.studentId}`}>
+                    {w.studentName}
+                  </Link>{" "}
+                  · {w.stageCode} · {w.days === null ? "ready" : `waiting ${w.days} day${w.days === 1 ? "" : "s"}`}
+                </li>
               ))}
             </ul>
           )}
         </div>
         <div>
           <h3 className="font-semibold">Watch notes</h3>
-          {notes.length === 0 ? <p className="text-ink-soft">None.</p> : (
+          {notes.length === 0 ? (
+            <p className="text-ink-soft">None.</p>
+          ) : (
             <ul className="text-caption">
-              {notes.slice(0, 5).map((n, i) => <li key={`${n.recordId}-${i}`}>{n.label}: {n.studentName}{n.itemCode ? ` ${n.itemCode}` : ""}</li>)}
+              {notes.slice(0, 5).map((n, i) => (
+                <li key={`${n.recordId}-${i}`}>
+                  {n.label}: {n.studentName}
+                  {n.itemCode ? ` ${n.itemCode}` : ""}
+                </li>
+              ))}
             </ul>
           )}
-          <Link href="/register" className="text-caption underline">All {notes.length} in the Sign-off register</Link>
+          <Link href="/register" className="text-caption underline">
+            All {notes.length} in the Sign-off register
+          </Link>
         </div>
         <div>
           <h3 className="font-semibold">Audit chain</h3>
-          <p className={chain.ok ? "font-semibold text-solid-800" : "font-semibold text-notyet-800"}>{chain.ok ? `Verifies (${chain.checked} events)` : `Broken at position ${chain.broken?.position}`}</p>
-          <Link href="/register/chain" className="text-caption underline">Verify now</Link>
+          <p className={chain.ok ? "font-semibold text-solid-800" : "font-semibold text-notyet-800"}>
+            {chain.ok ? `Verifies (${chain.checked} events)` : `Broken at position ${chain.broken?.position}`}
+          </p>
+          <Link href="/register/chain" className="text-caption underline">
+            Verify now
+          </Link>
         </div>
       </div>
     </section>

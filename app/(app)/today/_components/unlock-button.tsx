@@ -9,15 +9,24 @@ export function UnlockButton({ personId, name }: { personId: string; name: strin
   const router = useRouter();
   return (
     <span className="inline-flex items-center gap-2">
-      <button type="button" className="btn-quiet" disabled={pending} aria-label={`Unlock ${name}`}
-        onClick={() => start(async () => {
-          const r = await unlockAccountAction({ personId });
-          setMessage(r.ok ? "Unlocked" : r.message);
-          router.refresh();
-        })}>
+      <button
+        type="button"
+        className="btn-quiet"
+        disabled={pending}
+        aria-label={`Unlock ${name}`}
+        onClick={() =>
+          start(async () => {
+            const r = await unlockAccountAction({ personId });
+            setMessage(r.ok ? "Unlocked" : r.message);
+            router.refresh();
+          })
+        }
+      >
         Unlock
       </button>
-      <span aria-live="polite" className="text-caption">{message}</span>
+      <span aria-live="polite" className="text-caption">
+        {message}
+      </span>
     </span>
   );
 }

@@ -18,10 +18,16 @@ export async function setPasswordAction(input: unknown): Promise<ActionResult<{ 
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
     const field = issue?.path.map(String).join(".") || "form";
-    return { ok: false, status: 400, message: `${field}: ${issue?.message ?? "invalid"}`, fieldErrors: { [field]: [issue?.message ?? "invalid"] } };
+    return {
+      ok: false,
+      status: 400,
+      message: `${field}: ${issue?.message ?? "invalid"}`,
+      fieldErrors: { [field]: [issue?.message ?? "invalid"] },
+    };
   }
   const { token, password, confirm } = parsed.data;
-  if (password !== confirm) return { ok: false, status: 400, message: "confirm: the two passwords differ", fieldErrors: { confirm: ["The two passwords differ"] } };
+  if (password !== confirm)
+    return { ok: false, status: 400, message: "confirm: the two passwords differ", fieldErrors: { confirm: ["The two passwords differ"] } };
   const res = await redeemSetPasswordToken(token, password);
   if (!res.ok) return { ok: false, status: 400, message: `${res.field}: ${res.message}`, fieldErrors: { [res.field]: [res.message] } };
   return { ok: true, data: { done: true } };

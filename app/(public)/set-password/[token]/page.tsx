@@ -32,7 +32,9 @@ export default async function SetPasswordPage({ params }: { params: Promise<{ to
                 ? "This link has expired. Ask the school for a new one."
                 : "This link is not valid. Check that you copied all of it, or ask the school for a new one."}
           </p>
-          <Link href="/sign-in" className="btn inline-flex bg-chalk text-board-900 hover:bg-white">Go to sign in</Link>
+          <Link href="/sign-in" className="btn inline-flex bg-chalk text-board-900 hover:bg-white">
+            Go to sign in
+          </Link>
         </div>
       )}
     </div>

@@ -6,7 +6,13 @@ export const metadata: Metadata = { title: "Stop a mail", referrer: "no-referrer
 export const dynamic = "force-dynamic";
 
 // Opening this page changes nothing (link scanners follow links); only the button's POST does.
-export default async function UnsubscribePage({ params, searchParams }: { params: Promise<{ token: string }>; searchParams: Promise<{ done?: string }> }) {
+export default async function UnsubscribePage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ token: string }>;
+  searchParams: Promise<{ done?: string }>;
+}) {
   const { token } = await params;
   const { done } = await searchParams;
   const view = await inspectUnsubscribe(token);
@@ -21,7 +27,8 @@ export default async function UnsubscribePage({ params, searchParams }: { params
           </p>
         ) : view.already || done ? (
           <p role="status" className="text-chalk" data-testid="unsubscribe-state">
-            Done: you will no longer receive {unsubscribeKindLabel(view.claim.kind)} about {view.studentFirstName}. The school can turn it back on if you ask.
+            Done: you will no longer receive {unsubscribeKindLabel(view.claim.kind)} about {view.studentFirstName}. The school can turn it
+            back on if you ask.
           </p>
         ) : (
           <form method="post" action="/api/unsubscribe">

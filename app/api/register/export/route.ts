@@ -10,7 +10,22 @@ export const GET = route("register.view", async ({ req, user }) => {
   const q = parseQuery(req, registerQuerySchema);
   const { rows } = await signOffRegister(user, toFilter(q));
   const head = await chainHead(user.schoolId);
-  const header = ["kind", "date", "student", "cohort", "stage", "item", "title", "signer or examiner", "basis", "state", "reason", "watch notes", "recorded at", "signature hash"];
+  const header = [
+    "kind",
+    "date",
+    "student",
+    "cohort",
+    "stage",
+    "item",
+    "title",
+    "signer or examiner",
+    "basis",
+    "state",
+    "reason",
+    "watch notes",
+    "recorded at",
+    "signature hash",
+  ];
   const body = rows.map((r) => [
     r.kind === "sign_off" ? "sign-off" : "stage check",
     r.date,
@@ -27,7 +42,12 @@ export const GET = route("register.view", async ({ req, user }) => {
     r.recordedAt.toISOString(),
     r.signatureHash,
   ]);
-  const trailer = [[], ["audit chain head hash", head.hash], ["audit chain length", String(head.position)], ["exported at", now().toISOString()]];
+  const trailer = [
+    [],
+    ["audit chain head hash", head.hash],
+    ["audit chain length", String(head.position)],
+    ["exported at", now().toISOString()],
+  ];
   const csv = toCsv(header, [...body, ...trailer]);
   return new Response(csv, {
     headers: {

@@ -30,7 +30,10 @@ export const BRIEFINGS_TABLE: AuthzTable = {
     request: () => ({ query: "sort=title&dir=asc&pageSize=100" }),
     expect: {
       signedOut: 401,
-      chief: { status: 200, check: (res, fx) => expect(listIds(res)).toEqual(expect.arrayContaining([fx.briefingVmd, fx.briefingSources])) },
+      chief: {
+        status: 200,
+        check: (res, fx) => expect(listIds(res)).toEqual(expect.arrayContaining([fx.briefingVmd, fx.briefingSources])),
+      },
       instructor: { status: 200, check: (res, fx) => expect(listIds(res)).toContain(fx.briefingVmd) },
       // the Kestrel student: the Vmd briefing is assigned to their cohort
       student: { status: 200, check: (res, fx) => expect(listIds(res)).toContain(fx.briefingVmd) },
@@ -40,10 +43,18 @@ export const BRIEFINGS_TABLE: AuthzTable = {
   },
 
   "POST /api/briefings/[briefingId]/handouts": {
-    request: (fx) => ({ params: { briefingId: fx.briefingSources }, query: "name=harness-dot.png", rawBody: TINY_PNG, contentType: "image/png" }),
+    request: (fx) => ({
+      params: { briefingId: fx.briefingSources },
+      query: "name=harness-dot.png",
+      rawBody: TINY_PNG,
+      contentType: "image/png",
+    }),
     expect: {
       signedOut: 401,
-      chief: { status: 201, check: (res) => expect(res.json).toMatchObject({ handoutId: expect.any(String), revisionNumber: expect.any(Number) }) },
+      chief: {
+        status: 201,
+        check: (res) => expect(res.json).toMatchObject({ handoutId: expect.any(String), revisionNumber: expect.any(Number) }),
+      },
       instructor: { status: 201, check: (res) => expect(res.json).toMatchObject({ handoutId: expect.any(String) }) },
       student: 403,
       sponsor: 403,
@@ -63,7 +74,9 @@ export const BRIEFINGS_TABLE: AuthzTable = {
         check: (res) => {
           expect(res.headers.get("content-type")).toBe("application/pdf");
           expect(res.headers.get("x-content-type-options")).toBe("nosniff");
-          expect(res.headers.get("content-disposition")).toBe(`attachment; filename="drag-curve-and-vmd.pdf"; filename*=UTF-8''drag-curve-and-vmd.pdf`);
+          expect(res.headers.get("content-disposition")).toBe(
+            `attachment; filename="drag-curve-and-vmd.pdf"; filename*=UTF-8''drag-curve-and-vmd.pdf`,
+          );
           expect(res.text.startsWith("%PDF-")).toBe(true);
         },
       },
@@ -97,7 +110,10 @@ export const BRIEFINGS_TABLE: AuthzTable = {
     expect: {
       signedOut: 401,
       chief: { status: 200, check: (res, fx) => expect(ok(res).data).toMatchObject({ briefingId: fx.briefingSources, created: true }) },
-      instructor: { status: 200, check: (res, fx) => expect(ok(res).data).toMatchObject({ briefingId: fx.briefingSources, created: true }) },
+      instructor: {
+        status: 200,
+        check: (res, fx) => expect(ok(res).data).toMatchObject({ briefingId: fx.briefingSources, created: true }),
+      },
       student: 403,
       sponsor: 403,
     },
@@ -105,7 +121,18 @@ export const BRIEFINGS_TABLE: AuthzTable = {
   },
 
   "action app/(app)/assignments/actions.ts#createAssignmentAction": {
-    request: (fx) => ({ args: [{ kind: "briefing", briefingId: fx.briefingSources, cohortId: fx.kestrelCohort, studentIds: [], dueOn: "2099-06-30", note: "harness" }] }),
+    request: (fx) => ({
+      args: [
+        {
+          kind: "briefing",
+          briefingId: fx.briefingSources,
+          cohortId: fx.kestrelCohort,
+          studentIds: [],
+          dueOn: "2099-06-30",
+          note: "harness",
+        },
+      ],
+    }),
     expect: {
       signedOut: 401,
       chief: { status: 200, check: (res) => expect(ok(res).data).toMatchObject({ ids: [expect.any(String)] }) },
@@ -137,7 +164,13 @@ export const BRIEFINGS_TABLE: AuthzTable = {
           approvedOn: null,
           effectiveFrom: null,
           changeNote: "harness",
-          stages: [{ code: "H", title: "Harness stage", items: [{ code: "H-01", title: "Item", objective: "None.", completionStandard: "None.", requiredLevel: "rote" }] }],
+          stages: [
+            {
+              code: "H",
+              title: "Harness stage",
+              items: [{ code: "H-01", title: "Item", objective: "None.", completionStandard: "None.", requiredLevel: "rote" }],
+            },
+          ],
         },
       ],
     }),

@@ -20,11 +20,20 @@ const checkArgs = (fx: Fixtures) => ({
   occurredAt: at(),
   remarks: "harness",
   questions: [
-    { syllabusItemId: fx.recordsItemAer01, questionText: "Name the parts of zero-lift drag.", answerSummary: "all three", outcome: "solid", required: true, prompted: false, correctiveGiven: false },
+    {
+      syllabusItemId: fx.recordsItemAer01,
+      questionText: "Name the parts of zero-lift drag.",
+      answerSummary: "all three",
+      outcome: "solid",
+      required: true,
+      prompted: false,
+      correctiveGiven: false,
+    },
   ],
 });
 
-const byCaller = <T>(caller: Caller, chief: T, instructor: T, other: T) => (caller === "chief" ? chief : caller === "instructor" ? instructor : other);
+const byCaller = <T>(caller: Caller, chief: T, instructor: T, other: T) =>
+  caller === "chief" ? chief : caller === "instructor" ? instructor : other;
 
 export const RECORDS_TABLE: AuthzTable = {
   "action app/(app)/records/actions.ts#recordCheckAction": {
@@ -40,14 +49,27 @@ export const RECORDS_TABLE: AuthzTable = {
   },
 
   "action app/(app)/records/actions.ts#withdrawCheckAction": {
-    request: (fx, caller) => ({ args: [{ checkId: byCaller(caller, fx.recordsCheckToWithdrawByChief, fx.recordsCheckToWithdrawByLead, fx.recordsCheckToWithdrawByLead), reason: "harness withdrawal" }] }),
+    request: (fx, caller) => ({
+      args: [
+        {
+          checkId: byCaller(caller, fx.recordsCheckToWithdrawByChief, fx.recordsCheckToWithdrawByLead, fx.recordsCheckToWithdrawByLead),
+          reason: "harness withdrawal",
+        },
+      ],
+    }),
     expect: { signedOut: 401, chief: 200, instructor: 200, student: 403, sponsor: 403 },
     mutates: true,
   },
 
   "action app/(app)/records/actions.ts#signOffAction": {
     request: (fx, caller) => ({
-      args: [{ studentId: byCaller(caller, fx.recordsBeatriz, fx.recordsSaoirse, fx.recordsSaoirse), itemId: fx.recordsItemAer01, password: PASSWORD }],
+      args: [
+        {
+          studentId: byCaller(caller, fx.recordsBeatriz, fx.recordsSaoirse, fx.recordsSaoirse),
+          itemId: fx.recordsItemAer01,
+          password: PASSWORD,
+        },
+      ],
     }),
     expect: {
       signedOut: 401,
@@ -61,14 +83,32 @@ export const RECORDS_TABLE: AuthzTable = {
   },
 
   "action app/(app)/records/actions.ts#withdrawSignOffAction": {
-    request: (fx, caller) => ({ args: [{ signOffId: byCaller(caller, fx.recordsSignOffToWithdrawByChief, fx.recordsSignOffToWithdrawByLead, fx.recordsSignOffToWithdrawByLead), reason: "harness withdrawal" }] }),
+    request: (fx, caller) => ({
+      args: [
+        {
+          signOffId: byCaller(
+            caller,
+            fx.recordsSignOffToWithdrawByChief,
+            fx.recordsSignOffToWithdrawByLead,
+            fx.recordsSignOffToWithdrawByLead,
+          ),
+          reason: "harness withdrawal",
+        },
+      ],
+    }),
     expect: { signedOut: 401, chief: 200, instructor: 200, student: 403, sponsor: 403 },
     mutates: true,
   },
 
   "action app/(app)/records/actions.ts#amendSignOffAction": {
     request: (fx, caller) => ({
-      args: [{ signOffId: byCaller(caller, fx.recordsSignOffToAmendByChief, fx.recordsSignOffToAmendByLead, fx.recordsSignOffToAmendByLead), reason: "harness amendment", password: PASSWORD }],
+      args: [
+        {
+          signOffId: byCaller(caller, fx.recordsSignOffToAmendByChief, fx.recordsSignOffToAmendByLead, fx.recordsSignOffToAmendByLead),
+          reason: "harness amendment",
+          password: PASSWORD,
+        },
+      ],
     }),
     expect: {
       signedOut: 401,
@@ -82,7 +122,17 @@ export const RECORDS_TABLE: AuthzTable = {
 
   "action app/(app)/records/actions.ts#conductStageCheckAction": {
     request: (fx) => ({
-      args: [{ studentId: fx.recordsReadyStudent, stageId: fx.recordsStageAer, result: "pass", oralOutcomes: [], writtenScorePercent: 88, remarks: "harness", occurredAt: at() }],
+      args: [
+        {
+          studentId: fx.recordsReadyStudent,
+          stageId: fx.recordsStageAer,
+          result: "pass",
+          oralOutcomes: [],
+          writtenScorePercent: 88,
+          remarks: "harness",
+          occurredAt: at(),
+        },
+      ],
     }),
     expect: {
       signedOut: 401,
@@ -98,13 +148,25 @@ export const RECORDS_TABLE: AuthzTable = {
 
   "action app/(app)/records/actions.ts#designateCheckInstructorAction": {
     request: (fx) => ({ args: [{ personId: fx.otherInstructor, checkInstructor: true }] }),
-    expect: { signedOut: 401, chief: { status: 200, check: (res) => expect(okData(res).checkInstructor).toBe(true) }, instructor: 403, student: 403, sponsor: 403 },
+    expect: {
+      signedOut: 401,
+      chief: { status: 200, check: (res) => expect(okData(res).checkInstructor).toBe(true) },
+      instructor: 403,
+      student: 403,
+      sponsor: 403,
+    },
     mutates: true,
   },
 
   "action app/(app)/progress/actions.ts#acknowledgeCheckAction": {
     request: (fx) => ({ args: [{ checkId: fx.recordsAdaCheck }] }),
-    expect: { signedOut: 401, chief: 403, instructor: 403, student: { status: 200, check: (res) => expect(okData(res).acknowledged).toBe(true) }, sponsor: 403 },
+    expect: {
+      signedOut: 401,
+      chief: 403,
+      instructor: 403,
+      student: { status: 200, check: (res) => expect(okData(res).acknowledged).toBe(true) },
+      sponsor: 403,
+    },
     mutates: true,
   },
 
@@ -133,7 +195,13 @@ export const RECORDS_TABLE: AuthzTable = {
     request: (fx) => ({ params: { studentId: fx.student } }),
     expect: {
       signedOut: 401,
-      chief: { status: 200, check: (res) => { expect(res.headers.get("content-type")).toBe("application/pdf"); expect(res.text.startsWith("%PDF-")).toBe(true); } },
+      chief: {
+        status: 200,
+        check: (res) => {
+          expect(res.headers.get("content-type")).toBe("application/pdf");
+          expect(res.text.startsWith("%PDF-")).toBe(true);
+        },
+      },
       instructor: 200,
       student: { status: 200, check: (res) => expect(res.headers.get("x-audit-head")).toMatch(/^[0-9a-f]{64}$/) },
       sponsor: 404,

@@ -20,9 +20,18 @@ export default async function EditBriefingPage({ params }: { params: Promise<{ b
     <div className="space-y-6">
       <header>
         <h1 className="text-display">Edit briefing</h1>
-        <p className="text-ink-soft">Saving makes revision {view.currentNumber + 1}. Revision {view.currentNumber} and earlier stay as they were, for the sessions that used them.</p>
+        <p className="text-ink-soft">
+          Saving makes revision {view.currentNumber + 1}. Revision {view.currentNumber} and earlier stay as they were, for the sessions that
+          used them.
+        </p>
       </header>
-      <BriefingEditor briefingId={briefingId} nextNumber={view.currentNumber + 1} choices={choices} handouts={allHandouts} initial={{ ...input, changeNote: "" }} />
+      <BriefingEditor
+        briefingId={briefingId}
+        nextNumber={view.currentNumber + 1}
+        choices={choices}
+        handouts={allHandouts}
+        initial={{ ...input, changeNote: "" }}
+      />
     </div>
   );
 }

@@ -18,10 +18,20 @@ const fmt = formatNumber;
 
 const query = z.object({
   massLb: z.coerce.number({ error: "Mass must be a number" }).positive("Mass must be above 0 lb").optional(),
-  altitudeFt: z.coerce.number({ error: "Altitude must be a number" }).min(-2000, "Altitude must be between -2,000 and 40,000 ft").max(40000, "Altitude must be between -2,000 and 40,000 ft").optional(),
+  altitudeFt: z.coerce
+    .number({ error: "Altitude must be a number" })
+    .min(-2000, "Altitude must be between -2,000 and 40,000 ft")
+    .max(40000, "Altitude must be between -2,000 and 40,000 ft")
+    .optional(),
 });
 
-export default async function AirframePage({ params, searchParams }: { params: Promise<{ airframeId: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
+export default async function AirframePage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ airframeId: string }>;
+  searchParams: Promise<Record<string, string | undefined>>;
+}) {
   const { airframeId } = await params;
   const user = await requirePagePermission("airframes.view", `/curve-lab/airframes/${airframeId}`);
   const a = z.string().uuid().safeParse(airframeId).success ? await getAirframe(user.schoolId, airframeId) : null;
@@ -34,7 +44,8 @@ export default async function AirframePage({ params, searchParams }: { params: P
   if (parsed.success) {
     if (parsed.data.massLb !== undefined) {
       const kg = lbToKg(parsed.data.massLb);
-      if (kg < a.emptyMassKg - 0.5 || kg > a.maxMassKg + 0.5) fieldErrors.massLb = `Mass must be between ${fmt(kgToLb(a.emptyMassKg))} and ${fmt(kgToLb(a.maxMassKg))} lb for this profile`;
+      if (kg < a.emptyMassKg - 0.5 || kg > a.maxMassKg + 0.5)
+        fieldErrors.massLb = `Mass must be between ${fmt(kgToLb(a.emptyMassKg))} and ${fmt(kgToLb(a.maxMassKg))} lb for this profile`;
       else massKg = kg;
     }
     if (parsed.data.altitudeFt !== undefined) altitudeM = ftToM(parsed.data.altitudeFt);
@@ -49,25 +60,50 @@ export default async function AirframePage({ params, searchParams }: { params: P
   const editable = can(user, "airframes.edit");
   return (
     <div className="space-y-4">
-      <nav aria-label="Breadcrumb" className="text-caption"><Link href="/curve-lab">Curve Lab</Link> / <Link href="/curve-lab/airframes">Airframes</Link> / {a.name}</nav>
-      <h1 className="text-display">{a.name}{a.retiredAt && <span className="ml-3 text-lead text-ink-soft">(retired)</span>}</h1>
+      <nav aria-label="Breadcrumb" className="text-caption">
+        <Link href="/curve-lab">Curve Lab</Link> / <Link href="/curve-lab/airframes">Airframes</Link> / {a.name}
+      </nav>
+      <h1 className="text-display">
+        {a.name}
+        {a.retiredAt && <span className="ml-3 text-lead text-ink-soft">(retired)</span>}
+      </h1>
       <Caution />
       {editable && <AirframeButtons airframeId={a.id} retired={a.retiredAt !== null} />}
       <div className="grid gap-4 lg:grid-cols-2">
         <section className="card space-y-2" aria-labelledby="numbers-h">
           <h2 id="numbers-h">Numbers</h2>
           <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 num">
-            <dt>Mass</dt><dd>{fmt(kgToLb(a.emptyMassKg))}–{fmt(kgToLb(a.maxMassKg))} lb ({fmt(a.emptyMassKg)}–{fmt(a.maxMassKg)} kg)</dd>
-            <dt>Wing</dt><dd>{fmt(a.wingAreaM2, 2)} m², span {fmt(a.wingSpanM, 2)} m, aspect ratio {fmt(aspectRatio(a.wingSpanM, a.wingAreaM2), 2)}</dd>
-            <dt>Oswald e</dt><dd>{fmt(a.oswaldEfficiency, 2)}</dd>
-            <dt>CD0 clean</dt><dd>{fmt(a.zeroLiftDragCoefficient, 4)}</dd>
+            <dt>Mass</dt>
+            <dd>
+              {fmt(kgToLb(a.emptyMassKg))}–{fmt(kgToLb(a.maxMassKg))} lb ({fmt(a.emptyMassKg)}–{fmt(a.maxMassKg)} kg)
+            </dd>
+            <dt>Wing</dt>
+            <dd>
+              {fmt(a.wingAreaM2, 2)} m², span {fmt(a.wingSpanM, 2)} m, aspect ratio {fmt(aspectRatio(a.wingSpanM, a.wingAreaM2), 2)}
+            </dd>
+            <dt>Oswald e</dt>
+            <dd>{fmt(a.oswaldEfficiency, 2)}</dd>
+            <dt>CD0 clean</dt>
+            <dd>{fmt(a.zeroLiftDragCoefficient, 4)}</dd>
           </dl>
           <table className="data-table">
-            <thead><tr><th scope="col">Configuration</th><th scope="col">CD0 increment</th><th scope="col">CLmax</th></tr></thead>
+            <thead>
+              <tr>
+                <th scope="col">Configuration</th>
+                <th scope="col">CD0 increment</th>
+                <th scope="col">CLmax</th>
+              </tr>
+            </thead>
             <tbody>
               {CONFIGURATION_KEYS.map((k) => {
                 const v = a.configurations[k];
-                return <tr key={k}><td>{CONFIGURATION_LABELS[k]}</td><td className="num">{v ? fmt(v.cd0Increment, 4) : "—"}</td><td className="num">{v ? fmt(v.maxLiftCoefficient, 2) : "not on this type"}</td></tr>;
+                return (
+                  <tr key={k}>
+                    <td>{CONFIGURATION_LABELS[k]}</td>
+                    <td className="num">{v ? fmt(v.cd0Increment, 4) : "—"}</td>
+                    <td className="num">{v ? fmt(v.maxLiftCoefficient, 2) : "not on this type"}</td>
+                  </tr>
+                );
               })}
             </tbody>
           </table>
@@ -77,28 +113,89 @@ export default async function AirframePage({ params, searchParams }: { params: P
           <h2 id="derived-h">Derived figures</h2>
           <form method="get" className="flex flex-wrap items-end gap-3" noValidate>
             <div>
-              <label htmlFor="massLb" className="field-label">Mass (lb)</label>
-              <input id="massLb" name="massLb" type="number" step="any" className="field-input num w-36" defaultValue={sp.massLb ?? Math.round(kgToLb(massKg))} aria-describedby={fieldErrors.massLb ? "massLb-error" : undefined} />
-              {fieldErrors.massLb && <p id="massLb-error" className="field-error">{fieldErrors.massLb}</p>}
+              <label htmlFor="massLb" className="field-label">
+                Mass (lb)
+              </label>
+              <input
+                id="massLb"
+                name="massLb"
+                type="number"
+                step="any"
+                className="field-input num w-36"
+                defaultValue={sp.massLb ?? Math.round(kgToLb(massKg))}
+                aria-describedby={fieldErrors.massLb ? "massLb-error" : undefined}
+              />
+              {fieldErrors.massLb && (
+                <p id="massLb-error" className="field-error">
+                  {fieldErrors.massLb}
+                </p>
+              )}
             </div>
             <div>
-              <label htmlFor="altitudeFt" className="field-label">Pressure altitude (ft)</label>
-              <input id="altitudeFt" name="altitudeFt" type="number" step="any" className="field-input num w-36" defaultValue={sp.altitudeFt ?? Math.round(mToFt(altitudeM))} aria-describedby={fieldErrors.altitudeFt ? "altitudeFt-error" : undefined} />
-              {fieldErrors.altitudeFt && <p id="altitudeFt-error" className="field-error">{fieldErrors.altitudeFt}</p>}
+              <label htmlFor="altitudeFt" className="field-label">
+                Pressure altitude (ft)
+              </label>
+              <input
+                id="altitudeFt"
+                name="altitudeFt"
+                type="number"
+                step="any"
+                className="field-input num w-36"
+                defaultValue={sp.altitudeFt ?? Math.round(mToFt(altitudeM))}
+                aria-describedby={fieldErrors.altitudeFt ? "altitudeFt-error" : undefined}
+              />
+              {fieldErrors.altitudeFt && (
+                <p id="altitudeFt-error" className="field-error">
+                  {fieldErrors.altitudeFt}
+                </p>
+              )}
             </div>
-            <button type="submit" className="btn-quiet">Show</button>
+            <button type="submit" className="btn-quiet">
+              Show
+            </button>
           </form>
-          <p className="text-caption text-ink-soft">At {fmt(kgToLb(massKg))} lb ({fmt(massKg)} kg), {fmt(mToFt(altitudeM))} ft, ISA, clean. {AXIS_ASSUMPTION}</p>
+          <p className="text-caption text-ink-soft">
+            At {fmt(kgToLb(massKg))} lb ({fmt(massKg)} kg), {fmt(mToFt(altitudeM))} ft, ISA, clean. {AXIS_ASSUMPTION}
+          </p>
           <table className="data-table" data-testid="derived-figures">
-            <thead><tr><th scope="col">Figure</th><th scope="col">IAS/EAS</th><th scope="col">TAS</th></tr></thead>
+            <thead>
+              <tr>
+                <th scope="col">Figure</th>
+                <th scope="col">IAS/EAS</th>
+                <th scope="col">TAS</th>
+              </tr>
+            </thead>
             <tbody>
-              <tr><td>Vmd</td><td className="num">{formatSpeed(eas.vmdMs, "kt")}</td><td className="num">{formatSpeed(tas.vmdMs, "kt")}</td></tr>
-              <tr><td>Vmp</td><td className="num">{formatSpeed(eas.vmpMs, "kt")}</td><td className="num">{formatSpeed(tas.vmpMs, "kt")}</td></tr>
-              <tr><td>Best glide</td><td className="num">{formatSpeed(eas.bestGlideMs, "kt")}</td><td className="num">{formatSpeed(tas.bestGlideMs, "kt")}</td></tr>
+              <tr>
+                <td>Vmd</td>
+                <td className="num">{formatSpeed(eas.vmdMs, "kt")}</td>
+                <td className="num">{formatSpeed(tas.vmdMs, "kt")}</td>
+              </tr>
+              <tr>
+                <td>Vmp</td>
+                <td className="num">{formatSpeed(eas.vmpMs, "kt")}</td>
+                <td className="num">{formatSpeed(tas.vmpMs, "kt")}</td>
+              </tr>
+              <tr>
+                <td>Best glide</td>
+                <td className="num">{formatSpeed(eas.bestGlideMs, "kt")}</td>
+                <td className="num">{formatSpeed(tas.bestGlideMs, "kt")}</td>
+              </tr>
               {stalls.map((s) => (
-                <tr key={s.configuration}><td>Stall speed, {s.label.toLowerCase()}</td><td className="num">{formatSpeed(s.ms, "kt")}</td><td className="num">{formatSpeed(stallByConfiguration(snap, c, "true").find((x) => x.configuration === s.configuration)!.ms, "kt")}</td></tr>
+                <tr key={s.configuration}>
+                  <td>Stall speed, {s.label.toLowerCase()}</td>
+                  <td className="num">{formatSpeed(s.ms, "kt")}</td>
+                  <td className="num">
+                    {formatSpeed(stallByConfiguration(snap, c, "true").find((x) => x.configuration === s.configuration)!.ms, "kt")}
+                  </td>
+                </tr>
               ))}
-              <tr><td>(L/D)max (= best glide ratio)</td><td className="num" colSpan={2}>{fmt(eas.maxLiftToDrag, 1)}</td></tr>
+              <tr>
+                <td>(L/D)max (= best glide ratio)</td>
+                <td className="num" colSpan={2}>
+                  {fmt(eas.maxLiftToDrag, 1)}
+                </td>
+              </tr>
             </tbody>
           </table>
         </section>

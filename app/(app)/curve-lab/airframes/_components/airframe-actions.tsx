@@ -24,11 +24,25 @@ export function AirframeButtons({ airframeId, retired }: { airframeId: string; r
   }
   return (
     <div className="flex flex-wrap items-center gap-2">
-      {!retired && <a href={`/curve-lab/airframes/${airframeId}/edit`} className="btn-quiet">Edit</a>}
-      <button type="button" className="btn-quiet" onClick={duplicate} disabled={busy}>Duplicate</button>
-      <button type="button" className="btn-quiet" onClick={retire} disabled={busy}>{retired ? "Return to service" : "Retire"}</button>
-      {!retired && <a href={`/curve-lab/demos/new?airframe=${airframeId}`} className="btn-primary">Build a demo</a>}
-      <p aria-live="polite" className="field-error">{error}</p>
+      {!retired && (
+        <a href={`/curve-lab/airframes/${airframeId}/edit`} className="btn-quiet">
+          Edit
+        </a>
+      )}
+      <button type="button" className="btn-quiet" onClick={duplicate} disabled={busy}>
+        Duplicate
+      </button>
+      <button type="button" className="btn-quiet" onClick={retire} disabled={busy}>
+        {retired ? "Return to service" : "Retire"}
+      </button>
+      {!retired && (
+        <a href={`/curve-lab/demos/new?airframe=${airframeId}`} className="btn-primary">
+          Build a demo
+        </a>
+      )}
+      <p aria-live="polite" className="field-error">
+        {error}
+      </p>
     </div>
   );
 }

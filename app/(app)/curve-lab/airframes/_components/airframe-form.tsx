@@ -15,7 +15,11 @@ type S = typeof airframeFormSchema;
 export function AirframeForm({ airframeId, defaults }: { airframeId: string | null; defaults: AirframeFormInput }) {
   const router = useRouter();
   const [message, setMessage] = useState<string | null>(null);
-  const form = useForm<z.input<S>, unknown, z.output<S>>({ resolver: zodResolver(airframeFormSchema), defaultValues: defaults, mode: "onBlur" });
+  const form = useForm<z.input<S>, unknown, z.output<S>>({
+    resolver: zodResolver(airframeFormSchema),
+    defaultValues: defaults,
+    mode: "onBlur",
+  });
   const { register, handleSubmit, formState, setError, getValues, setValue, control } = form;
   const errors = formState.errors;
   const units = useWatch({ control, name: "units" });
@@ -67,9 +71,26 @@ export function AirframeForm({ airframeId, defaults }: { airframeId: string | nu
     const e = err(name);
     return (
       <div>
-        <label htmlFor={id} className="field-label">{label}{unit && ` (${unit})`}</label>
-        <input id={id} type="number" inputMode="decimal" step={opts.step ?? "any"} disabled={opts.disabled} className="field-input num disabled:bg-paper-deep disabled:text-ink-faint" aria-invalid={e ? true : undefined} aria-describedby={e ? `${id}-error` : undefined} {...register(name)} />
-        {e && <p id={`${id}-error`} className="field-error" data-testid={`error-${name}`}>{e}</p>}
+        <label htmlFor={id} className="field-label">
+          {label}
+          {unit && ` (${unit})`}
+        </label>
+        <input
+          id={id}
+          type="number"
+          inputMode="decimal"
+          step={opts.step ?? "any"}
+          disabled={opts.disabled}
+          className="field-input num disabled:bg-paper-deep disabled:text-ink-faint"
+          aria-invalid={e ? true : undefined}
+          aria-describedby={e ? `${id}-error` : undefined}
+          {...register(name)}
+        />
+        {e && (
+          <p id={`${id}-error`} className="field-error" data-testid={`error-${name}`}>
+            {e}
+          </p>
+        )}
       </div>
     );
   };
@@ -79,15 +100,31 @@ export function AirframeForm({ airframeId, defaults }: { airframeId: string | nu
       <section className="card space-y-3" aria-labelledby="af-general">
         <h2 id="af-general">Profile</h2>
         <div>
-          <label htmlFor="af-name" className="field-label">Name</label>
-          <input id="af-name" className="field-input" aria-invalid={errors.name ? true : undefined} aria-describedby={errors.name ? "af-name-error" : undefined} {...register("name")} />
-          {errors.name && <p id="af-name-error" className="field-error" data-testid="error-name">{errors.name.message}</p>}
+          <label htmlFor="af-name" className="field-label">
+            Name
+          </label>
+          <input
+            id="af-name"
+            className="field-input"
+            aria-invalid={errors.name ? true : undefined}
+            aria-describedby={errors.name ? "af-name-error" : undefined}
+            {...register("name")}
+          />
+          {errors.name && (
+            <p id="af-name-error" className="field-error" data-testid="error-name">
+              {errors.name.message}
+            </p>
+          )}
         </div>
         <fieldset>
           <legend className="field-label">Units</legend>
           <div className="flex flex-wrap gap-4">
-            <label className="flex min-h-touch items-center gap-2"><input type="radio" className="h-5 w-5" checked={imperial} onChange={() => switchUnits("imperial")} /> lb, ft, ft²</label>
-            <label className="flex min-h-touch items-center gap-2"><input type="radio" className="h-5 w-5" checked={!imperial} onChange={() => switchUnits("metric")} /> kg, m, m²</label>
+            <label className="flex min-h-touch items-center gap-2">
+              <input type="radio" className="h-5 w-5" checked={imperial} onChange={() => switchUnits("imperial")} /> lb, ft, ft²
+            </label>
+            <label className="flex min-h-touch items-center gap-2">
+              <input type="radio" className="h-5 w-5" checked={!imperial} onChange={() => switchUnits("metric")} /> kg, m, m²
+            </label>
           </div>
         </fieldset>
         <div className="grid gap-3 sm:grid-cols-2">
@@ -107,7 +144,9 @@ export function AirframeForm({ airframeId, defaults }: { airframeId: string | nu
           {OPTIONAL_CONFIGURATIONS.map((k) => (
             <fieldset key={k} className="space-y-2 rounded-md border border-paper-edge p-3">
               <legend className="px-1 font-semibold">{CONFIGURATION_LABELS[k]}</legend>
-              <label className="flex min-h-touch items-center gap-2"><input type="checkbox" className="h-5 w-5" {...register(`${k}.present`)} /> This type has it</label>
+              <label className="flex min-h-touch items-center gap-2">
+                <input type="checkbox" className="h-5 w-5" {...register(`${k}.present`)} /> This type has it
+              </label>
               {field(`${k}.cd0Increment`, "CD0 increment", "", { disabled: !present[k] })}
               {field(`${k}.maxLiftCoefficient`, "CLmax", "", { disabled: !present[k] })}
             </fieldset>
@@ -115,13 +154,19 @@ export function AirframeForm({ airframeId, defaults }: { airframeId: string | nu
         </div>
       </section>
       <section className="card space-y-2">
-        <label htmlFor="af-notes" className="field-label">Notes</label>
+        <label htmlFor="af-notes" className="field-label">
+          Notes
+        </label>
         <textarea id="af-notes" className="field-input min-h-24 py-2" {...register("notes")} />
         {errors.notes && <p className="field-error">{errors.notes.message}</p>}
       </section>
       <div className="flex flex-wrap items-center gap-3">
-        <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>{airframeId ? "Save changes" : "Create profile"}</button>
-        <p aria-live="polite" className="field-error" data-testid="form-message">{message ?? (Object.keys(errors).length > 0 ? "Some fields need attention: nothing was saved." : "")}</p>
+        <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>
+          {airframeId ? "Save changes" : "Create profile"}
+        </button>
+        <p aria-live="polite" className="field-error" data-testid="form-message">
+          {message ?? (Object.keys(errors).length > 0 ? "Some fields need attention: nothing was saved." : "")}
+        </p>
       </div>
     </form>
   );

@@ -30,20 +30,41 @@ export function AirframeList() {
   });
   return (
     <div className="space-y-3">
-      <label className="flex min-h-touch items-center gap-2"><input type="checkbox" className="h-5 w-5" checked={retired} onChange={(e) => setRetired(e.target.checked)} /> Show retired profiles</label>
+      <label className="flex min-h-touch items-center gap-2">
+        <input type="checkbox" className="h-5 w-5" checked={retired} onChange={(e) => setRetired(e.target.checked)} /> Show retired profiles
+      </label>
       {q.isPending && <p aria-busy="true">Loading profiles…</p>}
-      {q.isError && <p role="alert" className="field-error">{q.error.message}</p>}
+      {q.isError && (
+        <p role="alert" className="field-error">
+          {q.error.message}
+        </p>
+      )}
       {q.data && q.data.length === 0 && <p className="text-ink-soft">No aircraft profiles yet.</p>}
       {q.data && q.data.length > 0 && (
         <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="List, scrolls sideways">
           <table className="data-table" data-testid="airframe-list">
-            <thead><tr><th scope="col">Profile</th><th scope="col">Mass, empty to max</th><th scope="col">Wing</th><th scope="col">State</th></tr></thead>
+            <thead>
+              <tr>
+                <th scope="col">Profile</th>
+                <th scope="col">Mass, empty to max</th>
+                <th scope="col">Wing</th>
+                <th scope="col">State</th>
+              </tr>
+            </thead>
             <tbody>
               {q.data.map((a) => (
                 <tr key={a.id}>
-                  <td><Link href={`/curve-lab/airframes/${a.id}`} className="inline-flex min-h-touch items-center font-semibold">{a.name}</Link></td>
-                  <td className="num">{fmt(kgToLb(a.emptyMassKg))}–{fmt(kgToLb(a.maxMassKg))} lb ({fmt(a.emptyMassKg)}–{fmt(a.maxMassKg)} kg)</td>
-                  <td className="num">{fmt(a.wingAreaM2, 1)} m² · span {fmt(a.wingSpanM, 2)} m</td>
+                  <td>
+                    <Link href={`/curve-lab/airframes/${a.id}`} className="inline-flex min-h-touch items-center font-semibold">
+                      {a.name}
+                    </Link>
+                  </td>
+                  <td className="num">
+                    {fmt(kgToLb(a.emptyMassKg))}–{fmt(kgToLb(a.maxMassKg))} lb ({fmt(a.emptyMassKg)}–{fmt(a.maxMassKg)} kg)
+                  </td>
+                  <td className="num">
+                    {fmt(a.wingAreaM2, 1)} m² · span {fmt(a.wingSpanM, 2)} m
+                  </td>
                   <td>{a.retiredAt ? "Retired" : "In service"}</td>
                 </tr>
               ))}

@@ -59,7 +59,15 @@ function toSi(v: { units: "imperial" | "metric"; emptyMass: number; maxMass: num
 }
 
 /** Runs a lib/aero field schema and re-words its message for the form field `path`. */
-function check(ctx: z.RefinementCtx, schema: z.ZodType, value: number, path: (string | number)[], label: string, libField: string, converted?: string) {
+function check(
+  ctx: z.RefinementCtx,
+  schema: z.ZodType,
+  value: number,
+  path: (string | number)[],
+  label: string,
+  libField: string,
+  converted?: string,
+) {
   const r = schema.safeParse(value);
   if (r.success) return;
   const message = (r.error.issues[0]?.message ?? "is invalid").replace(libField, label);
@@ -80,8 +88,22 @@ export const airframeFormSchema = z
     check(ctx, A.wingAreaM2, si.wingAreaM2, ["wingArea"], LABELS.wingArea!, "wingAreaM2", conv(si.wingAreaM2, "m2"));
     check(ctx, A.wingSpanM, si.wingSpanM, ["wingSpan"], LABELS.wingSpan!, "wingSpanM", conv(si.wingSpanM, "m"));
     check(ctx, A.oswaldEfficiency, v.oswaldEfficiency, ["oswaldEfficiency"], LABELS.oswaldEfficiency!, "oswaldEfficiency");
-    check(ctx, A.zeroLiftDragCoefficient, v.zeroLiftDragCoefficient, ["zeroLiftDragCoefficient"], LABELS.zeroLiftDragCoefficient!, "zeroLiftDragCoefficient");
-    check(ctx, A.maxLiftCoefficient, v.cleanMaxLiftCoefficient, ["cleanMaxLiftCoefficient"], LABELS.cleanMaxLiftCoefficient!, "maxLiftCoefficient");
+    check(
+      ctx,
+      A.zeroLiftDragCoefficient,
+      v.zeroLiftDragCoefficient,
+      ["zeroLiftDragCoefficient"],
+      LABELS.zeroLiftDragCoefficient!,
+      "zeroLiftDragCoefficient",
+    );
+    check(
+      ctx,
+      A.maxLiftCoefficient,
+      v.cleanMaxLiftCoefficient,
+      ["cleanMaxLiftCoefficient"],
+      LABELS.cleanMaxLiftCoefficient!,
+      "maxLiftCoefficient",
+    );
     // The whole aircraft through lib/aero's schema: catches an impossible aspect ratio.
     const whole = aircraftSchema.safeParse({
       massKg: si.maxMassKg,
@@ -94,7 +116,11 @@ export const airframeFormSchema = z
     if (!whole.success) {
       for (const issue of whole.error.issues) {
         if (issue.path[0] === "wingSpanM" && issue.message.includes("aspect ratio")) {
-          ctx.addIssue({ code: "custom", path: ["wingSpan"], message: issue.message.replace("wingSpanM and wingAreaM2", "Wing span and area") });
+          ctx.addIssue({
+            code: "custom",
+            path: ["wingSpan"],
+            message: issue.message.replace("wingSpanM and wingAreaM2", "Wing span and area"),
+          });
         }
       }
     }
@@ -105,14 +131,22 @@ export const airframeFormSchema = z
       if (!(Number.isFinite(c.cd0Increment) && c.cd0Increment >= 0 && c.cd0Increment <= 0.5)) {
         ctx.addIssue({ code: "custom", path: [key, "cd0Increment"], message: `${label}: drag increment must be between 0 and 0.5` });
       } else {
-        check(ctx, A.zeroLiftDragCoefficient, v.zeroLiftDragCoefficient + c.cd0Increment, [key, "cd0Increment"], `${label}: zero-lift drag coefficient with the increment`, "zeroLiftDragCoefficient");
+        check(
+          ctx,
+          A.zeroLiftDragCoefficient,
+          v.zeroLiftDragCoefficient + c.cd0Increment,
+          [key, "cd0Increment"],
+          `${label}: zero-lift drag coefficient with the increment`,
+          "zeroLiftDragCoefficient",
+        );
       }
       check(ctx, A.maxLiftCoefficient, c.maxLiftCoefficient, [key, "maxLiftCoefficient"], `${label}: CLmax`, "maxLiftCoefficient");
     }
   })
   .transform((v): Omit<AirframeSnapshot, "id"> & { notes: string } => {
     const si = toSi(v);
-    const conf = (c: z.infer<typeof configurationInput>) => (c.present ? { cd0Increment: c.cd0Increment, maxLiftCoefficient: c.maxLiftCoefficient } : null);
+    const conf = (c: z.infer<typeof configurationInput>) =>
+      c.present ? { cd0Increment: c.cd0Increment, maxLiftCoefficient: c.maxLiftCoefficient } : null;
     return {
       name: v.name,
       ...si,
@@ -134,12 +168,26 @@ export type AirframeFormOutput = z.output<typeof airframeFormSchema>;
 const round = (x: number, digits: number) => Number(x.toFixed(digits));
 
 /** Form values (in `units`) for an existing profile, or blank values for a new one. */
-export function formValuesFor(a: (Omit<AirframeSnapshot, "id"> & { notes: string }) | null, units: "imperial" | "metric" = "imperial"): AirframeFormInput {
+export function formValuesFor(
+  a: (Omit<AirframeSnapshot, "id"> & { notes: string }) | null,
+  units: "imperial" | "metric" = "imperial",
+): AirframeFormInput {
   const blankConf = { present: false, cd0Increment: 0, maxLiftCoefficient: 1.6 };
   if (!a) {
     return {
-      name: "", units, emptyMass: "", maxMass: "", wingArea: "", wingSpan: "", oswaldEfficiency: 0.8,
-      zeroLiftDragCoefficient: "", cleanMaxLiftCoefficient: "", gearDown: blankConf, flaps1: blankConf, flaps2: blankConf, notes: "",
+      name: "",
+      units,
+      emptyMass: "",
+      maxMass: "",
+      wingArea: "",
+      wingSpan: "",
+      oswaldEfficiency: 0.8,
+      zeroLiftDragCoefficient: "",
+      cleanMaxLiftCoefficient: "",
+      gearDown: blankConf,
+      flaps1: blankConf,
+      flaps2: blankConf,
+      notes: "",
     };
   }
   const imperial = units === "imperial";

@@ -13,7 +13,9 @@ export default async function NewAirframePage() {
   await requirePagePermission("airframes.edit", "/curve-lab/airframes/new");
   return (
     <div className="space-y-4">
-      <nav aria-label="Breadcrumb" className="text-caption"><Link href="/curve-lab">Curve Lab</Link> / <Link href="/curve-lab/airframes">Airframes</Link> / New</nav>
+      <nav aria-label="Breadcrumb" className="text-caption">
+        <Link href="/curve-lab">Curve Lab</Link> / <Link href="/curve-lab/airframes">Airframes</Link> / New
+      </nav>
       <h1 className="text-display">New aircraft profile</h1>
       <Caution />
       <p className="text-caption text-ink-soft">{AXIS_ASSUMPTION}</p>

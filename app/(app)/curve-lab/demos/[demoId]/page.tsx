@@ -25,10 +25,19 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
     if (!revision) notFound();
     return (
       <div className="space-y-4">
-        <nav aria-label="Breadcrumb" className="text-caption"><Link href="/curve-lab">Curve Lab</Link> / {revision.demoName}</nav>
+        <nav aria-label="Breadcrumb" className="text-caption">
+          <Link href="/curve-lab">Curve Lab</Link> / {revision.demoName}
+        </nav>
         <h1 className="text-display">{revision.demoName}</h1>
         <Caution />
-        <DemoWorkbench mode="student" demoId={demoId} demoRevisionId={revision.id} revisionNumber={revision.number} name={revision.demoName} initialSpec={revision.spec} />
+        <DemoWorkbench
+          mode="student"
+          demoId={demoId}
+          demoRevisionId={revision.id}
+          revisionNumber={revision.number}
+          name={revision.demoName}
+          initialSpec={revision.spec}
+        />
       </div>
     );
   }
@@ -41,9 +50,14 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
   const unit = demo.revision.spec.axis.unit;
   return (
     <div className="space-y-4">
-      <nav aria-label="Breadcrumb" className="text-caption"><Link href="/curve-lab">Curve Lab</Link> / {demo.name}</nav>
+      <nav aria-label="Breadcrumb" className="text-caption">
+        <Link href="/curve-lab">Curve Lab</Link> / {demo.name}
+      </nav>
       <h1 className="text-display">{demo.name}</h1>
-      <p className="text-caption text-ink-soft">Revision {demo.revision.number} · built by {demo.ownerName}{canChange ? "" : " · duplicate it to change your own copy"}</p>
+      <p className="text-caption text-ink-soft">
+        Revision {demo.revision.number} · built by {demo.ownerName}
+        {canChange ? "" : " · duplicate it to change your own copy"}
+      </p>
       <Caution />
       <DemoWorkbench
         key={demo.revision.id}
@@ -64,16 +78,31 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
         ) : (
           <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Students' calls, scrolls sideways">
             <table className="data-table" data-testid="calls-table">
-              <thead><tr><th scope="col">Student</th><th scope="col">Call</th><th scope="col">Revision</th><th scope="col">Their call</th><th scope="col">Answer</th><th scope="col">Error</th><th scope="col">When</th></tr></thead>
+              <thead>
+                <tr>
+                  <th scope="col">Student</th>
+                  <th scope="col">Call</th>
+                  <th scope="col">Revision</th>
+                  <th scope="col">Their call</th>
+                  <th scope="col">Answer</th>
+                  <th scope="col">Error</th>
+                  <th scope="col">When</th>
+                </tr>
+              </thead>
               <tbody>
                 {calls.map((c) => (
                   <tr key={c.id}>
                     <td>{c.studentName}</td>
                     <td>{KIND_LABEL[c.markerKind]}</td>
                     <td className="num">{c.revisionNumber}</td>
-                    <td className="num">{formatSpeed(c.predictedMs, unit)} {c.speedAxis === "true" ? "TAS" : "EAS"}</td>
+                    <td className="num">
+                      {formatSpeed(c.predictedMs, unit)} {c.speedAxis === "true" ? "TAS" : "EAS"}
+                    </td>
                     <td className="num">{formatSpeed(c.actualMs, unit)}</td>
-                    <td className="num">{c.errorMs >= 0 ? "+" : "−"}{formatSpeed(Math.abs(c.errorMs), unit)}</td>
+                    <td className="num">
+                      {c.errorMs >= 0 ? "+" : "−"}
+                      {formatSpeed(Math.abs(c.errorMs), unit)}
+                    </td>
                     <td className="num">{new Date(c.createdAt).toISOString().slice(0, 16).replace("T", " ")} UTC</td>
                   </tr>
                 ))}

@@ -15,18 +15,33 @@ export default async function NewDemoPage({ searchParams }: { searchParams: Prom
   await requirePagePermission("demos.edit", "/curve-lab/demos/new");
   const user = await requirePagePermission("airframes.view", "/curve-lab/demos/new");
   const airframes = (await listAirframes(user.schoolId)).map(snapshotOf);
-  const wanted = z.string().uuid().safeParse((await searchParams).airframe);
+  const wanted = z
+    .string()
+    .uuid()
+    .safeParse((await searchParams).airframe);
   const start = (wanted.success ? airframes.find((a) => a.id === wanted.data) : undefined) ?? airframes[0];
   return (
     <div className="space-y-4">
-      <nav aria-label="Breadcrumb" className="text-caption"><Link href="/curve-lab">Curve Lab</Link> / New demo</nav>
+      <nav aria-label="Breadcrumb" className="text-caption">
+        <Link href="/curve-lab">Curve Lab</Link> / New demo
+      </nav>
       <h1 className="text-display">New demo</h1>
       <Caution />
       <p className="text-caption text-ink-soft">{AXIS_ASSUMPTION}</p>
       {start ? (
-        <DemoWorkbench mode="builder" demoId={null} demoRevisionId={null} revisionNumber={null} name="" initialSpec={defaultSpec(start)} airframes={airframes} />
+        <DemoWorkbench
+          mode="builder"
+          demoId={null}
+          demoRevisionId={null}
+          revisionNumber={null}
+          name=""
+          initialSpec={defaultSpec(start)}
+          airframes={airframes}
+        />
       ) : (
-        <p>No aircraft profile yet. <Link href="/curve-lab/airframes/new">Add an airframe</Link> first.</p>
+        <p>
+          No aircraft profile yet. <Link href="/curve-lab/airframes/new">Add an airframe</Link> first.
+        </p>
       )}
     </div>
   );

@@ -15,7 +15,12 @@ export function AmendButton({ signOffId, itemCode }: { signOffId: string; itemCo
   const [error, setError] = useState<string | null>(null);
   const [pending, start] = useTransition();
   const router = useRouter();
-  if (!open) return <button type="button" className="btn-quiet" onClick={() => setOpen(true)}>Amend sign-off of {itemCode}</button>;
+  if (!open)
+    return (
+      <button type="button" className="btn-quiet" onClick={() => setOpen(true)}>
+        Amend sign-off of {itemCode}
+      </button>
+    );
   return (
     <form
       className="space-y-2 rounded-md border border-paper-edge p-2"
@@ -32,21 +37,56 @@ export function AmendButton({ signOffId, itemCode }: { signOffId: string; itemCo
       }}
     >
       <div>
-        <label htmlFor={`amend-reason-${signOffId}`} className="field-label">Reason for the amendment</label>
-        <input id={`amend-reason-${signOffId}`} value={reason} onChange={(e) => setReason(e.target.value)} className="field-input" required minLength={3} />
+        <label htmlFor={`amend-reason-${signOffId}`} className="field-label">
+          Reason for the amendment
+        </label>
+        <input
+          id={`amend-reason-${signOffId}`}
+          value={reason}
+          onChange={(e) => setReason(e.target.value)}
+          className="field-input"
+          required
+          minLength={3}
+        />
       </div>
       <div>
-        <label htmlFor={`amend-date-${signOffId}`} className="field-label">Signed for (date; empty for today)</label>
-        <input id={`amend-date-${signOffId}`} type="date" value={signedOn} onChange={(e) => setSignedOn(e.target.value)} className="field-input" />
+        <label htmlFor={`amend-date-${signOffId}`} className="field-label">
+          Signed for (date; empty for today)
+        </label>
+        <input
+          id={`amend-date-${signOffId}`}
+          type="date"
+          value={signedOn}
+          onChange={(e) => setSignedOn(e.target.value)}
+          className="field-input"
+        />
       </div>
       <div>
-        <label htmlFor={`amend-pw-${signOffId}`} className="field-label">Re-enter your password to sign</label>
-        <input id={`amend-pw-${signOffId}`} type="password" autoComplete="current-password" value={password} onChange={(e) => setPassword(e.target.value)} className="field-input" required />
+        <label htmlFor={`amend-pw-${signOffId}`} className="field-label">
+          Re-enter your password to sign
+        </label>
+        <input
+          id={`amend-pw-${signOffId}`}
+          type="password"
+          autoComplete="current-password"
+          value={password}
+          onChange={(e) => setPassword(e.target.value)}
+          className="field-input"
+          required
+        />
       </div>
-      {error && <p className="field-error" role="alert">{error}</p>}
+      {error && (
+        <p className="field-error" role="alert">
+          {error}
+        </p>
+      )}
       <div className="flex gap-2">
-        <button type="submit" className="btn-primary" disabled={pending}>Sign the amendment</button>
-        <button type="button" className="btn-quiet" onClick={() => setOpen(false)}>Cancel</button>
+        <button type="submit" className="btn-primary" disabled={pending}>
+          Sign the amendment
+        </button>
+        <button type="button" className="btn-quiet" onClick={() => setOpen(false)}>
+          Cancel
+        </button>
       </div>
     </form>
   );

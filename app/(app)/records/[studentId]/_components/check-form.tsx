@@ -5,8 +5,25 @@ import { useFieldArray, useForm, useWatch, type Control } from "react-hook-form"
 import { zodResolver } from "@hookform/resolvers/zod";
 import { z } from "zod";
 import { recordCheckAction } from "../../actions";
-import { LEVELS, LEVEL_LABEL, QUESTION_OUTCOMES, OUTCOME_LABEL, CHECK_OUTCOME_LABEL, evaluateCheck, DEFAULT_OUTCOME_RULE, type LevelOfLearning } from "@/lib/records/outcome";
-import { QUESTION_KINDS, QUESTION_KIND_LABEL, generateQuestion, figureWithinTolerance, type AircraftSnapshot, type AircraftSourceKind, type QuestionKind } from "@/lib/records/questions";
+import {
+  LEVELS,
+  LEVEL_LABEL,
+  QUESTION_OUTCOMES,
+  OUTCOME_LABEL,
+  CHECK_OUTCOME_LABEL,
+  evaluateCheck,
+  DEFAULT_OUTCOME_RULE,
+  type LevelOfLearning,
+} from "@/lib/records/outcome";
+import {
+  QUESTION_KINDS,
+  QUESTION_KIND_LABEL,
+  generateQuestion,
+  figureWithinTolerance,
+  type AircraftSnapshot,
+  type AircraftSourceKind,
+  type QuestionKind,
+} from "@/lib/records/questions";
 
 interface Item {
   id: string;
@@ -15,7 +32,10 @@ interface Item {
   requiredLevel: LevelOfLearning;
 }
 
-const optionalNumber = z.string().trim().refine((v) => v === "" || Number.isFinite(Number(v)), "must be a number");
+const optionalNumber = z
+  .string()
+  .trim()
+  .refine((v) => v === "" || Number.isFinite(Number(v)), "must be a number");
 const questionSchema = z
   .object({
     syllabusItemId: z.string().min(1, "choose the item"),
@@ -35,12 +55,16 @@ const questionSchema = z
     correctiveGiven: z.boolean(),
   })
   .superRefine((q, ctx) => {
-    if (q.mode === "written" && q.questionText.trim() === "") ctx.addIssue({ code: "custom", path: ["questionText"], message: "write the question as asked" });
+    if (q.mode === "written" && q.questionText.trim() === "")
+      ctx.addIssue({ code: "custom", path: ["questionText"], message: "write the question as asked" });
   });
 const formSchema = z.object({
   itemIds: z.array(z.string()).min(1, "choose at least one syllabus item"),
   levelShown: z.enum(LEVELS, "choose the level of learning shown"),
-  durationMinutes: z.string().regex(/^\d{1,3}$/, "whole minutes").refine((v) => Number(v) >= 1 && Number(v) <= 600, "1 to 600 minutes"),
+  durationMinutes: z
+    .string()
+    .regex(/^\d{1,3}$/, "whole minutes")
+    .refine((v) => Number(v) >= 1 && Number(v) <= 600, "1 to 600 minutes"),
   occurredAt: z.string().min(1, "when did the check happen?"),
   sessionId: z.string(),
   remarks: z.string().max(4000),
@@ -68,10 +92,36 @@ const NEEDS: Record<QuestionKind, ("massKg" | "altitudeFt" | "speedKt" | "height
 const INPUT_LABEL = { massKg: "Mass (kg)", altitudeFt: "Altitude (ft)", speedKt: "Speed (kt EAS)", heightFt: "Height (ft)" } as const;
 
 function blankQuestion(itemId: string, aircraftKey: string): QuestionValues {
-  return { syllabusItemId: itemId, mode: "written", questionText: "", kind: "vmd", aircraftKey, massKg: "", altitudeFt: "0", speedKt: "", heightFt: "", studentFigure: "", answerSummary: "", outcome: "solid", required: true, prompted: false, correctiveGiven: false };
+  return {
+    syllabusItemId: itemId,
+    mode: "written",
+    questionText: "",
+    kind: "vmd",
+    aircraftKey,
+    massKg: "",
+    altitudeFt: "0",
+    speedKt: "",
+    heightFt: "",
+    studentFigure: "",
+    answerSummary: "",
+    outcome: "solid",
+    required: true,
+    prompted: false,
+    correctiveGiven: false,
+  };
 }
 
-export function CheckForm({ studentId, items, aircraft, sessions }: { studentId: string; items: Item[]; aircraft: AircraftSnapshot[]; sessions: { id: string; label: string }[] }) {
+export function CheckForm({
+  studentId,
+  items,
+  aircraft,
+  sessions,
+}: {
+  studentId: string;
+  items: Item[];
+  aircraft: AircraftSnapshot[];
+  sessions: { id: string; label: string }[];
+}) {
   const router = useRouter();
   const [pending, start] = useTransition();
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
@@ -79,7 +129,15 @@ export function CheckForm({ studentId, items, aircraft, sessions }: { studentId:
   const firstAircraft = aircraft[0] ? `${aircraft[0].source.kind}:${aircraft[0].source.id}` : "";
   const form = useForm<FormValues>({
     resolver: zodResolver(formSchema),
-    defaultValues: { itemIds: items[0] ? [items[0].id] : [], levelShown: "understanding", durationMinutes: "10", occurredAt: localNow(), sessionId: "", remarks: "", questions: [blankQuestion(items[0]?.id ?? "", firstAircraft)] },
+    defaultValues: {
+      itemIds: items[0] ? [items[0].id] : [],
+      levelShown: "understanding",
+      durationMinutes: "10",
+      occurredAt: localNow(),
+      sessionId: "",
+      remarks: "",
+      questions: [blankQuestion(items[0]?.id ?? "", firstAircraft)],
+    },
   });
   const { register, control, handleSubmit, formState, setError, reset } = form;
   const questions = useFieldArray({ control, name: "questions" });
@@ -92,7 +150,6 @@ export function CheckForm({ studentId, items, aircraft, sessions }: { studentId:
     items: chosenItems.map((i) => ({ id: i.id, code: i.code, requiredLevel: i.requiredLevel })),
     questions: qs.map((q) => ({ syllabusItemId: q.syllabusItemId, outcome: q.outcome, required: q.required })),
   });
-
 
   const onSubmit = (v: FormValues) =>
     start(async () => {
@@ -116,16 +173,30 @@ export function CheckForm({ studentId, items, aircraft, sessions }: { studentId:
             required: q.required,
             prompted: q.prompted,
             correctiveGiven: q.correctiveGiven,
-            generated: q.mode === "generated" ? { kind: q.kind, aircraft: { kind: kind as AircraftSourceKind, id: id ?? "" }, inputs: inputsFor(q) } : undefined,
+            generated:
+              q.mode === "generated"
+                ? { kind: q.kind, aircraft: { kind: kind as AircraftSourceKind, id: id ?? "" }, inputs: inputsFor(q) }
+                : undefined,
             studentFigure: q.mode === "generated" && q.studentFigure.trim() !== "" ? Number(q.studentFigure) : null,
           };
         }),
       };
       const r = await recordCheckAction(payload);
       if (r.ok) {
-        setMessage({ ok: true, text: `Check recorded: ${CHECK_OUTCOME_LABEL[r.data.outcome]}.${r.data.notYetMailed ? " The student was sent a note about the Not yet items." : ""}` });
+        setMessage({
+          ok: true,
+          text: `Check recorded: ${CHECK_OUTCOME_LABEL[r.data.outcome]}.${r.data.notYetMailed ? " The student was sent a note about the Not yet items." : ""}`,
+        });
         setKey(crypto.randomUUID());
-        reset({ itemIds: v.itemIds, levelShown: v.levelShown, durationMinutes: "10", occurredAt: localNow(), sessionId: v.sessionId, remarks: "", questions: [blankQuestion(v.itemIds[0] ?? "", firstAircraft)] });
+        reset({
+          itemIds: v.itemIds,
+          levelShown: v.levelShown,
+          durationMinutes: "10",
+          occurredAt: localNow(),
+          sessionId: v.sessionId,
+          remarks: "",
+          questions: [blankQuestion(v.itemIds[0] ?? "", firstAircraft)],
+        });
         router.refresh();
       } else {
         for (const [field, msgs] of Object.entries(r.fieldErrors ?? {})) setError(field as never, { message: msgs[0] });
@@ -138,7 +209,11 @@ export function CheckForm({ studentId, items, aircraft, sessions }: { studentId:
     let e: unknown = formState.errors;
     for (const p of parts) e = (e as Record<string, unknown> | undefined)?.[p];
     const m = (e as { message?: string } | undefined)?.message;
-    return m ? <p className="field-error" role="alert">{m}</p> : null;
+    return m ? (
+      <p className="field-error" role="alert">
+        {m}
+      </p>
+    ) : null;
   };
 
   return (
@@ -147,9 +222,14 @@ export function CheckForm({ studentId, items, aircraft, sessions }: { studentId:
         <legend className="field-label">Syllabus items checked</legend>
         <div className="mt-1 flex flex-wrap gap-2">
           {items.map((i) => (
-            <label key={i.id} className="inline-flex min-h-touch cursor-pointer items-center gap-2 rounded-md border border-paper-edge bg-white px-3 has-[:checked]:border-wing-600 has-[:checked]:bg-wing-50">
+            <label
+              key={i.id}
+              className="inline-flex min-h-touch cursor-pointer items-center gap-2 rounded-md border border-paper-edge bg-white px-3 has-[:checked]:border-wing-600 has-[:checked]:bg-wing-50"
+            >
               <input type="checkbox" value={i.id} {...register("itemIds")} className="h-5 w-5" />
-              <span><span className="num font-semibold">{i.code}</span> {i.title}</span>
+              <span>
+                <span className="num font-semibold">{i.code}</span> {i.title}
+              </span>
             </label>
           ))}
         </div>
@@ -160,7 +240,10 @@ export function CheckForm({ studentId, items, aircraft, sessions }: { studentId:
         <legend className="field-label">Level of learning shown</legend>
         <div className="mt-1 grid grid-cols-2 gap-2 sm:grid-cols-4">
           {LEVELS.map((l) => (
-            <label key={l} className="inline-flex min-h-touch cursor-pointer items-center justify-center gap-2 rounded-md border border-paper-edge bg-white px-3 has-[:checked]:border-wing-600 has-[:checked]:bg-wing-50">
+            <label
+              key={l}
+              className="inline-flex min-h-touch cursor-pointer items-center justify-center gap-2 rounded-md border border-paper-edge bg-white px-3 has-[:checked]:border-wing-600 has-[:checked]:bg-wing-50"
+            >
               <input type="radio" value={l} {...register("levelShown")} className="h-5 w-5" />
               {LEVEL_LABEL[l]}
             </label>
@@ -171,19 +254,29 @@ export function CheckForm({ studentId, items, aircraft, sessions }: { studentId:
 
       <div className="grid gap-3 sm:grid-cols-3">
         <div>
-          <label htmlFor="sessionId" className="field-label">During or after a session (optional)</label>
+          <label htmlFor="sessionId" className="field-label">
+            During or after a session (optional)
+          </label>
           <select id="sessionId" {...register("sessionId")} className="field-input">
             <option value="">No session</option>
-            {sessions.map((x) => <option key={x.id} value={x.id}>{x.label}</option>)}
+            {sessions.map((x) => (
+              <option key={x.id} value={x.id}>
+                {x.label}
+              </option>
+            ))}
           </select>
         </div>
         <div>
-          <label htmlFor="occurredAt" className="field-label">When it happened</label>
+          <label htmlFor="occurredAt" className="field-label">
+            When it happened
+          </label>
           <input id="occurredAt" type="datetime-local" {...register("occurredAt")} className="field-input" />
           {err("occurredAt")}
         </div>
         <div>
-          <label htmlFor="durationMinutes" className="field-label">Duration (min)</label>
+          <label htmlFor="durationMinutes" className="field-label">
+            Duration (min)
+          </label>
           <input id="durationMinutes" inputMode="numeric" {...register("durationMinutes")} className="field-input num" />
           {err("durationMinutes")}
         </div>
@@ -192,16 +285,31 @@ export function CheckForm({ studentId, items, aircraft, sessions }: { studentId:
       <div className="space-y-4">
         <h3 className="font-semibold">Questions</h3>
         {questions.fields.map((f, idx) => (
-          <QuestionFields key={f.id} idx={idx} control={control} register={register} items={chosenItems.length ? chosenItems : items} aircraft={aircraft} err={err} onRemove={questions.fields.length > 1 ? () => questions.remove(idx) : undefined} />
+          <QuestionFields
+            key={f.id}
+            idx={idx}
+            control={control}
+            register={register}
+            items={chosenItems.length ? chosenItems : items}
+            aircraft={aircraft}
+            err={err}
+            onRemove={questions.fields.length > 1 ? () => questions.remove(idx) : undefined}
+          />
         ))}
         {err("questions")}
-        <button type="button" className="btn-quiet" onClick={() => questions.append(blankQuestion(chosen[0] ?? items[0]?.id ?? "", firstAircraft))}>
+        <button
+          type="button"
+          className="btn-quiet"
+          onClick={() => questions.append(blankQuestion(chosen[0] ?? items[0]?.id ?? "", firstAircraft))}
+        >
           Add a question
         </button>
       </div>
 
       <div>
-        <label htmlFor="remarks" className="field-label">Remarks (internal: never shown to the student or sponsors)</label>
+        <label htmlFor="remarks" className="field-label">
+          Remarks (internal: never shown to the student or sponsors)
+        </label>
         <textarea id="remarks" rows={2} {...register("remarks")} className="field-input py-2" />
       </div>
 
@@ -209,15 +317,26 @@ export function CheckForm({ studentId, items, aircraft, sessions }: { studentId:
         <p className="font-semibold">Outcome by the rule: {CHECK_OUTCOME_LABEL[preview.outcome]}</p>
         <ul className="text-caption">
           {preview.items.map((i) => (
-            <li key={i.itemId}>{i.code}: {i.meets ? "meets the standard" : i.reasons.join("; ")}</li>
+            <li key={i.itemId}>
+              {i.code}: {i.meets ? "meets the standard" : i.reasons.join("; ")}
+            </li>
           ))}
         </ul>
-        <details className="text-caption text-ink-soft"><summary>The rule</summary>{DEFAULT_OUTCOME_RULE.text}</details>
+        <details className="text-caption text-ink-soft">
+          <summary>The rule</summary>
+          {DEFAULT_OUTCOME_RULE.text}
+        </details>
       </div>
 
       <div className="flex flex-wrap items-center gap-3">
-        <button type="submit" className="btn-primary" disabled={pending}>{pending ? "Recording…" : "Record the check"}</button>
-        {message && <p role="status" className={message.ok ? "font-semibold text-solid-800" : "field-error"} data-testid="check-message">{message.text}</p>}
+        <button type="submit" className="btn-primary" disabled={pending}>
+          {pending ? "Recording…" : "Record the check"}
+        </button>
+        {message && (
+          <p role="status" className={message.ok ? "font-semibold text-solid-800" : "field-error"} data-testid="check-message">
+            {message.text}
+          </p>
+        )}
       </div>
     </form>
   );
@@ -259,14 +378,22 @@ function QuestionFields({
       <legend className="px-1 font-semibold">Question {idx + 1}</legend>
       <div className="grid gap-3 sm:grid-cols-2">
         <div>
-          <label htmlFor={`${p}.item`} className="field-label">Syllabus item</label>
+          <label htmlFor={`${p}.item`} className="field-label">
+            Syllabus item
+          </label>
           <select id={`${p}.item`} {...register(`${p}.syllabusItemId`)} className="field-input">
-            {items.map((i) => <option key={i.id} value={i.id}>{i.code} {i.title}</option>)}
+            {items.map((i) => (
+              <option key={i.id} value={i.id}>
+                {i.code} {i.title}
+              </option>
+            ))}
           </select>
           {err(`${p}.syllabusItemId`)}
         </div>
         <div>
-          <label htmlFor={`${p}.mode`} className="field-label">Question</label>
+          <label htmlFor={`${p}.mode`} className="field-label">
+            Question
+          </label>
           <select id={`${p}.mode`} {...register(`${p}.mode`)} className="field-input">
             <option value="written">Written as asked</option>
             <option value="generated">Generated numeric question</option>
@@ -277,22 +404,37 @@ function QuestionFields({
         <div className="space-y-2">
           <div className="grid gap-3 sm:grid-cols-2">
             <div>
-              <label htmlFor={`${p}.kind`} className="field-label">Kind</label>
+              <label htmlFor={`${p}.kind`} className="field-label">
+                Kind
+              </label>
               <select id={`${p}.kind`} {...register(`${p}.kind`)} className="field-input">
-                {QUESTION_KINDS.map((k) => <option key={k} value={k}>{QUESTION_KIND_LABEL[k]}</option>)}
+                {QUESTION_KINDS.map((k) => (
+                  <option key={k} value={k}>
+                    {QUESTION_KIND_LABEL[k]}
+                  </option>
+                ))}
               </select>
             </div>
             <div>
-              <label htmlFor={`${p}.aircraft`} className="field-label">Aircraft</label>
+              <label htmlFor={`${p}.aircraft`} className="field-label">
+                Aircraft
+              </label>
               <select id={`${p}.aircraft`} {...register(`${p}.aircraftKey`)} className="field-input">
-                {aircraft.map((a) => <option key={`${a.source.kind}:${a.source.id}`} value={`${a.source.kind}:${a.source.id}`}>{a.name}{a.source.kind === "airframe" ? " (Curve Lab airframe)" : a.source.kind === "reference" ? " (reference)" : ""}</option>)}
+                {aircraft.map((a) => (
+                  <option key={`${a.source.kind}:${a.source.id}`} value={`${a.source.kind}:${a.source.id}`}>
+                    {a.name}
+                    {a.source.kind === "airframe" ? " (Curve Lab airframe)" : a.source.kind === "reference" ? " (reference)" : ""}
+                  </option>
+                ))}
               </select>
             </div>
           </div>
           <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
             {NEEDS[q.kind].map((f) => (
               <div key={f}>
-                <label htmlFor={`${p}.${f}`} className="field-label">{INPUT_LABEL[f]}</label>
+                <label htmlFor={`${p}.${f}`} className="field-label">
+                  {INPUT_LABEL[f]}
+                </label>
                 <input id={`${p}.${f}`} inputMode="decimal" {...register(`${p}.${f}`)} className="field-input num" />
                 {err(`${p}.${f}`)}
               </div>
@@ -301,14 +443,19 @@ function QuestionFields({
           {generated ? (
             <div className="rounded-md bg-paper-deep p-2" data-testid="generated-preview">
               <p>{generated.text}</p>
-              <p className="text-caption"><span className="font-semibold">Answer:</span> {generated.answer.display}{generated.tolerance ? ` · accepted within ${generated.tolerance.relative * 100} %` : ""}</p>
+              <p className="text-caption">
+                <span className="font-semibold">Answer:</span> {generated.answer.display}
+                {generated.tolerance ? ` · accepted within ${generated.tolerance.relative * 100} %` : ""}
+              </p>
             </div>
           ) : (
             <p className="field-error">{problem}</p>
           )}
           {generated?.answer.type === "number" && (
             <div className="max-w-xs">
-              <label htmlFor={`${p}.figure`} className="field-label">Student&apos;s figure ({generated.answer.unit})</label>
+              <label htmlFor={`${p}.figure`} className="field-label">
+                Student&apos;s figure ({generated.answer.unit})
+              </label>
               <input id={`${p}.figure`} inputMode="decimal" {...register(`${p}.studentFigure`)} className="field-input num" />
               {within !== null && <p className="text-caption font-semibold">{within ? "Within tolerance" : "Outside tolerance"}</p>}
             </div>
@@ -316,20 +463,27 @@ function QuestionFields({
         </div>
       ) : (
         <div>
-          <label htmlFor={`${p}.text`} className="field-label">Question as asked</label>
+          <label htmlFor={`${p}.text`} className="field-label">
+            Question as asked
+          </label>
           <textarea id={`${p}.text`} rows={2} {...register(`${p}.questionText`)} className="field-input py-2" />
           {err(`${p}.questionText`)}
         </div>
       )}
       <div>
-        <label htmlFor={`${p}.answer`} className="field-label">Answer, in short</label>
+        <label htmlFor={`${p}.answer`} className="field-label">
+          Answer, in short
+        </label>
         <input id={`${p}.answer`} {...register(`${p}.answerSummary`)} className="field-input" />
       </div>
       <fieldset>
         <legend className="field-label">Outcome</legend>
         <div className="mt-1 grid grid-cols-3 gap-2">
           {QUESTION_OUTCOMES.map((o) => (
-            <label key={o} className={`inline-flex min-h-touch cursor-pointer items-center justify-center gap-2 rounded-md border px-2 font-semibold ${o === "solid" ? "has-[:checked]:bg-solid-100 has-[:checked]:border-solid-600" : o === "shaky" ? "has-[:checked]:bg-shaky-100 has-[:checked]:border-shaky-600" : "has-[:checked]:bg-notyet-100 has-[:checked]:border-notyet-600"} border-paper-edge bg-white`}>
+            <label
+              key={o}
+              className={`inline-flex min-h-touch cursor-pointer items-center justify-center gap-2 rounded-md border px-2 font-semibold ${o === "solid" ? "has-[:checked]:bg-solid-100 has-[:checked]:border-solid-600" : o === "shaky" ? "has-[:checked]:bg-shaky-100 has-[:checked]:border-shaky-600" : "has-[:checked]:bg-notyet-100 has-[:checked]:border-notyet-600"} border-paper-edge bg-white`}
+            >
               <input type="radio" value={o} {...register(`${p}.outcome`)} className="h-5 w-5" />
               {OUTCOME_LABEL[o]}
             </label>
@@ -338,13 +492,23 @@ function QuestionFields({
         {err(`${p}.outcome`)}
       </fieldset>
       <div className="flex flex-wrap gap-x-5 gap-y-2">
-        {([["required", "Required element"], ["prompted", "Needed prompting"], ["correctiveGiven", "Corrective instruction given"]] as const).map(([f, label]) => (
+        {(
+          [
+            ["required", "Required element"],
+            ["prompted", "Needed prompting"],
+            ["correctiveGiven", "Corrective instruction given"],
+          ] as const
+        ).map(([f, label]) => (
           <label key={f} className="inline-flex min-h-touch items-center gap-2">
             <input type="checkbox" {...register(`${p}.${f}`)} className="h-5 w-5" />
             {label}
           </label>
         ))}
-        {onRemove && <button type="button" className="btn-quiet" onClick={onRemove}>Remove question {idx + 1}</button>}
+        {onRemove && (
+          <button type="button" className="btn-quiet" onClick={onRemove}>
+            Remove question {idx + 1}
+          </button>
+        )}
       </div>
     </fieldset>
   );

@@ -4,7 +4,17 @@ import { useRouter } from "next/navigation";
 import { signOffAction } from "../../actions";
 
 /** Shows the statement, asks the signer to re-enter their password, and signs. */
-export function SignOffPanel({ studentId, itemId, itemCode, statement }: { studentId: string; itemId: string; itemCode: string; statement: string }) {
+export function SignOffPanel({
+  studentId,
+  itemId,
+  itemCode,
+  statement,
+}: {
+  studentId: string;
+  itemId: string;
+  itemCode: string;
+  statement: string;
+}) {
   const [open, setOpen] = useState(false);
   const [password, setPassword] = useState("");
   const [error, setError] = useState<string | null>(null);
@@ -34,15 +44,35 @@ export function SignOffPanel({ studentId, itemId, itemCode, statement }: { stude
       }}
     >
       <p className="font-semibold">Statement</p>
-      <blockquote className="border-l-4 border-wing-600 pl-3" data-testid="statement">{statement}</blockquote>
+      <blockquote className="border-l-4 border-wing-600 pl-3" data-testid="statement">
+        {statement}
+      </blockquote>
       <div>
-        <label htmlFor={`pw-${itemId}`} className="field-label">Re-enter your password to sign</label>
-        <input id={`pw-${itemId}`} type="password" autoComplete="current-password" value={password} onChange={(e) => setPassword(e.target.value)} className="field-input" required />
+        <label htmlFor={`pw-${itemId}`} className="field-label">
+          Re-enter your password to sign
+        </label>
+        <input
+          id={`pw-${itemId}`}
+          type="password"
+          autoComplete="current-password"
+          value={password}
+          onChange={(e) => setPassword(e.target.value)}
+          className="field-input"
+          required
+        />
       </div>
-      {error && <p className="field-error" role="alert">{error}</p>}
+      {error && (
+        <p className="field-error" role="alert">
+          {error}
+        </p>
+      )}
       <div className="flex flex-wrap gap-2">
-        <button type="submit" className="btn-primary" disabled={pending || password === ""}>{pending ? "Signing…" : "Sign"}</button>
-        <button type="button" className="btn-quiet" onClick={() => setOpen(false)}>Cancel</button>
+        <button type="submit" className="btn-primary" disabled={pending || password === ""}>
+          {pending ? "Signing…" : "Sign"}
+        </button>
+        <button type="button" className="btn-quiet" onClick={() => setOpen(false)}>
+          Cancel
+        </button>
       </div>
     </form>
   );

@@ -10,14 +10,20 @@ export function WithdrawButton({ kind, id, label }: { kind: "check" | "signOff";
   const [error, setError] = useState<string | null>(null);
   const [pending, start] = useTransition();
   const router = useRouter();
-  if (!open) return <button type="button" className="btn-quiet" onClick={() => setOpen(true)}>{label}</button>;
+  if (!open)
+    return (
+      <button type="button" className="btn-quiet" onClick={() => setOpen(true)}>
+        {label}
+      </button>
+    );
   return (
     <form
       className="space-y-2"
       onSubmit={(e) => {
         e.preventDefault();
         start(async () => {
-          const r = kind === "check" ? await withdrawCheckAction({ checkId: id, reason }) : await withdrawSignOffAction({ signOffId: id, reason });
+          const r =
+            kind === "check" ? await withdrawCheckAction({ checkId: id, reason }) : await withdrawSignOffAction({ signOffId: id, reason });
           if (r.ok) {
             setOpen(false);
             router.refresh();
@@ -25,12 +31,29 @@ export function WithdrawButton({ kind, id, label }: { kind: "check" | "signOff";
         });
       }}
     >
-      <label htmlFor={`reason-${id}`} className="field-label">Reason for the withdrawal</label>
-      <input id={`reason-${id}`} value={reason} onChange={(e) => setReason(e.target.value)} className="field-input" required minLength={3} />
-      {error && <p className="field-error" role="alert">{error}</p>}
+      <label htmlFor={`reason-${id}`} className="field-label">
+        Reason for the withdrawal
+      </label>
+      <input
+        id={`reason-${id}`}
+        value={reason}
+        onChange={(e) => setReason(e.target.value)}
+        className="field-input"
+        required
+        minLength={3}
+      />
+      {error && (
+        <p className="field-error" role="alert">
+          {error}
+        </p>
+      )}
       <div className="flex gap-2">
-        <button type="submit" className="btn-primary" disabled={pending}>Withdraw</button>
-        <button type="button" className="btn-quiet" onClick={() => setOpen(false)}>Cancel</button>
+        <button type="submit" className="btn-primary" disabled={pending}>
+          Withdraw
+        </button>
+        <button type="button" className="btn-quiet" onClick={() => setOpen(false)}>
+          Cancel
+        </button>
       </div>
     </form>
   );

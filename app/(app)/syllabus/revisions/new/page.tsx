@@ -8,7 +8,11 @@ import { RevisionEditor } from "../../_components/revision-editor";
 export const metadata: Metadata = { title: "New syllabus revision" };
 export const dynamic = "force-dynamic";
 
-export default async function NewSyllabusRevisionPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function NewSyllabusRevisionPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const user = await requirePagePermission("syllabus.edit", "/syllabus/revisions/new");
   const courses = await listCoursesWithLatestRevision(user.schoolId);
   const param = (await searchParams).course;
@@ -21,7 +25,10 @@ export default async function NewSyllabusRevisionPage({ searchParams }: { search
       <header>
         <h1 className="text-display">New syllabus revision</h1>
         <p className="text-ink-soft">
-          {course.code} · {course.title}. {current ? `Starts from revision ${current.number}; revision ${current.number} stays as it is for the enrolments and briefings on it.` : "The first revision of this course."}
+          {course.code} · {course.title}.{" "}
+          {current
+            ? `Starts from revision ${current.number}; revision ${current.number} stays as it is for the enrolments and briefings on it.`
+            : "The first revision of this course."}
         </p>
       </header>
       <RevisionEditor
@@ -32,8 +39,24 @@ export default async function NewSyllabusRevisionPage({ searchParams }: { search
           effectiveFrom: "",
           changeNote: "",
           stages: current
-            ? current.stages.map((s) => ({ code: s.code, title: s.title, items: s.items.map(({ code, title, objective, completionStandard, requiredLevel }) => ({ code, title, objective, completionStandard, requiredLevel })) }))
-            : [{ code: "", title: "", items: [{ code: "", title: "", objective: "", completionStandard: "", requiredLevel: "understanding" }] }],
+            ? current.stages.map((s) => ({
+                code: s.code,
+                title: s.title,
+                items: s.items.map(({ code, title, objective, completionStandard, requiredLevel }) => ({
+                  code,
+                  title,
+                  objective,
+                  completionStandard,
+                  requiredLevel,
+                })),
+              }))
+            : [
+                {
+                  code: "",
+                  title: "",
+                  items: [{ code: "", title: "", objective: "", completionStandard: "", requiredLevel: "understanding" }],
+                },
+              ],
         }}
       />
     </div>

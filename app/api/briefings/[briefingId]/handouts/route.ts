@@ -51,7 +51,8 @@ export const POST = route<{ briefingId: string }>("briefings.edit", async ({ req
   const actual = sniffHandoutType(bytes.subarray(0, 16));
   if (!actual) throw new HttpError(415, "file: only PDF, PNG and JPEG files can be handouts", "file");
   if (declared !== actual) throw new HttpError(415, `file: the content is ${actual}, not ${declared || "the declared type"}`, "file");
-  if (!EXTENSIONS[actual].includes(extensionOf(name))) throw new HttpError(415, `name: the file's name does not match its content (${actual})`, "name");
+  if (!EXTENSIONS[actual].includes(extensionOf(name)))
+    throw new HttpError(415, `name: the file's name does not match its content (${actual})`, "name");
   const saved = await inTransaction((t) => addHandout(user, params.briefingId, { fileName: name, contentType: actual, bytes }, t));
   return NextResponse.json(saved, { status: 201 });
 });

@@ -14,12 +14,29 @@ export const GET = route<{ studentId: string }>("groundlog.view", async ({ user,
   if (!id.success) throw new HttpError(400, "studentId: not a valid id", "studentId");
   if (!(await mayViewGroundLog(user, id.data))) throw new HttpError(404, "studentId: no such student", "studentId");
   const lines = await logbookFor(user.schoolId, id.data);
-  const [p] = await sequelize.query<{ name: string }>(`SELECT name FROM people WHERE id = :id`, { replacements: { id: id.data }, type: QueryTypes.SELECT });
+  const [p] = await sequelize.query<{ name: string }>(`SELECT name FROM people WHERE id = :id`, {
+    replacements: { id: id.data },
+    type: QueryTypes.SELECT,
+  });
   const csv = toCsv(
     ["Date", "Minutes credited", "Hours", "Attendance", "Subjects", "Instructor", "Instructor certificate", "Amended", "Amendment reason"],
-    lines.map((l) => [l.date, l.durationMinutes, (l.durationMinutes / 60).toFixed(2), ATTENDANCE_LABELS[l.status], l.subjects, l.instructorName, l.certificateNumber ?? "", l.amended ? "yes" : "no", l.reason ?? ""]),
+    lines.map((l) => [
+      l.date,
+      l.durationMinutes,
+      (l.durationMinutes / 60).toFixed(2),
+      ATTENDANCE_LABELS[l.status],
+      l.subjects,
+      l.instructorName,
+      l.certificateNumber ?? "",
+      l.amended ? "yes" : "no",
+      l.reason ?? "",
+    ]),
   );
-  const safe = (p?.name ?? "student").replace(/[^A-Za-z0-9]+/g, "-").replace(/^-|-$/g, "").toLowerCase() || "student";
+  const safe =
+    (p?.name ?? "student")
+      .replace(/[^A-Za-z0-9]+/g, "-")
+      .replace(/^-|-$/g, "")
+      .toLowerCase() || "student";
   return new Response(`\uFEFF${csv}`, {
     headers: {
       "content-type": "text/csv; charset=utf-8",

@@ -20,18 +20,36 @@ export const GET = route<{ studentId: string }>("progress.view", async ({ user, 
     ],
     groundSummary: `Credited ground time: ${hoursLabel(r.groundMinutes, r.student.minGroundMinutes)}`,
     groundLog: r.groundLog.map((g) => [g.date, g.title, g.status.replace("_", " "), hoursLabel(g.minutes)]),
-    signOffs: r.signOffs.map((s) => [`${s.itemCode} ${s.itemTitle}`, s.signedOn, s.signerName, s.reason ? `${s.state}: ${s.reason}` : s.state, s.signatureHash.slice(0, 16)]),
+    signOffs: r.signOffs.map((s) => [
+      `${s.itemCode} ${s.itemTitle}`,
+      s.signedOn,
+      s.signerName,
+      s.reason ? `${s.state}: ${s.reason}` : s.state,
+      s.signatureHash.slice(0, 16),
+    ]),
     stageChecks: r.stageChecks.map((s) => [s.stageCode, s.date, s.examinerName, s.result, s.written ?? ""]),
     checks: r.checks.map((c) => ({
       heading: `${formatInZone(c.occurredAt, tz, "yyyy-MM-dd HH:mm")} · ${c.itemCodes.join(", ")} · ${CHECK_OUTCOME_LABEL[c.outcome]} · level ${LEVEL_LABEL[c.levelShown].toLowerCase()} · ${c.instructorName}${c.withdrawn ? ` · WITHDRAWN: ${c.withdrawn.reason}` : ""}`,
-      lines: c.questions.map((q) => `${q.position}. [${q.itemCode}] ${q.text} - ${OUTCOME_LABEL[q.outcome]}${q.prompted ? ", prompted" : ""}${q.generated ? ` (computed answer ${q.generated.answer.display})` : ""}`),
+      lines: c.questions.map(
+        (q) =>
+          `${q.position}. [${q.itemCode}] ${q.text} - ${OUTCOME_LABEL[q.outcome]}${q.prompted ? ", prompted" : ""}${q.generated ? ` (computed answer ${q.generated.answer.display})` : ""}`,
+      ),
     })),
     headHash: r.head.hash,
     headPosition: r.head.position,
     generatedAt: formatInZone(r.generatedAt, tz, "yyyy-MM-dd HH:mm"),
   });
-  const safe = r.student.name.replace(/[^A-Za-z0-9]+/g, "-").replace(/^-|-$/g, "").toLowerCase() || "student";
+  const safe =
+    r.student.name
+      .replace(/[^A-Za-z0-9]+/g, "-")
+      .replace(/^-|-$/g, "")
+      .toLowerCase() || "student";
   return new Response(Buffer.from(pdf), {
-    headers: { "Content-Type": "application/pdf", "Content-Disposition": `inline; filename="training-record-${safe}.pdf"`, "Cache-Control": "no-store", "X-Audit-Head": r.head.hash },
+    headers: {
+      "Content-Type": "application/pdf",
+      "Content-Disposition": `inline; filename="training-record-${safe}.pdf"`,
+      "Cache-Control": "no-store",
+      "X-Audit-Head": r.head.hash,
+    },
   });
 });

@@ -19,12 +19,21 @@ export default async function EditAirframePage({ params }: { params: Promise<{ a
   if (!a) notFound();
   return (
     <div className="space-y-4">
-      <nav aria-label="Breadcrumb" className="text-caption"><Link href="/curve-lab">Curve Lab</Link> / <Link href="/curve-lab/airframes">Airframes</Link> / <Link href={`/curve-lab/airframes/${a.id}`}>{a.name}</Link> / Edit</nav>
+      <nav aria-label="Breadcrumb" className="text-caption">
+        <Link href="/curve-lab">Curve Lab</Link> / <Link href="/curve-lab/airframes">Airframes</Link> /{" "}
+        <Link href={`/curve-lab/airframes/${a.id}`}>{a.name}</Link> / Edit
+      </nav>
       <h1 className="text-display">Edit {a.name}</h1>
       <Caution />
       <p className="text-caption text-ink-soft">{AXIS_ASSUMPTION}</p>
-      <p className="text-caption text-ink-soft">Demos already saved keep the numbers they were built with; a change here applies to new demos and to demos you rebuild.</p>
-      {a.retiredAt ? <p>This profile is retired. Duplicate it to make a changed copy.</p> : <AirframeForm airframeId={a.id} defaults={formValuesFor(a)} />}
+      <p className="text-caption text-ink-soft">
+        Demos already saved keep the numbers they were built with; a change here applies to new demos and to demos you rebuild.
+      </p>
+      {a.retiredAt ? (
+        <p>This profile is retired. Duplicate it to make a changed copy.</p>
+      ) : (
+        <AirframeForm airframeId={a.id} defaults={formValuesFor(a)} />
+      )}
     </div>
   );
 }

@@ -25,7 +25,5 @@ export default async function ProjectorPage({ params }: { params: Promise<{ demo
     name = revision.demoName;
     spec = revision.spec;
   }
-  return (
-    <ProjectorView name={name} spec={spec} backHref={`/curve-lab/demos/${demoId}`} />
-  );
+  return <ProjectorView name={name} spec={spec} backHref={`/curve-lab/demos/${demoId}`} />;
 }
