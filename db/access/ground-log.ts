@@ -2,7 +2,7 @@ import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import type { z } from "zod";
 import { sequelize } from "../index";
-import { getSchool } from "./school";
+import { getSchool } from "./shared/school";
 import { openMakeupForAbsence, closeMakeupByAttendance } from "./makeup";
 import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";

@@ -4,7 +4,7 @@ import { sequelize } from "../index";
 import type { CurrentUser } from "@/lib/auth/session";
 import { HttpError } from "@/lib/http/errors";
 import { School } from "../models";
-import { DEFAULT_SETTINGS } from "./school";
+import { DEFAULT_SETTINGS } from "./shared/school";
 import { listChecksOfStudent, type CheckSummary } from "./oral-checks";
 import { currentSignOffs, signerStanding } from "./sign-offs";
 import { stageReadiness, type StageReadiness } from "./stage-checks";

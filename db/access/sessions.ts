@@ -4,7 +4,7 @@ import ical, { ICalEventStatus } from "ical-generator";
 import { QueryTypes, type Transaction } from "sequelize";
 import type { z } from "zod";
 import { sequelize } from "../index";
-import { getSchool } from "./school";
+import { getSchool } from "./shared/school";
 import { enqueueMail } from "./outbox";
 import { composeMail } from "@/lib/mail/compose";
 import { HttpError } from "@/lib/http/errors";

@@ -2,7 +2,7 @@ import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "@/db/index";
 import { enqueueMail } from "@/db/access/outbox";
-import { DEFAULT_SETTINGS } from "@/db/access/school";
+import { DEFAULT_SETTINGS } from "@/db/access/shared/school";
 import { dateInZone, formatInZone, zonedInstant } from "@/lib/time";
 import { composeMail } from "./compose";
 import { composeWeeklyLetter, type AttendanceStatus, type WeeklyLetterData } from "./letter";

@@ -1,6 +1,6 @@
 import { randomUUID } from "node:crypto";
 import { sequelize } from "@/db/index";
-import { createSchool } from "@/db/access/school";
+import { createSchool } from "@/db/access/shared/school";
 import { createPerson, addQualification } from "@/db/access/people";
 import { createCourse, createSyllabusRevision } from "@/db/access/syllabus";
 import { createCohort, addToCohort, enrol, linkSponsor } from "@/db/access/cohorts";

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { listBriefings } from "@/db/access/briefings";
 import { briefingListQuery } from "./schema";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { formatInZone } from "@/lib/time";
 
 export const metadata: Metadata = { title: "Briefings" };

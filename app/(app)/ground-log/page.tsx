@@ -5,7 +5,7 @@ import { getActiveEnrolment } from "@/db/access/cohorts";
 import { groundHoursFor, logbookFor, groundLogStudentsFor, mayViewGroundLog } from "@/db/access/ground-log";
 import { listMakeupFor } from "@/db/access/makeup";
 import { listSessions } from "@/db/access/sessions";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { hoursLabel, dateInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
 import { ATTENDANCE_LABELS } from "@/lib/timetable/schemas";

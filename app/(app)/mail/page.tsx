@@ -4,7 +4,7 @@ import { z } from "zod";
 import { simpleParser } from "mailparser";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { listOutbox, listTray, mailTrayEnabled, readTrayMessage } from "@/db/access/mail";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { formatInZone } from "@/lib/time";
 import { OutboxTable } from "./_components/outbox-table";
 import { MailTabs } from "./_components/mail-tabs";

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { listCohorts } from "@/db/access/cohorts";
 import { listRoster, cohortsManagedBy } from "@/db/access/roster";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { dateInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
 import { AddStudentForm } from "./_components/add-student-form";

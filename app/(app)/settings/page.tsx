@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { SettingsForm } from "./_components/settings-form";
 
 export const metadata: Metadata = { title: "School settings" };

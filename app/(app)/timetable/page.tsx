@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission, can } from "@/lib/auth/guard";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { listSessions, schedulingChoices, calendarFeedCreatedAt } from "@/db/access/sessions";
 import { weekQuerySchema } from "@/lib/timetable/schemas";
 import { dateInZone, formatInZone, zonedInstant } from "@/lib/time";

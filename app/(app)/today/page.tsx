@@ -8,7 +8,7 @@ import { StudentToday } from "./_components/student-today";
 import { SponsorToday } from "./_components/sponsor-today";
 import { AttendanceDue } from "./_components/attendance-due";
 import { NextSessions } from "./_components/next-sessions";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { formatInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
 

@@ -3,7 +3,7 @@ import { NextResponse } from "next/server";
 import { route, parseQuery } from "@/lib/http/api";
 import { HttpError } from "@/lib/http/errors";
 import { listSessions } from "@/db/access/sessions";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { sessionsQuerySchema, SESSIONS_QUERY_KEYS } from "@/lib/timetable/schemas";
 import { zonedInstant } from "@/lib/time";
 

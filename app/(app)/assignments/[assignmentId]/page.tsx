@@ -3,7 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { assignmentCompletion } from "@/db/access/assignments";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { formatInZone } from "@/lib/time";
 import { uuidParam } from "@/lib/http/api";
 import { StatusBadge } from "../_components/status-badge";

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { canViewBriefing, getBriefing } from "@/db/access/briefings";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { formatInZone } from "@/lib/time";
 import { uuidParam } from "@/lib/http/api";
 import { HandoutUpload } from "../_components/handout-upload";

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { recentNotes, studentsForNotes } from "@/db/access/mail";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { formatInZone } from "@/lib/time";
 import { MailTabs } from "../_components/mail-tabs";
 import { NoteForm } from "../_components/note-form";

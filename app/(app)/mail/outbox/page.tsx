@@ -3,7 +3,7 @@ import Link from "next/link";
 import { z } from "zod";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { OUTBOX_STATES, listOutbox, outboxCounts } from "@/db/access/mail";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { OutboxTable } from "../_components/outbox-table";
 import { MailTabs } from "../_components/mail-tabs";
 

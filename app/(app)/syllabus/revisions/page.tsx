@@ -3,7 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { defaultCourseId, listActiveEnrolments, listCoursesWithLatestRevision, listSyllabusRevisions } from "@/db/access/syllabus";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { formatInZone } from "@/lib/time";
 import { uuidParam } from "@/lib/http/api";
 import { MoveEnrolment } from "../_components/move-enrolment";

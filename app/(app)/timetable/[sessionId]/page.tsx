@@ -5,7 +5,7 @@ import { requirePagePermission, can } from "@/lib/auth/guard";
 import { uuidParam } from "@/lib/http/api";
 import { getSession } from "@/db/access/sessions";
 import { attendanceSheet } from "@/db/access/ground-log";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { schedulingChoices } from "@/db/access/sessions";
 import { formatInZone } from "@/lib/time";
 import { hoursLabel } from "@/lib/time";

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { schedulingChoices } from "@/db/access/sessions";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { SessionsTable } from "../_components/sessions-table";
 
 export const metadata: Metadata = { title: "Timetable: list" };

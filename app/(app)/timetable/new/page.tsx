@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { schedulingChoices } from "@/db/access/sessions";
-import { getSchool } from "@/db/access/school";
+import { getSchool } from "@/db/access/shared/school";
 import { dateInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
 import { ScheduleForm } from "../_components/schedule-form";

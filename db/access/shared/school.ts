@@ -1,6 +1,8 @@
 import "server-only";
 import type { Transaction } from "sequelize";
-import { School, type SchoolSettings } from "../models";
+import { School, type SchoolSettings } from "../../models";
+
+// The one read of a school: its name, time zone and settings (defaults filled in).
 
 export const DEFAULT_SETTINGS: Required<
   Pick<SchoolSettings, "checkValidityDays" | "stageCheckPassMarkPercent" | "lateEntryDays" | "reminderLeadHours" | "weeklyLetterDay">
@@ -20,8 +22,11 @@ export async function createSchool(input: { name: string; timeZone: string; sett
   return { id: s.id, name: s.name, timeZone: s.timeZone };
 }
 
-export async function getSchool(schoolId: string) {
-  const s = await School.findByPk(schoolId);
+export type SchoolInfo = Awaited<ReturnType<typeof getSchool>>;
+
+/** The school with its settings; pass the caller's transaction to read inside it (no second connection). */
+export async function getSchool(schoolId: string, t?: Transaction) {
+  const s = await School.findByPk(schoolId, { transaction: t });
   if (!s) throw new Error("School not found");
   return { id: s.id, name: s.name, timeZone: s.timeZone, settings: { ...DEFAULT_SETTINGS, ...s.settings } };
 }

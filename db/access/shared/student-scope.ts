@@ -1,0 +1,102 @@
+import "server-only";
+import { QueryTypes, type Transaction } from "sequelize";
+import { sequelize } from "../../index";
+import type { CurrentUser } from "@/lib/auth/session";
+import { studentScopeFor, type ScopePurpose } from "@/lib/auth/student-scope";
+import { HttpError } from "@/lib/http/errors";
+import { activeEnrolment, type StudentRef } from "./enrolment";
+
+// THE scoping rule: which students this caller may see, for this purpose. Every read of a
+// student's data asks here (one student: requireStudentFor; a list: studentScopeSql or
+// visibleStudentIds). What each role may see per purpose is decided in lib/auth/student-scope.ts.
+
+export type { ScopePurpose } from "@/lib/auth/student-scope";
+export type Caller = Pick<CurrentUser, "id" | "schoolId" | "roles">;
+export type ViewerAccess = "staff" | "self" | "sponsor";
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+let fragmentSeq = 0;
+
+/**
+ * A WHERE fragment that is true for the students (ids in `column`) the caller may see for this
+ * purpose, with its own named replacements (unique per call, so several may share a query).
+ */
+export function studentScopeSql(
+  caller: Caller,
+  purpose: ScopePurpose,
+  column: string,
+): { sql: string; replacements: Record<string, unknown>; staffSql: string } {
+  const scope = studentScopeFor(caller.roles, purpose);
+  const k = `sc${++fragmentSeq % 1_000_000}`;
+  const staff: string[] = [];
+  const other: string[] = [];
+  const schoolStudents = `SELECT sp.id FROM people sp WHERE sp.school_id = :${k}School AND 'student' = ANY(sp.roles)`;
+  if (scope.school) staff.push(`${column} IN (${schoolStudents})`);
+  else if (scope.examiner)
+    // a designated check instructor sees the school's students (read in SQL: no extra round trip)
+    staff.push(
+      `(${column} IN (${schoolStudents}) AND EXISTS (SELECT 1 FROM instructor_qualifications q WHERE q.person_id = :${k}Uid AND q.check_instructor))`,
+    );
+  if (scope.taught)
+    staff.push(
+      `${column} IN (SELECT m.student_id FROM cohort_memberships m JOIN cohorts c ON c.id = m.cohort_id
+                      WHERE c.lead_instructor_id = :${k}Uid AND c.school_id = :${k}School
+                     UNION SELECT a.student_id FROM session_attendees a JOIN training_sessions s ON s.id = a.session_id
+                      WHERE s.instructor_id = :${k}Uid AND s.school_id = :${k}School)`,
+    );
+  if (scope.own) other.push(`${column} = :${k}Uid`);
+  if (scope.sponsored)
+    other.push(
+      `${column} IN (SELECT l.student_id FROM sponsor_links l WHERE l.sponsor_id = :${k}Uid${scope.sponsored.map((f) => ` AND l.${f}`).join("")})`,
+    );
+  const staffSql = staff.length ? `(${staff.join(" OR ")})` : "FALSE";
+  const all = [...staff, ...other];
+  return {
+    sql: all.length ? `(${all.join(" OR ")})` : "FALSE",
+    staffSql,
+    replacements: { [`${k}School`]: caller.schoolId, [`${k}Uid`]: caller.id },
+  };
+}
+
+/** Ids of the students (with an active enrolment) the caller may see for this purpose. */
+export async function visibleStudentIds(caller: Caller, purpose: ScopePurpose, t?: Transaction): Promise<string[]> {
+  const f = studentScopeSql(caller, purpose, "p.id");
+  const rows = await sequelize.query<{ id: string }>(
+    `SELECT p.id FROM people p JOIN active_enrolments e ON e.student_id = p.id
+      WHERE p.school_id = :school AND ${f.sql}`,
+    { replacements: { school: caller.schoolId, ...f.replacements }, type: QueryTypes.SELECT, transaction: t },
+  );
+  return rows.map((r) => r.id);
+}
+
+/** Whether the caller may see this student for this purpose, and as whom. */
+export async function accessTo(caller: Caller, studentId: string, purpose: ScopePurpose, t?: Transaction): Promise<ViewerAccess | null> {
+  if (!UUID.test(studentId)) return null;
+  const f = studentScopeSql(caller, purpose, "p.id");
+  const [row] = await sequelize.query<{ staff: boolean; visible: boolean }>(
+    `SELECT ${f.staffSql} AS staff, ${f.sql} AS visible FROM people p WHERE p.id = :student AND p.school_id = :school`,
+    { replacements: { student: studentId, school: caller.schoolId, ...f.replacements }, type: QueryTypes.SELECT, transaction: t },
+  );
+  if (!row?.visible) return null;
+  if (row.staff) return "staff";
+  return studentId === caller.id ? "self" : "sponsor";
+}
+
+/**
+ * The student with their active enrolment, if the caller may see them for this purpose;
+ * otherwise a 404 that says nothing about whether the student exists.
+ */
+export async function requireStudentFor(
+  caller: Caller,
+  studentId: string,
+  purpose: ScopePurpose,
+  t?: Transaction,
+): Promise<{ student: StudentRef; access: ViewerAccess }> {
+  const notFound = new HttpError(404, "studentId: no such student", "studentId");
+  const access = await accessTo(caller, studentId, purpose, t);
+  if (!access) throw notFound;
+  const student = await activeEnrolment(caller.schoolId, studentId, t);
+  if (!student) throw notFound;
+  return { student, access };
+}
