@@ -18,6 +18,7 @@ export const PERMISSIONS = {
   "students.sponsored": { roles: ["sponsor"], description: "See what a linked student shares with their sponsors" },
   "people.unlock": { roles: ["chief"], description: "Lift a sign-in lock on an account" },
   "syllabus.view": { roles: ["chief", "instructor", "student"], description: "Read the syllabus" },
+  "syllabus.all": { roles: ["chief", "instructor"], description: "Read every course's syllabus (students: the course they are on)" },
   "syllabus.edit": { roles: ["chief"], description: "Make syllabus revisions and move enrolments between them" },
   "roster.manage": { roles: ["chief", "instructor"], description: "Add students, import rosters, move students between cohorts" },
   "airframes.view": { roles: ["chief", "instructor"], description: "See aircraft profiles" },
@@ -25,7 +26,12 @@ export const PERMISSIONS = {
   "demos.edit": { roles: ["chief", "instructor"], description: "Build, save and delete demos in Curve Lab" },
   "demos.view": { roles: ["chief", "instructor", "student"], description: "Open demos (students: only those assigned)" },
   "demos.call": { roles: ["student"], description: "Make a Call it first prediction on an assigned demo" },
+  "demos.manage": { roles: ["chief"], description: "Change, rename and delete any demo of the school, not only one's own" },
   "briefings.edit": { roles: ["chief", "instructor"], description: "Write briefings and upload handouts" },
+  "briefings.all": {
+    roles: ["chief", "instructor"],
+    description: "Read every briefing of the school (others only those scheduled or assigned to them)",
+  },
   "briefings.view": {
     roles: ["chief", "instructor", "student"],
     description: "Read briefings (students: only those scheduled or assigned)",
