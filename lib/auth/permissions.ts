@@ -21,6 +21,7 @@ export const PERMISSIONS = {
   "syllabus.all": { roles: ["chief", "instructor"], description: "Read every course's syllabus (students: the course they are on)" },
   "syllabus.edit": { roles: ["chief"], description: "Make syllabus revisions and move enrolments between them" },
   "roster.manage": { roles: ["chief", "instructor"], description: "Add students, import rosters, move students between cohorts" },
+  "roster.all": { roles: ["chief"], description: "Manage every cohort's roster, not only the cohorts one leads" },
   "airframes.view": { roles: ["chief", "instructor"], description: "See aircraft profiles" },
   "airframes.edit": { roles: ["chief", "instructor"], description: "Create, edit, duplicate and retire aircraft profiles" },
   "demos.edit": { roles: ["chief", "instructor"], description: "Build, save and delete demos in Curve Lab" },
@@ -38,6 +39,10 @@ export const PERMISSIONS = {
   },
   "timetable.view": { roles: ["chief", "instructor", "student"], description: "See the Timetable (each sees what concerns them)" },
   "timetable.schedule": { roles: ["chief", "instructor"], description: "Schedule, reschedule and cancel sessions" },
+  "timetable.manage": {
+    roles: ["chief"],
+    description: "Change any session and record its attendance, not only those one teaches or whose cohort one leads",
+  },
   "attendance.record": { roles: ["chief", "instructor"], description: "Record attendance and credited minutes" },
   "makeup.waive": { roles: ["chief"], description: "Waive a student's make-up item, with a reason" },
   "groundlog.view": { roles: ["chief", "instructor", "student", "sponsor"], description: "See a Ground log (scoped to the caller)" },
