@@ -8,6 +8,7 @@ import { AssignmentForm } from "./_components/assignment-form";
 import { DoneToggle } from "./_components/done-toggle";
 import { StatusBadge } from "./_components/status-badge";
 import { formatDueOn } from "./_components/format";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 export const metadata: Metadata = { title: "Assignments" };
 export const dynamic = "force-dynamic";
@@ -39,12 +40,7 @@ export default async function AssignmentsPage({ searchParams }: { searchParams: 
           {rows.length === 0 ? (
             <p className="mt-2 text-ink-soft">Nothing assigned yet.</p>
           ) : (
-            <div
-              className="mt-2 overflow-x-auto"
-              tabIndex={0}
-              role="region"
-              aria-label="Assignments table (scrolls sideways on small screens)"
-            >
+            <ScrollArea label="Assignments table (scrolls sideways on small screens)" className="mt-2">
               <table className="data-table" data-testid="staff-assignments">
                 <thead>
                   <tr>
@@ -76,7 +72,7 @@ export default async function AssignmentsPage({ searchParams }: { searchParams: 
                   ))}
                 </tbody>
               </table>
-            </div>
+            </ScrollArea>
           )}
         </section>
       </div>

@@ -5,6 +5,7 @@ import { listBriefings } from "@/db/access/briefings";
 import { briefingListQuery } from "./schema";
 import { getSchool } from "@/db/access/shared/school";
 import { formatInZone } from "@/lib/time";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 export const metadata: Metadata = { title: "Briefings" };
 export const dynamic = "force-dynamic";
@@ -100,7 +101,7 @@ export default async function BriefingsPage({ searchParams }: { searchParams: Pr
             : `${result.total} briefing${result.total === 1 ? "" : "s"} · page ${query.page} of ${pages}`}
         </p>
         {result.rows.length > 0 && (
-          <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Briefings table (scrolls sideways on small screens)">
+          <ScrollArea label="Briefings table (scrolls sideways on small screens)" className="mt-2">
             <table className="data-table" data-testid="briefings-table">
               <thead>
                 <tr>
@@ -143,7 +144,7 @@ export default async function BriefingsPage({ searchParams }: { searchParams: Pr
                 ))}
               </tbody>
             </table>
-          </div>
+          </ScrollArea>
         )}
         {pages > 1 && (
           <nav aria-label="Pages" className="mt-3 flex items-center gap-2">

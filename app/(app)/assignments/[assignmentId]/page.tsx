@@ -8,6 +8,7 @@ import { formatInZone } from "@/lib/time";
 import { uuidParam } from "@/lib/http/api";
 import { StatusBadge } from "../_components/status-badge";
 import { formatDueOn } from "../_components/format";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 export const metadata: Metadata = { title: "Assignment completion" };
 export const dynamic = "force-dynamic";
@@ -40,7 +41,7 @@ export default async function AssignmentPage({ params }: { params: Promise<{ ass
             · <span className="num">{a.done}</span> of <span className="num">{a.students}</span> done
           </span>
         </h2>
-        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Completion table (scrolls sideways on small screens)">
+        <ScrollArea label="Completion table (scrolls sideways on small screens)" className="mt-2">
           <table className="data-table" data-testid="completion-table">
             <thead>
               <tr>
@@ -63,7 +64,7 @@ export default async function AssignmentPage({ params }: { params: Promise<{ ass
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollArea>
       </section>
     </div>
   );

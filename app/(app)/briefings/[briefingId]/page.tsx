@@ -7,6 +7,7 @@ import { getSchool } from "@/db/access/shared/school";
 import { formatInZone } from "@/lib/time";
 import { uuidParam } from "@/lib/http/api";
 import { HandoutUpload } from "../_components/handout-upload";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 export const metadata: Metadata = { title: "Briefing" };
 export const dynamic = "force-dynamic";
@@ -105,12 +106,7 @@ export default async function BriefingPage({
             </li>
           ))}
         </ol>
-        <div
-          className="mt-2 hidden overflow-x-auto sm:block"
-          tabIndex={0}
-          role="region"
-          aria-label="Elements table (scrolls sideways on small screens)"
-        >
+        <ScrollArea label="Elements table (scrolls sideways on small screens)" className="mt-2 hidden sm:block">
           <table className="data-table">
             <thead>
               <tr>
@@ -133,7 +129,7 @@ export default async function BriefingPage({
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollArea>
       </section>
 
       <div className="grid gap-6 md:grid-cols-2">
@@ -180,7 +176,7 @@ export default async function BriefingPage({
 
       <section className="card" aria-labelledby="h-revisions">
         <h2 id="h-revisions">Revisions</h2>
-        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Revisions table (scrolls sideways on small screens)">
+        <ScrollArea label="Revisions table (scrolls sideways on small screens)" className="mt-2">
           <table className="data-table">
             <thead>
               <tr>
@@ -207,7 +203,7 @@ export default async function BriefingPage({
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollArea>
       </section>
     </article>
   );

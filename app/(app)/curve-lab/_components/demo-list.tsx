@@ -1,6 +1,7 @@
 "use client";
 import Link from "next/link";
 import { useQuery } from "@tanstack/react-query";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 interface Row {
   id: string;
@@ -38,7 +39,7 @@ export function DemoList({ staff }: { staff: boolean }) {
       </p>
     );
   return (
-    <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="List, scrolls sideways">
+    <ScrollArea label="List, scrolls sideways">
       <table className="data-table" data-testid="demo-list">
         <thead>
           <tr>
@@ -85,6 +86,6 @@ export function DemoList({ staff }: { staff: boolean }) {
           ))}
         </tbody>
       </table>
-    </div>
+    </ScrollArea>
   );
 }

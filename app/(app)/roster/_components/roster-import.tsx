@@ -1,6 +1,7 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 interface PreviewRow {
   line: number;
@@ -104,7 +105,7 @@ export function RosterImport() {
             {preview.readyCount} of {preview.rows.length} rows ready.{" "}
             {blocked ? "Fix the file and choose it again: nothing is imported while any row has a problem." : ""}
           </p>
-          <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Preview of the file, scrolls sideways">
+          <ScrollArea label="Preview of the file, scrolls sideways">
             <table className="data-table" data-testid="import-preview">
               <thead>
                 <tr>
@@ -132,7 +133,7 @@ export function RosterImport() {
                 ))}
               </tbody>
             </table>
-          </div>
+          </ScrollArea>
           <button type="button" className="btn-primary" disabled={blocked || busy} onClick={onImport}>
             Import {preview.rows.length} students
           </button>

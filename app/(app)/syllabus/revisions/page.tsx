@@ -7,6 +7,7 @@ import { getSchool } from "@/db/access/shared/school";
 import { formatInZone } from "@/lib/time";
 import { uuidParam } from "@/lib/http/api";
 import { MoveEnrolment } from "../_components/move-enrolment";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 export const metadata: Metadata = { title: "Syllabus revisions" };
 export const dynamic = "force-dynamic";
@@ -58,7 +59,7 @@ export default async function SyllabusRevisionsPage({
       )}
       <section className="card" aria-labelledby="h-revs">
         <h2 id="h-revs">Revisions</h2>
-        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Revisions table (scrolls sideways on small screens)">
+        <ScrollArea label="Revisions table (scrolls sideways on small screens)" className="mt-2">
           <table className="data-table" data-testid="syllabus-revisions">
             <thead>
               <tr>
@@ -93,12 +94,12 @@ export default async function SyllabusRevisionsPage({
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollArea>
       </section>
       <section className="card" aria-labelledby="h-enrol">
         <h2 id="h-enrol">Enrolments and their revision</h2>
         <p className="text-caption text-ink-soft">Each student stays on their revision until you move them.</p>
-        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Enrolments table (scrolls sideways on small screens)">
+        <ScrollArea label="Enrolments table (scrolls sideways on small screens)" className="mt-2">
           <table className="data-table">
             <thead>
               <tr>
@@ -126,7 +127,7 @@ export default async function SyllabusRevisionsPage({
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollArea>
       </section>
     </div>
   );

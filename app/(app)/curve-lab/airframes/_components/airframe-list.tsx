@@ -4,6 +4,7 @@ import Link from "next/link";
 import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
 import { kgToLb } from "@/lib/aero";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 interface Row {
   id: string;
@@ -41,7 +42,7 @@ export function AirframeList() {
       )}
       {q.data && q.data.length === 0 && <p className="text-ink-soft">No aircraft profiles yet.</p>}
       {q.data && q.data.length > 0 && (
-        <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="List, scrolls sideways">
+        <ScrollArea label="List, scrolls sideways">
           <table className="data-table" data-testid="airframe-list">
             <thead>
               <tr>
@@ -70,7 +71,7 @@ export function AirframeList() {
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollArea>
       )}
     </div>
   );
