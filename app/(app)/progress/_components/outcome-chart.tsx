@@ -1,6 +1,7 @@
 "use client";
 import { Chart as ChartJS, BarElement, CategoryScale, LinearScale, Legend, Tooltip } from "chart.js";
 import { Bar } from "react-chartjs-2";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 ChartJS.register(BarElement, CategoryScale, LinearScale, Legend, Tooltip);
 
@@ -27,27 +28,29 @@ export function OutcomeChart({ data }: { data: { date: string; solid: number; sh
           }}
         />
       </div>
-      <figcaption className="mt-2 overflow-x-auto" tabIndex={0} aria-label="Outcomes per date">
-        <table className="data-table text-caption">
-          <thead>
-            <tr>
-              <th scope="col">Date</th>
-              <th scope="col">Solid</th>
-              <th scope="col">Shaky</th>
-              <th scope="col">Not yet</th>
-            </tr>
-          </thead>
-          <tbody>
-            {data.map((d) => (
-              <tr key={d.date}>
-                <td className="num">{d.date}</td>
-                <td className="num">{d.solid}</td>
-                <td className="num">{d.shaky}</td>
-                <td className="num">{d.notYet}</td>
+      <figcaption className="mt-2">
+        <ScrollArea label="Outcomes per date">
+          <table className="data-table text-caption">
+            <thead>
+              <tr>
+                <th scope="col">Date</th>
+                <th scope="col">Solid</th>
+                <th scope="col">Shaky</th>
+                <th scope="col">Not yet</th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody>
+              {data.map((d) => (
+                <tr key={d.date}>
+                  <td className="num">{d.date}</td>
+                  <td className="num">{d.solid}</td>
+                  <td className="num">{d.shaky}</td>
+                  <td className="num">{d.notYet}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </ScrollArea>
       </figcaption>
     </figure>
   );
