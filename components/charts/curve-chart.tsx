@@ -21,9 +21,9 @@ import {
   type CurveKey,
   type DemoSpec,
   type MarkerKey,
-} from "./demo-spec";
+} from "@/lib/curve-lab/demo-spec";
 import { formatNumber } from "./format";
-import { MAX_CASES, datasetIndex, fillFrame, newFrame, type Frame } from "./curve-frame";
+import { MAX_CASES, datasetIndex, fillFrame, newFrame, type Frame } from "@/lib/curve-lab/chart-frame";
 import type { CurveSet } from "@/lib/aero";
 
 ChartJS.register(LineController, LineElement, PointElement, LinearScale);

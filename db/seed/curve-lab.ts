@@ -1,7 +1,9 @@
 import { Assignment } from "../models";
-import { createAirframe, snapshotOf, type AirframeData } from "../access/airframes";
-import { createDemo } from "../access/demos";
-import { defaultSpec, type DemoSpec } from "@/components/charts/demo-spec";
+import { createAirframe } from "../access/curve-lab/save-airframe";
+import { snapshotOf } from "@/lib/curve-lab/demo-spec";
+import type { AirframeData } from "../access/curve-lab/airframes";
+import { createDemo } from "../access/curve-lab/save-demo";
+import { defaultSpec, type DemoSpec } from "@/lib/curve-lab/demo-spec";
 import { ftToM, ktToMs } from "@/lib/aero";
 import type { SeedContext } from "./extensions";
 

@@ -8,7 +8,7 @@ import { launchBrowser, signIn, screenshot, type Browser } from "./helpers/brows
 import { ownerClient } from "./helpers/db";
 import { callAction, actionResultFromRsc, signInOrThrow } from "./helpers/http";
 import { deriveActions } from "./authz/derive";
-import { demoSpecSchema } from "@/components/charts/demo-spec-schema";
+import { demoSpecSchema } from "@/lib/curve-lab/schema";
 import { ktToMs } from "@/lib/aero";
 
 let instructorBrowser: Browser;

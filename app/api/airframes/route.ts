@@ -2,7 +2,7 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { route, parseQuery } from "@/lib/http/api";
-import { listAirframes } from "@/db/access/airframes";
+import { listAirframes } from "@/db/access/curve-lab/airframes";
 
 export const dynamic = "force-dynamic";
 

@@ -2,7 +2,7 @@
 import { NextResponse } from "next/server";
 import { route } from "@/lib/http/api";
 import { can } from "@/lib/auth/guard";
-import { listDemos } from "@/db/access/demos";
+import { listDemos } from "@/db/access/curve-lab/demos";
 import { listAssignedDemosForStudent } from "@/db/access/assignments";
 
 export const dynamic = "force-dynamic";

@@ -13,9 +13,9 @@ import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { chromium, type BrowserContext, type Page } from "playwright-core";
-import { defaultSpec, type AirframeSnapshot, type DemoSpec } from "../../../components/charts/demo-spec";
-import { fillFrame, newFrame, datasetIndex, type Frame } from "../../../components/charts/curve-frame";
-import { CURVE_KEYS, SAMPLE_POINTS } from "../../../components/charts/demo-spec";
+import { defaultSpec, type AirframeSnapshot, type DemoSpec } from "../../curve-lab/demo-spec";
+import { fillFrame, newFrame, datasetIndex, type Frame } from "../../curve-lab/chart-frame";
+import { CURVE_KEYS, SAMPLE_POINTS } from "../../curve-lab/demo-spec";
 import type { CurveSet } from "../index";
 import type { BenchSection } from "./run";
 

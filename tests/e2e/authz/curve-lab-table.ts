@@ -1,6 +1,6 @@
 // Curve Lab rows of the authorisation table (spread into table.ts).
 import type { AuthzTable, HarnessResponse } from "./types";
-import { defaultSpec, type AirframeSnapshot } from "@/components/charts/demo-spec";
+import { defaultSpec, type AirframeSnapshot } from "@/lib/curve-lab/demo-spec";
 
 function rowIds(res: HarnessResponse): string[] {
   const j = res.json as { rows?: { id: string }[] } | undefined;

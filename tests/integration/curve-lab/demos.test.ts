@@ -4,10 +4,12 @@ import { Assignment } from "@/db/models";
 import { makeSchool, actAs, closeDb } from "@/tests/helpers/factories";
 import { saveDemoAction, renameDemoAction, duplicateDemoAction, deleteDemoAction, makeCallAction } from "@/app/(app)/curve-lab/actions";
 import { createAirframeAction, updateAirframeAction } from "@/app/(app)/curve-lab/airframes/actions";
-import { formValuesFor } from "@/app/(app)/curve-lab/airframes/_lib/airframe-schema";
-import { getDemo, getDemoRevision, listCallsForDemo, listDemos } from "@/db/access/demos";
-import { getAirframe, snapshotOf } from "@/db/access/airframes";
-import { defaultSpec, aircraftFor, type DemoSpec } from "@/components/charts/demo-spec";
+import { formValuesFor } from "@/lib/curve-lab/schema";
+import { getDemo, getDemoRevision, listDemos } from "@/db/access/curve-lab/demos";
+import { listCallsForDemo } from "@/db/access/curve-lab/calls";
+import { getAirframe } from "@/db/access/curve-lab/airframes";
+import { snapshotOf } from "@/lib/curve-lab/demo-spec";
+import { defaultSpec, aircraftFor, type DemoSpec } from "@/lib/curve-lab/demo-spec";
 import { minimumDragSpeed, ktToMs } from "@/lib/aero";
 
 afterAll(async () => {

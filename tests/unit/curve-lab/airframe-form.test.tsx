@@ -13,8 +13,7 @@ jest.mock("@/app/(app)/curve-lab/airframes/actions", () => actions);
 /* eslint-disable @typescript-eslint/no-require-imports -- loaded after the mocks above */
 const { AirframeForm } =
   require("@/app/(app)/curve-lab/airframes/_components/airframe-form") as typeof import("@/app/(app)/curve-lab/airframes/_components/airframe-form");
-const { formValuesFor, airframeFormSchema } =
-  require("@/app/(app)/curve-lab/airframes/_lib/airframe-schema") as typeof import("@/app/(app)/curve-lab/airframes/_lib/airframe-schema");
+const { formValuesFor, airframeFormSchema } = require("@/lib/curve-lab/schema") as typeof import("@/lib/curve-lab/schema");
 /* eslint-enable @typescript-eslint/no-require-imports */
 
 function type(label: RegExp | string, value: string) {

@@ -1,5 +1,5 @@
 import { dragAt, equivalentToTrue, ftToM, minimumDragSpeed, stallSpeed } from "@/lib/aero";
-import { aircraftFor, callAnswer, defaultSpec, speedAfterGust, type AirframeSnapshot, type DemoSpec } from "@/components/charts/demo-spec";
+import { aircraftFor, callAnswer, defaultSpec, speedAfterGust, type AirframeSnapshot, type DemoSpec } from "@/lib/curve-lab/demo-spec";
 
 // An invented two-seat trainer (numbers of our own, as in the demo seed).
 const trainer: AirframeSnapshot = {

@@ -1,2 +1,2 @@
 // Re-exports for the Curve Lab component tests.
-export { defaultSpec, aircraftFor, type AirframeSnapshot, type DemoSpec } from "@/components/charts/demo-spec";
+export { defaultSpec, aircraftFor, type AirframeSnapshot, type DemoSpec } from "@/lib/curve-lab/demo-spec";

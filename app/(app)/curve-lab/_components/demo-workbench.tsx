@@ -24,8 +24,8 @@ import {
   type ConfigurationKey,
   type DemoCase,
   type DemoSpec,
-} from "@/components/charts/demo-spec";
-import { caseFigures, whatIf, GUST_ABOVE_VMD, GUST_BELOW_VMD, AXIS_ASSUMPTION } from "@/components/charts/readouts";
+} from "@/lib/curve-lab/demo-spec";
+import { caseFigures, whatIf, GUST_ABOVE_VMD, GUST_BELOW_VMD, AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
 import { kgToLb, mToFt, ftToM } from "@/lib/aero";
 import { deleteDemoAction, duplicateDemoAction, makeCallAction, renameDemoAction, saveDemoAction } from "../actions";
 
@@ -57,6 +57,10 @@ export function DemoWorkbench(props: WorkbenchProps) {
   const [focus, setFocus] = useState(0);
   const [status, setStatus] = useState<{ kind: "ok" | "error"; text: string } | null>(null);
   const [busy, setBusy] = useState(false);
+  // One idempotency key per form instance (renewed after each success), so a retried submit creates nothing twice.
+  const [saveKey, setSaveKey] = useState(() => crypto.randomUUID());
+  const [duplicateKey, setDuplicateKey] = useState(() => crypto.randomUUID());
+  const [callKey, setCallKey] = useState(() => crypto.randomUUID());
   const chartRef = useRef<Chart | null>(null);
 
   // Call it first (students): conceal the answer until the call is made.
@@ -127,12 +131,13 @@ export function DemoWorkbench(props: WorkbenchProps) {
   async function save() {
     setBusy(true);
     setStatus(null);
-    const r = await saveDemoAction({ demoId: props.demoId, name, spec });
+    const r = await saveDemoAction({ demoId: props.demoId, name, spec, idempotencyKey: saveKey });
     setBusy(false);
     if (!r.ok) {
       setStatus({ kind: "error", text: r.message });
       return;
     }
+    setSaveKey(crypto.randomUUID());
     const d = r.data;
     setStatus({
       kind: "ok",
@@ -155,9 +160,10 @@ export function DemoWorkbench(props: WorkbenchProps) {
   async function duplicate() {
     if (!props.demoId) return;
     setBusy(true);
-    const r = await duplicateDemoAction({ demoId: props.demoId });
+    const r = await duplicateDemoAction({ demoId: props.demoId, idempotencyKey: duplicateKey });
     setBusy(false);
     if (!r.ok) return setStatus({ kind: "error", text: r.message });
+    setDuplicateKey(crypto.randomUUID());
     router.push(`/curve-lab/demos/${r.data.demoId}`);
   }
   async function remove() {
@@ -172,9 +178,10 @@ export function DemoWorkbench(props: WorkbenchProps) {
   async function makeCall() {
     if (guessMs === null || !props.demoRevisionId || !callKind) return;
     setBusy(true);
-    const r = await makeCallAction({ demoRevisionId: props.demoRevisionId, kind: callKind, predictedMs: guessMs });
+    const r = await makeCallAction({ demoRevisionId: props.demoRevisionId, kind: callKind, predictedMs: guessMs, idempotencyKey: callKey });
     setBusy(false);
     if (!r.ok) return setStatus({ kind: "error", text: r.message });
+    setCallKey(crypto.randomUUID());
     setAnswer({ actualMs: r.data.actualMs, errorMs: r.data.errorMs });
   }
 
@@ -194,7 +201,7 @@ export function DemoWorkbench(props: WorkbenchProps) {
     const [{ toCsv }, { sampleCurves }, { curveCaseFor }] = await Promise.all([
       import("@/lib/csv"),
       import("@/lib/aero"),
-      import("@/components/charts/demo-spec"),
+      import("@/lib/curve-lab/demo-spec"),
     ]);
     const set = sampleCurves(
       spec.cases.map((c) => curveCaseFor(spec.airframe, c)),

@@ -2,8 +2,8 @@
 import { useEffect, useMemo, useRef, useState, useSyncExternalStore } from "react";
 import { createPortal } from "react-dom";
 import { CurveChart, CASE_COLOURS } from "@/components/charts/curve-chart";
-import { CURVE_LABELS, formatSpeed, MARKER_KEYS, type CurveKey, type DemoSpec } from "@/components/charts/demo-spec";
-import { caseFigures, AXIS_ASSUMPTION } from "@/components/charts/readouts";
+import { CURVE_LABELS, formatSpeed, MARKER_KEYS, type CurveKey, type DemoSpec } from "@/lib/curve-lab/demo-spec";
+import { caseFigures, AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
 import { Caution } from "@/components/caution";
 
 const CURVE_SHORTCUTS: [string, CurveKey][] = [

@@ -1,8 +1,7 @@
 "use server";
-import { z } from "zod";
 import { runAction } from "@/lib/actions/run-action";
-import { createAirframe, duplicateAirframe, setAirframeRetired, updateAirframe } from "@/db/access/airframes";
-import { airframeFormSchema } from "./_lib/airframe-schema";
+import { createAirframe, duplicateAirframe, setAirframeRetired, updateAirframe } from "@/db/access/curve-lab/save-airframe";
+import { airframeFormSchema, airframeIdSchema, retireAirframeSchema, updateAirframeSchema } from "@/lib/curve-lab/schema";
 
 /** Creates an aircraft profile from the form (any units); nothing is written when a field is wrong. */
 export async function createAirframeAction(input: unknown) {
@@ -17,25 +16,24 @@ export async function createAirframeAction(input: unknown) {
   );
 }
 
-const idSchema = z.object({ airframeId: z.string().uuid("airframeId: not an aircraft profile id") });
-
 export async function updateAirframeAction(input: unknown) {
-  return runAction(
-    "airframes.edit",
-    z.object({ airframeId: idSchema.shape.airframeId, values: airframeFormSchema }),
-    input,
-    async ({ airframeId, values }, { user, t }) => updateAirframe(user.schoolId, airframeId, values, t),
+  return runAction("airframes.edit", updateAirframeSchema, input, async ({ airframeId, values }, { user, t }) =>
+    updateAirframe(user.schoolId, airframeId, values, t),
   );
 }
 
 export async function duplicateAirframeAction(input: unknown) {
-  return runAction("airframes.edit", idSchema, input, async ({ airframeId }, { user, t }) =>
-    duplicateAirframe(user.schoolId, airframeId, user.id, t),
+  return runAction(
+    "airframes.edit",
+    airframeIdSchema,
+    input,
+    async ({ airframeId }, { user, t }) => duplicateAirframe(user.schoolId, airframeId, user.id, t),
+    { idempotent: "airframe.duplicate" },
   );
 }
 
 export async function retireAirframeAction(input: unknown) {
-  return runAction("airframes.edit", idSchema.extend({ retired: z.boolean() }), input, async ({ airframeId, retired }, { user, t }) =>
+  return runAction("airframes.edit", retireAirframeSchema, input, async ({ airframeId, retired }, { user, t }) =>
     setAirframeRetired(user.schoolId, airframeId, retired, t),
   );
 }

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { Caution } from "@/components/caution";
-import { AXIS_ASSUMPTION } from "@/components/charts/readouts";
+import { AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
 import { AirframeList } from "./_components/airframe-list";
 
 export const metadata: Metadata = { title: "Airframes · Curve Lab" };

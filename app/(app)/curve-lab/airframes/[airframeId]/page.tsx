@@ -5,9 +5,10 @@ import { notFound } from "next/navigation";
 import { z } from "zod";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { Caution } from "@/components/caution";
-import { getAirframe, snapshotOf } from "@/db/access/airframes";
-import { CONFIGURATION_KEYS, CONFIGURATION_LABELS, formatSpeed } from "@/components/charts/demo-spec";
-import { caseFigures, stallByConfiguration, AXIS_ASSUMPTION } from "@/components/charts/readouts";
+import { getAirframe } from "@/db/access/curve-lab/airframes";
+import { snapshotOf } from "@/lib/curve-lab/demo-spec";
+import { CONFIGURATION_KEYS, CONFIGURATION_LABELS, formatSpeed } from "@/lib/curve-lab/demo-spec";
+import { caseFigures, stallByConfiguration, AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
 import { ftToM, kgToLb, lbToKg, mToFt, aspectRatio } from "@/lib/aero";
 import { AirframeButtons } from "../_components/airframe-actions";
 

@@ -8,11 +8,14 @@ export function AirframeButtons({ airframeId, retired }: { airframeId: string; r
   const router = useRouter();
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<string | null>(null);
+  // One idempotency key for the Duplicate button (renewed after a success): a retried click makes one copy.
+  const [duplicateKey, setDuplicateKey] = useState(() => crypto.randomUUID());
   async function duplicate() {
     setBusy(true);
-    const r = await duplicateAirframeAction({ airframeId });
+    const r = await duplicateAirframeAction({ airframeId, idempotencyKey: duplicateKey });
     setBusy(false);
     if (!r.ok) return setError(r.message);
+    setDuplicateKey(crypto.randomUUID());
     router.push(`/curve-lab/airframes/${r.data.id}/edit`);
   }
   async function retire() {

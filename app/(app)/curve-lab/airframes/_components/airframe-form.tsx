@@ -5,8 +5,8 @@ import { useForm, useWatch, type FieldPath } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
 import { kgToLb, lbToKg, ftToM, mToFt, METRES_PER_FOOT } from "@/lib/aero";
-import { CONFIGURATION_LABELS } from "@/components/charts/demo-spec";
-import { airframeFormSchema, OPTIONAL_CONFIGURATIONS, type AirframeFormInput } from "../_lib/airframe-schema";
+import { CONFIGURATION_LABELS } from "@/lib/curve-lab/demo-spec";
+import { airframeFormSchema, OPTIONAL_CONFIGURATIONS, type AirframeFormInput } from "@/lib/curve-lab/schema";
 import { createAirframeAction, updateAirframeAction } from "../actions";
 
 type S = typeof airframeFormSchema;
@@ -15,6 +15,8 @@ type S = typeof airframeFormSchema;
 export function AirframeForm({ airframeId, defaults }: { airframeId: string | null; defaults: AirframeFormInput }) {
   const router = useRouter();
   const [message, setMessage] = useState<string | null>(null);
+  // One idempotency key per form instance: a retried "create" makes one profile.
+  const [idempotencyKey] = useState(() => crypto.randomUUID());
   const form = useForm<z.input<S>, unknown, z.output<S>>({
     resolver: zodResolver(airframeFormSchema),
     defaultValues: defaults,
@@ -46,7 +48,9 @@ export function AirframeForm({ airframeId, defaults }: { airframeId: string | nu
     setMessage(null);
     // The server gets the raw form values and validates them with the same schema.
     const values = getValues();
-    const result = airframeId ? await updateAirframeAction({ airframeId, values }) : await createAirframeAction(values);
+    const result = airframeId
+      ? await updateAirframeAction({ airframeId, values })
+      : await createAirframeAction({ ...values, idempotencyKey });
     if (!result.ok) {
       for (const [path, msgs] of Object.entries(result.fieldErrors ?? {})) {
         const field = path.replace(/^values\./, "") as FieldPath<z.input<S>>;

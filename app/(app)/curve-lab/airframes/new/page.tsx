@@ -2,9 +2,9 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { Caution } from "@/components/caution";
-import { AXIS_ASSUMPTION } from "@/components/charts/readouts";
+import { AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
 import { AirframeForm } from "../_components/airframe-form";
-import { formValuesFor } from "../_lib/airframe-schema";
+import { formValuesFor } from "@/lib/curve-lab/schema";
 
 export const metadata: Metadata = { title: "New airframe · Curve Lab" };
 export const dynamic = "force-dynamic";

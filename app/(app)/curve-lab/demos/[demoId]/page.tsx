@@ -3,9 +3,11 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { Caution } from "@/components/caution";
-import { formatSpeed } from "@/components/charts/demo-spec";
-import { listAirframes, snapshotOf } from "@/db/access/airframes";
-import { getDemo, getDemoRevision, listCallsForDemo } from "@/db/access/demos";
+import { formatSpeed } from "@/lib/curve-lab/demo-spec";
+import { listAirframes } from "@/db/access/curve-lab/airframes";
+import { snapshotOf } from "@/lib/curve-lab/demo-spec";
+import { getDemo, getDemoRevision } from "@/db/access/curve-lab/demos";
+import { listCallsForDemo } from "@/db/access/curve-lab/calls";
 import { DemoWorkbench } from "../../_components/demo-workbench";
 import { assignedRevisionFor } from "../../_lib/student-access";
 
@@ -46,7 +48,7 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
   if (!demo) notFound();
   const airframes = (await listAirframes(user.schoolId)).map(snapshotOf);
   const calls = await listCallsForDemo(user, demoId);
-  const canChange = demo.ownerId === user.id || user.roles.includes("chief");
+  const canChange = demo.ownerId === user.id || can(user, "demos.manage");
   const unit = demo.revision.spec.axis.unit;
   return (
     <div className="space-y-4">

@@ -3,9 +3,10 @@ import Link from "next/link";
 import { z } from "zod";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { Caution } from "@/components/caution";
-import { AXIS_ASSUMPTION } from "@/components/charts/readouts";
-import { defaultSpec } from "@/components/charts/demo-spec";
-import { listAirframes, snapshotOf } from "@/db/access/airframes";
+import { AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
+import { defaultSpec } from "@/lib/curve-lab/demo-spec";
+import { listAirframes } from "@/db/access/curve-lab/airframes";
+import { snapshotOf } from "@/lib/curve-lab/demo-spec";
 import { DemoWorkbench } from "../../_components/demo-workbench";
 
 export const metadata: Metadata = { title: "New demo · Curve Lab" };

@@ -4,10 +4,10 @@ import { notFound } from "next/navigation";
 import { z } from "zod";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { Caution } from "@/components/caution";
-import { AXIS_ASSUMPTION } from "@/components/charts/readouts";
-import { getAirframe } from "@/db/access/airframes";
+import { AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
+import { getAirframe } from "@/db/access/curve-lab/airframes";
 import { AirframeForm } from "../../_components/airframe-form";
-import { formValuesFor } from "../../_lib/airframe-schema";
+import { formValuesFor } from "@/lib/curve-lab/schema";
 
 export const metadata: Metadata = { title: "Edit airframe · Curve Lab" };
 export const dynamic = "force-dynamic";

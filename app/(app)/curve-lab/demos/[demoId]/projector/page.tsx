@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { requirePagePermission, can } from "@/lib/auth/guard";
-import { getDemo, getDemoRevision } from "@/db/access/demos";
+import { getDemo, getDemoRevision } from "@/db/access/curve-lab/demos";
 import { ProjectorView } from "../../../_components/projector-view";
 import { assignedRevisionFor } from "../../../_lib/student-access";
 

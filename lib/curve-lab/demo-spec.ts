@@ -13,7 +13,7 @@ import {
  * A demo's spec: what one demo revision shows. Pure (lib/aero only), shared by the builder in
  * the browser, the server actions that save it, the Projector view and the bench.
  * Speeds are stored in m/s; the axis unit only changes what is shown. No zod here, so the
- * builder's bundle stays small: the schema lives in demo-spec-schema.ts (server side).
+ * builder's bundle stays small: the schema lives in schema.ts (forms and server), which the builder never imports.
  */
 
 export const CONFIGURATION_KEYS = ["clean", "gearDown", "flaps1", "flaps2"] as const;
@@ -46,6 +46,21 @@ export interface AirframeSnapshot {
     gearDown: ConfigurationValues | null;
     flaps1: ConfigurationValues | null;
     flaps2: ConfigurationValues | null;
+  };
+}
+
+/** An aircraft profile's numbers as a demo revision snapshots them (any extra fields of the profile are left out). */
+export function snapshotOf(a: AirframeSnapshot): AirframeSnapshot {
+  return {
+    id: a.id,
+    name: a.name,
+    emptyMassKg: a.emptyMassKg,
+    maxMassKg: a.maxMassKg,
+    wingAreaM2: a.wingAreaM2,
+    wingSpanM: a.wingSpanM,
+    oswaldEfficiency: a.oswaldEfficiency,
+    zeroLiftDragCoefficient: a.zeroLiftDragCoefficient,
+    configurations: a.configurations,
   };
 }
 
@@ -82,7 +97,7 @@ export const MARKER_LABELS: Record<MarkerKey, string> = {
 export const CALL_KINDS = ["vmd", "stall", "gust"] as const;
 export type CallKind = (typeof CALL_KINDS)[number];
 
-/** What one demo revision shows (validated on the server by demo-spec-schema.ts). */
+/** What one demo revision shows (validated on the server by schema.ts). */
 export interface DemoSpec {
   version: 1;
   airframe: AirframeSnapshot;

@@ -1,6 +1,113 @@
 import { z } from "zod";
-import { aircraftSchema, lbToKg, ftToM, kgToLb, mToFt, METRES_PER_FOOT } from "@/lib/aero";
-import { CONFIGURATION_LABELS, type AirframeSnapshot } from "@/components/charts/demo-spec";
+import { aircraftSchema, atmosphereConditionsSchema, lbToKg, ftToM, kgToLb, mToFt, METRES_PER_FOOT } from "@/lib/aero";
+import {
+  CALL_KINDS,
+  CONFIGURATION_KEYS,
+  CONFIGURATION_LABELS,
+  CURVE_KEYS,
+  MARKER_KEYS,
+  type AirframeSnapshot,
+  type DemoCase,
+  type DemoSpec,
+} from "./demo-spec";
+
+// Curve Lab's one schema module: the demo spec, the aircraft profile form and the inputs of the
+// Curve Lab server actions. Forms (zodResolver) and server actions both use it. The builder's
+// browser code must not import this file (it keeps zod out of that bundle): it uses demo-spec.ts.
+
+/**
+ * zod schema of a demo spec (server actions, data access, tests). Numbers are checked with
+ * lib/aero's own field schemas. The inferred types must equal the plain types in demo-spec.ts
+ * (checked at compile time below).
+ */
+const A = aircraftSchema.shape;
+
+const configurationValues = z.object({
+  /** Zero-lift drag increment over clean (0 for clean). */
+  cd0Increment: z.number().min(0, "cd0Increment must be 0 or more").max(0.5, "cd0Increment must be at most 0.5"),
+  maxLiftCoefficient: A.maxLiftCoefficient,
+});
+
+/** The airframe's numbers as the demo revision saw them (SI). */
+export const airframeSnapshotSchema = z
+  .object({
+    id: z.string().uuid().nullable(),
+    name: z.string().trim().min(1, "name: enter a name").max(120, "name: at most 120 characters"),
+    emptyMassKg: A.massKg,
+    maxMassKg: A.massKg,
+    wingAreaM2: A.wingAreaM2,
+    wingSpanM: A.wingSpanM,
+    oswaldEfficiency: A.oswaldEfficiency,
+    zeroLiftDragCoefficient: A.zeroLiftDragCoefficient,
+    configurations: z.object({
+      clean: configurationValues,
+      gearDown: configurationValues.nullable(),
+      flaps1: configurationValues.nullable(),
+      flaps2: configurationValues.nullable(),
+    }),
+  })
+  .superRefine((a, ctx) => {
+    if (a.maxMassKg < a.emptyMassKg)
+      ctx.addIssue({ code: "custom", path: ["maxMassKg"], message: "maxMassKg must be at least the empty mass" });
+  });
+
+export const caseSchema = z.object({
+  label: z.string().trim().min(1, "label: enter a label").max(40, "label: at most 40 characters"),
+  massKg: A.massKg,
+  altitudeM: atmosphereConditionsSchema.shape.altitudeM,
+  isaDeviationK: z.number().min(-50, "isaDeviationK must be between -50 and 50 K").max(50, "isaDeviationK must be between -50 and 50 K"),
+  configuration: z.enum(CONFIGURATION_KEYS),
+});
+
+export const demoSpecSchema = z
+  .object({
+    version: z.literal(1),
+    airframe: airframeSnapshotSchema,
+    cases: z.array(caseSchema).min(1, "cases: add at least one case").max(4, "cases: at most four cases"),
+    curves: z.record(z.enum(CURVE_KEYS), z.boolean()),
+    markers: z.record(z.enum(MARKER_KEYS), z.boolean()),
+    axis: z.object({ speed: z.enum(["equivalent", "true"]), unit: z.enum(["kt", "ms"]) }),
+    range: z.object({
+      minSpeedMs: z.number().min(1, "range.minSpeedMs must be at least 1 m/s").max(400),
+      maxSpeedMs: z.number().min(2).max(500, "range.maxSpeedMs must be at most 500 m/s"),
+    }),
+    chosenSpeedMs: z.number().min(1, "chosenSpeedMs must be at least 1 m/s").max(500, "chosenSpeedMs must be at most 500 m/s"),
+    /** Call it first: which answer the student places before the reveal (null: no call). */
+    callKind: z.enum(CALL_KINDS).nullable(),
+    notes: z.string().max(4000, "notes: at most 4000 characters"),
+  })
+  .superRefine((s, ctx) => {
+    if (!(s.range.maxSpeedMs > s.range.minSpeedMs)) {
+      ctx.addIssue({ code: "custom", path: ["range", "maxSpeedMs"], message: "range.maxSpeedMs must be greater than the minimum speed" });
+    }
+    s.cases.forEach((c, i) => {
+      if (c.configuration !== "clean" && s.airframe.configurations[c.configuration] === null) {
+        ctx.addIssue({
+          code: "custom",
+          path: ["cases", i, "configuration"],
+          message: `${CONFIGURATION_LABELS[c.configuration]} is not a configuration of this airframe`,
+        });
+      }
+      if (c.massKg < s.airframe.emptyMassKg * 0.999 || c.massKg > s.airframe.maxMassKg * 1.001) {
+        ctx.addIssue({
+          code: "custom",
+          path: ["cases", i, "massKg"],
+          message: "massKg must be within the airframe's empty to maximum mass",
+        });
+      }
+    });
+  });
+
+// Compile-time proof that the schema and the plain types agree, both ways.
+type Same<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false;
+const agree: [
+  Same<z.infer<typeof airframeSnapshotSchema>, AirframeSnapshot>,
+  Same<z.infer<typeof caseSchema>, DemoCase>,
+  Same<z.infer<typeof demoSpecSchema>, DemoSpec>,
+] = [true, true, true];
+void agree;
+
+// ---- aircraft profile form ---------------------------------------------------------------------
 
 /**
  * The one schema of the aircraft profile form, used by the client form (zodResolver) and the
@@ -45,8 +152,6 @@ const LABELS: Record<string, string> = {
   zeroLiftDragCoefficient: "Zero-lift drag coefficient",
   cleanMaxLiftCoefficient: "CLmax (clean)",
 };
-
-const A = aircraftSchema.shape;
 
 function toSi(v: { units: "imperial" | "metric"; emptyMass: number; maxMass: number; wingArea: number; wingSpan: number }) {
   const imperial = v.units === "imperial";
@@ -208,3 +313,31 @@ export function formValuesFor(
     notes: a.notes,
   };
 }
+
+// ---- server action inputs -----------------------------------------------------------------------
+
+export const demoNameSchema = z.string().trim().min(1, "Enter a name for the demo").max(120, "Name: at most 120 characters");
+
+/** Saving from the builder: a new demo when `demoId` is null, otherwise the demo's next state. */
+export const saveDemoSchema = z.object({
+  demoId: z.string().uuid("demoId: not a demo id").nullable(),
+  name: demoNameSchema,
+  spec: demoSpecSchema,
+});
+
+export const demoIdSchema = z.object({ demoId: z.string().uuid("demoId: not a demo id") });
+export const renameDemoSchema = demoIdSchema.extend({ name: demoNameSchema });
+
+/** A student's Call it first prediction. */
+export const callSchema = z.object({
+  demoRevisionId: z.string().uuid("demoRevisionId: not a demo revision id"),
+  kind: z.enum(CALL_KINDS, { error: "kind must be vmd, stall or gust" }),
+  predictedMs: z
+    .number({ error: "predictedMs must be a number" })
+    .gt(0, "predictedMs must be above 0 m/s")
+    .max(500, "predictedMs must be at most 500 m/s"),
+});
+
+export const airframeIdSchema = z.object({ airframeId: z.string().uuid("airframeId: not an aircraft profile id") });
+export const updateAirframeSchema = z.object({ airframeId: airframeIdSchema.shape.airframeId, values: airframeFormSchema });
+export const retireAirframeSchema = airframeIdSchema.extend({ retired: z.boolean() });

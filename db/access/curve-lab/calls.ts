@@ -1,0 +1,58 @@
+import "server-only";
+import { QueryTypes, type Transaction } from "sequelize";
+import { sequelize } from "../../index";
+import { DemoCall, type CallMarkerKind } from "../../models";
+import { can } from "@/lib/auth/guard";
+import type { CurrentUser } from "@/lib/auth/session";
+
+// Call it first: a student's prediction on a demo, stored with the server's answer and its error.
+
+export async function recordCall(
+  input: {
+    schoolId: string;
+    demoRevisionId: string;
+    studentId: string;
+    markerKind: CallMarkerKind;
+    speedAxis: "equivalent" | "true";
+    predictedMs: number;
+    actualMs: number;
+  },
+  t: Transaction,
+) {
+  const c = await DemoCall.create({ ...input, errorMs: input.predictedMs - input.actualMs }, { transaction: t });
+  return { id: c.id, predictedMs: c.predictedMs, actualMs: c.actualMs, errorMs: c.errorMs, createdAt: c.createdAt.toISOString() };
+}
+
+export interface CallRow {
+  id: string;
+  studentId: string;
+  studentName: string;
+  revisionNumber: number;
+  markerKind: CallMarkerKind;
+  speedAxis: "equivalent" | "true";
+  predictedMs: number;
+  actualMs: number;
+  errorMs: number;
+  createdAt: string;
+}
+
+/**
+ * Calls made on a demo (any of its revisions), scoped to the viewer: one who may see every student sees
+ * all; an instructor sees the calls of students in the cohorts they lead; a student their own.
+ */
+export async function listCallsForDemo(viewer: CurrentUser, demoId: string): Promise<CallRow[]> {
+  const chief = can(viewer, "students.all");
+  const instructor = can(viewer, "students.taught");
+  const rows = await sequelize.query<Omit<CallRow, "createdAt"> & { createdAt: Date }>(
+    `SELECT c.id, c.student_id AS "studentId", p.name AS "studentName", r.number AS "revisionNumber", c.marker_kind AS "markerKind",
+            c.speed_axis AS "speedAxis", c.predicted_ms AS "predictedMs", c.actual_ms AS "actualMs", c.error_ms AS "errorMs", c.created_at AS "createdAt"
+       FROM demo_calls c JOIN demo_revisions r ON r.id = c.demo_revision_id JOIN demos d ON d.id = r.demo_id JOIN people p ON p.id = c.student_id
+      WHERE d.id = :demoId AND d.school_id = :schoolId AND c.school_id = :schoolId
+        AND (:chief OR c.student_id = :viewerId OR (:instructor AND EXISTS (
+              SELECT 1 FROM cohort_memberships m JOIN cohorts co ON co.id = m.cohort_id
+               WHERE m.student_id = c.student_id AND m.to_date IS NULL AND co.lead_instructor_id = :viewerId)))
+      ORDER BY c.created_at DESC`,
+    { replacements: { demoId, schoolId: viewer.schoolId, chief, instructor, viewerId: viewer.id }, type: QueryTypes.SELECT },
+  );
+  return rows.map((r) => ({ ...r, createdAt: new Date(r.createdAt).toISOString() }));
+}
