@@ -1,13 +1,24 @@
 import Link from "next/link";
-import { NAV_ITEMS } from "./nav-items";
+import { NAV_ITEMS, type ShownNavItem } from "./nav-items";
 import { rolesAllow } from "@/lib/auth/permissions";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import type { CurrentUser } from "@/lib/auth/session";
 import { Wordmark } from "./wordmark";
 import { SignOutButton } from "./sign-out-button";
+import { MainNav } from "./main-nav";
 
 export function AppShell({ user, children }: { user: CurrentUser; children: React.ReactNode }) {
-  const items = NAV_ITEMS.filter((i) => rolesAllow(user.roles, i.permission));
+  const items: ShownNavItem[] = NAV_ITEMS.filter((i) => rolesAllow(user.roles, i.permission)).map((i) => ({
+    href: i.href,
+    label: i.label,
+    group: i.group ?? null,
+  }));
+  const who = (
+    <>
+      <span className="font-semibold">{user.name}</span>
+      <span className="text-chalk-dim"> · {user.roles.map((r) => ROLE_LABELS[r]).join(", ")}</span>
+    </>
+  );
   return (
     <div className="min-h-screen">
       <a
@@ -16,32 +27,12 @@ export function AppShell({ user, children }: { user: CurrentUser; children: Reac
       >
         Skip to content
       </a>
-      <header className="bg-board-900 text-chalk">
-        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
-          <Link href="/today" className="text-chalk no-underline hover:no-underline">
+      <header className="relative bg-board-900 text-chalk print:hidden" data-testid="app-bar">
+        <div className="mx-auto flex max-w-6xl items-center gap-x-4 px-4 py-2">
+          <Link href="/today" className="shrink-0 text-chalk no-underline hover:no-underline">
             <Wordmark />
           </Link>
-          <nav aria-label="Main" className="flex-1">
-            <ul className="flex flex-wrap gap-x-1 gap-y-1">
-              {items.map((i) => (
-                <li key={i.href}>
-                  <Link
-                    href={i.href}
-                    className="inline-flex min-h-10 items-center rounded-md px-3 text-chalk no-underline hover:bg-board-700 hover:no-underline"
-                  >
-                    {i.label}
-                  </Link>
-                </li>
-              ))}
-            </ul>
-          </nav>
-          <div className="flex items-center gap-3 text-caption">
-            <span data-testid="whoami">
-              <span className="font-semibold">{user.name}</span>
-              <span className="text-chalk-dim"> · {user.roles.map((r) => ROLE_LABELS[r]).join(", ")}</span>
-            </span>
-            <SignOutButton />
-          </div>
+          <MainNav items={items} who={who} signOut={<SignOutButton />} />
         </div>
       </header>
       <main id="main" className="mx-auto max-w-6xl px-4 py-6">

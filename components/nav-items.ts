@@ -1,30 +1,57 @@
 import type { Permission } from "@/lib/auth/permissions";
 
-/** The shell's navigation; each entry shows only to callers who hold its permission. */
+/** The groups of the navigation on a wide screen (and the headings of the phone menu). */
+export type NavGroup = "Teaching" | "Records" | "School";
+export const NAV_GROUPS: NavGroup[] = ["Teaching", "Records", "School"];
+
+/** The shell's navigation; each entry shows only to callers who hold its permission. No group: always shown on its own. */
 export interface NavItem {
   href: string;
   label: string;
   permission: Permission;
+  group?: NavGroup;
 }
 
 export const NAV_ITEMS: NavItem[] = [
   { href: "/today", label: "Today", permission: "today.view" },
-  { href: "/people", label: "People", permission: "people.view" },
-  { href: "/syllabus", label: "Syllabus", permission: "syllabus.view" },
-  { href: "/curve-lab", label: "Curve Lab", permission: "demos.view" },
-  { href: "/briefings", label: "Briefings", permission: "briefings.view" },
+  // teaching
+  { href: "/syllabus", label: "Syllabus", permission: "syllabus.view", group: "Teaching" },
+  { href: "/curve-lab", label: "Curve Lab", permission: "demos.view", group: "Teaching" },
+  { href: "/briefings", label: "Briefings", permission: "briefings.view", group: "Teaching" },
   // one page, two audiences: staff manage, students complete (no role holds both)
-  { href: "/assignments", label: "Assignments", permission: "assignments.manage" },
-  { href: "/assignments", label: "Assignments", permission: "assignments.complete" },
-  { href: "/timetable", label: "Timetable", permission: "timetable.view" },
-  { href: "/roster", label: "Roster", permission: "roster.manage" },
-  { href: "/ground-log", label: "Ground log", permission: "groundlog.view" },
+  { href: "/assignments", label: "Assignments", permission: "assignments.manage", group: "Teaching" },
+  { href: "/assignments", label: "Assignments", permission: "assignments.complete", group: "Teaching" },
+  { href: "/timetable", label: "Timetable", permission: "timetable.view", group: "Teaching" },
   // records
-  { href: "/records", label: "Records", permission: "checks.record" },
-  { href: "/progress", label: "Progress map", permission: "progress.view" },
-  { href: "/register", label: "Sign-off register", permission: "register.view" },
-  // mail
-  { href: "/mail", label: "Mail tray", permission: "mail.tray" },
-  { href: "/mail/notes", label: "Notes for sponsors", permission: "sponsornotes.write" },
-  { href: "/settings", label: "Settings", permission: "settings.edit" },
+  { href: "/ground-log", label: "Ground log", permission: "groundlog.view", group: "Records" },
+  { href: "/records", label: "Records", permission: "checks.record", group: "Records" },
+  { href: "/progress", label: "Progress map", permission: "progress.view", group: "Records" },
+  { href: "/register", label: "Sign-off register", permission: "register.view", group: "Records" },
+  // school
+  { href: "/people", label: "People", permission: "people.view", group: "School" },
+  { href: "/roster", label: "Roster", permission: "roster.manage", group: "School" },
+  { href: "/mail", label: "Mail tray", permission: "mail.tray", group: "School" },
+  { href: "/mail/notes", label: "Notes for sponsors", permission: "sponsornotes.write", group: "School" },
+  { href: "/settings", label: "Settings", permission: "settings.edit", group: "School" },
 ];
+
+/** What the browser half of the navigation needs (plain data, no permission names). */
+export interface ShownNavItem {
+  href: string;
+  label: string;
+  group: NavGroup | null;
+}
+
+/** The one nav entry the path belongs to: the longest href that is the path or a folder above it. */
+export function currentNavHref(items: { href: string }[], pathname: string): string | null {
+  let best: string | null = null;
+  for (const { href } of items) {
+    if (pathname === href || pathname.startsWith(href.endsWith("/") ? href : `${href}/`)) {
+      if (!best || href.length > best.length) best = href;
+    }
+  }
+  return best;
+}
+
+/** Up to this many links, a wide screen shows them in one flat row; more are grouped. */
+export const FLAT_NAV_LIMIT = 6;
