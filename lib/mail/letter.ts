@@ -15,16 +15,12 @@ import {
   type ComposedMail,
   type MailSchool,
 } from "./layout";
+import { ATTENDANCE_WORDS } from "@/lib/labels";
 
 export type AttendanceStatus = "attended" | "late" | "left_early" | "absent_excused" | "absent";
 
-export const ATTENDANCE_LABEL: Record<AttendanceStatus, string> = {
-  attended: "Attended",
-  late: "Late",
-  left_early: "Left early",
-  absent_excused: "Absent, excused",
-  absent: "Absent",
-};
+/** Words for the statuses: the one label map (lib/labels.ts). */
+export const ATTENDANCE_LABEL: Record<AttendanceStatus, string> = ATTENDANCE_WORDS;
 
 /**
  * What a Weekly letter may say. Each section is present only when the student shares it with

@@ -3,6 +3,8 @@
  * stored with every check, so a later change of the rule never rewrites an old record.
  * Pure: used by the form (preview) and by the server (the value that is stored).
  */
+import { CHECK_OUTCOME_WORDS, QUESTION_OUTCOME_WORDS } from "@/lib/labels";
+
 export const LEVELS = ["rote", "understanding", "application", "correlation"] as const;
 export type LevelOfLearning = (typeof LEVELS)[number];
 export const LEVEL_LABEL: Record<LevelOfLearning, string> = {
@@ -14,10 +16,10 @@ export const LEVEL_LABEL: Record<LevelOfLearning, string> = {
 
 export const QUESTION_OUTCOMES = ["solid", "shaky", "not_yet"] as const;
 export type QuestionOutcome = (typeof QUESTION_OUTCOMES)[number];
-export const OUTCOME_LABEL: Record<QuestionOutcome, string> = { solid: "Solid", shaky: "Shaky", not_yet: "Not yet" };
+export const OUTCOME_LABEL: Record<QuestionOutcome, string> = QUESTION_OUTCOME_WORDS;
 
 export type CheckOutcome = "meets" | "not_yet";
-export const CHECK_OUTCOME_LABEL: Record<CheckOutcome, string> = { meets: "Meets the standard", not_yet: "Not yet" };
+export const CHECK_OUTCOME_LABEL: Record<CheckOutcome, string> = CHECK_OUTCOME_WORDS;
 
 export interface OutcomeRule {
   id: string;
