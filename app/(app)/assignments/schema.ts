@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { calendarDate } from "@/lib/validation/dates";
 
 // The assignment form's schema, shared by the form and the server action.
 
@@ -12,13 +13,7 @@ export const assignmentSchema = z
     demoId: z.preprocess(emptyToNull, uuid.nullable()),
     cohortId: z.preprocess(emptyToNull, uuid.nullable()),
     studentIds: z.array(uuid).max(200).default([]),
-    dueOn: z
-      .string()
-      .regex(/^\d{4}-\d{2}-\d{2}$/, "Choose a date")
-      .refine(
-        (s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s),
-        "Not a calendar date",
-      ),
+    dueOn: calendarDate({ required: "Choose a date" }),
     note: z.string().trim().max(500, "At most 500 characters").default(""),
   })
   .superRefine((v, ctx) => {

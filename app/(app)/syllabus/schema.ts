@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { calendarDate } from "@/lib/validation/dates";
 
 // The syllabus revision form's schema, shared by the editor and the server action.
 
@@ -9,13 +10,7 @@ const code = z
   .min(1, "Give a code")
   .max(20, "At most 20 characters")
   .regex(/^[A-Za-z0-9-]+$/, "Letters, digits and dashes only");
-const optionalDate = z.preprocess(
-  (v) => (v === "" || v === undefined ? null : v),
-  z
-    .string()
-    .regex(/^\d{4}-\d{2}-\d{2}$/, "Choose a date")
-    .nullable(),
-);
+const optionalDate = z.preprocess((v) => (v === "" || v === undefined ? null : v), calendarDate().nullable());
 
 export const syllabusItemSchema = z.object({
   code,
