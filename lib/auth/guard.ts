@@ -3,6 +3,7 @@ import { forbidden, redirect } from "next/navigation";
 import { getCurrentUser, type CurrentUser } from "./session";
 import { rolesAllow, type Permission } from "./permissions";
 import { HttpError } from "@/lib/http/errors";
+import { safeNextPath } from "@/lib/validation/next-path";
 
 export { HttpError };
 
@@ -24,7 +25,7 @@ export async function requirePermission(permission: Permission): Promise<Current
 /** For pages: signed-out visitors go to sign-in; the signed-in without permission see the 403 page. */
 export async function requirePagePermission(permission: Permission, nextPath?: string): Promise<CurrentUser> {
   const user = await getCurrentUser();
-  if (!user) redirect(`/sign-in${nextPath ? `?next=${encodeURIComponent(nextPath)}` : ""}`);
+  if (!user) redirect(`/sign-in${nextPath ? `?next=${encodeURIComponent(safeNextPath(nextPath))}` : ""}`);
   if (!can(user, permission)) forbidden();
   return user;
 }

@@ -3,12 +3,13 @@ import { redirect } from "next/navigation";
 import { getCurrentUser } from "@/lib/auth/session";
 import { SignInForm } from "./_components/sign-in-form";
 import { Wordmark } from "@/components/wordmark";
+import { safeNextPath } from "@/lib/validation/next-path";
 
 export const metadata: Metadata = { title: "Sign in" };
 
-export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string }> }) {
+export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string | string[] }> }) {
   const { next } = await searchParams;
-  const safeNext = typeof next === "string" && next.startsWith("/") && !next.startsWith("//") ? next : "/today";
+  const safeNext = safeNextPath(next);
   if (await getCurrentUser()) redirect(safeNext);
   return (
     <div>

@@ -1,6 +1,7 @@
 "use client";
 import { signIn } from "next-auth/react";
 import { useState } from "react";
+import { safeNextPath } from "@/lib/validation/next-path";
 
 export function SignInForm({ next }: { next: string }) {
   const [error, setError] = useState<string | null>(null);
@@ -21,7 +22,7 @@ export function SignInForm({ next }: { next: string }) {
       setError("That e-mail and password do not match an active account, or the account is locked for a while.");
       return;
     }
-    window.location.assign(next);
+    window.location.assign(safeNextPath(next));
   }
 
   return (
