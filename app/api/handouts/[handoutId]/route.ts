@@ -9,10 +9,8 @@ export const dynamic = "force-dynamic";
 export const GET = route<{ handoutId: string }>("briefings.view", async ({ user, params }) => {
   if (!uuidParam.safeParse(params.handoutId).success) throw new HttpError(400, "handoutId: not a valid id", "handoutId");
   const file = await getHandoutFile(user, params.handoutId);
-  if (file.status !== "ok") {
-    if (file.status === "forbidden") throw new HttpError(403, "You do not have access to this handout");
-    throw new HttpError(404, "handoutId: no such handout", "handoutId");
-  }
+  // out of reach answers exactly as an unknown id does, so the answer does not tell that it exists
+  if (file.status !== "ok") throw new HttpError(404, "handoutId: no such handout", "handoutId");
   return new Response(new Uint8Array(file.content), {
     status: 200,
     headers: {
@@ -21,6 +19,7 @@ export const GET = route<{ handoutId: string }>("briefings.view", async ({ user,
       "Content-Disposition": contentDisposition(file.fileName, file.contentType),
       "X-Content-Type-Options": "nosniff",
       "Content-Security-Policy": "sandbox; default-src 'none'",
+      "Referrer-Policy": "no-referrer",
       "Cache-Control": "private, no-store",
     },
   });
