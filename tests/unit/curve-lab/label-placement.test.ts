@@ -1,0 +1,122 @@
+import {
+  besideRule,
+  boxesOverlap,
+  lineHitsBox,
+  nearCurve,
+  placeLabels,
+  segmentHitsBox,
+  type Box,
+  type Pt,
+} from "@/lib/curve-lab/label-placement";
+
+const plot: Box = { x: 0, y: 0, w: 800, h: 400 };
+
+describe("chart label placement", () => {
+  it("a segment through a box hits it; one passing beside it or ending short does not", () => {
+    const b: Box = { x: 10, y: 10, w: 20, h: 10 };
+    expect(segmentHitsBox({ x: 0, y: 15 }, { x: 40, y: 15 }, b)).toBe(true); // straight through
+    expect(segmentHitsBox({ x: 0, y: 0 }, { x: 40, y: 30 }, b)).toBe(true); // diagonal through
+    expect(segmentHitsBox({ x: 0, y: 0 }, { x: 40, y: 5 }, b)).toBe(false); // above
+    expect(segmentHitsBox({ x: 0, y: 15 }, { x: 8, y: 15 }, b)).toBe(false); // ends before it
+    expect(segmentHitsBox({ x: 0, y: 18 }, { x: 18, y: 0 }, b)).toBe(false); // passes just outside the corner (10, 10)
+    expect(segmentHitsBox({ x: 0, y: 22 }, { x: 22, y: 0 }, b)).toBe(true); // clips the corner
+  });
+
+  it("a vertical rule running through the first spot pushes the label to the next (Vmd's rule never runs through Vmp's text)", () => {
+    const vmdRule: Pt[] = [
+      { x: 300, y: 0 },
+      { x: 300, y: 400 },
+    ];
+    const vmp = {
+      id: "vmp",
+      candidates: [
+        { x: 260, y: 10, w: 90, h: 20 },
+        { x: 200, y: 10, w: 90, h: 20 },
+      ],
+    };
+    const [p] = placeLabels({ labels: [vmp], lines: [vmdRule], bounds: plot });
+    expect(p!.candidate).toBe(1);
+    expect(lineHitsBox(vmdRule, p!.box!)).toBe(false);
+  });
+
+  it("a label never sits on a curve: the stall label moves off the sampled curve to a clear candidate", () => {
+    const curve: Pt[] = [];
+    for (let i = 0; i <= 100; i++) curve.push({ x: i * 8, y: 380 - i * 3 });
+    const stall = {
+      id: "stall",
+      candidates: [
+        { x: 20, y: 350, w: 80, h: 20 },
+        { x: 100, y: 360, w: 80, h: 20 },
+      ],
+    };
+    const [p] = placeLabels({ labels: [stall], lines: [curve], bounds: plot });
+    expect(p!.candidate).toBe(1);
+    expect(lineHitsBox(curve, p!.box!)).toBe(false);
+  });
+
+  it("two labels wanting the same spot: the first keeps it, the second takes its next clear candidate", () => {
+    const spot = { x: 100, y: 100, w: 60, h: 20 };
+    const r = placeLabels({
+      labels: [
+        { id: "a", candidates: [spot] },
+        { id: "b", candidates: [spot, { x: 100, y: 110, w: 60, h: 20 }, { x: 100, y: 140, w: 60, h: 20 }] },
+      ],
+      lines: [],
+      bounds: plot,
+    });
+    expect(r.map((p) => p.candidate)).toEqual([0, 2]);
+    expect(boxesOverlap(r[0]!.box!, r[1]!.box!)).toBe(false);
+  });
+
+  it("a candidate outside the plot is skipped, and a label with no clear candidate is left out, not drawn on top", () => {
+    const r = placeLabels({
+      labels: [
+        {
+          id: "a",
+          candidates: [
+            { x: 790, y: 10, w: 60, h: 20 },
+            { x: 700, y: 10, w: 60, h: 20 },
+          ],
+        },
+        { id: "b", candidates: [{ x: 700, y: 10, w: 60, h: 20 }] },
+      ],
+      lines: [],
+      bounds: plot,
+    });
+    expect(r[0]).toMatchObject({ candidate: 1 });
+    expect(r[1]).toEqual({ id: "b", box: null, candidate: -1 });
+  });
+
+  it("on many random charts no two placed labels overlap and none touches a line", () => {
+    let seed = 7;
+    const rnd = () => (seed = (seed * 16807) % 2147483647) / 2147483647;
+    for (let chart = 0; chart < 60; chart++) {
+      const lines: Pt[][] = [];
+      for (let c = 0; c < 3; c++) {
+        const a = 50 + rnd() * 300;
+        const vmd = 200 + rnd() * 300;
+        const pts: Pt[] = [];
+        for (let i = 0; i < 200; i++) {
+          const x = 20 + i * 4;
+          pts.push({ x, y: 380 - a * (x / vmd) ** 2 * 0.5 - (a * 0.5 * vmd * vmd) / (x * x) + a });
+        }
+        lines.push(pts);
+      }
+      const rx = 100 + rnd() * 600;
+      lines.push([
+        { x: rx, y: 0 },
+        { x: rx, y: 400 },
+      ]);
+      const labels = [
+        { id: "rule", candidates: besideRule(rx, 90, 22, plot) },
+        ...lines.slice(0, 3).map((l, i) => ({ id: `case${i}`, candidates: nearCurve(l, 70, 22) })),
+      ];
+      const placed = placeLabels({ labels, lines, bounds: plot }).filter((p) => p.box);
+      for (const p of placed) {
+        for (const l of lines) expect(lineHitsBox(l, p.box!)).toBe(false);
+        for (const q of placed) if (q !== p) expect(boxesOverlap(p.box!, q.box!)).toBe(false);
+      }
+      expect(placed.length).toBeGreaterThan(0);
+    }
+  });
+});
