@@ -1,7 +1,7 @@
 import { DataTypes, Model, type InferAttributes, type InferCreationAttributes, type CreationOptional } from "sequelize";
 import { sequelize } from "../index";
 
-import type { AttendanceStatusName } from "@/lib/timetable/schemas";
+import type { AttendanceStatusName } from "@/lib/timetable/schema";
 
 export type AttendanceStatus = AttendanceStatusName;
 

@@ -1,8 +1,9 @@
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../index";
-import { scheduleSession, cancelSession } from "../access/sessions";
-import { recordAttendance } from "../access/ground-log";
-import { scheduleSessionSchema, recordAttendanceSchema, type AttendanceStatusName } from "@/lib/timetable/schemas";
+import { scheduleSession } from "../access/timetable/schedule-session";
+import { cancelSession } from "../access/timetable/cancel-session";
+import { recordAttendance } from "../access/ground-log/record-attendance";
+import { scheduleSessionSchema, recordAttendanceSchema, type AttendanceStatusName } from "@/lib/timetable/schema";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { SeedContext } from "./extensions";
 

@@ -1,8 +1,8 @@
 "use server";
 import { revalidatePath } from "next/cache";
 import { runAction } from "@/lib/actions/run-action";
-import { scheduleMakeup, closeMakeup, waiveMakeup } from "@/db/access/makeup";
-import { makeupScheduleSchema, makeupCloseSchema, makeupWaiveSchema } from "@/lib/timetable/schemas";
+import { scheduleMakeup, closeMakeup, waiveMakeup } from "@/db/access/ground-log/change-makeup";
+import { makeupScheduleSchema, makeupCloseSchema, makeupWaiveSchema } from "@/lib/timetable/schema";
 
 /** Plans an open make-up item into an upcoming session the student attends. */
 export async function scheduleMakeupAction(input: unknown) {

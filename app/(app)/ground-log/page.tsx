@@ -1,14 +1,16 @@
 import type { Metadata } from "next";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { uuidParam } from "@/lib/http/api";
-import { getActiveEnrolment } from "@/db/access/cohorts";
-import { groundHoursFor, logbookFor, groundLogStudentsFor, mayViewGroundLog } from "@/db/access/ground-log";
-import { listMakeupFor } from "@/db/access/makeup";
-import { listSessions } from "@/db/access/sessions";
+import { activeEnrolment } from "@/db/access/shared/enrolment";
+import { groundHoursFor } from "@/db/access/ground-log/ground-hours";
+import { logbookFor } from "@/db/access/ground-log/logbook";
+import { groundLogStudentsFor, mayViewGroundLog } from "@/db/access/ground-log/visible-students";
+import { listMakeupFor } from "@/db/access/ground-log/list-makeup";
+import { listSessions } from "@/db/access/timetable/list-sessions";
 import { getSchool } from "@/db/access/shared/school";
 import { hoursLabel, dateInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
-import { ATTENDANCE_LABELS } from "@/lib/timetable/schemas";
+import { ATTENDANCE_LABELS } from "@/lib/timetable/schema";
 import { MakeupActions } from "./_components/makeup-actions";
 import { PrintButton } from "./_components/print-button";
 
@@ -27,7 +29,8 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
   const user = await requirePagePermission("groundlog.view", "/ground-log");
   const school = await getSchool(user.schoolId);
   const sp = await searchParams;
-  const isStudent = user.roles.includes("student") && !user.roles.some((r) => r === "chief" || r === "instructor");
+  // a student (who records no attendance) sees only their own Ground log: no student picker
+  const isStudent = can(user, "students.own") && !can(user, "attendance.record");
   const choices = isStudent ? [] : await groundLogStudentsFor(user);
   const asked = typeof sp.student === "string" ? sp.student : undefined;
   const badParam = asked !== undefined && !uuidParam.safeParse(asked).success;
@@ -35,15 +38,14 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
   const allowed = studentId ? await mayViewGroundLog(user, studentId) : false;
   const student =
     allowed && studentId ? (isStudent ? { id: user.id, name: user.name } : (choices.find((c) => c.id === studentId) ?? null)) : null;
-  const enrolment = student ? await getActiveEnrolment(student.id) : null;
+  const enrolment = student ? await activeEnrolment(user.schoolId, student.id) : null;
   const hours = student && enrolment ? await groundHoursFor(student.id, enrolment.courseId) : null;
   const log = student ? await logbookFor(user.schoolId, student.id) : [];
   const makeup = student ? await listMakeupFor([student.id]) : [];
   const staff = can(user, "attendance.record");
   const upcoming =
     staff && student && makeup.some((m) => m.state === "open")
-      ? (await listSessions({ ...user, id: student.id, roles: ["student"] }, { status: "scheduled", fromInstant: now() }, { pageSize: 20 }))
-          .rows
+      ? (await listSessions(user, { attendee: student.id, status: "scheduled", fromInstant: now() }, { pageSize: 20 })).rows
       : [];
   return (
     <div className="space-y-6">

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { z } from "zod";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { listPeople } from "@/db/access/people";
-import { listCohorts, listCohortMembers } from "@/db/access/cohorts";
+import { listCohorts, listCohortMembers } from "@/db/access/cohorts/list-cohorts";
 import { ROLES, ROLE_LABELS } from "@/lib/auth/roles";
 import { ScrollArea } from "@/components/ui/scroll-area";
 

@@ -1,7 +1,9 @@
 "use server";
 import { revalidatePath } from "next/cache";
 import { runAction } from "@/lib/actions/run-action";
-import { addStudentSchema, moveStudentSchema, addStudentTx, moveStudent } from "@/db/access/roster";
+import { addStudentSchema, moveStudentSchema } from "@/lib/roster/schema";
+import { addStudentTx } from "@/db/access/roster/add-student";
+import { moveStudent } from "@/db/access/roster/move-student";
 
 /** Adds one student (and optionally their sponsor); new accounts get an invitation through the outbox. */
 export async function addStudentAction(input: unknown) {

@@ -1,7 +1,8 @@
 import type { Metadata } from "next";
-import { requirePagePermission } from "@/lib/auth/guard";
-import { listCohorts } from "@/db/access/cohorts";
-import { listRoster, cohortsManagedBy } from "@/db/access/roster";
+import { requirePagePermission, can } from "@/lib/auth/guard";
+import { listCohorts } from "@/db/access/cohorts/list-cohorts";
+import { listRoster } from "@/db/access/roster/list-roster";
+import { cohortsManagedBy } from "@/db/access/roster/managed-cohorts";
 import { getSchool } from "@/db/access/shared/school";
 import { dateInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
@@ -15,8 +16,8 @@ export const dynamic = "force-dynamic";
 export default async function RosterPage() {
   const user = await requirePagePermission("roster.manage", "/roster");
   const school = await getSchool(user.schoolId);
-  const isChief = user.roles.includes("chief");
-  const cohorts = await listCohorts(user.schoolId, isChief ? {} : { leadInstructorId: user.id });
+  const everyCohort = can(user, "roster.all");
+  const cohorts = await listCohorts(user.schoolId, everyCohort ? {} : { leadInstructorId: user.id });
   const managed = await cohortsManagedBy(user);
   const allCohorts = (await listCohorts(user.schoolId)).map((c) => ({ id: c.id, name: c.name }));
   const students = await listRoster(user);
@@ -26,7 +27,7 @@ export default async function RosterPage() {
       <header>
         <h1 className="text-display">Roster</h1>
         <p className="text-ink-soft">
-          {isChief ? "Every cohort of the school." : "The cohorts you lead."} Students keep their whole cohort history when they move.
+          {everyCohort ? "Every cohort of the school." : "The cohorts you lead."} Students keep their whole cohort history when they move.
         </p>
       </header>
       {cohorts.map((c) => {

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { getSyllabusRevision, listCoursesWithLatestRevision } from "@/db/access/syllabus";
-import { getActiveEnrolment } from "@/db/access/cohorts";
+import { getActiveEnrolment } from "@/db/access/cohorts/student-enrolment";
 import { ScrollArea } from "@/components/ui/scroll-area";
 
 export const metadata: Metadata = { title: "Syllabus" };

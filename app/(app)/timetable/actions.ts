@@ -2,15 +2,19 @@
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { runAction } from "@/lib/actions/run-action";
-import { scheduleSession, rescheduleSession, cancelSession, resetCalendarToken } from "@/db/access/sessions";
-import { recordAttendance, amendEntry } from "@/db/access/ground-log";
+import { scheduleSession } from "@/db/access/timetable/schedule-session";
+import { rescheduleSession } from "@/db/access/timetable/reschedule-session";
+import { cancelSession } from "@/db/access/timetable/cancel-session";
+import { resetCalendarToken } from "@/db/access/timetable/calendar-feed";
+import { recordAttendance } from "@/db/access/ground-log/record-attendance";
+import { amendEntry } from "@/db/access/ground-log/amend-entry";
 import {
   scheduleSessionSchema,
   rescheduleSessionSchema,
   cancelSessionSchema,
   recordAttendanceSchema,
   amendEntrySchema,
-} from "@/lib/timetable/schemas";
+} from "@/lib/timetable/schema";
 
 /** Schedules a session of a briefing; a double-booking comes back as a 409 naming who or what is busy. */
 export async function scheduleSessionAction(input: unknown) {

@@ -2,9 +2,9 @@
 import { NextResponse } from "next/server";
 import { route, parseQuery } from "@/lib/http/api";
 import { HttpError } from "@/lib/http/errors";
-import { listSessions } from "@/db/access/sessions";
+import { listSessions } from "@/db/access/timetable/list-sessions";
 import { getSchool } from "@/db/access/shared/school";
-import { sessionsQuerySchema, SESSIONS_QUERY_KEYS } from "@/lib/timetable/schemas";
+import { sessionsQuerySchema, SESSIONS_QUERY_KEYS } from "@/lib/timetable/schema";
 import { zonedInstant } from "@/lib/time";
 
 export const dynamic = "force-dynamic";

@@ -2,7 +2,9 @@ import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
 import { createPerson } from "@/db/access/people";
-import { previewRosterImport, commitRosterImport, moveStudent, listRoster } from "@/db/access/roster";
+import { previewRosterImport, commitRosterImport } from "@/db/access/roster/import-roster";
+import { moveStudent } from "@/db/access/roster/move-student";
+import { listRoster } from "@/db/access/roster/list-roster";
 import { count } from "./helpers";
 
 afterAll(closeDb);

@@ -1,8 +1,11 @@
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
-import { scheduleSession, rescheduleSession, cancelSession, listSessions } from "@/db/access/sessions";
-import { scheduleSessionSchema } from "@/lib/timetable/schemas";
+import { scheduleSession } from "@/db/access/timetable/schedule-session";
+import { rescheduleSession } from "@/db/access/timetable/reschedule-session";
+import { cancelSession } from "@/db/access/timetable/cancel-session";
+import { listSessions } from "@/db/access/timetable/list-sessions";
+import { scheduleSessionSchema } from "@/lib/timetable/schema";
 import { HttpError } from "@/lib/http/errors";
 import { formatInZone } from "@/lib/time";
 import { makeBriefing, count } from "./helpers";

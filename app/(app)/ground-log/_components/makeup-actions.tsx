@@ -2,7 +2,7 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { scheduleMakeupAction, closeMakeupAction, waiveMakeupAction } from "../actions";
-import { makeupCloseSchema, makeupWaiveSchema } from "@/lib/timetable/schemas";
+import { makeupCloseSchema, makeupWaiveSchema } from "@/lib/timetable/schema";
 
 /** Plan, close or waive one make-up item. */
 export function MakeupActions({

@@ -4,7 +4,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
-import { addStudentSchema } from "@/lib/timetable/schemas";
+import { addStudentSchema } from "@/lib/roster/schema";
 import { addStudentAction } from "../actions";
 
 type In = z.input<typeof addStudentSchema>;

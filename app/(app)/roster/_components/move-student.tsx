@@ -4,7 +4,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
-import { moveStudentSchema } from "@/lib/timetable/schemas";
+import { moveStudentSchema } from "@/lib/roster/schema";
 import { moveStudentAction } from "../actions";
 
 type In = z.input<typeof moveStudentSchema>;

@@ -10,8 +10,8 @@ import {
   ATTENDANCE_STATUSES,
   ATTENDANCE_LABELS,
   type AttendanceStatusName,
-} from "@/lib/timetable/schemas";
-import type { AttendanceSheetLine } from "@/db/access/ground-log";
+} from "@/lib/timetable/schema";
+import type { AttendanceSheetLine } from "@/db/access/ground-log/attendance-sheet";
 import { recordAttendanceAction, amendEntryAction } from "../actions";
 
 type In = z.input<typeof recordAttendanceSchema>;

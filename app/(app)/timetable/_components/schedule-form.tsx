@@ -4,7 +4,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
-import { scheduleSessionSchema } from "@/lib/timetable/schemas";
+import { scheduleSessionSchema } from "@/lib/timetable/schema";
 import { scheduleSessionAction } from "../actions";
 
 type In = z.input<typeof scheduleSessionSchema>;

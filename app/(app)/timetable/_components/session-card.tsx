@@ -1,5 +1,5 @@
 import Link from "next/link";
-import type { SessionRow } from "@/db/access/sessions";
+import type { SessionRow } from "@/db/access/timetable/list-sessions";
 
 export function SessionCard({ s }: { s: SessionRow }) {
   const cancelled = s.status === "cancelled";

@@ -4,7 +4,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
-import { rescheduleSessionSchema, cancelSessionSchema } from "@/lib/timetable/schemas";
+import { rescheduleSessionSchema, cancelSessionSchema } from "@/lib/timetable/schema";
 import { rescheduleSessionAction, cancelSessionAction } from "../actions";
 
 type RIn = z.input<typeof rescheduleSessionSchema>;

@@ -2,7 +2,7 @@
 import Link from "next/link";
 import { useState } from "react";
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
-import type { SessionRow } from "@/db/access/sessions";
+import type { SessionRow } from "@/db/access/timetable/list-sessions";
 
 interface Page {
   rows: SessionRow[];

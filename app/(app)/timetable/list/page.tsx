@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission, can } from "@/lib/auth/guard";
-import { schedulingChoices } from "@/db/access/sessions";
+import { schedulingChoices } from "@/db/access/timetable/scheduling-choices";
 import { getSchool } from "@/db/access/shared/school";
 import { SessionsTable } from "../_components/sessions-table";
 

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { schedulingChoices } from "@/db/access/sessions";
+import { schedulingChoices } from "@/db/access/timetable/scheduling-choices";
 import { getSchool } from "@/db/access/shared/school";
 import { dateInZone } from "@/lib/time";
 import { now } from "@/lib/clock";

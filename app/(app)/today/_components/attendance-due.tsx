@@ -1,5 +1,5 @@
 import Link from "next/link";
-import { sessionsAwaitingAttendance } from "@/db/access/sessions";
+import { sessionsAwaitingAttendance } from "@/db/access/timetable/list-sessions";
 import type { CurrentUser } from "@/lib/auth/session";
 
 /** Sessions the instructor taught that ended more than 24 h ago with no attendance recorded. */

@@ -1,4 +1,4 @@
-import { listCohorts } from "@/db/access/cohorts";
+import { listCohorts } from "@/db/access/cohorts/list-cohorts";
 import type { CurrentUser } from "@/lib/auth/session";
 
 export async function InstructorToday({ user }: { user: CurrentUser }) {

@@ -1,5 +1,5 @@
 import Link from "next/link";
-import { listSessions } from "@/db/access/sessions";
+import { listSessions } from "@/db/access/timetable/list-sessions";
 import type { CurrentUser } from "@/lib/auth/session";
 import { now } from "@/lib/clock";
 

@@ -1,5 +1,6 @@
-import { listSponsoredStudents, getActiveEnrolment } from "@/db/access/cohorts";
-import { creditedMinutesFor } from "@/db/access/ground-hours";
+import { listSponsoredStudents } from "@/db/access/cohorts/sponsor-links";
+import { getActiveEnrolment } from "@/db/access/cohorts/student-enrolment";
+import { creditedMinutesFor } from "@/db/access/ground-log/ground-hours";
 import type { CurrentUser } from "@/lib/auth/session";
 import { hoursLabel } from "@/lib/time";
 

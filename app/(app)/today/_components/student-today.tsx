@@ -1,7 +1,7 @@
-import { getActiveEnrolment } from "@/db/access/cohorts";
+import { getActiveEnrolment } from "@/db/access/cohorts/student-enrolment";
 import type { CurrentUser } from "@/lib/auth/session";
 import { hoursLabel } from "@/lib/time";
-import { creditedMinutesFor } from "@/db/access/ground-hours";
+import { creditedMinutesFor } from "@/db/access/ground-log/ground-hours";
 import { AssignmentsThisWeek } from "./assignments-this-week";
 
 export async function StudentToday({ user }: { user: CurrentUser }) {

@@ -1,7 +1,7 @@
 // GET /api/calendar/[token].ics: a person's Timetable as an iCalendar feed, behind a secret token (the token is the credential).
 import type { NextRequest } from "next/server";
 import { apiError, errorResponse } from "@/lib/http/api";
-import { calendarFeed } from "@/db/access/sessions";
+import { calendarFeed } from "@/db/access/timetable/calendar-feed";
 
 export const dynamic = "force-dynamic";
 

@@ -3,8 +3,8 @@ import { NextResponse } from "next/server";
 import { z } from "zod";
 import { route, parseQuery } from "@/lib/http/api";
 import { HttpError } from "@/lib/http/errors";
-import { sequelize } from "@/db/index";
-import { previewRosterImport, commitRosterImport, ROSTER_MAX_BYTES } from "@/db/access/roster";
+import { previewRosterImport, importRosterFile } from "@/db/access/roster/import-roster";
+import { ROSTER_MAX_BYTES } from "@/lib/roster/csv";
 
 export const dynamic = "force-dynamic";
 
@@ -50,6 +50,6 @@ export const POST = route("roster.manage", async ({ req, user }) => {
   const bad = preview.rows.find((r) => r.problems.length > 0);
   if (preview.fileProblems.length > 0) throw new HttpError(422, preview.fileProblems[0]!, "file");
   if (bad) throw new HttpError(422, `line ${bad.line}: ${bad.problems[0]}`, "file");
-  const result = await sequelize.transaction((t) => commitRosterImport(user, text, t));
+  const result = await importRosterFile(user, text);
   return NextResponse.json(result);
 });

@@ -1,23 +1,18 @@
 // GET /api/ground-log/[studentId]/logbook: a student's logbook lines as CSV (for the student's record).
 import { route, uuidParam } from "@/lib/http/api";
 import { HttpError } from "@/lib/http/errors";
-import { logbookFor, mayViewGroundLog } from "@/db/access/ground-log";
+import { logbookDownload } from "@/db/access/ground-log/logbook";
 import { toCsv } from "@/lib/csv";
-import { ATTENDANCE_LABELS } from "@/lib/timetable/schemas";
-import { sequelize } from "@/db/index";
-import { QueryTypes } from "sequelize";
+import { ATTENDANCE_LABELS } from "@/lib/timetable/schema";
 
 export const dynamic = "force-dynamic";
 
 export const GET = route<{ studentId: string }>("groundlog.view", async ({ user, params }) => {
   const id = uuidParam.safeParse(params.studentId);
   if (!id.success) throw new HttpError(400, "studentId: not a valid id", "studentId");
-  if (!(await mayViewGroundLog(user, id.data))) throw new HttpError(404, "studentId: no such student", "studentId");
-  const lines = await logbookFor(user.schoolId, id.data);
-  const [p] = await sequelize.query<{ name: string }>(`SELECT name FROM people WHERE id = :id`, {
-    replacements: { id: id.data },
-    type: QueryTypes.SELECT,
-  });
+  const book = await logbookDownload(user, id.data);
+  if (!book) throw new HttpError(404, "studentId: no such student", "studentId");
+  const { lines, studentName } = book;
   const csv = toCsv(
     ["Date", "Minutes credited", "Hours", "Attendance", "Subjects", "Instructor", "Instructor certificate", "Amended", "Amendment reason"],
     lines.map((l) => [
@@ -33,7 +28,7 @@ export const GET = route<{ studentId: string }>("groundlog.view", async ({ user,
     ]),
   );
   const safe =
-    (p?.name ?? "student")
+    studentName
       .replace(/[^A-Za-z0-9]+/g, "-")
       .replace(/^-|-$/g, "")
       .toLowerCase() || "student";

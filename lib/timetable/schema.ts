@@ -1,13 +1,12 @@
 import { z } from "zod";
+import { calendarDate, wallClockTime } from "@/lib/validation/dates";
+import { ATTENDANCE_WORDS } from "@/lib/labels";
 
 // The Timetable's and the Ground log's input schemas, shared by the client forms and the server
 // (server actions and route handlers parse with the same schema).
 
-export const isoDate = z
-  .string()
-  .regex(/^\d{4}-\d{2}-\d{2}$/, "a date as yyyy-mm-dd")
-  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), "not a real date");
-export const wallTime = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, "a time as hh:mm (24-hour)");
+export const isoDate = calendarDate();
+export const wallTime = wallClockTime();
 const uuid = z.string().uuid("not a valid id");
 
 export const scheduleSessionSchema = z
@@ -26,6 +25,7 @@ export const scheduleSessionSchema = z
   })
   .refine((v) => v.cohortId !== "" || v.studentIds.length > 0, { message: "choose a cohort or at least one student", path: ["cohortId"] });
 export type ScheduleSessionInput = z.input<typeof scheduleSessionSchema>;
+export type ScheduleSessionOutput = z.output<typeof scheduleSessionSchema>;
 
 export const rescheduleSessionSchema = z.object({
   sessionId: uuid,
@@ -35,21 +35,18 @@ export const rescheduleSessionSchema = z.object({
   room: z.string().trim().min(1, "required").max(100, "at most 100 characters"),
   instructorId: z.string().uuid("choose an instructor"),
 });
+export type RescheduleSessionOutput = z.output<typeof rescheduleSessionSchema>;
 
 export const cancelSessionSchema = z.object({
   sessionId: uuid,
   reason: z.string().trim().min(3, "say why, in a few words").max(500, "at most 500 characters"),
 });
+export type CancelSessionOutput = z.output<typeof cancelSessionSchema>;
 
 export const ATTENDANCE_STATUSES = ["attended", "late", "left_early", "absent_excused", "absent"] as const;
 export type AttendanceStatusName = (typeof ATTENDANCE_STATUSES)[number];
-export const ATTENDANCE_LABELS: Record<AttendanceStatusName, string> = {
-  attended: "Attended",
-  late: "Late",
-  left_early: "Left early",
-  absent_excused: "Absent (excused)",
-  absent: "Absent",
-};
+/** Words for the statuses: the one label map (lib/labels.ts). */
+export const ATTENDANCE_LABELS: Record<AttendanceStatusName, string> = ATTENDANCE_WORDS;
 
 const minutes = z.coerce.number().int("whole minutes").min(0, "not negative").max(720, "at most 720");
 
@@ -67,11 +64,13 @@ export const recordAttendanceSchema = z.object({
   sessionId: uuid,
   lines: z.array(attendanceLineSchema).min(1, "record at least one student").max(200),
 });
+export type RecordAttendanceOutput = z.output<typeof recordAttendanceSchema>;
 
 export const amendEntrySchema = attendanceLineSchema.omit({ studentId: true }).extend({
   entryId: uuid,
   reason: z.string().trim().min(3, "say what was wrong, in a few words").max(500),
 });
+export type AmendEntryOutput = z.output<typeof amendEntrySchema>;
 
 export const makeupCloseSchema = z.object({
   itemId: uuid,
@@ -80,6 +79,9 @@ export const makeupCloseSchema = z.object({
 });
 export const makeupScheduleSchema = z.object({ itemId: uuid, sessionId: uuid });
 export const makeupWaiveSchema = z.object({ itemId: uuid, reason: z.string().trim().min(3, "say why, in a few words").max(500) });
+export type MakeupCloseOutput = z.output<typeof makeupCloseSchema>;
+export type MakeupScheduleOutput = z.output<typeof makeupScheduleSchema>;
+export type MakeupWaiveOutput = z.output<typeof makeupWaiveSchema>;
 
 export const SESSION_SORTS = ["starts_at", "briefing", "room", "instructor", "cohort"] as const;
 
@@ -107,26 +109,4 @@ export const weekQuerySchema = z.object({
   cohort: uuid.optional(),
   room: z.string().trim().min(1).max(100).optional(),
   mine: z.enum(["1", "0"], "1 or 0").optional(),
-});
-
-// ---- rosters
-
-export const addStudentSchema = z
-  .object({
-    name: z.string().trim().min(1, "required").max(200),
-    email: z.string().trim().toLowerCase().email("not a valid e-mail address"),
-    cohortId: z.string().uuid("choose a cohort"),
-    sponsorName: z.string().trim().max(200).optional().default(""),
-    sponsorEmail: z
-      .union([z.literal(""), z.string().trim().toLowerCase().email("not a valid e-mail address")])
-      .optional()
-      .default(""),
-  })
-  .refine((v) => !v.sponsorEmail || v.sponsorName, { message: "required when a sponsor e-mail is given", path: ["sponsorName"] })
-  .refine((v) => !v.sponsorName || v.sponsorEmail, { message: "required when a sponsor name is given", path: ["sponsorEmail"] });
-
-export const moveStudentSchema = z.object({
-  studentId: z.string().uuid(),
-  toCohortId: z.string().uuid("choose a cohort"),
-  onDate: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "a date as yyyy-mm-dd"),
 });

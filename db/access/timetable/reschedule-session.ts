@@ -1,0 +1,73 @@
+import "server-only";
+import { QueryTypes, type Transaction } from "sequelize";
+import { sequelize } from "../../index";
+import { enqueueMail } from "../mail/outbox";
+import { guardOverlap } from "./overlap-guard";
+import { lockSessionForChange, assertNoAttendanceRecorded } from "./lock-session";
+import { attendeesToTell, requireInstructor } from "./session-people";
+import { mailSchool } from "./mail-school";
+import { composeMail } from "@/lib/mail/compose";
+import { HttpError } from "@/lib/http/errors";
+import { zonedInstant } from "@/lib/time";
+import type { CurrentUser } from "@/lib/auth/session";
+import type { RescheduleSessionOutput } from "@/lib/timetable/schema";
+
+/**
+ * Moves a session (time, length, room, instructor). Its sequence grows, and each attendee is told
+ * through the outbox in the same transaction; the mail's key carries the new sequence.
+ */
+export async function rescheduleSession(user: CurrentUser, input: RescheduleSessionOutput, t: Transaction) {
+  const school = await mailSchool(user.schoolId, t);
+  const s = await lockSessionForChange(user, input.sessionId, t);
+  if (s.status !== "scheduled") throw new HttpError(409, "sessionId: a cancelled session cannot be moved; schedule a new one", "sessionId");
+  await assertNoAttendanceRecorded(s.id, "moved", t);
+  const instructor = await requireInstructor(user.schoolId, input.instructorId, t);
+  const startsAt = zonedInstant(input.date, input.time, school.timeZone);
+  const endsAt = new Date(startsAt.getTime() + input.durationMinutes * 60_000);
+  const attendees = await attendeesToTell(s.id, t);
+  const ctx = {
+    schoolId: user.schoolId,
+    sessionId: s.id,
+    instructorId: input.instructorId,
+    room: input.room,
+    studentIds: attendees.map((a) => a.id),
+    startsAt,
+    endsAt,
+  };
+  const sequence = await guardOverlap(t, ctx, school.timeZone, async (sp) => {
+    const [row] = await sequelize.query<{ sequence: number }>(
+      `UPDATE training_sessions SET starts_at = :a, ends_at = :e, room = :room, instructor_id = :i, sequence = sequence + 1, updated_at = now()
+        WHERE id = :id RETURNING sequence`,
+      {
+        replacements: { a: startsAt, e: endsAt, room: input.room.trim(), i: input.instructorId, id: s.id },
+        type: QueryTypes.SELECT,
+        transaction: sp,
+      },
+    );
+    return row!.sequence;
+  });
+  for (const a of attendees) {
+    const mail = composeMail(
+      "session.rescheduled",
+      {
+        name: a.name,
+        briefingTitle: s.title,
+        previousStartsAt: new Date(s.startsAt),
+        startsAt,
+        endsAt,
+        room: input.room.trim(),
+        instructorName: instructor.name,
+      },
+      school,
+    );
+    await enqueueMail(t, {
+      schoolId: user.schoolId,
+      kind: "session.rescheduled",
+      idempotencyKey: `session.rescheduled:${s.id}:${sequence}:${a.id}`,
+      recipientId: a.id,
+      to: a.email,
+      ...mail,
+    });
+  }
+  return { id: s.id, sequence, startsAt, endsAt, told: attendees.length };
+}

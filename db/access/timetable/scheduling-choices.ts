@@ -1,0 +1,33 @@
+import "server-only";
+import { QueryTypes, type Transaction } from "sequelize";
+import { sequelize } from "../../index";
+import type { CurrentUser } from "@/lib/auth/session";
+
+type Db = { transaction?: Transaction };
+
+/** What the scheduling forms offer: current briefings, instructors, cohorts, students and rooms used before. */
+export async function schedulingChoices(user: CurrentUser, db: Db = {}) {
+  const rep = { replacements: { s: user.schoolId }, type: QueryTypes.SELECT as const, transaction: db.transaction };
+  const [briefings, instructors, cohorts, students, rooms] = await Promise.all([
+    sequelize.query<{ id: string; title: string; revisionNumber: number; minutes: number }>(
+      `SELECT b.id, br.title, br.number AS "revisionNumber",
+              COALESCE((SELECT sum((el->>'minutes')::int) FROM jsonb_array_elements(br.elements) el), 0)::int AS minutes
+         FROM briefings b JOIN briefing_revisions br ON br.id = b.current_revision_id WHERE b.school_id = :s ORDER BY br.title`,
+      rep,
+    ),
+    sequelize.query<{ id: string; name: string }>(
+      `SELECT id, name FROM people WHERE school_id = :s AND active AND roles && ARRAY['instructor','chief']::text[] ORDER BY name`,
+      rep,
+    ),
+    sequelize.query<{ id: string; name: string }>(`SELECT id, name FROM cohorts WHERE school_id = :s ORDER BY starts_on, name`, rep),
+    sequelize.query<{ id: string; name: string }>(
+      `SELECT id, name FROM people WHERE school_id = :s AND active AND 'student' = ANY(roles) ORDER BY name`,
+      rep,
+    ),
+    sequelize.query<{ room: string }>(
+      `SELECT DISTINCT ON (lower(btrim(room))) btrim(room) AS room FROM training_sessions WHERE school_id = :s ORDER BY lower(btrim(room))`,
+      rep,
+    ),
+  ]);
+  return { briefings, instructors, cohorts, students, rooms: rooms.map((r) => r.room) };
+}
