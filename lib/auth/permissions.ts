@@ -52,6 +52,7 @@ export const PERMISSIONS = {
   "checks.acknowledge": { roles: ["student"], description: "Acknowledge the debrief of one's own oral check" },
   "records.sign": { roles: ["chief", "instructor"], description: "Sign off syllabus items" },
   "records.amend": { roles: ["chief", "instructor"], description: "Amend or withdraw one's signed records" },
+  "records.manage": { roles: ["chief"], description: "Amend or withdraw any instructor's oral checks and sign-offs, not only one's own" },
   "stagechecks.conduct": {
     roles: ["chief", "instructor"],
     description: "Conduct stage checks (designated check instructors and the chief)",
