@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { redirect } from "next/navigation";
-import { requirePagePermission } from "@/lib/auth/guard";
-import { progressStudentsFor } from "@/db/access/records";
+import { requirePagePermission, can } from "@/lib/auth/guard";
+import { progressStudentsFor } from "@/db/access/records/student-list";
 
 export const metadata: Metadata = { title: "Progress map" };
 export const dynamic = "force-dynamic";
@@ -10,15 +10,16 @@ export const dynamic = "force-dynamic";
 export default async function ProgressIndexPage() {
   const user = await requirePagePermission("progress.view", "/progress");
   const students = await progressStudentsFor(user);
-  if (user.roles.length === 1 && user.roles[0] === "student") redirect(`/progress/${user.id}`);
-  if (students.length === 1 && !user.roles.includes("chief") && !user.roles.includes("instructor"))
-    redirect(`/progress/${students[0]!.id}`);
+  // who sees no one but themself and whom they sponsor: straight to the one map
+  const staff = can(user, "students.all") || can(user, "students.taught");
+  if (can(user, "students.own") && !staff && !can(user, "students.sponsored")) redirect(`/progress/${user.id}`);
+  if (students.length === 1 && !staff) redirect(`/progress/${students[0]!.id}`);
   return (
     <div className="space-y-6">
       <h1 className="text-display">Progress map</h1>
       {students.length === 0 ? (
         <p className="text-ink-soft">
-          No Progress map to show{user.roles.includes("sponsor") ? ": the students you sponsor have not shared their progress." : "."}
+          No Progress map to show{can(user, "students.sponsored") ? ": the students you sponsor have not shared their progress." : "."}
         </p>
       ) : (
         <ul className="grid gap-2 sm:grid-cols-2 lg:grid-cols-3">

@@ -1,9 +1,8 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { QueryTypes } from "sequelize";
 import { requirePagePermission, can } from "@/lib/auth/guard";
-import { progressStudentsFor } from "@/db/access/records";
-import { sequelize } from "@/db/index";
+import { recordStudentsFor } from "@/db/access/records/student-list";
+import { listCheckInstructors } from "@/db/access/records/stage-checks";
 import { DesignateToggle } from "./_components/designate-toggle";
 
 export const metadata: Metadata = { title: "Records" };
@@ -11,16 +10,10 @@ export const dynamic = "force-dynamic";
 
 export default async function RecordsPage() {
   const user = await requirePagePermission("checks.record", "/records");
-  const students = await progressStudentsFor({ ...user, roles: user.roles.filter((r) => r === "chief" || r === "instructor") });
+  const students = await recordStudentsFor(user);
   const byCohort = new Map<string, typeof students>();
   for (const s of students) byCohort.set(s.cohortName ?? "No cohort", [...(byCohort.get(s.cohortName ?? "No cohort") ?? []), s]);
-  const instructors = can(user, "stagechecks.designate")
-    ? await sequelize.query<{ id: string; name: string; check_instructor: boolean }>(
-        `SELECT p.id, p.name, bool_or(q.check_instructor) AS check_instructor FROM people p JOIN instructor_qualifications q ON q.person_id = p.id
-          WHERE p.school_id = :s AND 'instructor' = ANY(p.roles) AND p.active GROUP BY p.id, p.name ORDER BY p.name`,
-        { replacements: { s: user.schoolId }, type: QueryTypes.SELECT },
-      )
-    : [];
+  const instructors = can(user, "stagechecks.designate") ? await listCheckInstructors(user.schoolId) : [];
   return (
     <div className="space-y-6">
       <header>

@@ -1,9 +1,9 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission, can } from "@/lib/auth/guard";
-import { signOffRegister, registerFilterOptions } from "@/db/access/records";
-import { chainHead } from "@/db/access/audit";
-import { registerQuerySchema, toFilter } from "@/lib/records/register-query";
+import { signOffRegister, registerFilterOptions } from "@/db/access/records/sign-off-register";
+import { chainHead } from "@/db/access/records/audit-chain";
+import { registerQuerySchema, toFilter } from "@/lib/records/schema";
 
 export const metadata: Metadata = { title: "Sign-off register" };
 export const dynamic = "force-dynamic";

@@ -4,7 +4,7 @@ import { QueryTypes, Sequelize } from "sequelize";
 import pg from "pg";
 import { sequelize } from "@/db/index";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
-import { writeAudit, verifyChain, chainHead } from "@/db/access/audit";
+import { writeAudit, verifyChain, chainHead } from "@/db/access/records/audit-chain";
 import { check, sign, itemId } from "./helpers";
 
 // The owner role (DATABASE_OWNER_URL, exported by the test command) plays the tamperer: it owns

@@ -2,9 +2,9 @@ jest.setTimeout(180_000);
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
-import { RecordRefusal } from "@/db/access/records";
-import { currentSignOffs } from "@/db/access/sign-offs";
-import { verifyChain } from "@/db/access/audit";
+import { RecordRefusal } from "@/db/access/records/refusals";
+import { currentSignOffs } from "@/db/access/records/sign-offs";
+import { verifyChain } from "@/db/access/records/audit-chain";
 import { check, sign, itemId, auditCount } from "./helpers";
 
 afterAll(closeDb);

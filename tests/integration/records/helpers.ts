@@ -1,7 +1,8 @@
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
-import { recordOralCheck, type OralCheckInput, type QuestionInput } from "@/db/access/oral-checks";
-import { signOff, type SignOffInput } from "@/db/access/sign-offs";
+import { recordOralCheck, type OralCheckInput, type QuestionInput } from "@/db/access/records/record-oral-check";
+import { signOff } from "@/db/access/records/sign-offs";
+import { type SignOffInput } from "@/db/access/records/sign-off-plan";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { makeSchool } from "@/tests/helpers/factories";
 import { TEST_PASSWORD } from "@/tests/helpers/factories";

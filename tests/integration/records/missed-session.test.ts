@@ -6,7 +6,8 @@ import { scheduleSession } from "@/db/access/timetable/schedule-session";
 import { recordAttendance } from "@/db/access/ground-log/record-attendance";
 import { waiveMakeup } from "@/db/access/ground-log/change-makeup";
 import { scheduleSessionSchema, recordAttendanceSchema } from "@/lib/timetable/schema";
-import { signOffRegister, RecordRefusal } from "@/db/access/records";
+import { signOffRegister } from "@/db/access/records/sign-off-register";
+import { RecordRefusal } from "@/db/access/records/refusals";
 import { makeBriefing } from "@/tests/integration/timetable/helpers";
 import { check, sign, itemId } from "./helpers";
 

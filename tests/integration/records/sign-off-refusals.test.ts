@@ -2,10 +2,11 @@ jest.setTimeout(120_000);
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
-import { withdrawOralCheck } from "@/db/access/oral-checks";
-import { signerStanding, withdrawSignOff, currentSignOffs } from "@/db/access/sign-offs";
-import { RecordRefusal } from "@/db/access/records";
-import { verifyChain } from "@/db/access/audit";
+import { withdrawOralCheck } from "@/db/access/records/oral-check-corrections";
+import { signerStanding } from "@/db/access/records/sign-off-plan";
+import { withdrawSignOff, currentSignOffs } from "@/db/access/records/sign-offs";
+import { RecordRefusal } from "@/db/access/records/refusals";
+import { verifyChain } from "@/db/access/records/audit-chain";
 import { check, sign, itemId, auditCount, type School } from "./helpers";
 
 afterAll(closeDb);

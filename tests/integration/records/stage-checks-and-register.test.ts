@@ -2,10 +2,15 @@ jest.setTimeout(180_000);
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
-import { conductStageCheck, designateCheckInstructor, stageReadiness } from "@/db/access/stage-checks";
-import { withdrawSignOff } from "@/db/access/sign-offs";
-import { progressFor, signOffRegister, requireStudentFor, RecordRefusal, chiefRecordsSummary } from "@/db/access/records";
-import { acknowledgeOralCheck } from "@/db/access/oral-checks";
+import { conductStageCheck, designateCheckInstructor } from "@/db/access/records/stage-checks";
+import { stageReadiness } from "@/db/access/records/stage-readiness";
+import { withdrawSignOff } from "@/db/access/records/sign-offs";
+import { progressFor } from "@/db/access/records/progress-map";
+import { signOffRegister } from "@/db/access/records/sign-off-register";
+import { requireStudentFor } from "@/db/access/shared/student-scope";
+import { RecordRefusal } from "@/db/access/records/refusals";
+import { chiefRecordsSummary } from "@/db/access/records/chief-summary";
+import { acknowledgeOralCheck } from "@/db/access/records/oral-check-corrections";
 import { HttpError } from "@/lib/http/errors";
 import { check, sign, itemId, auditCount, type School } from "./helpers";
 
@@ -67,7 +72,7 @@ describe("stage checks", () => {
   it("is not ready until every item is signed; the examiner is the chief or a designated check instructor, not the lead", async () => {
     expect(await reason(conduct(s, s.as.chief, student, aer))).toBe("not_ready");
     await signAllAer(s, student);
-    const { student: ref } = await requireStudentFor(s.as.chief, student, "staff");
+    const { student: ref } = await requireStudentFor(s.as.chief, student, "records");
     expect((await stageReadiness(ref))[0]).toMatchObject({ code: "AER", ready: true, signedCount: 5 });
     expect(await reason(conduct(s, s.as.instructor2, student, aer))).toBe("examiner_not_allowed");
     await sequelize.transaction((t) =>

@@ -3,7 +3,9 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/errors";
-import { progressFor, schoolFor, ITEM_STATUS_LABEL, type ItemStatus } from "@/db/access/records";
+import { progressFor } from "@/db/access/records/progress-map";
+import { getSchool } from "@/db/access/shared/school";
+import { ITEM_STATUS_LABEL, type ItemStatus } from "@/lib/records/progress";
 import { LEVEL_LABEL, CHECK_OUTCOME_LABEL } from "@/lib/records/outcome";
 import { formatInZone, hoursLabel } from "@/lib/time";
 import { Caution } from "@/components/caution";
@@ -32,7 +34,7 @@ export default async function ProgressPage({ params }: { params: Promise<{ stude
     if (e instanceof HttpError) notFound();
     throw e;
   }
-  const school = await schoolFor(user.schoolId);
+  const school = await getSchool(user.schoolId);
   const isSelf = map.access === "self";
   return (
     <div className="space-y-6">

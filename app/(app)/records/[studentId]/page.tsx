@@ -3,13 +3,18 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/errors";
-import { progressFor, requireStudentFor, isCheckInstructor, RecordRefusal, ITEM_STATUS_LABEL } from "@/db/access/records";
-import { listQuestionAircraft, recentSessionsOf } from "@/db/access/oral-checks";
-import { planSignOff, currentSignOffs } from "@/db/access/sign-offs";
+import { requireStudentFor } from "@/db/access/shared/student-scope";
+import { getSchool } from "@/db/access/shared/school";
+import { progressFor } from "@/db/access/records/progress-map";
+import { RecordRefusal } from "@/db/access/records/refusals";
+import { mayExamine } from "@/db/access/records/stage-checks";
+import { listQuestionAircraft, recentSessionsOf } from "@/db/access/records/question-aircraft";
+import { planSignOff } from "@/db/access/records/sign-off-plan";
+import { currentSignOffs } from "@/db/access/records/sign-offs";
+import { ITEM_STATUS_LABEL } from "@/lib/records/progress";
 import { Caution } from "@/components/caution";
 import { LEVEL_LABEL, OUTCOME_LABEL, CHECK_OUTCOME_LABEL } from "@/lib/records/outcome";
 import { formatInZone } from "@/lib/time";
-import { schoolFor } from "@/db/access/records";
 import { CheckForm } from "./_components/check-form";
 import { SignOffPanel } from "./_components/sign-off-panel";
 import { WithdrawButton } from "./_components/withdraw-button";
@@ -30,7 +35,7 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
     if (e instanceof HttpError) notFound();
     throw e;
   }
-  const school = await schoolFor(user.schoolId);
+  const school = await getSchool(user.schoolId);
   const progress = await progressFor(user, student.id, { asExaminer: true }).catch(() => null);
   if (!progress) notFound();
   const aircraft = await listQuestionAircraft(user.schoolId, undefined, student.id);
@@ -55,7 +60,7 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
         }
       }),
   );
-  const canExamine = user.roles.includes("chief") || (await isCheckInstructor(user.id));
+  const canExamine = await mayExamine(user);
   const recent = progress.checks.slice(0, 6);
   return (
     <div className="space-y-6">
@@ -204,7 +209,7 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
                   stageCode={s.code}
                   items={s.items.map((i) => ({ id: i.id, code: i.code, title: i.title }))}
                   isLead={student.leadInstructorId === user.id}
-                  isChief={user.roles.includes("chief")}
+                  mayOverride={can(user, "stagechecks.designate")}
                   passMark={school.settings.stageCheckPassMarkPercent}
                 />
               )}

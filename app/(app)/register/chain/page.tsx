@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { verifyChain, listAuditEvents } from "@/db/access/audit";
-import { schoolFor } from "@/db/access/records";
+import { verifyChain, listAuditEvents } from "@/db/access/records/audit-chain";
+import { getSchool } from "@/db/access/shared/school";
 import { formatInZone } from "@/lib/time";
 
 export const metadata: Metadata = { title: "Audit chain" };
@@ -13,7 +13,7 @@ export default async function ChainPage() {
   const [v, events, school] = await Promise.all([
     verifyChain(user.schoolId),
     listAuditEvents(user.schoolId, { limit: 30 }),
-    schoolFor(user.schoolId),
+    getSchool(user.schoolId),
   ]);
   return (
     <div className="space-y-6">

@@ -1,5 +1,5 @@
 import Link from "next/link";
-import { chiefRecordsSummary } from "@/db/access/records";
+import { chiefRecordsSummary } from "@/db/access/records/chief-summary";
 import type { CurrentUser } from "@/lib/auth/session";
 
 /** The chief's Records card on Today: stage checks waiting and for how long, watch notes, the chain's status. */

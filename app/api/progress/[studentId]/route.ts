@@ -2,7 +2,7 @@
 import { NextResponse } from "next/server";
 import { route, uuidParam } from "@/lib/http/api";
 import { HttpError } from "@/lib/http/errors";
-import { progressFor } from "@/db/access/records";
+import { progressFor } from "@/db/access/records/progress-map";
 
 export const GET = route<{ studentId: string }>("progress.view", async ({ user, params }) => {
   if (!uuidParam.safeParse(params.studentId).success) throw new HttpError(404, "studentId: no such student", "studentId");

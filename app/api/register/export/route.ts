@@ -1,8 +1,8 @@
 // GET /api/register/export: the Sign-off register as CSV (same filters as the page), with the audit chain's head hash.
 import { route, parseQuery } from "@/lib/http/api";
-import { signOffRegister } from "@/db/access/records";
-import { chainHead } from "@/db/access/audit";
-import { registerQuerySchema, toFilter } from "@/lib/records/register-query";
+import { signOffRegister } from "@/db/access/records/sign-off-register";
+import { chainHead } from "@/db/access/records/audit-chain";
+import { registerQuerySchema, toFilter } from "@/lib/records/schema";
 import { toCsv } from "@/lib/csv";
 import { now } from "@/lib/clock";
 

@@ -3,7 +3,6 @@ import { useState, useTransition } from "react";
 import { useRouter } from "next/navigation";
 import { useFieldArray, useForm, useWatch, type Control } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { z } from "zod";
 import { recordCheckAction } from "../../actions";
 import {
   LEVELS,
@@ -21,9 +20,16 @@ import {
   generateQuestion,
   figureWithinTolerance,
   type AircraftSnapshot,
-  type AircraftSourceKind,
   type QuestionKind,
 } from "@/lib/records/questions";
+import {
+  checkFormSchema,
+  checkFormToInput,
+  generatorInputsOf,
+  recordCheckSchema,
+  type CheckFormQuestion,
+  type CheckFormValues,
+} from "@/lib/records/schema";
 
 interface Item {
   id: string;
@@ -32,56 +38,13 @@ interface Item {
   requiredLevel: LevelOfLearning;
 }
 
-const optionalNumber = z
-  .string()
-  .trim()
-  .refine((v) => v === "" || Number.isFinite(Number(v)), "must be a number");
-const questionSchema = z
-  .object({
-    syllabusItemId: z.string().min(1, "choose the item"),
-    mode: z.enum(["written", "generated"]),
-    questionText: z.string().max(2000),
-    kind: z.enum(QUESTION_KINDS),
-    aircraftKey: z.string(),
-    massKg: optionalNumber,
-    altitudeFt: optionalNumber,
-    speedKt: optionalNumber,
-    heightFt: optionalNumber,
-    studentFigure: optionalNumber,
-    answerSummary: z.string().max(2000),
-    outcome: z.enum(QUESTION_OUTCOMES, "choose Solid, Shaky or Not yet"),
-    required: z.boolean(),
-    prompted: z.boolean(),
-    correctiveGiven: z.boolean(),
-  })
-  .superRefine((q, ctx) => {
-    if (q.mode === "written" && q.questionText.trim() === "")
-      ctx.addIssue({ code: "custom", path: ["questionText"], message: "write the question as asked" });
-  });
-const formSchema = z.object({
-  itemIds: z.array(z.string()).min(1, "choose at least one syllabus item"),
-  levelShown: z.enum(LEVELS, "choose the level of learning shown"),
-  durationMinutes: z
-    .string()
-    .regex(/^\d{1,3}$/, "whole minutes")
-    .refine((v) => Number(v) >= 1 && Number(v) <= 600, "1 to 600 minutes"),
-  occurredAt: z.string().min(1, "when did the check happen?"),
-  sessionId: z.string(),
-  remarks: z.string().max(4000),
-  questions: z.array(questionSchema).min(1, "record at least one question"),
-});
-type FormValues = z.infer<typeof formSchema>;
-type QuestionValues = FormValues["questions"][number];
+type FormValues = CheckFormValues;
+type QuestionValues = CheckFormQuestion;
 
 function localNow(): string {
   const d = new Date();
   d.setMinutes(d.getMinutes() - d.getTimezoneOffset());
   return d.toISOString().slice(0, 16);
-}
-const num = (v: string) => (v.trim() === "" ? undefined : Number(v));
-
-function inputsFor(q: QuestionValues) {
-  return { massKg: num(q.massKg), altitudeFt: num(q.altitudeFt), speedKt: num(q.speedKt), heightFt: num(q.heightFt) };
 }
 const NEEDS: Record<QuestionKind, ("massKg" | "altitudeFt" | "speedKt" | "heightFt")[]> = {
   vmd: ["massKg", "altitudeFt"],
@@ -128,7 +91,7 @@ export function CheckForm({
   const [idempotencyKey, setKey] = useState(() => crypto.randomUUID());
   const firstAircraft = aircraft[0] ? `${aircraft[0].source.kind}:${aircraft[0].source.id}` : "";
   const form = useForm<FormValues>({
-    resolver: zodResolver(formSchema),
+    resolver: zodResolver(checkFormSchema),
     defaultValues: {
       itemIds: items[0] ? [items[0].id] : [],
       levelShown: "understanding",
@@ -154,33 +117,16 @@ export function CheckForm({
   const onSubmit = (v: FormValues) =>
     start(async () => {
       setMessage(null);
-      const payload = {
-        idempotencyKey,
-        studentId,
-        itemIds: v.itemIds,
-        levelShown: v.levelShown,
-        durationMinutes: Number(v.durationMinutes),
-        occurredAt: new Date(v.occurredAt).toISOString(),
-        sessionId: v.sessionId || null,
-        remarks: v.remarks,
-        questions: v.questions.map((q) => {
-          const [kind, id] = q.aircraftKey.split(":");
-          return {
-            syllabusItemId: q.syllabusItemId,
-            questionText: q.mode === "written" ? q.questionText : undefined,
-            answerSummary: q.answerSummary,
-            outcome: q.outcome,
-            required: q.required,
-            prompted: q.prompted,
-            correctiveGiven: q.correctiveGiven,
-            generated:
-              q.mode === "generated"
-                ? { kind: q.kind, aircraft: { kind: kind as AircraftSourceKind, id: id ?? "" }, inputs: inputsFor(q) }
-                : undefined,
-            studentFigure: q.mode === "generated" && q.studentFigure.trim() !== "" ? Number(q.studentFigure) : null,
-          };
-        }),
-      };
+      const input = checkFormToInput(studentId, v);
+      // the server's schema, checked here first: its messages land on the same fields
+      const checked = recordCheckSchema.safeParse(input);
+      if (!checked.success) {
+        const issues = checked.error.issues;
+        for (const issue of issues) setError(issue.path.map(String).join(".") as never, { message: issue.message });
+        setMessage({ ok: false, text: `${issues[0]?.path.map(String).join(".") || "form"}: ${issues[0]?.message ?? "invalid input"}` });
+        return;
+      }
+      const payload = { idempotencyKey, ...input };
       const r = await recordCheckAction(payload);
       if (r.ok) {
         setMessage({
@@ -367,7 +313,7 @@ function QuestionFields({
     const snap = aircraft.find((a) => `${a.source.kind}:${a.source.id}` === q.aircraftKey);
     try {
       if (!snap) throw new Error("choose an aircraft");
-      generated = generateQuestion(q.kind, snap, inputsFor(q));
+      generated = generateQuestion(q.kind, snap, generatorInputsOf(q));
     } catch (e) {
       problem = e instanceof Error ? e.message : "check the inputs";
     }

@@ -10,7 +10,7 @@ export function StageCheckForm({
   stageCode,
   items,
   isLead,
-  isChief,
+  mayOverride,
   passMark,
 }: {
   studentId: string;
@@ -18,7 +18,7 @@ export function StageCheckForm({
   stageCode: string;
   items: { id: string; code: string; title: string }[];
   isLead: boolean;
-  isChief: boolean;
+  mayOverride: boolean;
   passMark: number;
 }) {
   const [outcomes, setOutcomes] = useState<Record<string, QuestionOutcome>>(Object.fromEntries(items.map((i) => [i.id, "solid"])));
@@ -29,7 +29,7 @@ export function StageCheckForm({
   const [message, setMessage] = useState<string | null>(null);
   const [pending, start] = useTransition();
   const router = useRouter();
-  if (isLead && !isChief)
+  if (isLead && !mayOverride)
     return (
       <p className="text-caption text-ink-soft">
         You lead this student&apos;s cohort: another examiner conducts the {stageCode} stage check.

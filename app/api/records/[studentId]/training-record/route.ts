@@ -1,7 +1,7 @@
 // GET /api/records/[studentId]/training-record: the printable training record as a PDF (staff, or the student themself).
 import { route, uuidParam } from "@/lib/http/api";
 import { HttpError } from "@/lib/http/errors";
-import { trainingRecordFor } from "@/db/access/records";
+import { trainingRecordFor } from "@/db/access/records/training-record";
 import { trainingRecordPdf } from "@/lib/records/training-record-pdf";
 import { LEVEL_LABEL, OUTCOME_LABEL, CHECK_OUTCOME_LABEL } from "@/lib/records/outcome";
 import { formatInZone, hoursLabel } from "@/lib/time";

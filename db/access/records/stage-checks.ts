@@ -1,92 +1,43 @@
 import "server-only";
 import { createHash } from "node:crypto";
 import { QueryTypes, type Transaction } from "sequelize";
-import { sequelize } from "../index";
+import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
+import { can } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";
 import type { QuestionOutcome } from "@/lib/records/outcome";
-import { writeAudit } from "./audit";
-import {
-  requireStudentFor,
-  itemsOfRevision,
-  openMakeupItemIds,
-  passedStageIds,
-  isCheckInstructor,
-  tableExists,
-  RecordRefusal,
-  type StudentRef,
-  schoolFor,
-} from "./records";
-import { currentSignOffs } from "./sign-offs";
+import { requireStudentFor } from "../shared/student-scope";
+import { getSchool } from "../shared/school";
+import { writeAudit } from "./audit-chain";
+import { itemsOfRevision } from "./items";
+import { RecordRefusal } from "./refusals";
+import { stageReadiness } from "./stage-readiness";
 
-export interface StageReadiness {
-  stageId: string;
-  code: string;
-  title: string;
-  position: number;
-  itemCount: number;
-  signedCount: number;
-  openMakeups: number;
-  passed: boolean;
-  attempts: { id: string; attempt: number; result: "pass" | "fail"; occurredAt: Date; examinerName: string }[];
-  ready: boolean;
-  /** when the stage became ready: the newest sign-off of its items */
-  readySince: Date | null;
-  /** why it is not ready (when not passed) */
-  waitingFor: string | null;
+// Stage checks: who may examine, recording a check (a fail opens remedial make-up items),
+// and the chief's designation of check instructors.
+
+/** Designated check instructor (instructor_qualifications.check_instructor on any of their qualifications). */
+export async function isCheckInstructor(personId: string, t?: Transaction): Promise<boolean> {
+  const [r] = await sequelize.query<{ ok: boolean }>(
+    `SELECT EXISTS (SELECT 1 FROM instructor_qualifications WHERE person_id = :p AND check_instructor) AS ok`,
+    { replacements: { p: personId }, type: QueryTypes.SELECT, transaction: t },
+  );
+  return !!r?.ok;
 }
 
-export async function stageReadiness(student: StudentRef, t?: Transaction): Promise<StageReadiness[]> {
-  const items = await itemsOfRevision(student.revisionId, t);
-  const signed = new Map((await currentSignOffs(student.id, t)).map((s) => [s.itemId, s]));
-  const makeups = await openMakeupItemIds(student.id, t);
-  const passed = await passedStageIds(student.id, student.enrolmentId, t);
-  const attempts = await sequelize.query<{
-    id: string;
-    stage_id: string;
-    attempt: number;
-    result: "pass" | "fail";
-    occurred_at: Date;
-    examiner: string;
-  }>(
-    `SELECT s.id, s.stage_id, s.attempt, s.result, s.occurred_at, p.name AS examiner FROM stage_checks s JOIN people p ON p.id = s.examiner_id
-      WHERE s.student_id = :id AND s.enrolment_id = :e ORDER BY s.attempt`,
-    { replacements: { id: student.id, e: student.enrolmentId }, type: QueryTypes.SELECT, transaction: t },
+/** Whether this person may conduct stage checks: one who may override examiner rules, or a designated check instructor. */
+export async function mayExamine(user: CurrentUser, t?: Transaction): Promise<boolean> {
+  return can(user, "stagechecks.designate") || (await isCheckInstructor(user.id, t));
+}
+
+/** The school's active instructors and whether each is a designated check instructor. */
+export async function listCheckInstructors(schoolId: string): Promise<{ id: string; name: string; check_instructor: boolean }[]> {
+  return sequelize.query<{ id: string; name: string; check_instructor: boolean }>(
+    `SELECT p.id, p.name, bool_or(q.check_instructor) AS check_instructor FROM people p JOIN instructor_qualifications q ON q.person_id = p.id
+      WHERE p.school_id = :s AND 'instructor' = ANY(p.roles) AND p.active GROUP BY p.id, p.name ORDER BY p.name`,
+    { replacements: { s: schoolId }, type: QueryTypes.SELECT },
   );
-  const stages = [...new Map(items.map((i) => [i.stageId, i])).values()];
-  return stages.map((s) => {
-    const its = items.filter((i) => i.stageId === s.stageId);
-    const signedCount = its.filter((i) => signed.has(i.id)).length;
-    const openMakeups = its.filter((i) => makeups.has(i.id)).length;
-    const prev = stages.find((x) => x.stagePosition === s.stagePosition - 1);
-    const isPassed = passed.has(s.stageId);
-    let waitingFor: string | null = null;
-    if (!isPassed) {
-      if (prev && !passed.has(prev.stageId)) waitingFor = `the stage check of ${prev.stageCode}`;
-      else if (signedCount < its.length)
-        waitingFor = `${its.length - signedCount} item${its.length - signedCount === 1 ? "" : "s"} to sign off`;
-      else if (openMakeups > 0) waitingFor = `${openMakeups} open make-up item${openMakeups === 1 ? "" : "s"}`;
-    }
-    const ready = !isPassed && waitingFor === null;
-    const times = its.map((i) => signed.get(i.id)?.signedAt).filter((d): d is Date => !!d);
-    return {
-      stageId: s.stageId,
-      code: s.stageCode,
-      title: s.stageTitle,
-      position: s.stagePosition,
-      itemCount: its.length,
-      signedCount,
-      openMakeups,
-      passed: isPassed,
-      attempts: attempts
-        .filter((a) => a.stage_id === s.stageId)
-        .map((a) => ({ id: a.id, attempt: a.attempt, result: a.result, occurredAt: a.occurred_at, examinerName: a.examiner })),
-      ready,
-      readySince: ready && times.length ? new Date(Math.max(...times.map((d) => new Date(d).getTime()))) : null,
-      waitingFor,
-    };
-  });
 }
 
 export interface StageCheckInput {
@@ -106,8 +57,8 @@ export interface StageCheckInput {
  * note). A fail opens remedial make-up items; a recheck is possible once they are closed.
  */
 export async function conductStageCheck(t: Transaction, user: CurrentUser, input: StageCheckInput) {
-  const isChief = user.roles.includes("chief");
-  if (!isChief && !(await isCheckInstructor(user.id, t))) {
+  const mayOverride = can(user, "stagechecks.designate");
+  if (!(await mayExamine(user, t))) {
     throw new RecordRefusal(
       "examiner_not_allowed",
       "examiner: only the chief instructor or a designated check instructor may conduct stage checks",
@@ -117,7 +68,7 @@ export async function conductStageCheck(t: Transaction, user: CurrentUser, input
   const { student } = await requireStudentFor(user, input.studentId, "examiner", t);
   const override = input.overrideReason?.trim() || null;
   if (student.leadInstructorId === user.id) {
-    if (!isChief)
+    if (!mayOverride)
       throw new RecordRefusal(
         "examiner_is_lead",
         "examiner: you are this student's lead instructor; another examiner must conduct the stage check",
@@ -143,7 +94,7 @@ export async function conductStageCheck(t: Transaction, user: CurrentUser, input
   for (const o of input.oralOutcomes) {
     if (!items.some((i) => i.id === o.itemId)) throw new HttpError(400, "oralOutcomes: an item is not in this stage", "oralOutcomes");
   }
-  const school = await schoolFor(user.schoolId, t);
+  const school = await getSchool(user.schoolId, t);
   const passMark = school.settings.stageCheckPassMarkPercent;
   const written = input.writtenScorePercent ?? null;
   if (input.result === "pass") {
@@ -202,7 +153,7 @@ export async function conductStageCheck(t: Transaction, user: CurrentUser, input
   );
   if (!row) throw new HttpError(409, "stageId: another stage check of this attempt was just recorded", "stageId");
   let makeups = 0;
-  if (input.result === "fail" && (await tableExists("makeup_items", t))) {
+  if (input.result === "fail") {
     const weak = input.oralOutcomes.filter((o) => o.outcome !== "solid").map((o) => o.itemId);
     const targets = weak.length > 0 ? weak : items.map((i) => i.id);
     for (const itemId of targets) {

@@ -1,6 +1,6 @@
 import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
-import { sequelize } from "../index";
+import { sequelize } from "../../index";
 import { now } from "@/lib/clock";
 import type { CurrentUser } from "@/lib/auth/session";
 

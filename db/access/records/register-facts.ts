@@ -1,0 +1,109 @@
+import "server-only";
+import { QueryTypes } from "sequelize";
+import { sequelize } from "../../index";
+import type { CheckOutcome, QuestionOutcome } from "@/lib/records/outcome";
+import type { OralCheckFacts, SignOffFacts, StageCheckFacts } from "@/lib/records/watch-notes";
+
+// The facts behind the Sign-off register: every sign-off, stage check and oral check of the
+// school (or of one student), and the covering sessions missed without a completed make-up.
+
+export interface SignOffRow extends SignOffFacts {
+  cohort_id: string | null;
+  cohort_name: string | null;
+  stage_id: string;
+  stage_code: string;
+  item_title: string;
+  check_level: string;
+  check_outcome: CheckOutcome;
+  amended_by: string | null;
+  signature_hash: string;
+}
+
+export interface StageCheckRow extends StageCheckFacts {
+  cohort_id: string | null;
+  cohort_name: string | null;
+  stage_id: string;
+  stage_code: string;
+  stage_title: string;
+  result: "pass" | "fail";
+  written_score_percent: string | null;
+  pass_mark_percent: string;
+  attempt: number;
+  signature_hash: string;
+  oral_outcomes: { code?: string; outcome: QuestionOutcome }[];
+}
+
+export interface RegisterFacts {
+  signOffs: SignOffRow[];
+  stageChecks: StageCheckRow[];
+  oralChecks: OralCheckFacts[];
+  missedSessions: Set<string>;
+}
+
+/**
+ * Reads the register's facts of a school; with `studentId`, only that student's records (the
+ * caller's access to that student must have been checked).
+ */
+export async function registerFacts(schoolId: string, studentId: string | null = null): Promise<RegisterFacts> {
+  const replacements = { schoolId, studentId };
+  const signOffs = await sequelize.query<SignOffRow>(
+    `SELECT s.id, s.student_id, st.name AS student_name, c.id AS cohort_id, c.name AS cohort_name, g.id AS stage_id, g.code AS stage_code,
+            i.id AS item_id, i.code AS item_code, i.title AS item_title, e.course_id, s.signer_id, sp.name AS signer_name, s.signed_on, s.signed_at,
+            oc.occurred_at AS check_at, oc.level_shown AS check_level, oc.outcome AS check_outcome, s.amends_id, s.amend_reason,
+            w.reason AS withdraw_reason, (SELECT a.id FROM sign_offs a WHERE a.amends_id = s.id) AS amended_by, s.signature_hash
+       FROM sign_offs s
+       JOIN people st ON st.id = s.student_id JOIN people sp ON sp.id = s.signer_id
+       JOIN syllabus_items i ON i.id = s.syllabus_item_id JOIN syllabus_stages g ON g.id = i.stage_id
+       JOIN enrolments e ON e.id = s.enrolment_id JOIN oral_checks oc ON oc.id = s.basis_check_id
+       LEFT JOIN sign_off_withdrawals w ON w.sign_off_id = s.id
+       LEFT JOIN cohort_memberships m ON m.student_id = s.student_id AND m.to_date IS NULL LEFT JOIN cohorts c ON c.id = m.cohort_id
+      WHERE s.school_id = :schoolId AND (CAST(:studentId AS uuid) IS NULL OR s.student_id = CAST(:studentId AS uuid))
+      ORDER BY s.signed_at DESC`,
+    { replacements, type: QueryTypes.SELECT },
+  );
+  const stageChecks = await sequelize.query<StageCheckRow>(
+    `SELECT s.id, s.student_id, st.name AS student_name, c.id AS cohort_id, c.name AS cohort_name, g.id AS stage_id, g.code AS stage_code, g.title AS stage_title,
+            s.examiner_id, ep.name AS examiner_name, s.lead_instructor_id, s.override_reason, s.result, s.written_score_percent, s.pass_mark_percent,
+            s.occurred_at, s.recorded_at, s.attempt, s.signature_hash, s.oral_outcomes
+       FROM stage_checks s JOIN people st ON st.id = s.student_id JOIN people ep ON ep.id = s.examiner_id JOIN syllabus_stages g ON g.id = s.stage_id
+       LEFT JOIN cohort_memberships m ON m.student_id = s.student_id AND m.to_date IS NULL LEFT JOIN cohorts c ON c.id = m.cohort_id
+      WHERE s.school_id = :schoolId AND (CAST(:studentId AS uuid) IS NULL OR s.student_id = CAST(:studentId AS uuid))
+      ORDER BY s.recorded_at DESC`,
+    { replacements, type: QueryTypes.SELECT },
+  );
+  const oralChecks = await sequelize.query<OralCheckFacts>(
+    `SELECT c.id, c.student_id, st.name AS student_name, c.occurred_at, c.recorded_at, c.amends_id, c.amend_reason, w.reason AS withdraw_reason, w.withdrawn_at,
+            (SELECT array_agg(DISTINCT q.item_code) FROM oral_check_questions q WHERE q.check_id = c.id AND q.outcome = 'not_yet') AS not_yet_items
+       FROM oral_checks c JOIN people st ON st.id = c.student_id LEFT JOIN oral_check_withdrawals w ON w.check_id = c.id
+      WHERE c.school_id = :schoolId AND (CAST(:studentId AS uuid) IS NULL OR c.student_id = CAST(:studentId AS uuid))
+      ORDER BY c.occurred_at`,
+    { replacements, type: QueryTypes.SELECT },
+  );
+  const missed = await sequelize.query<{ student_id: string; item_id: string }>(
+    `SELECT DISTINCT g.student_id, x.item_id FROM ground_log_current g CROSS JOIN LATERAL unnest(g.syllabus_item_ids) AS x(item_id)
+      WHERE g.school_id = :schoolId AND g.status IN ('absent','absent_excused')
+        AND (CAST(:studentId AS uuid) IS NULL OR g.student_id = CAST(:studentId AS uuid))
+        AND NOT EXISTS (SELECT 1 FROM makeup_items mi WHERE mi.student_id = g.student_id AND mi.syllabus_item_id = x.item_id AND mi.state = 'done')`,
+    { replacements, type: QueryTypes.SELECT },
+  );
+  return { signOffs, stageChecks, oralChecks, missedSessions: new Set(missed.map((r) => `${r.student_id}:${r.item_id}`)) };
+}
+
+/** The register's filter choices. */
+export async function registerFilterOptions(schoolId: string) {
+  const instructors = await sequelize.query<{ id: string; name: string }>(
+    `SELECT id, name FROM people WHERE school_id = :schoolId AND roles && ARRAY['instructor','chief']::text[] ORDER BY name`,
+    { replacements: { schoolId }, type: QueryTypes.SELECT },
+  );
+  const cohorts = await sequelize.query<{ id: string; name: string }>(
+    `SELECT id, name FROM cohorts WHERE school_id = :schoolId ORDER BY name`,
+    { replacements: { schoolId }, type: QueryTypes.SELECT },
+  );
+  const stages = await sequelize.query<{ id: string; label: string }>(
+    `SELECT g.id, co.code || ' r' || r.number || ' · ' || g.code || ' ' || g.title AS label
+       FROM syllabus_stages g JOIN syllabus_revisions r ON r.id = g.revision_id JOIN courses co ON co.id = r.course_id
+      WHERE co.school_id = :schoolId ORDER BY co.code, r.number, g.position`,
+    { replacements: { schoolId }, type: QueryTypes.SELECT },
+  );
+  return { instructors, cohorts, stages };
+}
