@@ -48,3 +48,24 @@ export function studentScopeFor(roles: readonly Role[], purpose: ScopePurpose): 
     sponsored: flags && (selfPurpose || purpose === "mail") && rolesAllow(roles, "students.sponsored") ? flags : null,
   };
 }
+
+/**
+ * What a Weekly letter carries, section by section: the sponsor_links flags that must all be set
+ * for the section to be read at all (the letter reaches a sponsor by purpose `mail`). The progress
+ * and schedule sections follow the same flags as those purposes.
+ */
+export const WEEKLY_LETTER_SECTION_FLAGS = {
+  attendance: ["shares_attendance"],
+  hours: ["shares_hours"],
+  progress: SPONSOR_SHARE_FLAGS.progress ?? [],
+  nextWeek: SPONSOR_SHARE_FLAGS.schedule ?? [],
+} as const satisfies Record<string, readonly string[]>;
+
+export type WeeklyLetterSection = keyof typeof WEEKLY_LETTER_SECTION_FLAGS;
+
+/** The sections a letter carries, given the sponsor link's flags (a missing flag counts as not shared). */
+export function weeklyLetterSections(flags: Readonly<Record<string, boolean | undefined>>): Record<WeeklyLetterSection, boolean> {
+  const open = (s: WeeklyLetterSection) =>
+    WEEKLY_LETTER_SECTION_FLAGS[s].length > 0 && WEEKLY_LETTER_SECTION_FLAGS[s].every((f) => !!flags[f]);
+  return { attendance: open("attendance"), hours: open("hours"), progress: open("progress"), nextWeek: open("nextWeek") };
+}

@@ -1,7 +1,6 @@
 import "server-only";
-import { QueryTypes } from "sequelize";
 import type { Transporter } from "nodemailer";
-import { sequelize } from "@/db/index";
+import { OutboxRowBusy, recordFailedAttempt, sendOutboxRowOnce } from "@/db/access/mail/delivery";
 import { env } from "@/lib/env";
 import { now } from "@/lib/clock";
 import { oneLine } from "./layout";
@@ -23,21 +22,6 @@ function crashIfAsked(point: CrashPoint, idempotencyKey: string): void {
   process.kill(process.pid, "SIGKILL");
 }
 
-interface OutboxRow {
-  id: string;
-  idempotency_key: string;
-  state: string;
-  to_address: string;
-  subject: string;
-  body_text: string;
-  body_html: string;
-  headers: Record<string, string>;
-  message_id: string;
-  attempts: number;
-  school_name: string;
-  sender_name: string | null;
-}
-
 export type DeliveryOutcome = "sent" | "skipped";
 
 /**
@@ -53,59 +37,24 @@ export type DeliveryOutcome = "sent" | "skipped";
 export async function deliverOutboxMail(outboxId: string, opts: { transport: Transporter; final: boolean }): Promise<DeliveryOutcome> {
   let outcome: { state: DeliveryOutcome; key: string };
   try {
-    outcome = await sequelize.transaction(async (t) => {
-      const [row] = await sequelize.query<OutboxRow>(
-        `SELECT o.id, o.idempotency_key, o.state, o.to_address, o.subject, o.body_text, o.body_html, o.headers, o.message_id, o.attempts,
-                s.name AS school_name, s.settings->>'mailSenderName' AS sender_name
-           FROM outbox o JOIN schools s ON s.id = o.school_id
-          WHERE o.id = :id FOR UPDATE OF o SKIP LOCKED`,
-        { replacements: { id: outboxId }, type: QueryTypes.SELECT, transaction: t },
-      );
-      if (!row) {
-        const [exists] = await sequelize.query<{ state: string }>(`SELECT state FROM outbox WHERE id = :id`, {
-          replacements: { id: outboxId },
-          type: QueryTypes.SELECT,
-          transaction: t,
-        });
-        if (!exists) return { state: "skipped" as const, key: "" }; // gone: nothing to send
-        throw new Error("outbox row is being sent by another worker"); // retried later
-      }
-      if (row.state !== "queued") return { state: "skipped" as const, key: row.idempotency_key };
-      crashIfAsked("before-send", row.idempotency_key);
-      const senderName = oneLine(row.sender_name?.trim() || row.school_name);
+    outcome = await sendOutboxRowOnce(outboxId, async (row) => {
+      crashIfAsked("before-send", row.idempotencyKey);
+      const senderName = oneLine(row.senderName?.trim() || row.schoolName);
       const info = await opts.transport.sendMail({
         from: { name: senderName, address: env().MAIL_FROM_ADDRESS },
-        to: row.to_address,
+        to: row.toAddress,
         subject: row.subject,
-        text: row.body_text,
-        html: row.body_html,
-        messageId: row.message_id,
+        text: row.bodyText,
+        html: row.bodyHtml,
+        messageId: row.messageId,
         date: now(),
         headers: { "Auto-Submitted": "auto-generated", ...row.headers },
       });
-      crashIfAsked("after-accept", row.idempotency_key);
-      await sequelize.query(`UPDATE outbox SET state = 'sent', sent_at = :at, attempts = attempts + 1, last_error = NULL WHERE id = :id`, {
-        replacements: { id: row.id, at: now() },
-        transaction: t,
-      });
-      await sequelize.query(
-        `INSERT INTO mail_deliveries (outbox_id, message_id, smtp_response, attempts) VALUES (:id, :mid, :resp, :attempts)`,
-        {
-          replacements: { id: row.id, mid: row.message_id, resp: String(info.response ?? "").slice(0, 500), attempts: row.attempts + 1 },
-          transaction: t,
-        },
-      );
-      return { state: "sent" as const, key: row.idempotency_key };
+      crashIfAsked("after-accept", row.idempotencyKey);
+      return { response: String(info.response ?? "") };
     });
   } catch (e) {
-    const message = e instanceof Error ? e.message : String(e);
-    if (!message.startsWith("outbox row is being sent")) {
-      await sequelize.query(
-        `UPDATE outbox SET attempts = attempts + 1, last_error = :err, state = CASE WHEN :final THEN 'failed' ELSE state END
-          WHERE id = :id AND state = 'queued'`,
-        { replacements: { id: outboxId, err: message.slice(0, 1000), final: opts.final } },
-      );
-    }
+    if (!(e instanceof OutboxRowBusy)) await recordFailedAttempt(outboxId, e instanceof Error ? e.message : String(e), opts.final);
     throw e;
   }
   if (outcome.state === "sent") crashIfAsked("after-commit", outcome.key);

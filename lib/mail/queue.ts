@@ -1,8 +1,7 @@
 import "server-only";
 import PgBoss from "pg-boss";
-import type { Transaction } from "sequelize";
-import { QueryTypes } from "sequelize";
-import { sequelize } from "@/db/index";
+import type { Transaction } from "@/db/access/mail/connection";
+import { handOverDueMail } from "@/db/access/mail/queue-handover";
 import { env } from "@/lib/env";
 import type { MailConfig } from "./config";
 
@@ -55,32 +54,15 @@ function txDb(t: Transaction) {
  * Returns how many rows were moved.
  */
 export async function moveDueToQueue(boss: PgBoss, at: Date, cfg: MailConfig): Promise<number> {
-  return sequelize.transaction(async (t) => {
-    const rows = await sequelize.query<{ id: string }>(
-      `SELECT o.id FROM outbox o LEFT JOIN mail_jobs m ON m.outbox_id = o.id
-        WHERE o.state = 'queued' AND o.due_at <= :at
-          AND (m.outbox_id IS NULL OR NOT EXISTS (
-                SELECT 1 FROM ${BOSS_SCHEMA}.job j
-                 WHERE j.name = :q AND j.id = m.job_id AND j.state IN ('created','retry','active')))
-        ORDER BY o.due_at LIMIT 500
-        FOR UPDATE OF o SKIP LOCKED`,
-      { replacements: { at, q: MAIL_QUEUE }, type: QueryTypes.SELECT, transaction: t },
-    );
-    for (const r of rows) {
-      const jobId = await boss.send(MAIL_QUEUE, { outboxId: r.id } satisfies MailJob, {
-        db: txDb(t),
-        retryLimit: cfg.CHALKWING_MAIL_RETRY_LIMIT,
-        retryDelay: cfg.CHALKWING_MAIL_RETRY_DELAY,
-        retryBackoff: true,
-        expireInSeconds: cfg.CHALKWING_MAIL_JOB_EXPIRE_SECONDS,
-      });
-      if (!jobId) throw new Error("queue refused the job");
-      await sequelize.query(
-        `INSERT INTO mail_jobs (outbox_id, job_id) VALUES (:o, :j)
-         ON CONFLICT (outbox_id) DO UPDATE SET job_id = EXCLUDED.job_id, queued_at = now()`,
-        { replacements: { o: r.id, j: jobId }, transaction: t },
-      );
-    }
-    return rows.length;
+  return handOverDueMail(at, { name: MAIL_QUEUE, schema: BOSS_SCHEMA }, async (outboxId, t) => {
+    const jobId = await boss.send(MAIL_QUEUE, { outboxId } satisfies MailJob, {
+      db: txDb(t),
+      retryLimit: cfg.CHALKWING_MAIL_RETRY_LIMIT,
+      retryDelay: cfg.CHALKWING_MAIL_RETRY_DELAY,
+      retryBackoff: true,
+      expireInSeconds: cfg.CHALKWING_MAIL_JOB_EXPIRE_SECONDS,
+    });
+    if (!jobId) throw new Error("queue refused the job");
+    return jobId;
   });
 }

@@ -3,7 +3,7 @@
 // (reminders, overdue reminders, Weekly letters) into the outbox, then due outbox rows move into
 // the pg-boss queue; the queue's handler sends each over SMTP (retries with backoff).
 import type PgBoss from "pg-boss";
-import { sequelize } from "@/db/index";
+import { closeDatabase } from "@/db/access/mail/connection";
 import { now } from "@/lib/clock";
 import { mailConfig } from "./config";
 import { deliverOutboxMail } from "./deliver";
@@ -60,7 +60,7 @@ async function main() {
     clearInterval(timer);
     await boss.stop({ graceful: true, wait: true, timeout: 10_000 }).catch(() => undefined);
     transport.close();
-    await sequelize.close().catch(() => undefined);
+    await closeDatabase().catch(() => undefined);
     process.exit(0);
   };
   process.on("SIGTERM", () => void stop());

@@ -2,7 +2,8 @@
 import { revalidatePath } from "next/cache";
 import { runAction } from "@/lib/actions/run-action";
 import { retryMailSchema, sponsorNoteSchema } from "@/lib/mail/schemas";
-import { addSponsorNote, retryFailedMail } from "@/db/access/mail";
+import { addSponsorNote } from "@/db/access/mail/sponsor-notes";
+import { retryFailedMail } from "@/db/access/mail/outbox-list";
 
 /** Puts a failed mail of the caller's school back in the queue. */
 export async function retryMailAction(input: unknown) {

@@ -3,9 +3,12 @@ import Link from "next/link";
 import { z } from "zod";
 import { simpleParser } from "mailparser";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { listOutbox, listTray, mailTrayEnabled, readTrayMessage } from "@/db/access/mail";
+import { listOutbox } from "@/db/access/mail/outbox-list";
+import { listTray, mailTrayEnabled, readTrayMessage } from "@/db/access/mail/tray";
 import { getSchool } from "@/db/access/shared/school";
 import { formatInZone } from "@/lib/time";
+import { MAIL_KIND_WORDS, words } from "@/lib/labels";
+import { decodeHeaderWords } from "@/lib/mail/mime-words";
 import { OutboxTable } from "./_components/outbox-table";
 import { MailTabs } from "./_components/mail-tabs";
 
@@ -39,7 +42,10 @@ export default async function MailTrayPage({ searchParams }: { searchParams: Pro
     );
   }
   const parsedQuery = query.safeParse(await searchParams);
-  const messages = await listTray(user.schoolId);
+  // the sink's index keeps each subject as it travelled (RFC 2047 words); show it as recipients read it
+  const messages = await Promise.all(
+    (await listTray(user.schoolId)).map(async (m) => ({ ...m, subject: await decodeHeaderWords(m.subject) })),
+  );
   const selectedId = (parsedQuery.success ? parsedQuery.data.m : undefined) ?? messages[0]?.id;
   const selected = selectedId ? await readTrayMessage(user.schoolId, selectedId) : null;
   const mail = selected ? await simpleParser(selected.raw) : null;
@@ -72,9 +78,9 @@ export default async function MailTrayPage({ searchParams }: { searchParams: Pro
                     aria-current={m.id === selectedId ? "true" : undefined}
                     className={`block min-h-touch px-4 py-2 no-underline hover:bg-paper-deep ${m.id === selectedId ? "bg-wing-50" : ""}`}
                   >
-                    <span className="block font-semibold text-ink">{m.subject || "(no subject)"}</span>
+                    <span className="block font-semibold text-ink [overflow-wrap:anywhere]">{m.subject || "(no subject)"}</span>
                     <span className="block break-all text-caption text-ink-soft">
-                      {m.envelopeTo.join(", ")} · {m.kind} · <span className="num">{when(m.receivedAt)}</span>
+                      {m.envelopeTo.join(", ")} · {words(MAIL_KIND_WORDS, m.kind)} · <span className="num">{when(m.receivedAt)}</span>
                     </span>
                   </Link>
                 </li>
@@ -86,7 +92,7 @@ export default async function MailTrayPage({ searchParams }: { searchParams: Pro
               <p>That message is not in the tray.</p>
             ) : (
               <>
-                <h2 id="tray-message" className="text-title break-words">
+                <h2 id="tray-message" className="text-title [overflow-wrap:anywhere]">
                   {mail.subject}
                 </h2>
                 <dl className="grid grid-cols-[auto_minmax(0,1fr)] gap-x-4 gap-y-1 text-caption">

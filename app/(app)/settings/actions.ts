@@ -2,7 +2,7 @@
 import { revalidatePath } from "next/cache";
 import { runAction } from "@/lib/actions/run-action";
 import { schoolSettingsSchema } from "@/lib/mail/schemas";
-import { updateSchoolSettings } from "@/db/access/mail-settings";
+import { updateSchoolSettings } from "@/db/access/mail/school-settings";
 
 /** Saves the school's settings: mail sender, reminder lead time, letter day and the record limits. */
 export async function saveSchoolSettingsAction(input: unknown) {

@@ -1,6 +1,6 @@
 // POST /api/unsubscribe: stop one kind of mail for one sponsor and student (RFC 8058 one-click, or the confirmation form)
 import { NextResponse, type NextRequest } from "next/server";
-import { applyUnsubscribe } from "@/db/access/mail-unsubscribe";
+import { applyUnsubscribe } from "@/db/access/mail/unsubscribe";
 import { apiError, errorResponse } from "@/lib/http/api";
 
 // Public by design: the signed token (HMAC, bound to sponsor, student and kind) is the credential.

@@ -3,7 +3,7 @@
 import { randomUUID } from "node:crypto";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
-import { enqueueMail } from "@/db/access/outbox";
+import { enqueueMail } from "@/db/access/mail/outbox";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
 
 afterAll(closeDb);

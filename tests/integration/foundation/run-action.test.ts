@@ -6,7 +6,7 @@ import { QueryTypes } from "sequelize";
 import { z } from "zod";
 import { sequelize } from "@/db/index";
 import { runAction } from "@/lib/actions/run-action";
-import { enqueueMail } from "@/db/access/outbox";
+import { enqueueMail } from "@/db/access/mail/outbox";
 import { HttpError } from "@/lib/http/errors";
 import { makeSchool, closeDb, actAs } from "@/tests/helpers/factories";
 

@@ -2,9 +2,9 @@
 import { randomUUID } from "node:crypto";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
-import { enqueueMail } from "@/db/access/outbox";
-import { createSetPasswordLink, inspectSetPasswordToken } from "@/db/access/set-password";
-import { attemptSignIn } from "@/db/access/sign-in";
+import { enqueueMail } from "@/db/access/mail/outbox";
+import { createSetPasswordLink, inspectSetPasswordToken } from "@/db/access/mail/set-password";
+import { attemptSignIn } from "@/db/access/people/sign-in";
 import { fixedClock, resetClock } from "@/lib/clock";
 import { saveSchoolSettingsAction } from "@/app/(app)/settings/actions";
 import { addSponsorNoteAction, retryMailAction } from "@/app/(app)/mail/actions";

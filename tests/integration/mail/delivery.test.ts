@@ -4,7 +4,7 @@
 import { randomUUID } from "node:crypto";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
-import { enqueueMail, messageIdFor } from "@/db/access/outbox";
+import { enqueueMail, messageIdFor } from "@/db/access/mail/outbox";
 import { composeMail } from "@/lib/mail/compose";
 import { closeDb, makeSchool } from "../../helpers/factories";
 import { deliveriesOf, freePort, outboxRow, parseStored, spawnWorker, testSink, waitFor, type WorkerProcess } from "./helpers";

@@ -9,7 +9,7 @@ import { runDueWork } from "@/lib/mail/producers";
 import { deliverOutboxMail } from "@/lib/mail/deliver";
 import { smtpTransport } from "@/lib/mail/transport";
 import { signUnsubscribe } from "@/lib/mail/unsubscribe-token";
-import { inspectUnsubscribe } from "@/db/access/mail-unsubscribe";
+import { inspectUnsubscribe } from "@/db/access/mail/unsubscribe";
 import { POST as unsubscribePOST } from "@/app/api/unsubscribe/route";
 import { closeDb, makeSchool } from "../../helpers/factories";
 import { makeBriefing, makeSession, moveSession, parseStored, testSink } from "./helpers";

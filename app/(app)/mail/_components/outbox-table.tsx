@@ -1,7 +1,8 @@
-import type { OutboxListRow, OutboxState } from "@/db/access/mail";
+import type { OutboxListRow, OutboxState } from "@/db/access/mail/outbox-list";
 import { formatInZone } from "@/lib/time";
 import { RetryButton } from "./retry-button";
 import { ScrollArea } from "@/components/ui/scroll-area";
+import { MAIL_KIND_WORDS, MAIL_STATE_WORDS, words } from "@/lib/labels";
 
 const STATE_STYLE: Record<OutboxState, string> = {
   queued: "bg-wing-50 text-wing-800",
@@ -11,7 +12,9 @@ const STATE_STYLE: Record<OutboxState, string> = {
 };
 
 export function StateBadge({ state }: { state: OutboxState }) {
-  return <span className={`inline-block rounded px-2 py-0.5 text-caption font-semibold ${STATE_STYLE[state]}`}>{state}</span>;
+  return (
+    <span className={`inline-block rounded px-2 py-0.5 text-caption font-semibold ${STATE_STYLE[state]}`}>{MAIL_STATE_WORDS[state]}</span>
+  );
 }
 
 /** The outbox as a table: state in words (never colour alone), attempts, error, and a retry for failed mail. */
@@ -39,7 +42,7 @@ export function OutboxTable({ rows, timeZone }: { rows: OutboxListRow[]; timeZon
               <td>
                 <StateBadge state={r.state} />
               </td>
-              <td className="whitespace-nowrap">{r.kind}</td>
+              <td className="whitespace-nowrap">{words(MAIL_KIND_WORDS, r.kind)}</td>
               <td className="break-all">{r.to}</td>
               <td>{r.subject}</td>
               <td className="num whitespace-nowrap">{when(r.dueAt)}</td>

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { requirePagePermission, can } from "@/lib/auth/guard";
-import { recentNotes, studentsForNotes } from "@/db/access/mail";
+import { recentNotes, studentsForNotes } from "@/db/access/mail/sponsor-notes";
 import { getSchool } from "@/db/access/shared/school";
 import { formatInZone } from "@/lib/time";
 import { MailTabs } from "../_components/mail-tabs";

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { z } from "zod";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { OUTBOX_STATES, listOutbox, outboxCounts } from "@/db/access/mail";
+import { OUTBOX_STATES, listOutbox, outboxCounts } from "@/db/access/mail/outbox-list";
 import { getSchool } from "@/db/access/shared/school";
 import { OutboxTable } from "../_components/outbox-table";
 import { MailTabs } from "../_components/mail-tabs";

@@ -1,6 +1,6 @@
 "use server";
 import { z } from "zod";
-import { redeemSetPasswordToken } from "@/db/access/set-password";
+import { redeemSetPasswordToken } from "@/db/access/mail/set-password";
 import type { ActionResult } from "@/lib/actions/run-action";
 
 const schema = z.object({

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { Wordmark } from "@/components/wordmark";
-import { inspectSetPasswordToken } from "@/db/access/set-password";
+import { inspectSetPasswordToken } from "@/db/access/mail/set-password";
 import { MAX_PASSWORD_BYTES, MIN_PASSWORD_LENGTH } from "@/lib/auth/password";
 import { SetPasswordForm } from "./_components/set-password-form";
 

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { Wordmark } from "@/components/wordmark";
-import { inspectUnsubscribe, unsubscribeKindLabel } from "@/db/access/mail-unsubscribe";
+import { inspectUnsubscribe, unsubscribeKindLabel } from "@/db/access/mail/unsubscribe";
 
 export const metadata: Metadata = { title: "Stop a mail", referrer: "no-referrer" };
 export const dynamic = "force-dynamic";

@@ -1,7 +1,7 @@
 import "server-only";
 import { createHash, randomBytes } from "node:crypto";
 import { QueryTypes, type Transaction } from "sequelize";
-import { sequelize } from "../index";
+import { sequelize } from "../../index";
 import { now } from "@/lib/clock";
 import { hashPassword, passwordProblem } from "@/lib/auth/password";
 import { appLink } from "@/lib/mail/compose";

@@ -1,7 +1,7 @@
 import "server-only";
 import { createHash } from "node:crypto";
 import type { Transaction } from "sequelize";
-import { sequelize } from "../index";
+import { sequelize } from "../../index";
 import { now } from "@/lib/clock";
 
 export interface OutboxMail {

@@ -1,7 +1,7 @@
 import "server-only";
 import type { Transaction } from "sequelize";
-import { sequelize } from "../index";
-import type { SchoolSettings } from "../models";
+import { sequelize } from "../../index";
+import type { SchoolSettings } from "../../models";
 
 /** Merges the given settings into the school's settings (other keys are kept). */
 export async function updateSchoolSettings(schoolId: string, settings: SchoolSettings, t: Transaction): Promise<void> {

@@ -1,6 +1,6 @@
 import "server-only";
 import { QueryTypes } from "sequelize";
-import { sequelize } from "../index";
+import { sequelize } from "../../index";
 import { verifyUnsubscribe, type UnsubscribeClaim } from "@/lib/mail/unsubscribe-token";
 
 export interface UnsubscribeView {
