@@ -5,6 +5,11 @@ import { HttpError, requirePermission } from "@/lib/auth/guard";
 import { hasSessionCookie, type CurrentUser } from "@/lib/auth/session";
 import type { Permission } from "@/lib/auth/permissions";
 import { env } from "@/lib/env";
+import { installUserWords } from "@/lib/validation/messages";
+
+// zod issues a schema did not word itself read as plain English (the JSON still names the field)
+installUserWords();
+import { findUnsafeText } from "@/lib/validation/text";
 
 /** One error shape for the whole API: `{ error: { status, message, field? } }`. */
 export function apiError(status: number, message: string, field?: string) {
@@ -64,6 +69,12 @@ export function errorResponse(e: unknown): Response {
   return apiError(500, "Something went wrong on our side");
 }
 
+/** NUL or a lone surrogate anywhere in the input is a 400 naming the field (lib/validation/text.ts). */
+function refuseUnsafeText(value: unknown): void {
+  const unsafe = findUnsafeText(value);
+  if (unsafe) throw new HttpError(400, `${unsafe.field}: ${unsafe.message}`, unsafe.field);
+}
+
 /** Query parameters validated with zod; a bad one is a 400 naming it. */
 export function parseQuery<S extends z.ZodType>(req: Request, schema: S): z.output<S> {
   const url = new URL(req.url);
@@ -71,6 +82,7 @@ export function parseQuery<S extends z.ZodType>(req: Request, schema: S): z.outp
   url.searchParams.forEach((v, k) => {
     raw[k] = v;
   });
+  refuseUnsafeText(raw);
   const r = schema.safeParse(raw);
   if (!r.success) throw zodFieldError(r.error);
   return r.data;
@@ -83,6 +95,7 @@ export async function parseJsonBody<S extends z.ZodType>(req: Request, schema: S
   } catch {
     throw new HttpError(400, "body: not valid JSON", "body");
   }
+  refuseUnsafeText(body);
   const r = schema.safeParse(body);
   if (!r.success) throw zodFieldError(r.error);
   return r.data;

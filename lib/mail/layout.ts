@@ -1,4 +1,5 @@
 import { formatInZone } from "@/lib/time";
+import { stripBidiControls } from "@/lib/validation/text";
 
 /**
  * Chalkwing's own mail layout: one centred table, inline styles only, no images, no
@@ -30,7 +31,7 @@ export function esc(value: unknown): string {
 
 /** Header values must stay on one line: CR/LF in a name would otherwise inject headers. */
 export function oneLine(value: string): string {
-  return value
+  return stripBidiControls(value)
     .replace(/[\r\n\t]+/g, " ")
     .replace(/\s{2,}/g, " ")
     .trim();
@@ -164,5 +165,6 @@ ${footHtml}
   parts.push("--");
   for (const b of footer) if (b.text) parts.push(b.text);
   parts.push(`Sent by ${school.name} ground school through Chalkwing.`);
-  return { html, text: parts.join("\n") + "\n" };
+  // bidirectional controls from any name or note never reach a mail (lib/validation/text.ts)
+  return { html: stripBidiControls(html), text: stripBidiControls(parts.join("\n") + "\n") };
 }

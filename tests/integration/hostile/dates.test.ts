@@ -70,7 +70,7 @@ describe("scheduling a session", () => {
     actAs(s.as.chief);
     const [sessions, mail] = [await sessionsOf(), await mailOf()];
     const res = await scheduleSessionAction(scheduleInput({ date: value }));
-    expect(res).toMatchObject({ ok: false, status: 400, message: `date: ${message}`, fieldErrors: { date: [message] } });
+    expect(res).toMatchObject({ ok: false, status: 400, message: expect.stringContaining(message), fieldErrors: { date: [message] } });
     expect(await sessionsOf()).toBe(sessions);
     expect(await mailOf()).toBe(mail);
   });
@@ -109,7 +109,7 @@ describe("rescheduling a session", () => {
       instructorId: s.people.instructor.id,
       idempotencyKey: randomUUID(),
     });
-    expect(res).toMatchObject({ ok: false, status: 400, message: `date: ${message}` });
+    expect(res).toMatchObject({ ok: false, status: 400, message: expect.stringContaining(message), fieldErrors: { date: [message] } });
     expect(await mailOf()).toBe(mail);
     const [row] = await sequelize.query<{ starts: string }>(
       `SELECT to_char(starts_at AT TIME ZONE 'Europe/London', 'YYYY-MM-DD HH24:MI') AS starts FROM training_sessions WHERE id = :id`,
@@ -129,7 +129,7 @@ describe("moving a student to another cohort (a membership date)", () => {
       count(`SELECT count(*)::int AS n FROM cohort_memberships WHERE student_id = :st`, { st: s.people.students[1]!.id });
     const before = await members();
     const res = await moveStudentAction({ studentId: s.people.students[1]!.id, toCohortId: s.cohorts.b.id, onDate: value });
-    expect(res).toMatchObject({ ok: false, status: 400, message: `onDate: ${message}`, fieldErrors: { onDate: [message] } });
+    expect(res).toMatchObject({ ok: false, status: 400, message: expect.stringContaining(message), fieldErrors: { onDate: [message] } });
     expect(await members()).toBe(before);
   });
 });
