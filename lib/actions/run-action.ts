@@ -5,6 +5,7 @@ import { sequelize } from "@/db/index";
 import { HttpError, requirePermission } from "@/lib/auth/guard";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { Permission } from "@/lib/auth/permissions";
+import { findUnsafeText } from "@/lib/validation/text";
 
 export type ActionFailure = {
   ok: false;
@@ -54,6 +55,9 @@ export async function runAction<S extends z.ZodType, T>(
     if (e instanceof HttpError) return { ok: false, status: e.status as 401 | 403, message: e.message };
     throw e;
   }
+  const unsafe = findUnsafeText(input);
+  if (unsafe)
+    return { ok: false, status: 400, message: `${unsafe.field}: ${unsafe.message}`, fieldErrors: { [unsafe.field]: [unsafe.message] } };
   const parsed = schema.safeParse(input);
   if (!parsed.success) {
     const fieldErrors = fieldErrorsOf(parsed.error);
