@@ -9,6 +9,7 @@ import { now } from "@/lib/clock";
 import { AddStudentForm } from "./_components/add-student-form";
 import { RosterImport } from "./_components/roster-import";
 import { MoveStudent } from "./_components/move-student";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 export const metadata: Metadata = { title: "Roster" };
 export const dynamic = "force-dynamic";
@@ -41,7 +42,7 @@ export default async function RosterPage() {
                 <span className="num">{members.length}</span> students
               </span>
             </h2>
-            <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label={`${c.name} students, scrolls sideways`}>
+            <ScrollArea label={`${c.name} students, scrolls sideways`} className="mt-2">
               <table className="data-table">
                 <thead>
                   <tr>
@@ -85,7 +86,7 @@ export default async function RosterPage() {
                   )}
                 </tbody>
               </table>
-            </div>
+            </ScrollArea>
           </section>
         );
       })}

@@ -13,6 +13,7 @@ import {
 } from "@/lib/timetable/schema";
 import type { AttendanceSheetLine } from "@/db/access/ground-log/attendance-sheet";
 import { recordAttendanceAction, amendEntryAction } from "../actions";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 type In = z.input<typeof recordAttendanceSchema>;
 type Out = z.output<typeof recordAttendanceSchema>;
@@ -158,7 +159,7 @@ export function AttendanceSheet({
         )}
       </div>
       {done.length > 0 && (
-        <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Recorded attendance, scrolls sideways">
+        <ScrollArea label="Recorded attendance, scrolls sideways">
           <table className="data-table" data-testid="attendance-recorded">
             <caption className="sr-only">Recorded attendance</caption>
             <thead>
@@ -196,7 +197,7 @@ export function AttendanceSheet({
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollArea>
       )}
     </section>
   );

@@ -3,6 +3,7 @@ import Link from "next/link";
 import { useState } from "react";
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import type { SessionRow } from "@/db/access/timetable/list-sessions";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 interface Page {
   rows: SessionRow[];
@@ -154,7 +155,7 @@ export function SessionsTable({
           </p>
         )}
       </div>
-      <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Sessions, scrolls sideways">
+      <ScrollArea label="Sessions, scrolls sideways">
         <table className="data-table" data-testid="sessions-table">
           <thead>
             <tr>
@@ -200,7 +201,7 @@ export function SessionsTable({
             )}
           </tbody>
         </table>
-      </div>
+      </ScrollArea>
       {data && (
         <nav aria-label="Pages" className="flex flex-wrap items-center gap-3">
           <button
