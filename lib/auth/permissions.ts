@@ -75,3 +75,8 @@ export function rolesAllow(roles: readonly Role[], permission: Permission): bool
   const allowed: readonly Role[] = PERMISSIONS[permission].roles;
   return roles.some((r) => allowed.includes(r));
 }
+
+/** The roles that hold a permission (for data queries that pick people by what they may do, e.g. who may teach a session). */
+export function rolesWith(permission: Permission): Role[] {
+  return [...PERMISSIONS[permission].roles];
+}

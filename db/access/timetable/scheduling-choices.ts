@@ -2,6 +2,7 @@ import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
+import { TEACHING_ROLES } from "./session-people";
 
 type Db = { transaction?: Transaction };
 
@@ -16,8 +17,8 @@ export async function schedulingChoices(user: CurrentUser, db: Db = {}) {
       rep,
     ),
     sequelize.query<{ id: string; name: string }>(
-      `SELECT id, name FROM people WHERE school_id = :s AND active AND roles && ARRAY['instructor','chief']::text[] ORDER BY name`,
-      rep,
+      `SELECT id, name FROM people WHERE school_id = :s AND active AND roles && ARRAY[:teachers]::text[] ORDER BY name`,
+      { ...rep, replacements: { ...rep.replacements, teachers: TEACHING_ROLES } },
     ),
     sequelize.query<{ id: string; name: string }>(`SELECT id, name FROM cohorts WHERE school_id = :s ORDER BY starts_on, name`, rep),
     sequelize.query<{ id: string; name: string }>(

@@ -2,11 +2,15 @@ import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { HttpError } from "@/lib/http/errors";
+import { rolesWith } from "@/lib/auth/permissions";
+
+/** Who may teach a session: people whose roles may record its attendance. */
+export const TEACHING_ROLES = rolesWith("attendance.record");
 
 export async function requireInstructor(schoolId: string, personId: string, t: Transaction) {
   const [p] = await sequelize.query<{ id: string; name: string }>(
-    `SELECT id, name FROM people WHERE id = :id AND school_id = :s AND active AND roles && ARRAY['instructor','chief']::text[]`,
-    { replacements: { id: personId, s: schoolId }, type: QueryTypes.SELECT, transaction: t },
+    `SELECT id, name FROM people WHERE id = :id AND school_id = :s AND active AND roles && ARRAY[:teachers]::text[]`,
+    { replacements: { id: personId, s: schoolId, teachers: TEACHING_ROLES }, type: QueryTypes.SELECT, transaction: t },
   );
   if (!p) throw new HttpError(404, "instructorId: no such instructor at this school", "instructorId");
   return p;

@@ -5,6 +5,7 @@ import { scheduleSession } from "@/db/access/timetable/schedule-session";
 import { rescheduleSession } from "@/db/access/timetable/reschedule-session";
 import { cancelSession } from "@/db/access/timetable/cancel-session";
 import { listSessions } from "@/db/access/timetable/list-sessions";
+import { schedulingChoices } from "@/db/access/timetable/scheduling-choices";
 import { scheduleSessionSchema } from "@/lib/timetable/schema";
 import { HttpError } from "@/lib/http/errors";
 import { formatInZone } from "@/lib/time";
@@ -282,5 +283,29 @@ describe("who sees which sessions", () => {
         .sort();
     expect(mine.rows.map((r) => r.id).sort()).toEqual(await attendeeOf(s.people.students[0]!.id));
     expect(theirs.rows.map((r) => r.id).sort()).toEqual(await attendeeOf(s.people.students[3]!.id));
+  });
+
+  it("a staff caller may narrow the school's sessions to those one student attends", async () => {
+    const st = s.people.students[3]!;
+    const narrowed = await listSessions(s.as.instructor, { attendee: st.id });
+    const attended = await sequelize.query<{ id: string }>(`SELECT session_id AS id FROM session_attendees WHERE student_id = :st`, {
+      replacements: { st: st.id },
+      type: QueryTypes.SELECT,
+    });
+    expect(attended.length).toBeGreaterThan(0);
+    expect(narrowed.rows.map((r) => r.id).sort()).toEqual(attended.map((r) => r.id).sort());
+  });
+});
+
+describe("who may teach", () => {
+  it("the scheduling form offers the school's active instructors and chief, and a student cannot be the instructor", async () => {
+    const choices = await schedulingChoices(s.as.chief);
+    expect(choices.instructors.map((i) => i.id).sort()).toEqual(
+      [s.people.chief.id, s.people.instructor.id, s.people.instructor2.id].sort(),
+    );
+    await expect(schedule({ instructorId: s.people.students[0]!.id, cohortId: s.cohorts.a.id, date: "2026-12-07" })).rejects.toMatchObject({
+      status: 404,
+      field: "instructorId",
+    });
   });
 });
