@@ -6,11 +6,19 @@ import { HttpError, requirePermission } from "@/lib/auth/guard";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { Permission } from "@/lib/auth/permissions";
 import { findUnsafeText } from "@/lib/validation/text";
+import { fieldLabel, installUserWords, userMessage } from "@/lib/validation/messages";
 
+installUserWords();
+
+/**
+ * `message` is for people ("Due date: must be today or later"); `field` names the input key at
+ * fault ("dueOn") and `fieldErrors` holds each key's messages without the label.
+ */
 export type ActionFailure = {
   ok: false;
   status: 400 | 401 | 403 | 404 | 409 | 422;
   message: string;
+  field?: string;
   fieldErrors?: Record<string, string[]>;
 };
 export type ActionResult<T> = { ok: true; data: T; replayed?: boolean } | ActionFailure;
@@ -35,6 +43,13 @@ function fieldErrorsOf(err: z.ZodError): Record<string, string[]> {
   return out;
 }
 
+/** The first field at fault, in words for the screen and by key for code. */
+function firstFieldError(fieldErrors: Record<string, string[]>): { message: string; field?: string } {
+  const first = Object.entries(fieldErrors)[0];
+  if (!first) return { message: "Something in the form is not right: check it and try again" };
+  return { message: `${fieldLabel(first[0])}: ${first[1][0]}`, field: first[0] };
+}
+
 /**
  * The one way a server action runs: permission first, then zod, then the work in one
  * transaction. Expected failures come back as `{ ok: false, status, message, fieldErrors }`;
@@ -56,20 +71,28 @@ export async function runAction<S extends z.ZodType, T>(
     throw e;
   }
   const unsafe = findUnsafeText(input);
-  if (unsafe)
-    return { ok: false, status: 400, message: `${unsafe.field}: ${unsafe.message}`, fieldErrors: { [unsafe.field]: [unsafe.message] } };
+  if (unsafe) {
+    const fieldErrors = { [unsafe.field]: [unsafe.message] };
+    return { ok: false, status: 400, ...firstFieldError(fieldErrors), fieldErrors };
+  }
   const parsed = schema.safeParse(input);
   if (!parsed.success) {
     const fieldErrors = fieldErrorsOf(parsed.error);
-    const first = Object.entries(fieldErrors)[0];
-    return { ok: false, status: 400, message: first ? `${first[0]}: ${first[1][0]}` : "Invalid input", fieldErrors };
+    return { ok: false, status: 400, ...firstFieldError(fieldErrors), fieldErrors };
   }
   let key: string | null = null;
   if (options.idempotent) {
     const raw = (input as { idempotencyKey?: unknown } | null)?.idempotencyKey;
     if (raw !== undefined) {
       const k = idempotencyKey.safeParse(raw);
-      if (!k.success) return { ok: false, status: 400, message: "idempotencyKey: invalid", fieldErrors: { idempotencyKey: ["invalid"] } };
+      if (!k.success)
+        return {
+          ok: false,
+          status: 400,
+          message: "The form is out of date: reload the page and try again",
+          field: "idempotencyKey",
+          fieldErrors: { idempotencyKey: ["invalid"] },
+        };
       key = k.data;
     }
   }
@@ -99,15 +122,17 @@ export async function runAction<S extends z.ZodType, T>(
     });
   } catch (e) {
     if (e instanceof HttpError) {
+      const own = e.field && e.message.startsWith(`${e.field}: `) ? e.message.slice(e.field.length + 2) : e.message;
       return {
         ok: false,
         status: e.status as ActionFailure["status"],
-        message: e.message,
-        ...(e.field ? { fieldErrors: { [e.field]: [e.message] } } : {}),
+        message: userMessage(e.message, e.field),
+        ...(e.field ? { field: e.field, fieldErrors: { [e.field]: [own] } } : {}),
       };
     }
     if (e instanceof z.ZodError) {
-      return { ok: false, status: 400, message: "Invalid input", fieldErrors: fieldErrorsOf(e) };
+      const fieldErrors = fieldErrorsOf(e);
+      return { ok: false, status: 400, ...firstFieldError(fieldErrors), fieldErrors };
     }
     throw e;
   }
