@@ -1,10 +1,18 @@
 import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
-import { attemptSignIn, bumpSessionVersion } from "@/db/access/sign-in";
+import { attemptSignIn } from "@/db/access/people/sign-in";
+import { bumpSessionVersion, currentSessionVersion } from "@/db/access/people/session-version";
 import type { Role } from "./roles";
 import { clientAddress } from "./client-address";
 
 export const SESSION_MAX_AGE_S = 12 * 60 * 60;
+
+class EndedSessionError extends Error {
+  constructor() {
+    super("session ended");
+    this.name = "EndedSessionError";
+  }
+}
 
 export const authOptions: NextAuthOptions = {
   session: { strategy: "jwt", maxAge: SESSION_MAX_AGE_S },
@@ -37,11 +45,25 @@ export const authOptions: NextAuthOptions = {
       return token;
     },
     // What the browser can read: id, name, roles and expiry. Nothing else.
+    // A token whose person is gone, inactive, or whose session version moved on (sign-out,
+    // password or role change) gives no session: throwing makes next-auth answer `{}` and clear
+    // the cookie, as it does for a token it cannot read. The same check as getCurrentUser().
     async session({ session, token }) {
+      const uid = typeof token.uid === "string" && /^[0-9a-f-]{36}$/i.test(token.uid) ? token.uid : null;
+      const stored = uid ? await currentSessionVersion(uid) : null;
+      if (!stored || !stored.active || stored.sessionVersion !== token.sv) throw new EndedSessionError();
       return {
         expires: session.expires,
-        user: { id: String(token.uid ?? ""), name: String(token.name ?? ""), roles: (token.roles ?? []) as Role[] },
+        user: { id: uid, name: stored.name, roles: stored.roles },
       } as typeof session;
+    },
+  },
+  logger: {
+    // an ended session is expected (sign-out elsewhere), not an error worth a stack trace
+    error(code, metadata) {
+      const err = (metadata as { error?: unknown } | undefined)?.error ?? metadata;
+      if (code === "JWT_SESSION_ERROR" && err instanceof EndedSessionError) return;
+      console.error(`[next-auth][error][${code}]`, metadata);
     },
   },
   events: {

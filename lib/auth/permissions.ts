@@ -6,8 +6,12 @@ import type { Role } from "./roles";
  */
 export const PERMISSIONS = {
   "today.view": { roles: ["chief", "instructor", "student", "sponsor"], description: "See one's own Today page" },
+  "today.school": { roles: ["chief"], description: "Today: the school's overview (head counts, currency, locked sign-ins, records)" },
+  "today.teaching": { roles: ["instructor"], description: "Today: one's cohorts and the attendance still to record" },
+  "today.learning": { roles: ["student"], description: "Today: one's week, ground hours, assignments and next sessions" },
+  "today.sponsoring": { roles: ["sponsor"], description: "Today: the progress the students one sponsors share" },
   "people.view": { roles: ["chief", "instructor"], description: "See the school's people and rosters" },
-  "people.manage": { roles: ["chief"], description: "Create people, change roles, deactivate accounts" },
+  "people.all": { roles: ["chief"], description: "See everyone at the school and every cohort's roster (others: the cohorts they lead)" },
   "students.all": { roles: ["chief"], description: "See every student of the school (records, progress, Ground log, timetable)" },
   "students.taught": { roles: ["instructor"], description: "See the students one teaches: cohorts one leads, sessions one teaches" },
   "students.examine": {

@@ -2,7 +2,7 @@ import "server-only";
 import { cache } from "react";
 import { cookies } from "next/headers";
 import { decode } from "next-auth/jwt";
-import { currentSessionVersion } from "@/db/access/sign-in";
+import { currentSessionVersion } from "@/db/access/people/session-version";
 import type { Role } from "./roles";
 
 export interface CurrentUser {

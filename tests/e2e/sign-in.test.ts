@@ -3,7 +3,7 @@
 // end at once on sign-out, password change and deactivation.
 import type { Client } from "pg";
 import { sequelize } from "@/db/index";
-import { changePassword, setActive } from "@/db/access/people";
+import { changePassword, setActive } from "@/db/access/people/account-changes";
 import { hashPassword } from "@/lib/auth/password";
 import { launchBrowser, signIn, screenshot, BASE_URL, DEMO_PASSWORD, type Browser } from "./helpers/browser";
 import { signInHttp, signInOrThrow, signOutHttp } from "./helpers/http";

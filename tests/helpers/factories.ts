@@ -1,8 +1,9 @@
 import { randomUUID } from "node:crypto";
 import { sequelize } from "@/db/index";
 import { createSchool } from "@/db/access/shared/school";
-import { createPerson, addQualification } from "@/db/access/people";
-import { createCourse, createSyllabusRevision } from "@/db/access/syllabus";
+import { createPerson, addQualification } from "@/db/access/people/create-person";
+import { createCourse } from "@/db/access/syllabus/courses";
+import { createSyllabusRevision } from "@/db/access/syllabus/create-revision";
 import { createCohort, addToCohort } from "@/db/access/cohorts/memberships";
 import { enrol } from "@/db/access/cohorts/enrol";
 import { linkSponsor } from "@/db/access/cohorts/sponsor-links";

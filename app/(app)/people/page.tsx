@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { z } from "zod";
-import { requirePagePermission } from "@/lib/auth/guard";
-import { listPeople } from "@/db/access/people";
+import { can, requirePagePermission } from "@/lib/auth/guard";
+import { listPeople } from "@/db/access/people/list-people";
 import { listCohorts, listCohortMembers } from "@/db/access/cohorts/list-cohorts";
 import { ROLES, ROLE_LABELS } from "@/lib/auth/roles";
 import { ScrollArea } from "@/components/ui/scroll-area";
@@ -15,9 +15,9 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
   const user = await requirePagePermission("people.view", "/people");
   const parsed = query.safeParse(await searchParams);
   const filter = parsed.success ? parsed.data : {};
-  const isChief = user.roles.includes("chief");
-  const cohorts = await listCohorts(user.schoolId, isChief ? {} : { leadInstructorId: user.id });
-  const people = isChief ? await listPeople(user.schoolId, filter) : [];
+  const everyone = can(user, "people.all");
+  const cohorts = await listCohorts(user.schoolId, everyone ? {} : { leadInstructorId: user.id });
+  const people = everyone ? await listPeople(user.schoolId, filter) : [];
   const rosters = await Promise.all(cohorts.map(async (c) => ({ cohort: c, members: await listCohortMembers(c.id, true) })));
   return (
     <div className="space-y-6">
@@ -59,7 +59,7 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
           </ScrollArea>
         </section>
       ))}
-      {isChief && (
+      {everyone && (
         <section className="card" aria-labelledby="everyone">
           <h2 id="everyone">Everyone at the school</h2>
           <form className="mt-2 flex flex-wrap items-end gap-3" method="get">

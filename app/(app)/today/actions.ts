@@ -1,7 +1,7 @@
 "use server";
 import { z } from "zod";
 import { runAction } from "@/lib/actions/run-action";
-import { unlockAccount } from "@/db/access/sign-in";
+import { unlockAccount } from "@/db/access/people/sign-in-locks";
 import { HttpError } from "@/lib/http/errors";
 import { revalidatePath } from "next/cache";
 

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { requirePagePermission } from "@/lib/auth/guard";
+import { can, requirePagePermission } from "@/lib/auth/guard";
 import { FocusList } from "./_components/focus-list";
 import { ChiefToday } from "./_components/chief-today";
 import { RecordsToday } from "./_components/records-today";
@@ -25,13 +25,13 @@ export default async function TodayPage() {
         <h1 className="text-display">Today</h1>
         <p className="text-ink-soft">{formatInZone(now(), school.timeZone, "EEEE d MMMM yyyy")}</p>
       </header>
-      {user.roles.includes("chief") && <ChiefToday user={user} />}
-      {user.roles.includes("chief") && <RecordsToday user={user} />}
-      {user.roles.includes("instructor") && <InstructorToday user={user} />}
-      {user.roles.includes("instructor") && <AttendanceDue user={user} />}
-      {user.roles.includes("student") && <StudentToday user={user} />}
-      {user.roles.includes("student") && <NextSessions user={user} />}
-      {user.roles.includes("sponsor") && <SponsorToday user={user} />}
+      {can(user, "today.school") && <ChiefToday user={user} />}
+      {can(user, "today.school") && <RecordsToday user={user} />}
+      {can(user, "today.teaching") && <InstructorToday user={user} />}
+      {can(user, "today.teaching") && <AttendanceDue user={user} />}
+      {can(user, "today.learning") && <StudentToday user={user} />}
+      {can(user, "today.learning") && <NextSessions user={user} />}
+      {can(user, "today.sponsoring") && <SponsorToday user={user} />}
       <FocusList />
     </div>
   );

@@ -1,7 +1,7 @@
 // GET /api/today: the caller's own Today list (cohorts, students, stage items or sponsored students).
 import { NextResponse } from "next/server";
 import { route } from "@/lib/http/api";
-import { todayFocusList } from "@/db/access/today";
+import { todayFocusList } from "@/db/access/today/focus-list";
 
 export const dynamic = "force-dynamic";
 

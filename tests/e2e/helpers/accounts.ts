@@ -3,7 +3,7 @@
 // the same data-access code the app uses (db/access/people.ts createPerson), as the app role.
 import { randomUUID } from "node:crypto";
 import type { Client } from "pg";
-import { createPerson } from "@/db/access/people";
+import { createPerson } from "@/db/access/people/create-person";
 import type { Role } from "@/lib/auth/roles";
 
 export const DEMO_ACCOUNTS = {

@@ -3,8 +3,9 @@
 // moved with the injectable clock, never by sleeping.
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
-import { attemptSignIn, unlockAccount, listLockedAccounts, MAX_FAILURES, LOCK_MINUTES } from "@/db/access/sign-in";
-import { setActive } from "@/db/access/people";
+import { attemptSignIn, MAX_FAILURES, LOCK_MINUTES } from "@/db/access/people/sign-in";
+import { unlockAccount, listLockedAccounts } from "@/db/access/people/sign-in-locks";
+import { setActive } from "@/db/access/people/account-changes";
 import { fixedClock, resetClock } from "@/lib/clock";
 import { makeSchool, closeDb, TEST_PASSWORD } from "@/tests/helpers/factories";
 

@@ -1,5 +1,5 @@
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
-import { todayFocusList } from "@/db/access/today";
+import { todayFocusList } from "@/db/access/today/focus-list";
 
 afterAll(closeDb);
 

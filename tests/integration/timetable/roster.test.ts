@@ -1,7 +1,7 @@
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
-import { createPerson } from "@/db/access/people";
+import { createPerson } from "@/db/access/people/create-person";
 import { previewRosterImport, commitRosterImport } from "@/db/access/roster/import-roster";
 import { moveStudent } from "@/db/access/roster/move-student";
 import { listRoster } from "@/db/access/roster/list-roster";

@@ -1,9 +1,9 @@
-import { chiefSummary } from "@/db/access/today";
+import { schoolOverview } from "@/db/access/today/school-overview";
 import type { CurrentUser } from "@/lib/auth/session";
 import { UnlockButton } from "./unlock-button";
 
 export async function ChiefToday({ user }: { user: CurrentUser }) {
-  const { counts, locked, currency } = await chiefSummary(user);
+  const { counts, locked, currency } = await schoolOverview(user);
   return (
     <section aria-labelledby="chief-title" className="space-y-4">
       <h2 id="chief-title" className="sr-only">

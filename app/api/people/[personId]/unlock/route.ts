@@ -2,7 +2,7 @@
 import { NextResponse } from "next/server";
 import { route, uuidParam } from "@/lib/http/api";
 import { HttpError } from "@/lib/http/errors";
-import { unlockAccount } from "@/db/access/sign-in";
+import { unlockAccount } from "@/db/access/people/sign-in-locks";
 
 export const dynamic = "force-dynamic";
 

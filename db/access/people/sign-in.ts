@@ -1,7 +1,7 @@
 import "server-only";
 import { QueryTypes } from "sequelize";
-import { sequelize } from "../index";
-import { Person } from "../models";
+import { sequelize } from "../../index";
+import { Person } from "../../models";
 import { now } from "@/lib/clock";
 import { verifyPassword } from "@/lib/auth/password";
 import type { Role } from "@/lib/auth/roles";
@@ -53,38 +53,4 @@ export async function attemptSignIn(emailRaw: string, password: string, address:
     );
   }
   return null;
-}
-
-/** The chief instructor lifts every lock on an account. */
-export async function unlockAccount(schoolId: string, personId: string): Promise<number> {
-  const person = await Person.findOne({ where: { id: personId, schoolId } });
-  if (!person) return 0;
-  const [, count] = await sequelize.query(`DELETE FROM sign_in_throttle WHERE email = lower(:email)`, {
-    replacements: { email: person.email },
-  });
-  return (count as unknown as { rowCount?: number })?.rowCount ?? 0;
-}
-
-export async function listLockedAccounts(schoolId: string) {
-  return sequelize.query<{ personId: string; name: string; email: string; lockedUntil: Date; address: string }>(
-    `SELECT p.id AS "personId", p.name, p.email, t.locked_until AS "lockedUntil", t.address
-       FROM sign_in_throttle t JOIN people p ON lower(p.email) = t.email
-      WHERE p.school_id = :schoolId AND t.locked_until > :at
-      ORDER BY t.locked_until DESC`,
-    { replacements: { schoolId, at: now() }, type: QueryTypes.SELECT },
-  );
-}
-
-export async function currentSessionVersion(
-  personId: string,
-): Promise<{ sessionVersion: number; active: boolean; roles: Role[]; name: string; schoolId: string } | null> {
-  const p = await Person.findByPk(personId, { attributes: ["sessionVersion", "active", "roles", "name", "schoolId"] });
-  return p ? { sessionVersion: p.sessionVersion, active: p.active, roles: p.roles, name: p.name, schoolId: p.schoolId } : null;
-}
-
-/** Ends every session of a person at once (sign-out, password or role change, deactivation). */
-export async function bumpSessionVersion(personId: string): Promise<void> {
-  await sequelize.query(`UPDATE people SET session_version = session_version + 1, updated_at = now() WHERE id = :personId`, {
-    replacements: { personId },
-  });
 }

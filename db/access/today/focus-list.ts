@@ -1,0 +1,65 @@
+import "server-only";
+import { QueryTypes } from "sequelize";
+import { sequelize } from "../../index";
+import { can } from "@/lib/auth/guard";
+import type { CurrentUser } from "@/lib/auth/session";
+import { listCohorts, listCohortMembers } from "../cohorts/list-cohorts";
+import { listSponsoredStudents } from "../cohorts/sponsor-links";
+import { activeEnrolment } from "../shared/enrolment";
+
+export interface TodayFocusRow {
+  id: string;
+  primary: string;
+  secondary: string;
+  href?: string;
+}
+
+/**
+ * The list on the Today page that the browser fetches through /api/today, by the caller's first
+ * Today panel: the school's (today.school) → every cohort; teaching (today.teaching) → the
+ * students of cohorts they lead; learning (today.learning) → the items of their current syllabus
+ * stage; sponsoring (today.sponsoring) → their linked students.
+ */
+export async function todayFocusList(user: CurrentUser): Promise<{ title: string; rows: TodayFocusRow[] }> {
+  if (can(user, "today.school")) {
+    const cohorts = await listCohorts(user.schoolId);
+    return {
+      title: "Cohorts in training",
+      rows: cohorts.map((c) => ({
+        id: c.id,
+        primary: c.name,
+        secondary: `${c.courseCode} · lead ${c.leadInstructorName} · ${c.memberCount} students`,
+      })),
+    };
+  }
+  if (can(user, "today.teaching")) {
+    const cohorts = await listCohorts(user.schoolId, { leadInstructorId: user.id });
+    const rows: TodayFocusRow[] = [];
+    for (const c of cohorts) {
+      for (const m of await listCohortMembers(c.id)) rows.push({ id: m.studentId, primary: m.name, secondary: c.name });
+    }
+    return { title: "Your students", rows };
+  }
+  if (can(user, "today.learning")) {
+    const enrolment = await activeEnrolment(user.schoolId, user.id);
+    if (!enrolment) return { title: "Your syllabus", rows: [] };
+    const items = await sequelize.query<{ id: string; code: string; title: string; stage: string }>(
+      `SELECT i.id, i.code, i.title, s.title AS stage FROM syllabus_items i JOIN syllabus_stages s ON s.id = i.stage_id
+        WHERE i.revision_id = :rev AND s.position = 1 ORDER BY i.position`,
+      { replacements: { rev: enrolment.revisionId }, type: QueryTypes.SELECT },
+    );
+    return { title: "Your current stage", rows: items.map((i) => ({ id: i.id, primary: `${i.code} ${i.title}`, secondary: i.stage })) };
+  }
+  if (can(user, "today.sponsoring")) {
+    const students = await listSponsoredStudents(user.id);
+    return {
+      title: "Students you sponsor",
+      rows: students.map((s) => ({
+        id: s.studentId,
+        primary: s.name,
+        secondary: s.weeklyLetter ? "Weekly letter on" : "Weekly letter off",
+      })),
+    };
+  }
+  return { title: "Nothing to show", rows: [] };
+}
