@@ -1,6 +1,7 @@
 "use client";
 import { useRef, useState } from "react";
 import { useRouter } from "next/navigation";
+import { apiErrorText } from "@/lib/validation/messages";
 
 const MAX = 10 * 1024 * 1024;
 const TYPES: Record<string, string> = { pdf: "application/pdf", png: "image/png", jpg: "image/jpeg", jpeg: "image/jpeg" };
@@ -33,7 +34,7 @@ export function HandoutUpload({ briefingId }: { briefingId: string }) {
         router.refresh();
       } else {
         const data = (await res.json().catch(() => null)) as { error?: { message?: string } } | null;
-        setMessage({ ok: false, text: data?.error?.message ?? `Upload refused (${res.status}).` });
+        setMessage({ ok: false, text: apiErrorText(data?.error, `Upload refused (${res.status}).`) });
       }
     } finally {
       setBusy(false);

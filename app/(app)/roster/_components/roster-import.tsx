@@ -2,6 +2,7 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { ScrollArea } from "@/components/ui/scroll-area";
+import { apiErrorText } from "@/lib/validation/messages";
 
 interface PreviewRow {
   line: number;
@@ -53,7 +54,7 @@ export function RosterImport() {
     const r = await send("preview", t);
     setBusy(false);
     if (r.ok) setPreview(r.json as Preview);
-    else setMsg({ ok: false, text: r.json?.error?.message ?? "The file could not be read" });
+    else setMsg({ ok: false, text: apiErrorText(r.json?.error, "The file could not be read") });
   }
   async function onImport() {
     if (!text) return;
@@ -65,7 +66,7 @@ export function RosterImport() {
       setPreview(null);
       setText(null);
       router.refresh();
-    } else setMsg({ ok: false, text: `Nothing was imported. ${r.json?.error?.message ?? ""}` });
+    } else setMsg({ ok: false, text: `Nothing was imported. ${apiErrorText(r.json?.error, "")}` });
   }
   const blocked =
     !preview || preview.fileProblems.length > 0 || preview.rows.some((r) => r.problems.length > 0) || preview.rows.length === 0;

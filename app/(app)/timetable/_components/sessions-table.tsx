@@ -4,6 +4,7 @@ import { useState } from "react";
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import type { SessionRow } from "@/db/access/timetable/list-sessions";
 import { ScrollArea } from "@/components/ui/scroll-area";
+import { apiErrorText } from "@/lib/validation/messages";
 
 interface Page {
   rows: SessionRow[];
@@ -52,7 +53,7 @@ export function SessionsTable({
     queryFn: async () => {
       const res = await fetch(`/api/sessions?${qs}`, { headers: { accept: "application/json" } });
       const body = await res.json();
-      if (!res.ok) throw new Error(body?.error?.message ?? `sessions: ${res.status}`);
+      if (!res.ok) throw new Error(apiErrorText(body?.error, `The sessions could not be loaded (${res.status}).`));
       return body as Page;
     },
   });
