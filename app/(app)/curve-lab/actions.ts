@@ -5,7 +5,7 @@ import { callAnswer } from "@/lib/curve-lab/demo-spec";
 import { callSchema, demoIdSchema, renameDemoSchema, saveDemoSchema } from "@/lib/curve-lab/schema";
 import { createDemo, deleteDemo, duplicateDemo, renameDemo, saveDemoSpec } from "@/db/access/curve-lab/save-demo";
 import { getDemoRevision } from "@/db/access/curve-lab/demos";
-import { recordCall } from "@/db/access/curve-lab/calls";
+import { recordCallOnce } from "@/db/access/curve-lab/call-once";
 import { studentMayOpenRevision } from "./_lib/student-access";
 
 /**
@@ -57,7 +57,8 @@ export async function makeCallAction(input: unknown) {
       }
       if (revision.spec.callKind !== kind) throw new HttpError(400, "kind: this demo does not ask for that call", "kind");
       const actualMs = callAnswer(revision.spec, kind);
-      return recordCall(
+      // one call per student per revision: a second call returns the first, unchanged
+      return recordCallOnce(
         {
           schoolId: user.schoolId,
           demoRevisionId,

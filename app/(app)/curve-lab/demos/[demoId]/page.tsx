@@ -8,6 +8,7 @@ import { listAirframes } from "@/db/access/curve-lab/airframes";
 import { snapshotOf } from "@/lib/curve-lab/demo-spec";
 import { getDemo, getDemoRevision } from "@/db/access/curve-lab/demos";
 import { listCallsForDemo } from "@/db/access/curve-lab/calls";
+import { ownCallOnRevision } from "@/db/access/curve-lab/call-once";
 import { DemoWorkbench } from "../../_components/demo-workbench";
 import { assignedRevisionFor } from "../../_lib/student-access";
 
@@ -25,12 +26,14 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
     const revisionId = await assignedRevisionFor(user.schoolId, demoId, user.id).catch(() => null);
     const revision = revisionId ? await getDemoRevision(user.schoolId, revisionId) : null;
     if (!revision) notFound();
+    // after the reveal a reload shows the result, not a new prompt; earlier calls (other revisions) are listed too
+    const [ownCall, ownCalls] = await Promise.all([ownCallOnRevision(user.schoolId, revision.id, user.id), listCallsForDemo(user, demoId)]);
     return (
       <div className="space-y-4">
-        <nav aria-label="Breadcrumb" className="text-caption">
+        <nav aria-label="Breadcrumb" className="text-caption [overflow-wrap:anywhere]">
           <Link href="/curve-lab">Curve Lab</Link> / {revision.demoName}
         </nav>
-        <h1 className="text-display">{revision.demoName}</h1>
+        <h1 className="text-display [overflow-wrap:anywhere]">{revision.demoName}</h1>
         <Caution />
         <DemoWorkbench
           mode="student"
@@ -39,6 +42,17 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
           revisionNumber={revision.number}
           name={revision.demoName}
           initialSpec={revision.spec}
+          priorCall={ownCall ? { predictedMs: ownCall.predictedMs, actualMs: ownCall.actualMs } : null}
+          earlierCalls={ownCalls
+            .filter((c) => c.studentId === user.id)
+            .map((c) => ({
+              id: c.id,
+              revisionNumber: c.revisionNumber,
+              kind: c.markerKind,
+              predictedMs: c.predictedMs,
+              actualMs: c.actualMs,
+              createdAt: c.createdAt,
+            }))}
         />
       </div>
     );
@@ -52,10 +66,10 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
   const unit = demo.revision.spec.axis.unit;
   return (
     <div className="space-y-4">
-      <nav aria-label="Breadcrumb" className="text-caption">
+      <nav aria-label="Breadcrumb" className="text-caption [overflow-wrap:anywhere]">
         <Link href="/curve-lab">Curve Lab</Link> / {demo.name}
       </nav>
-      <h1 className="text-display">{demo.name}</h1>
+      <h1 className="text-display [overflow-wrap:anywhere]">{demo.name}</h1>
       <p className="text-caption text-ink-soft">
         Revision {demo.revision.number} · built by {demo.ownerName}
         {canChange ? "" : " · duplicate it to change your own copy"}
