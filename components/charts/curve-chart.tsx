@@ -24,6 +24,7 @@ import {
 } from "@/lib/curve-lab/demo-spec";
 import { formatNumber } from "./format";
 import { MAX_CASES, datasetIndex, fillFrame, newFrame, type Frame } from "@/lib/curve-lab/chart-frame";
+import { besideRule, nearCurve, placeLabels, type Box, type LabelRequest, type Pt } from "@/lib/curve-lab/label-placement";
 import type { CurveSet } from "@/lib/aero";
 
 ChartJS.register(LineController, LineElement, PointElement, LinearScale);
@@ -66,6 +67,9 @@ interface Overlay {
   answerMs: number | null;
   fontPx: number;
   lineWidth: number;
+  /** per case (as in spec.cases): draw the thrust line at the chosen speed */
+  thrust: boolean[];
+  palette: Palette;
 }
 
 export interface CurveChartProps {
@@ -80,21 +84,73 @@ export interface CurveChartProps {
   answerMs?: number | null;
   /** a click on the chart picks a speed (m/s on the axis) */
   onPickSpeed?: (ms: number) => void;
-  /** receives the one chart instance (for PNG export and the bench) */
+  /** receives the one chart instance (for the bench and the tests) */
   chartRef?: MutableRefObject<Chart | null>;
+  /** receives the PNG export's drawing function */
+  exportRef?: MutableRefObject<ChartExporter | null>;
+  /** per case (as in spec.cases): draw the thrust line, thrust held at the chosen speed */
+  thrust?: boolean[];
   label: string;
   className?: string;
 }
 
-let hatch: CanvasPattern | null = null;
-function hatchPattern(ctx: CanvasRenderingContext2D): CanvasPattern | null {
-  if (hatch || typeof document === "undefined") return hatch;
+/** The chart's colours: the slate board on screen, or paper for a printed export. */
+export interface Palette {
+  bg: string;
+  grid: string;
+  chalk: string;
+  dim: string;
+  unstableFill: string;
+  stableFill: string;
+  unstableText: string;
+  stableText: string;
+  hatch: string;
+  cases: readonly string[];
+  chosen: string;
+  call: string;
+  answer: string;
+}
+export const BOARD_PALETTE: Palette = {
+  bg: BOARD.bg,
+  grid: BOARD.grid,
+  chalk: BOARD.chalk,
+  dim: BOARD.dim,
+  unstableFill: "rgba(212,138,22,0.20)",
+  stableFill: "rgba(31,156,140,0.20)",
+  unstableText: "#f2c27a",
+  stableText: "#8fe0d4",
+  hatch: "rgba(244,241,232,0.45)",
+  cases: CASE_COLOURS,
+  chosen: "#c8f07a",
+  call: "#ffb3c7",
+  answer: "#7fd1ff",
+};
+/** Dark ink on white, for printing (each case colour keeps at least 4.5:1 against white). */
+export const PAPER_PALETTE: Palette = {
+  bg: "#ffffff",
+  grid: "rgba(20,28,44,0.16)",
+  chalk: "#141c2c",
+  dim: "#3d4658",
+  unstableFill: "rgba(212,138,22,0.16)",
+  stableFill: "rgba(31,156,140,0.14)",
+  unstableText: "#8a5200",
+  stableText: "#0d6157",
+  hatch: "rgba(20,28,44,0.35)",
+  cases: ["#141c2c", "#0b5f94", "#a3245a", "#3f6b08"],
+  chosen: "#3f6b08",
+  call: "#a3245a",
+  answer: "#0b5f94",
+};
+
+const hatches = new Map<string, CanvasPattern | null>();
+function hatchPattern(ctx: CanvasRenderingContext2D, colour: string): CanvasPattern | null {
+  if (hatches.has(colour) || typeof document === "undefined") return hatches.get(colour) ?? null;
   const c = document.createElement("canvas");
   c.width = 12;
   c.height = 12;
   const g = c.getContext("2d");
   if (!g) return null;
-  g.strokeStyle = "rgba(244,241,232,0.45)";
+  g.strokeStyle = colour;
   g.lineWidth = 2;
   g.beginPath();
   g.moveTo(0, 12);
@@ -104,18 +160,30 @@ function hatchPattern(ctx: CanvasRenderingContext2D): CanvasPattern | null {
   g.moveTo(9, 15);
   g.lineTo(15, 9);
   g.stroke();
-  hatch = ctx.createPattern(c, "repeat");
-  return hatch;
+  const p = ctx.createPattern(c, "repeat");
+  hatches.set(colour, p);
+  return p;
 }
 
 function fmt(n: number, digits = 0): string {
   return formatNumber(n, digits);
 }
 
+interface TextLabel {
+  id: string;
+  lines: string[];
+  colour: string;
+  weight: 400 | 600;
+  /** candidate boxes, best first (built once the text is measured) */
+  place: (w: number, h: number) => Box[];
+}
+
 /**
  * The board plugin: background, speed-stability regions either side of the focused case's Vmd
  * (amber "speed-unstable" below, teal "speed-stable" above), stall hatched, Vmd as a solid rule
- * with a diamond at minimum drag, Vmp dashed, best glide, the chosen speed and the student's call.
+ * with a diamond at minimum drag, Vmp dashed, best glide, the chosen speed, the thrust line, the
+ * student's call, and a label on every case. Every text is placed by placeLabels, so no label sits
+ * on a curve, a rule or another label.
  */
 function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
   return {
@@ -123,51 +191,40 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
     beforeDraw(chart) {
       const { ctx, width, height } = chart;
       ctx.save();
-      ctx.fillStyle = BOARD.bg;
+      ctx.fillStyle = overlay.current.palette.bg;
       ctx.fillRect(0, 0, width, height);
       ctx.restore();
     },
     beforeDatasetsDraw(chart) {
       const o = overlay.current;
+      const pal = o.palette;
       const c = o.frame.cases[o.focus] ?? o.frame.cases[0];
       if (!c) return;
       const { ctx, chartArea: a } = chart;
       const x = chart.scales.x!;
       const unit = o.spec.axis.unit;
       const px = (ms: number) => Math.min(a.right, Math.max(a.left, x.getPixelForValue(speedInUnit(ms, unit))));
-      const conceal = o.conceal;
       ctx.save();
-      ctx.font = `600 ${o.fontPx}px sans-serif`;
-      ctx.textBaseline = "top";
-      if (!conceal?.regions) {
+      if (!o.conceal?.regions) {
         const xv = px(c.vmdMs);
-        ctx.fillStyle = "rgba(212,138,22,0.20)";
+        ctx.fillStyle = pal.unstableFill;
         ctx.fillRect(a.left, a.top, xv - a.left, a.bottom - a.top);
-        ctx.fillStyle = "rgba(31,156,140,0.20)";
+        ctx.fillStyle = pal.stableFill;
         ctx.fillRect(xv, a.top, a.right - xv, a.bottom - a.top);
-        ctx.fillStyle = "#f2c27a";
-        ctx.textAlign = "right";
-        if (xv - a.left > o.fontPx * 6) ctx.fillText("speed-unstable", xv - 8, a.top + 6);
-        ctx.fillStyle = "#8fe0d4";
-        ctx.textAlign = "left";
-        if (a.right - xv > o.fontPx * 6) ctx.fillText("speed-stable", xv + 8, a.top + 6);
       }
-      if (o.spec.markers.stall && !conceal?.markers.includes("stall")) {
+      if (o.spec.markers.stall && !o.conceal?.markers.includes("stall")) {
         const xs = px(c.stallMs);
-        const pattern = hatchPattern(ctx);
+        const pattern = hatchPattern(ctx, pal.hatch);
         if (pattern && xs > a.left) {
           ctx.fillStyle = pattern;
           ctx.fillRect(a.left, a.top, xs - a.left, a.bottom - a.top);
         }
-        ctx.fillStyle = BOARD.chalk;
-        ctx.textAlign = "left";
-        ctx.textBaseline = "bottom";
-        if (xs > a.left) ctx.fillText(`stall ${fmt(speedInUnit(c.stallMs, unit))}`, Math.max(a.left + 4, xs - o.fontPx * 5), a.bottom - 6);
       }
       ctx.restore();
     },
     afterDatasetsDraw(chart) {
       const o = overlay.current;
+      const pal = o.palette;
       const c = o.frame.cases[o.focus] ?? o.frame.cases[0];
       if (!c) return;
       const { ctx, chartArea: a } = chart;
@@ -182,7 +239,32 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
       const px = (ms: number) => x.getPixelForValue(speedInUnit(ms, unit));
       const hidden = (m: MarkerKey) => !o.spec.markers[m] || (o.conceal?.markers.includes(m) ?? false);
       const lw = o.lineWidth;
-      const rule = (ms: number, dash: number[], colour: string, text: string, row: number) => {
+      const bounds: Box = { x: a.left, y: a.top, w: a.right - a.left, h: a.bottom - a.top };
+
+      // every drawn line, in pixels: the labels keep clear of them
+      const lines: Pt[][] = [];
+      const caseLines: Pt[][] = [];
+      for (let d = 0; d < o.frame.visible.length; d++) {
+        if (!o.frame.visible[d]) continue;
+        const k = CURVE_KEYS[d % CURVE_KEYS.length]!;
+        const scale = chart.scales[k === "power" ? "power" : k === "liftToDrag" ? "ld" : "y"];
+        if (!scale) continue;
+        const pts = o.frame.points[d]!;
+        const line: Pt[] = new Array<Pt>(pts.length);
+        for (let i = 0; i < pts.length; i++) line[i] = { x: x.getPixelForValue(pts[i]!.x), y: scale.getPixelForValue(pts[i]!.y) };
+        lines.push(line);
+        const ci = Math.floor(d / CURVE_KEYS.length);
+        if (k === "total" || !caseLines[ci]) caseLines[ci] = line;
+      }
+      const vertical = (ms: number) => {
+        const xp = px(ms);
+        lines.push([
+          { x: xp, y: a.top },
+          { x: xp, y: a.bottom },
+        ]);
+      };
+
+      const rule = (ms: number, dash: number[], colour: string) => {
         const xp = px(ms);
         ctx.save();
         ctx.strokeStyle = colour;
@@ -192,25 +274,190 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
         ctx.moveTo(xp, a.top);
         ctx.lineTo(xp, a.bottom);
         ctx.stroke();
-        ctx.setLineDash([]);
-        ctx.font = `600 ${o.fontPx}px sans-serif`;
-        ctx.fillStyle = colour;
-        ctx.textBaseline = "top";
-        const w = ctx.measureText(text).width;
-        const tx = xp + 6 + w > a.right ? xp - 6 - w : xp + 6;
-        ctx.fillText(text, tx, a.top + 6 + row * (o.fontPx + 8));
         ctx.restore();
+        vertical(ms);
       };
-      if (!hidden("vmp") && inside(c.vmpMs)) rule(c.vmpMs, [lw * 3, lw * 2], BOARD.dim, `Vmp ${fmt(speedInUnit(c.vmpMs, unit))} ${u}`, 2);
+
+      const labels: TextLabel[] = [];
+      const step = o.fontPx * 0.6;
+      const topDown = (xp: number, side: "both" | "left" | "right") => (w: number, h: number) =>
+        besideRule(xp, w, h, bounds, 6, step).filter((_, i) => side === "both" || (side === "right") === (i % 2 === 0));
+      const bottomUp = (xp: number, side: "both" | "left" | "right") => (w: number, h: number) => topDown(xp, side)(w, h).reverse();
+
+      if (!o.conceal?.regions) {
+        const xv = Math.min(a.right, Math.max(a.left, px(c.vmdMs)));
+        labels.push({ id: "unstable", lines: ["speed-unstable"], colour: pal.unstableText, weight: 600, place: topDown(xv, "left") });
+        labels.push({ id: "stable", lines: ["speed-stable"], colour: pal.stableText, weight: 600, place: topDown(xv, "right") });
+      }
       if (!hidden("vmd") && inside(c.vmdMs)) {
-        rule(c.vmdMs, [], BOARD.chalk, `Vmd ${fmt(speedInUnit(c.vmdMs, unit))} ${u}`, 1);
-        // diamond at the bottom of the total-drag bucket
+        rule(c.vmdMs, [], pal.chalk);
+        labels.push({
+          id: "vmd",
+          lines: [`Vmd ${fmt(speedInUnit(c.vmdMs, unit))} ${u}`],
+          colour: pal.chalk,
+          weight: 600,
+          place: topDown(px(c.vmdMs), "both"),
+        });
+      }
+      if (!hidden("vmp") && inside(c.vmpMs)) {
+        rule(c.vmpMs, [lw * 3, lw * 2], pal.dim);
+        labels.push({
+          id: "vmp",
+          lines: [`Vmp ${fmt(speedInUnit(c.vmpMs, unit))} ${u}`],
+          colour: pal.dim,
+          weight: 600,
+          place: topDown(px(c.vmpMs), "both"),
+        });
+      }
+      // a label on every case, beside its total-drag curve (or its first drawn curve)
+      o.frame.cases.forEach((_, ci) => {
+        const line = caseLines[ci];
+        const name = o.spec.cases[ci]?.label;
+        if (!line || !name) return;
+        labels.push({
+          id: `case-${ci}`,
+          lines: [name],
+          colour: pal.cases[ci] ?? pal.chalk,
+          weight: 600,
+          place: (w, h) => nearCurve(line, w, h, 0.8 - ci * 0.12, 6),
+        });
+      });
+      if (!hidden("stall") && inside(c.stallMs)) {
+        labels.push({
+          id: "stall",
+          lines: [`stall ${fmt(speedInUnit(c.stallMs, unit))}`],
+          colour: pal.chalk,
+          weight: 600,
+          place: bottomUp(px(c.stallMs), "both"),
+        });
+      }
+      if (!hidden("chosen") && inside(o.spec.chosenSpeedMs)) {
+        rule(o.spec.chosenSpeedMs, [lw, lw * 2], pal.chosen);
+        const drag = c.chosenDragN === null ? "" : ` · drag ${fmt(c.chosenDragN)} N`;
+        labels.push({
+          id: "chosen",
+          lines: [`${fmt(speedInUnit(o.spec.chosenSpeedMs, unit))} ${u}${drag}`],
+          colour: pal.chosen,
+          weight: 600,
+          place: topDown(px(o.spec.chosenSpeedMs), "both"),
+        });
+      }
+      // thrust held at the chosen speed: a level line at that speed's drag, per case
+      o.thrust.forEach((on, ci) => {
+        const cc = o.frame.cases[ci];
+        if (!on || !cc || cc.chosenDragN === null) return;
+        const yp = y.getPixelForValue(cc.chosenDragN);
+        if (yp < a.top || yp > a.bottom) return;
+        const colour = pal.cases[ci] ?? pal.chalk;
+        ctx.save();
+        ctx.strokeStyle = colour;
+        ctx.lineWidth = lw;
+        ctx.setLineDash([lw * 5, lw * 2, lw, lw * 2]);
+        ctx.beginPath();
+        ctx.moveTo(a.left, yp);
+        ctx.lineTo(a.right, yp);
+        ctx.stroke();
+        ctx.setLineDash([]);
+        // where thrust meets drag: the chosen speed, and the other speed of the same drag (Vmd² / V)
+        ctx.fillStyle = colour;
+        for (const ms of [o.spec.chosenSpeedMs, (cc.vmdMs * cc.vmdMs) / o.spec.chosenSpeedMs]) {
+          if (!inside(ms)) continue;
+          ctx.beginPath();
+          ctx.arc(px(ms), yp, lw * 2.2, 0, Math.PI * 2);
+          ctx.fill();
+        }
+        ctx.restore();
+        const line: Pt[] = [
+          { x: a.left, y: yp },
+          { x: a.right, y: yp },
+        ];
+        lines.push(line);
+        const name = o.spec.cases[ci]?.label ?? `case ${ci + 1}`;
+        labels.push({
+          id: `thrust-${ci}`,
+          lines: [`thrust held, ${name}`],
+          colour,
+          weight: 400,
+          place: (w, h) => {
+            const out: Box[] = [];
+            for (let f = 0.98; f >= 0.02; f -= 0.04) {
+              const xp = a.left + f * (a.right - a.left) - w;
+              out.push({ x: xp, y: yp - h - 6, w, h }, { x: xp, y: yp + 6, w, h });
+            }
+            return out;
+          },
+        });
+      });
+      if (o.guessMs !== null && inside(o.guessMs)) {
+        rule(o.guessMs, [lw * 4, lw * 2, lw, lw * 2], pal.call);
+        labels.push({
+          id: "call",
+          lines: [`your call ${fmt(speedInUnit(o.guessMs, unit))} ${u}`],
+          colour: pal.call,
+          weight: 600,
+          place: topDown(px(o.guessMs), "both"),
+        });
+      }
+      if (o.answerMs !== null && inside(o.answerMs)) {
+        rule(o.answerMs, [], pal.answer);
+        labels.push({
+          id: "answer",
+          lines: [`answer ${fmt(speedInUnit(o.answerMs, unit))} ${u}`],
+          colour: pal.answer,
+          weight: 600,
+          place: topDown(px(o.answerMs), "both"),
+        });
+      }
+      if (!hidden("bestGlide") && inside(c.vmdMs)) {
+        labels.push({
+          id: "glide",
+          lines: [`best glide ≈ Vmd, ${fmt(c.maxLiftToDrag, 1)}:1`],
+          colour: pal.dim,
+          weight: 400,
+          place: bottomUp(px(c.vmdMs), "both"),
+        });
+      }
+
+      // measure, then place; a label that does not fit one line (a narrow phone chart) tries two
+      const lineH = Math.round(o.fontPx * 1.2);
+      const measured = labels.map((l) => {
+        ctx.font = `${l.weight} ${o.fontPx}px sans-serif`;
+        const one = l.lines.map((t) => ctx.measureText(t).width);
+        const w = Math.ceil(Math.max(...one));
+        const candidates = l.place(w, lineH * l.lines.length);
+        const split = l.lines.length === 1 && l.lines[0]!.includes("-") ? l.lines[0]!.replace("-", "-\n").split("\n") : null;
+        if (split) {
+          const w2 = Math.ceil(Math.max(...split.map((t) => ctx.measureText(t).width)));
+          return { l, candidates, split, splitCandidates: l.place(w2, lineH * 2) };
+        }
+        return { l, candidates, split: null, splitCandidates: [] as Box[] };
+      });
+      const requests: LabelRequest[] = measured.map((m) => ({ id: m.l.id, candidates: [...m.candidates, ...m.splitCandidates] }));
+      const placed = placeLabels({ labels: requests, lines, bounds, padding: Math.max(2, lw / 2) });
+      ctx.save();
+      ctx.textBaseline = "top";
+      ctx.textAlign = "left";
+      const drawn: string[] = [];
+      placed.forEach((p, i) => {
+        const m = measured[i]!;
+        if (!p.box) return;
+        const text = p.candidate >= m.candidates.length && m.split ? m.split : m.l.lines;
+        ctx.font = `${m.l.weight} ${o.fontPx}px sans-serif`;
+        ctx.fillStyle = m.l.colour;
+        text.forEach((t, row) => ctx.fillText(t, p.box!.x, p.box!.y + row * lineH + Math.round((lineH - o.fontPx) / 2)));
+        drawn.push(m.l.id);
+      });
+      ctx.restore();
+      chart.canvas.dataset.labels = drawn.join(",");
+
+      // diamond at the bottom of the total-drag bucket, drawn last so it sits on the curve
+      if (!hidden("vmd") && inside(c.vmdMs)) {
         const xp = px(c.vmdMs);
         const yp = Math.min(a.bottom, Math.max(a.top, y.getPixelForValue(c.minDragN)));
         const r = lw * 3;
         ctx.save();
-        ctx.fillStyle = BOARD.chalk;
-        ctx.strokeStyle = BOARD.bg;
+        ctx.fillStyle = pal.chalk;
+        ctx.strokeStyle = pal.bg;
         ctx.lineWidth = 2;
         ctx.beginPath();
         ctx.moveTo(xp, yp - r);
@@ -222,23 +469,6 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
         ctx.stroke();
         ctx.restore();
       }
-      if (!hidden("bestGlide") && inside(c.vmdMs)) {
-        const xp = px(c.vmdMs);
-        ctx.save();
-        ctx.font = `${o.fontPx}px sans-serif`;
-        ctx.fillStyle = BOARD.dim;
-        ctx.textBaseline = "bottom";
-        ctx.fillText(`best glide ≈ Vmd, ${fmt(c.maxLiftToDrag, 1)}:1`, xp + 6, a.bottom - o.fontPx - 14);
-        ctx.restore();
-      }
-      if (!hidden("chosen") && inside(o.spec.chosenSpeedMs)) {
-        const drag = c.chosenDragN === null ? "" : ` · drag ${fmt(c.chosenDragN)} N`;
-        rule(o.spec.chosenSpeedMs, [lw, lw * 2], "#c8f07a", `${fmt(speedInUnit(o.spec.chosenSpeedMs, unit))} ${u}${drag}`, 3);
-      }
-      if (o.guessMs !== null && inside(o.guessMs))
-        rule(o.guessMs, [lw * 4, lw * 2, lw, lw * 2], "#ffb3c7", `your call ${fmt(speedInUnit(o.guessMs, unit))} ${u}`, 4);
-      if (o.answerMs !== null && inside(o.answerMs))
-        rule(o.answerMs, [], "#7fd1ff", `answer ${fmt(speedInUnit(o.answerMs, unit))} ${u}`, 5);
     },
     afterRender(chart) {
       // Counters the bench and the tests read: one redraw per slider input, same instance.
@@ -267,6 +497,44 @@ interface ApplyInput {
   conceal: Concealment | null;
   guessMs: number | null;
   answerMs: number | null;
+  thrust: boolean[];
+}
+
+/** Draws the chart, as it stands, into a box of another canvas (the PNG export), on the board or on paper. */
+export type ChartExporter = (
+  ctx: CanvasRenderingContext2D,
+  box: Box,
+  options: { light: boolean; fontPx: number; lineWidth: number },
+) => void;
+
+function chartOptions(frame: Frame, spec: DemoSpec, pal: Palette, fontPx: number, thickGrid: boolean) {
+  const tick = { color: pal.dim, font: { size: fontPx } };
+  const title = (text: string) => ({ display: true, text, color: pal.chalk, font: { size: fontPx, weight: 600 as const } });
+  const grid = { color: pal.grid, lineWidth: thickGrid ? 1.5 : 1 };
+  return {
+    scales: {
+      x: { type: "linear" as const, min: frame.xMin, max: frame.xMax, ticks: tick, grid, title: title(axisTitle(spec)) },
+      y: { type: "linear" as const, position: "left" as const, min: 0, max: frame.yMaxDragN, ticks: tick, grid, title: title("Drag (N)") },
+    },
+    power: {
+      type: "linear",
+      position: "right",
+      min: 0,
+      max: frame.yMaxPowerKw,
+      ticks: tick,
+      grid: { drawOnChartArea: false },
+      title: title("Power required (kW)"),
+    },
+    ld: {
+      type: "linear",
+      position: "right",
+      min: 0,
+      max: frame.yMaxLiftToDrag,
+      ticks: tick,
+      grid: { drawOnChartArea: false },
+      title: title("L/D"),
+    },
+  };
 }
 
 /**
@@ -295,7 +563,7 @@ class CurveChartController {
     const lineWidth = projector ? 4 : 2.5;
     const frame = fillFrame(newFrame(), effectiveSpec(first.spec, first.conceal), this.cache);
     this.frame = frame;
-    this.overlay = { current: { ...first, frame, fontPx, lineWidth } };
+    this.overlay = { current: { ...first, frame, fontPx, lineWidth, palette: BOARD_PALETTE } };
     const datasets: ChartDataset<"line", { x: number; y: number }[]>[] = [];
     for (let c = 0; c < MAX_CASES; c++) {
       for (const k of CURVE_KEYS) {
@@ -317,9 +585,7 @@ class CurveChartController {
         });
       }
     }
-    const tick = { color: BOARD.dim, font: { size: fontPx } };
-    const title = (text: string) => ({ display: true, text, color: BOARD.chalk, font: { size: fontPx, weight: 600 as const } });
-    const grid = { color: BOARD.grid, lineWidth: projector ? 1.5 : 1 };
+    const built = chartOptions(frame, first.spec, BOARD_PALETTE, fontPx, projector);
     this.all = datasets;
     this.data = { datasets: datasets.filter((_, d) => frame.visible[d]) };
     this.options = {
@@ -334,32 +600,10 @@ class CurveChartController {
         const v = xScale.getValueForPixel(e.x);
         if (v !== undefined && Number.isFinite(v) && v > 0) this.pick?.(speedFromUnit(v, this.overlay.current.spec.axis.unit));
       },
-      scales: {
-        x: { type: "linear", min: frame.xMin, max: frame.xMax, ticks: tick, grid, title: title(axisTitle(first.spec)) },
-        y: { type: "linear", position: "left", min: 0, max: frame.yMaxDragN, ticks: tick, grid, title: title("Drag (N)") },
-      },
+      scales: built.scales,
     };
     // The power and L/D axes exist only while a curve uses them (a chart.js scale costs time on every update even when hidden).
-    this.extraScales = {
-      power: {
-        type: "linear",
-        position: "right",
-        min: 0,
-        max: frame.yMaxPowerKw,
-        ticks: tick,
-        grid: { drawOnChartArea: false },
-        title: title("Power required (kW)"),
-      },
-      ld: {
-        type: "linear",
-        position: "right",
-        min: 0,
-        max: frame.yMaxLiftToDrag,
-        ticks: tick,
-        grid: { drawOnChartArea: false },
-        title: title("L/D"),
-      },
-    };
+    this.extraScales = { power: built.power, ld: built.ld };
     const scales = this.options.scales as Record<string, unknown>;
     if (frame.visible.some((v, d) => v && d % CURVE_KEYS.length === CURVE_KEYS.indexOf("power"))) scales.power = this.extraScales.power;
     if (frame.visible.some((v, d) => v && d % CURVE_KEYS.length === CURVE_KEYS.indexOf("liftToDrag"))) scales.ld = this.extraScales.ld;
@@ -369,6 +613,55 @@ class CurveChartController {
   setPick(fn: ((ms: number) => void) | undefined): void {
     this.pick = fn;
   }
+
+  /**
+   * The PNG export: a second, short-lived chart.js instance on an offscreen canvas of the export's
+   * size, drawn from the same frame with the chosen palette, copied into the target and destroyed.
+   */
+  readonly exporter: ChartExporter = (target, box, { light, fontPx, lineWidth }) => {
+    const pal = light ? PAPER_PALETTE : BOARD_PALETTE;
+    const frame = this.frame;
+    const spec = this.overlay.current.spec;
+    const canvas = document.createElement("canvas");
+    canvas.width = Math.round(box.w);
+    canvas.height = Math.round(box.h);
+    const datasets: ChartDataset<"line", { x: number; y: number }[]>[] = [];
+    this.all.forEach((ds, d) => {
+      if (!frame.visible[d]) return;
+      const k = CURVE_KEYS[d % CURVE_KEYS.length]!;
+      const colour = pal.cases[Math.floor(d / CURVE_KEYS.length)] ?? pal.chalk;
+      datasets.push({
+        ...ds,
+        borderColor: colour,
+        backgroundColor: colour,
+        borderWidth: k === "total" ? lineWidth + 1 : lineWidth,
+        borderDash: CURVE_DASH[k].map((v) => v * (lineWidth / 2.5)),
+      });
+    });
+    const built = chartOptions(frame, spec, pal, fontPx, true);
+    const scales: Record<string, unknown> = { ...built.scales };
+    if (datasets.some((d) => d.yAxisID === "power")) scales.power = built.power;
+    if (datasets.some((d) => d.yAxisID === "ld")) scales.ld = built.ld;
+    const overlay = { current: { ...this.overlay.current, palette: pal, fontPx, lineWidth } };
+    const ch = new ChartJS(canvas, {
+      type: "line",
+      data: { datasets },
+      options: {
+        animation: false,
+        responsive: false,
+        devicePixelRatio: 1,
+        events: [],
+        plugins: { legend: { display: false }, tooltip: { enabled: false } },
+        scales: scales as ChartOptions<"line">["scales"],
+      },
+      plugins: [boardPlugin(overlay)],
+    });
+    try {
+      target.drawImage(canvas, box.x, box.y, box.w, box.h);
+    } finally {
+      ch.destroy();
+    }
+  };
 
   apply(ch: Chart<"line", { x: number; y: number }[]>, input: ApplyInput): void {
     const eff = effectiveSpec(input.spec, input.conceal);
@@ -411,6 +704,8 @@ class CurveChartController {
   }
 }
 
+const NO_THRUST: boolean[] = [];
+
 function CurveChartInner({
   spec,
   focus,
@@ -418,19 +713,28 @@ function CurveChartInner({
   conceal = null,
   guessMs = null,
   answerMs = null,
+  thrust = NO_THRUST,
   onPickSpeed,
   chartRef,
+  exportRef,
   label,
   className,
 }: CurveChartProps) {
   const chart = useRef<Chart<"line", { x: number; y: number }[]> | null>(null);
   // One controller for the component's life: the chart instance is never recreated.
-  const [ctl] = useState(() => new CurveChartController({ spec, focus, conceal, guessMs, answerMs }, variant));
+  const [ctl] = useState(() => new CurveChartController({ spec, focus, conceal, guessMs, answerMs, thrust }, variant));
   useEffect(() => ctl.setPick(onPickSpeed), [ctl, onPickSpeed]);
+  useEffect(() => {
+    if (!exportRef) return;
+    exportRef.current = ctl.exporter;
+    return () => {
+      exportRef.current = null;
+    };
+  }, [ctl, exportRef]);
   useLayoutEffect(() => {
     const ch = chart.current;
-    if (ch) ctl.apply(ch, { spec, focus, conceal, guessMs, answerMs });
-  }, [ctl, spec, focus, conceal, guessMs, answerMs]);
+    if (ch) ctl.apply(ch, { spec, focus, conceal, guessMs, answerMs, thrust });
+  }, [ctl, spec, focus, conceal, guessMs, answerMs, thrust]);
   // react-chartjs-2 creates the chart in an effect and then calls this ref: hand the one
   // instance to the caller (PNG export, tests) as soon as it exists.
   const setChart = useCallback(

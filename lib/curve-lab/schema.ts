@@ -1,5 +1,15 @@
 import { z } from "zod";
-import { aircraftSchema, atmosphereConditionsSchema, lbToKg, ftToM, kgToLb, mToFt, METRES_PER_FOOT } from "@/lib/aero";
+import {
+  aircraftSchema,
+  atmosphereConditionsSchema,
+  lbToKg,
+  ftToM,
+  kgToLb,
+  mToFt,
+  LIMITS,
+  METRES_PER_FOOT,
+  type NumberLimit,
+} from "@/lib/aero";
 import {
   CALL_KINDS,
   CONFIGURATION_KEYS,
@@ -179,19 +189,52 @@ function check(
   ctx.addIssue({ code: "custom", path, message: converted ? `${message} (entered value is ${converted})` : message });
 }
 
+const sig3 = new Intl.NumberFormat("en-GB", { maximumSignificantDigits: 3 });
+
+/**
+ * A measured field (mass, area, span) checked against lib/aero's limit on its SI value. Metric
+ * entries get lib/aero's own words; imperial entries are answered in the unit typed: the limits
+ * converted back, and the value as entered.
+ */
+function checkMeasured(
+  ctx: z.RefinementCtx,
+  lim: NumberLimit,
+  siValue: number,
+  typed: number,
+  path: string[],
+  label: string,
+  imperial: { unit: string; fromSi: (x: number) => number } | null,
+) {
+  const r = (A[lim.field as keyof typeof A] as z.ZodType).safeParse(siValue);
+  if (r.success) return;
+  const problem = r.error.issues[0]?.message ?? `${lim.field} is invalid`;
+  let message = problem.replace(lim.field, label).replace(/ m2\b/g, " m²");
+  if (imperial) {
+    const inRange = lim.positive && Number.isFinite(siValue) && siValue > 0;
+    message = inRange
+      ? `${label} must be between ${sig3.format(imperial.fromSi(lim.min))} and ${sig3.format(imperial.fromSi(lim.max))} ${imperial.unit}`
+      : problem.replace(lim.field, label);
+    if (Number.isFinite(typed)) message += ` (you entered ${typed} ${imperial.unit})`;
+  }
+  ctx.addIssue({ code: "custom", path, message });
+}
+
 export const airframeFormSchema = z
   .object(shape)
   .superRefine((v, ctx) => {
     const si = toSi(v);
     const imperial = v.units === "imperial";
-    const conv = (x: number, unit: string) => (imperial && Number.isFinite(x) ? `${x.toPrecision(4)} ${unit}` : undefined);
-    check(ctx, A.massKg, si.emptyMassKg, ["emptyMass"], LABELS.emptyMass!, "massKg", conv(si.emptyMassKg, "kg"));
-    check(ctx, A.massKg, si.maxMassKg, ["maxMass"], LABELS.maxMass!, "massKg", conv(si.maxMassKg, "kg"));
+    // pound, foot and square-foot entries are answered in pounds, feet and square feet, never in the SI value they became
+    const lb = imperial ? { unit: "lb", fromSi: kgToLb } : null;
+    const ft = imperial ? { unit: "ft", fromSi: mToFt } : null;
+    const ft2 = imperial ? { unit: "ft²", fromSi: (m2: number) => m2 / (METRES_PER_FOOT * METRES_PER_FOOT) } : null;
+    checkMeasured(ctx, LIMITS.massKg, si.emptyMassKg, v.emptyMass, ["emptyMass"], LABELS.emptyMass!, lb);
+    checkMeasured(ctx, LIMITS.massKg, si.maxMassKg, v.maxMass, ["maxMass"], LABELS.maxMass!, lb);
     if (Number.isFinite(si.maxMassKg) && Number.isFinite(si.emptyMassKg) && si.maxMassKg < si.emptyMassKg) {
       ctx.addIssue({ code: "custom", path: ["maxMass"], message: "Maximum mass must be at least the empty mass" });
     }
-    check(ctx, A.wingAreaM2, si.wingAreaM2, ["wingArea"], LABELS.wingArea!, "wingAreaM2", conv(si.wingAreaM2, "m2"));
-    check(ctx, A.wingSpanM, si.wingSpanM, ["wingSpan"], LABELS.wingSpan!, "wingSpanM", conv(si.wingSpanM, "m"));
+    checkMeasured(ctx, LIMITS.wingAreaM2, si.wingAreaM2, v.wingArea, ["wingArea"], LABELS.wingArea!, ft2);
+    checkMeasured(ctx, LIMITS.wingSpanM, si.wingSpanM, v.wingSpan, ["wingSpan"], LABELS.wingSpan!, ft);
     check(ctx, A.oswaldEfficiency, v.oswaldEfficiency, ["oswaldEfficiency"], LABELS.oswaldEfficiency!, "oswaldEfficiency");
     check(
       ctx,

@@ -135,7 +135,7 @@ export const CURVE_LAB_TABLE: AuthzTable = {
     mutates: true,
   },
   "action app/(app)/curve-lab/airframes/actions.ts#retireAirframeAction": {
-    // keeps the profile in service (retired: false), so the positive calls change nothing visible
+    // keeps the profile available (retired: false), so the positive calls change nothing visible
     request: (fx) => ({ args: [{ airframeId: fx.curveLabHeronAirframe, retired: false }] }),
     expect: { ...STAFF_ONLY, chief: 200, instructor: 200 },
     mutates: true,

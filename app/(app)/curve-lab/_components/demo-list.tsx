@@ -63,7 +63,7 @@ export function DemoList({ staff }: { staff: boolean }) {
         <tbody>
           {q.data.map((r) => (
             <tr key={r.id}>
-              <td>
+              <td className="max-w-[24rem] [overflow-wrap:anywhere]">
                 <Link href={`/curve-lab/demos/${r.id}`} className="inline-flex min-h-touch items-center font-semibold">
                   {r.name}
                 </Link>

@@ -3,7 +3,8 @@ import { formatNumber } from "@/components/charts/format";
 import { memo, useCallback, useMemo, useRef, useState, type Dispatch, type SetStateAction } from "react";
 import { useRouter } from "next/navigation";
 import type { Chart } from "chart.js";
-import { CurveChart, CASE_COLOURS, CURVE_DASH, type Concealment } from "@/components/charts/curve-chart";
+import { CurveChart, CASE_COLOURS, CURVE_DASH, type ChartExporter, type Concealment } from "@/components/charts/curve-chart";
+import { composeExport, downloadCanvas, exportMetaFor } from "@/components/charts/export-png";
 import {
   CALL_PROMPTS,
   CONFIGURATION_KEYS,
@@ -27,6 +28,7 @@ import {
 } from "@/lib/curve-lab/demo-spec";
 import { caseFigures, whatIf, GUST_ABOVE_VMD, GUST_BELOW_VMD, AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
 import { kgToLb, mToFt, ftToM } from "@/lib/aero";
+import { callGap } from "@/lib/curve-lab/call-gap";
 import { deleteDemoAction, duplicateDemoAction, makeCallAction, renameDemoAction, saveDemoAction } from "../actions";
 
 export interface WorkbenchProps {
@@ -40,12 +42,38 @@ export interface WorkbenchProps {
   airframes?: AirframeSnapshot[];
   canChange?: boolean;
   inUse?: boolean;
+  /** student: their call on this revision, if made (the page then opens on the result, not the prompt) */
+  priorCall?: { predictedMs: number; actualMs: number } | null;
+  /** student: their own calls on this demo, newest first (any revision) */
+  earlierCalls?: EarlierCall[];
 }
 
+export interface EarlierCall {
+  id: string;
+  revisionNumber: number;
+  kind: CallKind;
+  predictedMs: number;
+  actualMs: number;
+  createdAt: string;
+}
+
+const CALL_KIND_LABELS: Record<CallKind, string> = { vmd: "Vmd", stall: "Stall speed", gust: "Speed after a gust" };
+
 const fmt = formatNumber;
+/** The demo name's limit (as the server's schema, lib/curve-lab/schema.ts). */
+const DEMO_NAME_MAX = 120;
 
 function clamp(x: number, lo: number, hi: number) {
   return Math.min(hi, Math.max(lo, x));
+}
+
+/** A case's mass carried to another aircraft: the same fraction of the way from empty to maximum mass, in whole kg. */
+export function massForNewAirframe(massKg: number, from: AirframeSnapshot, to: AirframeSnapshot): number {
+  const span = from.maxMassKg - from.emptyMassKg;
+  const f = span > 0 ? clamp((massKg - from.emptyMassKg) / span, 0, 1) : 1;
+  if (f === 1) return to.maxMassKg;
+  if (f === 0) return to.emptyMassKg;
+  return clamp(Math.round(to.emptyMassKg + f * (to.maxMassKg - to.emptyMassKg)), to.emptyMassKg, to.maxMassKg);
 }
 
 /** The builder (instructors) and the student's view of a demo: sliders, the live chart, readouts. */
@@ -62,11 +90,16 @@ export function DemoWorkbench(props: WorkbenchProps) {
   const [duplicateKey, setDuplicateKey] = useState(() => crypto.randomUUID());
   const [callKey, setCallKey] = useState(() => crypto.randomUUID());
   const chartRef = useRef<Chart | null>(null);
+  const exportRef = useRef<ChartExporter | null>(null);
+  const [paper, setPaper] = useState(false);
+  // thrust held at the chosen speed, per case (a view choice, not saved with the demo)
+  const [thrust, setThrust] = useState<boolean[]>([]);
+  const toggleThrust = useCallback((i: number, on: boolean) => setThrust((t) => Object.assign([...t], { [i]: on })), []);
 
   // Call it first (students): conceal the answer until the call is made.
   const callKind: CallKind | null = mode === "student" ? spec.callKind : null;
-  const [guessMs, setGuessMs] = useState<number | null>(null);
-  const [answer, setAnswer] = useState<{ actualMs: number; errorMs: number } | null>(null);
+  const [guessMs, setGuessMs] = useState<number | null>(props.priorCall?.predictedMs ?? null);
+  const [answer, setAnswer] = useState<{ predictedMs: number; actualMs: number } | null>(props.priorCall ?? null);
   const calling = callKind !== null && answer === null;
   const conceal = useMemo<Concealment | null>(() => {
     if (!calling) return null;
@@ -79,6 +112,9 @@ export function DemoWorkbench(props: WorkbenchProps) {
     [spec, callKind],
   );
 
+  const nameLength = name.trim().length;
+  const nameProblem =
+    nameLength > DEMO_NAME_MAX ? `Demo name: at most ${DEMO_NAME_MAX} characters (this one has ${nameLength}); shorten it to save.` : null;
   const unit = spec.axis.unit;
   const u = speedUnitLabel(unit);
   const labelsKey = spec.cases.map((c) => c.label).join("\u0000");
@@ -108,8 +144,9 @@ export function DemoWorkbench(props: WorkbenchProps) {
       chosenSpeedMs: fresh.chosenSpeedMs,
       cases: s.cases.map((c) => ({
         ...c,
-        // a mass outside the new type's range starts at its maximum
-        massKg: c.massKg >= a.emptyMassKg && c.massKg <= a.maxMassKg ? c.massKg : a.maxMassKg,
+        // the mass moves to the same place in the new type's range: the old maximum becomes the new
+        // maximum (so a "Max mass" case stays true), the old empty mass the new empty mass
+        massKg: massForNewAirframe(c.massKg, s.airframe, a),
         configuration: c.configuration === "clean" || a.configurations[c.configuration] !== null ? c.configuration : "clean",
       })),
     }));
@@ -125,10 +162,12 @@ export function DemoWorkbench(props: WorkbenchProps) {
   }
   const removeCase = useCallback((i: number) => {
     setSpec((s) => (s.cases.length <= 1 ? s : { ...s, cases: s.cases.filter((_, j) => j !== i) }));
+    setThrust((t) => t.filter((_, j) => j !== i));
     setFocus(0);
   }, []);
 
   async function save() {
+    if (nameProblem) return setStatus({ kind: "error", text: nameProblem });
     setBusy(true);
     setStatus(null);
     const r = await saveDemoAction({ demoId: props.demoId, name, spec, idempotencyKey: saveKey });
@@ -151,6 +190,7 @@ export function DemoWorkbench(props: WorkbenchProps) {
   }
   async function rename() {
     if (!props.demoId) return;
+    if (nameProblem) return setStatus({ kind: "error", text: nameProblem });
     setBusy(true);
     const r = await renameDemoAction({ demoId: props.demoId, name });
     setBusy(false);
@@ -182,20 +222,16 @@ export function DemoWorkbench(props: WorkbenchProps) {
     setBusy(false);
     if (!r.ok) return setStatus({ kind: "error", text: r.message });
     setCallKey(crypto.randomUUID());
-    setAnswer({ actualMs: r.data.actualMs, errorMs: r.data.errorMs });
+    // a call already made on this revision (another tab) comes back unchanged: show that one
+    setGuessMs(r.data.predictedMs);
+    setAnswer({ predictedMs: r.data.predictedMs, actualMs: r.data.actualMs });
   }
 
   function exportPng() {
-    const ch = chartRef.current;
-    if (!ch) return;
-    // chart.js gives a data: URL; Chromium will not download a data: URL, so hand it over as a Blob.
-    const base64 = ch.toBase64Image("image/png", 1).split(",")[1] ?? "";
-    const bytes = Uint8Array.from(atob(base64), (ch2) => ch2.charCodeAt(0));
-    const a = document.createElement("a");
-    a.href = URL.createObjectURL(new Blob([bytes], { type: "image/png" }));
-    a.download = `${name || "demo"}.png`.replace(/[^\w .-]+/g, "_");
-    a.click();
-    setTimeout(() => URL.revokeObjectURL(a.href), 1000);
+    const draw = exportRef.current;
+    if (!draw) return;
+    const { canvas } = composeExport(draw, { ...exportMetaFor(name, spec), note: AXIS_ASSUMPTION }, { light: paper });
+    downloadCanvas(canvas, `${name || "demo"}${paper ? " (paper)" : ""}.png`.replace(/[^\w .()-]+/g, "_"));
   }
   async function exportCsv() {
     const [{ toCsv }, { sampleCurves }, { curveCaseFor }] = await Promise.all([
@@ -254,7 +290,20 @@ export function DemoWorkbench(props: WorkbenchProps) {
             <label htmlFor="demo-name" className="field-label">
               Demo name
             </label>
-            <input id="demo-name" className="field-input" value={name} maxLength={120} onChange={(e) => setName(e.target.value)} />
+            {/* no maxLength: a pasted name is never cut silently; over the limit it is refused with a message */}
+            <input
+              id="demo-name"
+              className="field-input"
+              value={name}
+              aria-invalid={nameProblem !== null}
+              aria-describedby={nameProblem ? "demo-name-error" : undefined}
+              onChange={(e) => setName(e.target.value)}
+            />
+            {nameProblem && (
+              <p id="demo-name-error" className="field-error" data-testid="demo-name-error">
+                {nameProblem}
+              </p>
+            )}
           </div>
           {props.airframes && (
             <div className="min-w-56">
@@ -368,17 +417,25 @@ export function DemoWorkbench(props: WorkbenchProps) {
             </button>
           </div>
           <div aria-live="polite" data-testid="call-result">
-            {answer && (
-              <p className="text-lead">
-                Your call <span className="num font-semibold">{formatSpeed(answer.actualMs + answer.errorMs, unit)}</span> · answer{" "}
-                <span className="num font-semibold">{formatSpeed(answer.actualMs, unit)}</span> · you were{" "}
-                <span className="num font-semibold">
-                  {fmt(Math.abs(speedInUnit(answer.errorMs, unit)), 1)} {u} {answer.errorMs >= 0 ? "fast" : "slow"}
-                </span>
-                .
-              </p>
-            )}
+            {answer && <CallResult predictedMs={answer.predictedMs} actualMs={answer.actualMs} unit={unit} />}
           </div>
+          {props.earlierCalls && props.earlierCalls.length > 0 && (
+            <div>
+              <h3 className="field-label">Your calls on this demo</h3>
+              <ul className="space-y-1 text-caption" data-testid="own-calls">
+                {props.earlierCalls.map((c) => {
+                  const g = callGap(c.predictedMs, c.actualMs, unit);
+                  return (
+                    <li key={c.id} className="num">
+                      Revision {c.revisionNumber}, {CALL_KIND_LABELS[c.kind]}: your call {g.call}, answer {g.answer},{" "}
+                      {g.direction === "on the answer" ? "on the answer" : `${g.gap} ${g.direction}`} ·{" "}
+                      {new Date(c.createdAt).toISOString().slice(0, 10)}
+                    </li>
+                  );
+                })}
+              </ul>
+            </div>
+          )}
         </section>
       )}
 
@@ -393,6 +450,8 @@ export function DemoWorkbench(props: WorkbenchProps) {
             answerMs={answer ? answer.actualMs : null}
             onPickSpeed={calling ? setGuessMs : undefined}
             chartRef={chartRef}
+            exportRef={exportRef}
+            thrust={thrust}
             className="h-[26rem] w-full min-w-0 overflow-hidden"
             label={`Drag against ${spec.axis.speed === "true" ? "TAS" : "EAS"} for ${spec.cases.map((c) => c.label).join(", ")}`}
           />
@@ -407,6 +466,16 @@ export function DemoWorkbench(props: WorkbenchProps) {
             >
               Export chart (PNG)
             </button>
+            <label className="flex min-h-touch items-center gap-2 text-caption">
+              <input
+                type="checkbox"
+                className="h-5 w-5"
+                checked={paper}
+                onChange={(e) => setPaper(e.target.checked)}
+                data-testid="export-paper"
+              />
+              White background, for printing
+            </label>
             <button
               type="button"
               className="btn border border-board-600 text-chalk hover:bg-board-700"
@@ -489,6 +558,8 @@ export function DemoWorkbench(props: WorkbenchProps) {
               mode={mode}
               locked={locked}
               focused={focus === i}
+              thrust={thrust[i] ?? false}
+              onThrust={toggleThrust}
               canRemove={mode === "builder" && spec.cases.length > 1}
               onChange={updateCase}
               onFocus={setFocus}
@@ -515,6 +586,27 @@ export function DemoWorkbench(props: WorkbenchProps) {
   );
 }
 
+/** The reveal: the call, the answer and the gap between the two numbers as shown. */
+function CallResult({ predictedMs, actualMs, unit }: { predictedMs: number; actualMs: number; unit: "kt" | "ms" }) {
+  const g = callGap(predictedMs, actualMs, unit);
+  return (
+    <p className="text-lead">
+      Your call <span className="num font-semibold">{g.call}</span> · answer <span className="num font-semibold">{g.answer}</span> ·{" "}
+      {g.direction === "on the answer" ? (
+        <span className="font-semibold">right on the answer</span>
+      ) : (
+        <>
+          you were{" "}
+          <span className="num font-semibold">
+            {g.gap} {g.direction}
+          </span>
+        </>
+      )}
+      .
+    </p>
+  );
+}
+
 interface CaseEditorProps {
   index: number;
   c: DemoCase;
@@ -523,6 +615,8 @@ interface CaseEditorProps {
   mode: "builder" | "student";
   locked: boolean;
   focused: boolean;
+  thrust: boolean;
+  onThrust: (i: number, on: boolean) => void;
   canRemove: boolean;
   onChange: (i: number, patch: Partial<DemoCase>) => void;
   onFocus: (i: number) => void;
@@ -538,6 +632,8 @@ const CaseEditor = memo(function CaseEditor({
   mode,
   locked,
   focused,
+  thrust,
+  onThrust,
   canRemove,
   onChange,
   onFocus,
@@ -557,6 +653,17 @@ const CaseEditor = memo(function CaseEditor({
         <label className="flex min-h-touch items-center gap-2 text-caption">
           <input type="radio" name="focus" checked={focused} onChange={() => onFocus(index)} className="h-5 w-5" /> Focus (readouts,
           regions)
+        </label>
+        <label className="flex min-h-touch items-center gap-2 text-caption">
+          <input
+            type="checkbox"
+            checked={thrust}
+            disabled={locked}
+            onChange={(e) => onThrust(index, e.target.checked)}
+            className="h-5 w-5"
+            data-testid={`thrust-${index}`}
+          />{" "}
+          Thrust line (held at the chosen speed)
         </label>
         {canRemove && (
           <button type="button" className="btn-quiet" onClick={() => onRemove(index)}>

@@ -36,7 +36,7 @@ export function AirframeButtons({ airframeId, retired }: { airframeId: string; r
         Duplicate
       </button>
       <button type="button" className="btn-quiet" onClick={retire} disabled={busy}>
-        {retired ? "Return to service" : "Retire"}
+        {retired ? "Bring back" : "Retire"}
       </button>
       {!retired && (
         <a href={`/curve-lab/demos/new?airframe=${airframeId}`} className="btn-primary">

@@ -66,7 +66,7 @@ export function AirframeList() {
                   <td className="num">
                     {fmt(a.wingAreaM2, 1)} m² · span {fmt(a.wingSpanM, 2)} m
                   </td>
-                  <td>{a.retiredAt ? "Retired" : "In service"}</td>
+                  <td>{a.retiredAt ? "Retired" : "Available"}</td>
                 </tr>
               ))}
             </tbody>
