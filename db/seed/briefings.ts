@@ -2,9 +2,11 @@ import { QueryTypes } from "sequelize";
 import { PDFDocument, StandardFonts, rgb } from "pdf-lib";
 import { sequelize } from "../index";
 import { Assignment, AssignmentCompletion } from "../models";
-import { addHandout, saveBriefingRevision, type BriefingInput } from "../access/briefings";
-import { createAssignments } from "../access/assignments";
+import { addHandout } from "../access/briefings/handouts";
+import { saveBriefingRevision, type BriefingInput } from "../access/briefings/save-revision";
+import { createAssignments } from "../access/assignments/create";
 import type { SeedContext } from "./extensions";
+import type { CurrentUser } from "@/lib/auth/session";
 
 // Demo briefings for the drag-and-speed stage (content of our own, standard theory), a generated
 // PDF handout, and assignments for the Kestrel cohort. Runs after Curve Lab's seed (it uses its demos)
@@ -86,7 +88,7 @@ export async function seedBriefings(ctx: SeedContext): Promise<void> {
     { replacements: { s: schoolId }, type: QueryTypes.SELECT, transaction: t },
   );
   const demo = (name: string) => demos.filter((d) => d.name === name).map((d) => d.revisionId);
-  const tomasz = { id: ctx.people.instructor, schoolId, roles: ["instructor"] };
+  const tomasz: CurrentUser = { id: ctx.people.instructor, name: "Tomasz Varga", schoolId, roles: ["instructor"] };
   const base = (over: Partial<BriefingInput>): BriefingInput => ({
     courseId: ctx.courseId,
     syllabusRevisionId: ctx.revisionId,
@@ -216,7 +218,7 @@ export async function seedBriefings(ctx: SeedContext): Promise<void> {
 
   // Kestrel: the Vmd briefing due in three days (mailed, through the normal path) and the
   // drag-sources briefing that was due two days ago, done by some.
-  const chief = { id: ctx.people.chief, schoolId, roles: ["chief"] };
+  const chief: CurrentUser = { id: ctx.people.chief, name: "Imogen Farrant", schoolId, roles: ["chief", "instructor"] };
   await createAssignments(
     chief,
     {

@@ -1,4 +1,4 @@
-import type { SyllabusStageInput } from "../access/syllabus";
+import type { SyllabusStageInput } from "../access/syllabus/create-revision";
 
 // The invented demo scenario: a fictional school, people and numbers of our own.
 export const DEMO_PASSWORD = "chalkwing-demo";

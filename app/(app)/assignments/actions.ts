@@ -1,8 +1,9 @@
 "use server";
 import { revalidatePath } from "next/cache";
 import { runAction } from "@/lib/actions/run-action";
-import { createAssignments, setAssignmentDone } from "@/db/access/assignments";
-import { assignmentSchema, completionSchema } from "./schema";
+import { createAssignments } from "@/db/access/assignments/create";
+import { setAssignmentDone } from "@/db/access/assignments/student-assignments";
+import { assignmentSchema, completionSchema } from "@/lib/assignments/schema";
 
 /** Assigns a briefing or a demo to a cohort or to students; each student gets an `assignment.new` mail in the same transaction. */
 export async function createAssignmentAction(input: unknown) {

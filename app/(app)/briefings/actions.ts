@@ -1,8 +1,8 @@
 "use server";
 import { revalidatePath } from "next/cache";
 import { runAction } from "@/lib/actions/run-action";
-import { saveBriefingRevision } from "@/db/access/briefings";
-import { briefingSchema, reviseBriefingSchema } from "./schema";
+import { saveBriefingRevision } from "@/db/access/briefings/save-revision";
+import { briefingSchema, reviseBriefingSchema } from "@/lib/briefings/schema";
 
 /** Writes a new briefing and its first revision. */
 export async function createBriefingAction(input: unknown) {

@@ -1,10 +1,10 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission, can } from "@/lib/auth/guard";
-import { listBriefings } from "@/db/access/briefings";
-import { briefingListQuery } from "./schema";
+import { listBriefings } from "@/db/access/briefings/list";
+import { briefingListQuery } from "@/lib/briefings/schema";
 import { getSchool } from "@/db/access/shared/school";
-import { formatInZone } from "@/lib/time";
+import { formatDay } from "@/lib/time";
 import { ScrollArea } from "@/components/ui/scroll-area";
 
 export const metadata: Metadata = { title: "Briefings" };
@@ -133,8 +133,7 @@ export default async function BriefingsPage({ searchParams }: { searchParams: Pr
                     <td className="num">{b.minutes}</td>
                     <td className="num">{b.revisionNumber}</td>
                     <td className="num">
-                      {formatInZone(new Date(b.updatedAt), school.timeZone, "d MMM yyyy")}{" "}
-                      <span className="text-ink-soft">· {b.updatedByName}</span>
+                      {formatDay(new Date(b.updatedAt), school.timeZone)} <span className="text-ink-soft">· {b.updatedByName}</span>
                     </td>
                     <td className="num">{b.itemCodes.join(", ") || "—"}</td>
                     <td className="num">

@@ -1,8 +1,9 @@
 "use server";
 import { revalidatePath } from "next/cache";
 import { runAction } from "@/lib/actions/run-action";
-import { createSyllabusRevisionForSchool, moveEnrolmentToRevision } from "@/db/access/syllabus";
-import { moveEnrolmentSchema, syllabusRevisionSchema } from "./schema";
+import { createSyllabusRevisionForSchool } from "@/db/access/syllabus/create-revision";
+import { moveEnrolmentToRevision } from "@/db/access/syllabus/enrolments";
+import { moveEnrolmentSchema, syllabusRevisionSchema } from "@/lib/syllabus/schema";
 
 /** Makes the next syllabus revision of a course; earlier revisions and the enrolments on them stay as they are. */
 export async function createSyllabusRevisionAction(input: unknown) {

@@ -1,8 +1,9 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission, can } from "@/lib/auth/guard";
-import { getSyllabusRevision, listCoursesWithLatestRevision } from "@/db/access/syllabus";
-import { getActiveEnrolment } from "@/db/access/cohorts/student-enrolment";
+import { getSyllabusRevision } from "@/db/access/syllabus/revisions";
+import { listCoursesWithLatestRevision } from "@/db/access/syllabus/courses";
+import { activeEnrolment } from "@/db/access/shared/enrolment";
 import { ScrollArea } from "@/components/ui/scroll-area";
 
 export const metadata: Metadata = { title: "Syllabus" };
@@ -13,10 +14,10 @@ const LEVEL_LABEL = { rote: "Rote", understanding: "Understanding", application:
 export default async function SyllabusPage() {
   const user = await requirePagePermission("syllabus.view", "/syllabus");
   let revisionIds: string[];
-  if (user.roles.includes("chief") || user.roles.includes("instructor")) {
+  if (can(user, "syllabus.all")) {
     revisionIds = (await listCoursesWithLatestRevision(user.schoolId)).flatMap((c) => (c.revisionId ? [c.revisionId] : []));
   } else {
-    const e = await getActiveEnrolment(user.id);
+    const e = await activeEnrolment(user.schoolId, user.id);
     revisionIds = e ? [e.revisionId] : [];
   }
   const revisions = (await Promise.all(revisionIds.map((id) => getSyllabusRevision(user.schoolId, id)))).filter((r) => r !== null);

@@ -1,8 +1,8 @@
 // GET /api/briefings: one page of the briefings the caller may read (sortable, filterable; bad parameters are a 400 naming them).
 import { NextResponse } from "next/server";
 import { route, parseQuery } from "@/lib/http/api";
-import { listBriefings } from "@/db/access/briefings";
-import { briefingListQuery } from "@/app/(app)/briefings/schema";
+import { listBriefings } from "@/db/access/briefings/list";
+import { briefingListQuery } from "@/lib/briefings/schema";
 
 export const dynamic = "force-dynamic";
 

@@ -3,7 +3,7 @@ import { NextResponse } from "next/server";
 import { route } from "@/lib/http/api";
 import { can } from "@/lib/auth/guard";
 import { listDemos } from "@/db/access/curve-lab/demos";
-import { listAssignedDemosForStudent } from "@/db/access/assignments";
+import { listAssignedDemosForStudent } from "@/db/access/assignments/assigned-to-student";
 
 export const dynamic = "force-dynamic";
 

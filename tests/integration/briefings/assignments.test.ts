@@ -3,12 +3,9 @@ import { sequelize } from "@/db/index";
 import { makeSchool, closeDb, actAs } from "@/tests/helpers/factories";
 import { createBriefingAction } from "@/app/(app)/briefings/actions";
 import { createAssignmentAction, setAssignmentDoneAction } from "@/app/(app)/assignments/actions";
-import {
-  assignmentCompletion,
-  isDemoAssignedToStudent,
-  listAssignedDemosForStudent,
-  listAssignmentsForStudent,
-} from "@/db/access/assignments";
+import { assignmentCompletion } from "@/db/access/assignments/staff-assignments";
+import { isDemoAssignedToStudent, listAssignedDemosForStudent } from "@/db/access/assignments/assigned-to-student";
+import { listAssignmentsForStudent } from "@/db/access/assignments/student-assignments";
 import { fixedClock, resetClock } from "@/lib/clock";
 
 jest.mock("next/cache", () => ({ revalidatePath: jest.fn() }));

@@ -3,8 +3,9 @@ import { sequelize } from "@/db/index";
 import { makeSchool, closeDb, actAs } from "@/tests/helpers/factories";
 import { createBriefingAction, reviseBriefingAction } from "@/app/(app)/briefings/actions";
 import { createSyllabusRevisionAction, moveEnrolmentAction } from "@/app/(app)/syllabus/actions";
-import { getBriefing, listBriefings } from "@/db/access/briefings";
-import { getSyllabusRevision } from "@/db/access/syllabus";
+import { getBriefing } from "@/db/access/briefings/read-briefing";
+import { listBriefings } from "@/db/access/briefings/list";
+import { getSyllabusRevision } from "@/db/access/syllabus/revisions";
 import { DEMO_STAGES } from "@/db/seed/scenario";
 
 jest.mock("next/cache", () => ({ revalidatePath: jest.fn() }));

@@ -2,8 +2,11 @@ import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
 import { makeSchool, closeDb, actAs } from "@/tests/helpers/factories";
 import { createBriefingAction } from "@/app/(app)/briefings/actions";
-import { addHandout, canViewBriefing, getHandoutFile, listBriefings } from "@/db/access/briefings";
-import { briefingListQuery } from "@/app/(app)/briefings/schema";
+import { addHandout, getHandoutFile } from "@/db/access/briefings/handouts";
+import { canViewBriefing } from "@/db/access/briefings/visibility";
+import { listBriefings } from "@/db/access/briefings/list";
+import { briefingListQuery } from "@/lib/briefings/schema";
+import type { CurrentUser } from "@/lib/auth/session";
 
 jest.mock("next/cache", () => ({ revalidatePath: jest.fn() }));
 afterAll(async () => {
@@ -79,7 +82,7 @@ describe("who may read a briefing", () => {
 
     const cohortB = s.people.students[3]!;
     const loneA = s.people.students[1]!;
-    const viewer = (p: { id: string }) => ({ id: p.id, schoolId: s.school.id, roles: ["student"] as const });
+    const viewer = (p: { id: string }): CurrentUser => ({ id: p.id, name: "Student", schoolId: s.school.id, roles: ["student"] });
     expect(await canViewBriefing(viewer(cohortB), b.briefingId)).toBe(false);
     expect(await getHandoutFile(viewer(cohortB), handoutId)).toEqual({ status: "forbidden" });
 
@@ -98,7 +101,9 @@ describe("who may read a briefing", () => {
     });
     expect(await canViewBriefing(viewer(cohortB), b.briefingId)).toBe(false);
     // a sponsor never reads briefings
-    expect(await canViewBriefing({ id: s.people.sponsor.id, schoolId: s.school.id, roles: ["sponsor"] }, b.briefingId)).toBe(false);
+    expect(
+      await canViewBriefing({ id: s.people.sponsor.id, name: "Sponsor", schoolId: s.school.id, roles: ["sponsor"] }, b.briefingId),
+    ).toBe(false);
   });
 });
 

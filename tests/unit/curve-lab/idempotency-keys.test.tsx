@@ -125,7 +125,7 @@ describe("Curve Lab create forms send an idempotency key", () => {
   it("Create profile: the aircraft profile form sends one key per form, repeated on a retry", async () => {
     const create = airframeActions.createAirframeAction;
     create.mockResolvedValueOnce(failure).mockResolvedValue({ ok: true, data: { id: AIRFRAME_ID } });
-    render(<AirframeForm airframeId={null} defaults={formValuesFor(wren, "metric")} />);
+    render(<AirframeForm airframeId={null} defaults={formValuesFor({ ...wren, notes: "" }, "metric")} />);
     fireEvent.click(screen.getByRole("button", { name: "Create profile" }));
     await waitFor(() => expect(create).toHaveBeenCalledTimes(1));
     await waitFor(() => expect(screen.getByTestId("form-message")).toHaveTextContent("try again"));

@@ -2,9 +2,9 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { assignmentCompletion } from "@/db/access/assignments";
+import { assignmentCompletion } from "@/db/access/assignments/staff-assignments";
 import { getSchool } from "@/db/access/shared/school";
-import { formatInZone } from "@/lib/time";
+import { formatDayTime } from "@/lib/time";
 import { uuidParam } from "@/lib/http/api";
 import { StatusBadge } from "../_components/status-badge";
 import { formatDueOn } from "../_components/format";
@@ -57,9 +57,7 @@ export default async function AssignmentPage({ params }: { params: Promise<{ ass
                   <td>
                     <StatusBadge done={r.done} overdue={r.overdue} />
                   </td>
-                  <td className="num">
-                    {r.completedAt ? formatInZone(new Date(r.completedAt), school.timeZone, "d MMM yyyy HH:mm") : "—"}
-                  </td>
+                  <td className="num">{r.completedAt ? formatDayTime(new Date(r.completedAt), school.timeZone) : "—"}</td>
                 </tr>
               ))}
             </tbody>

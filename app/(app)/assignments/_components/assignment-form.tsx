@@ -4,9 +4,9 @@ import { useRouter } from "next/navigation";
 import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
-import { assignmentSchema } from "../schema";
+import { assignmentSchema } from "@/lib/assignments/schema";
 import { createAssignmentAction } from "../actions";
-import type { AssignmentChoices } from "@/db/access/assignments";
+import type { AssignmentChoices } from "@/db/access/assignments/choices";
 
 type FormIn = z.input<typeof assignmentSchema>;
 type FormOut = z.output<typeof assignmentSchema>;

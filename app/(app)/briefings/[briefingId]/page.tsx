@@ -2,9 +2,10 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePagePermission, can } from "@/lib/auth/guard";
-import { canViewBriefing, getBriefing } from "@/db/access/briefings";
+import { canViewBriefing } from "@/db/access/briefings/visibility";
+import { getBriefing } from "@/db/access/briefings/read-briefing";
 import { getSchool } from "@/db/access/shared/school";
-import { formatInZone } from "@/lib/time";
+import { formatDayTime } from "@/lib/time";
 import { uuidParam } from "@/lib/http/api";
 import { HandoutUpload } from "../_components/handout-upload";
 import { ScrollArea } from "@/components/ui/scroll-area";
@@ -196,7 +197,7 @@ export default async function BriefingPage({
                       <Link href={`/briefings/${b.id}?revision=${x.number}`}>{x.number}</Link>
                     )}
                   </td>
-                  <td className="num">{formatInZone(new Date(x.createdAt), school.timeZone, "d MMM yyyy HH:mm")}</td>
+                  <td className="num">{formatDayTime(new Date(x.createdAt), school.timeZone)}</td>
                   <td>{x.createdByName}</td>
                   <td>{x.changeNote || "—"}</td>
                 </tr>

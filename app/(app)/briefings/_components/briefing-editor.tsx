@@ -4,9 +4,9 @@ import { useRouter } from "next/navigation";
 import { useFieldArray, useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
-import { briefingSchema } from "../schema";
+import { briefingSchema } from "@/lib/briefings/schema";
 import { createBriefingAction, reviseBriefingAction } from "../actions";
-import type { EditorChoices } from "@/db/access/briefings";
+import type { EditorChoices } from "@/db/access/briefings/editor-choices";
 
 type FormIn = z.input<typeof briefingSchema>;
 type FormOut = z.output<typeof briefingSchema>;

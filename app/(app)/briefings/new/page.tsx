@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { editorChoices } from "@/db/access/briefings";
-import { defaultCourseId } from "@/db/access/syllabus";
+import { editorChoices } from "@/db/access/briefings/editor-choices";
+import { defaultCourseId } from "@/db/access/syllabus/courses";
 import { BriefingEditor } from "../_components/briefing-editor";
 
 export const metadata: Metadata = { title: "New briefing" };

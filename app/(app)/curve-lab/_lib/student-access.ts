@@ -1,5 +1,5 @@
 import "server-only";
-import { listAssignedDemosForStudent } from "@/db/access/assignments";
+import { listAssignedDemosForStudent } from "@/db/access/assignments/assigned-to-student";
 
 /**
  * Which revision of a demo a student was given (directly assigned: the current revision; through a

@@ -4,7 +4,7 @@ import { useRouter } from "next/navigation";
 import { useFieldArray, useForm, type Control, type UseFormRegister, type FieldErrors } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
-import { syllabusRevisionSchema } from "../schema";
+import { syllabusRevisionSchema } from "@/lib/syllabus/schema";
 import { createSyllabusRevisionAction } from "../actions";
 
 type FormIn = z.input<typeof syllabusRevisionSchema>;

@@ -2,9 +2,11 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { defaultCourseId, listActiveEnrolments, listCoursesWithLatestRevision, listSyllabusRevisions } from "@/db/access/syllabus";
+import { defaultCourseId, listCoursesWithLatestRevision } from "@/db/access/syllabus/courses";
+import { listActiveEnrolments } from "@/db/access/syllabus/enrolments";
+import { listSyllabusRevisions } from "@/db/access/syllabus/revisions";
 import { getSchool } from "@/db/access/shared/school";
-import { formatInZone } from "@/lib/time";
+import { formatDay } from "@/lib/time";
 import { uuidParam } from "@/lib/http/api";
 import { MoveEnrolment } from "../_components/move-enrolment";
 import { ScrollArea } from "@/components/ui/scroll-area";
@@ -86,9 +88,7 @@ export default async function SyllabusRevisionsPage({
                   <td className="num">{r.briefingRevisions}</td>
                   <td>
                     {r.changeNote || "—"}{" "}
-                    <span className="text-caption text-ink-soft">
-                      · made {formatInZone(new Date(r.createdAt), school.timeZone, "d MMM yyyy")}
-                    </span>
+                    <span className="text-caption text-ink-soft">· made {formatDay(new Date(r.createdAt), school.timeZone)}</span>
                   </td>
                 </tr>
               ))}

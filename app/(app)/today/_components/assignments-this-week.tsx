@@ -1,7 +1,9 @@
 import Link from "next/link";
 import { addDays, format, parseISO } from "date-fns";
 import type { CurrentUser } from "@/lib/auth/session";
-import { listAssignmentsForStudent, schoolToday } from "@/db/access/assignments";
+import { formatDay } from "@/lib/time";
+import { listAssignmentsForStudent } from "@/db/access/assignments/student-assignments";
+import { schoolToday } from "@/db/access/assignments/school-today";
 
 /** Inside the student's "This week" card: assignments not yet done that are overdue or due within seven days. */
 export async function AssignmentsThisWeek({ user }: { user: CurrentUser }) {
@@ -25,7 +27,7 @@ export async function AssignmentsThisWeek({ user }: { user: CurrentUser }) {
               </Link>
               <span className={a.overdue ? "text-caption font-semibold text-notyet-800" : "text-caption text-ink-soft"}>
                 {a.overdue ? "Overdue: " : "Due "}
-                {format(parseISO(a.dueOn), "EEE d MMM")}
+                {formatDay(a.dueOn)}
               </span>
             </li>
           ))}

@@ -1,7 +1,7 @@
 // GET /api/handouts/[handoutId]: a handout's file, to people who may read its briefing, as an attachment.
 import { route, uuidParam } from "@/lib/http/api";
 import { HttpError } from "@/lib/http/errors";
-import { getHandoutFile } from "@/db/access/briefings";
+import { getHandoutFile } from "@/db/access/briefings/handouts";
 import { contentDisposition } from "../_lib/files";
 
 export const dynamic = "force-dynamic";

@@ -1,7 +1,9 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { briefingAsInput, editorChoices, getBriefing } from "@/db/access/briefings";
+import { briefingAsInput } from "@/db/access/briefings/save-revision";
+import { editorChoices } from "@/db/access/briefings/editor-choices";
+import { getBriefing } from "@/db/access/briefings/read-briefing";
 import { BriefingEditor } from "../../_components/briefing-editor";
 import { uuidParam } from "@/lib/http/api";
 

@@ -1,7 +1,8 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { defaultCourseId, getSyllabusRevision, listCoursesWithLatestRevision } from "@/db/access/syllabus";
+import { defaultCourseId, listCoursesWithLatestRevision } from "@/db/access/syllabus/courses";
+import { getSyllabusRevision } from "@/db/access/syllabus/revisions";
 import { uuidParam } from "@/lib/http/api";
 import { RevisionEditor } from "../../_components/revision-editor";
 

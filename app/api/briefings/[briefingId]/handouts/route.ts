@@ -3,8 +3,7 @@ import { NextResponse } from "next/server";
 import { z } from "zod";
 import { route, parseQuery, uuidParam } from "@/lib/http/api";
 import { HttpError } from "@/lib/http/errors";
-import { inTransaction } from "@/db/index";
-import { addHandout, HANDOUT_MAX_BYTES } from "@/db/access/briefings";
+import { uploadHandout, HANDOUT_MAX_BYTES } from "@/db/access/briefings/handouts";
 import { EXTENSIONS, extensionOf, mediaType, sniffHandoutType } from "@/app/api/handouts/_lib/files";
 
 export const dynamic = "force-dynamic";
@@ -53,6 +52,6 @@ export const POST = route<{ briefingId: string }>("briefings.edit", async ({ req
   if (declared !== actual) throw new HttpError(415, `file: the content is ${actual}, not ${declared || "the declared type"}`, "file");
   if (!EXTENSIONS[actual].includes(extensionOf(name)))
     throw new HttpError(415, `name: the file's name does not match its content (${actual})`, "name");
-  const saved = await inTransaction((t) => addHandout(user, params.briefingId, { fileName: name, contentType: actual, bytes }, t));
+  const saved = await uploadHandout(user, params.briefingId, { fileName: name, contentType: actual, bytes });
   return NextResponse.json(saved, { status: 201 });
 });
