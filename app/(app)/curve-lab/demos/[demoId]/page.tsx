@@ -11,6 +11,7 @@ import { listCallsForDemo } from "@/db/access/curve-lab/calls";
 import { ownCallOnRevision } from "@/db/access/curve-lab/call-once";
 import { DemoWorkbench } from "../../_components/demo-workbench";
 import { assignedRevisionFor } from "../../_lib/student-access";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 export const metadata: Metadata = { title: "Demo · Curve Lab" };
 export const dynamic = "force-dynamic";
@@ -92,7 +93,7 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
         {calls.length === 0 ? (
           <p className="text-ink-soft">No calls from your students yet.</p>
         ) : (
-          <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Students' calls, scrolls sideways">
+          <ScrollArea label="Students' calls, scrolls sideways">
             <table className="data-table" data-testid="calls-table">
               <thead>
                 <tr>
@@ -124,7 +125,7 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
                 ))}
               </tbody>
             </table>
-          </div>
+          </ScrollArea>
         )}
       </section>
     </div>
