@@ -1,7 +1,7 @@
 import { addDays, format } from "date-fns";
 import { sequelize } from "../index";
 import { School } from "../models";
-import { createSchool } from "../access/school";
+import { createSchool } from "../access/shared/school";
 import { createPerson, addQualification } from "../access/people/create-person";
 import { createCourse } from "../access/syllabus/courses";
 import { createSyllabusRevision } from "../access/syllabus/create-revision";
