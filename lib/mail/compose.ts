@@ -1,5 +1,18 @@
 import { env } from "@/lib/env";
-import { action, bullets, dateLong, facts, oneLine, para, render, timeOnly, whenLong, type ComposedMail, type MailSchool } from "./layout";
+import {
+  action,
+  bullets,
+  dateLong,
+  facts,
+  greet,
+  oneLine,
+  para,
+  render,
+  timeOnly,
+  whenLong,
+  type ComposedMail,
+  type MailSchool,
+} from "./layout";
 
 export type { ComposedMail, MailSchool } from "./layout";
 
@@ -61,7 +74,7 @@ const composers: { [K in MailKind]: Composer<K> } = {
       ...render({
         school: s,
         title,
-        greeting: `Hello ${d.name},`,
+        greeting: greet(d.name),
         blocks: [
           para(`${s.name} has made you an account in Chalkwing, where the ground school keeps your timetable, briefings and progress.`),
           para("Choose your password with the link below. The link works once."),
@@ -80,7 +93,7 @@ const composers: { [K in MailKind]: Composer<K> } = {
       ...render({
         school: s,
         title,
-        greeting: `Hello ${d.name},`,
+        greeting: greet(d.name),
         blocks: [
           para(`The session "${d.briefingTitle}" has a new time.`),
           facts([
@@ -107,7 +120,7 @@ const composers: { [K in MailKind]: Composer<K> } = {
       ...render({
         school: s,
         title,
-        greeting: `Hello ${d.name},`,
+        greeting: greet(d.name),
         blocks: [
           para(`The session "${d.briefingTitle}" will not take place.`),
           facts(rows),
@@ -124,7 +137,7 @@ const composers: { [K in MailKind]: Composer<K> } = {
       ...render({
         school: s,
         title,
-        greeting: `Hello ${d.name},`,
+        greeting: greet(d.name),
         blocks: [
           para(`You have been assigned the ${d.assignmentKind} "${d.title}".`),
           facts([["Due", dateLong(d.dueOn)]]),
@@ -141,7 +154,7 @@ const composers: { [K in MailKind]: Composer<K> } = {
       ...render({
         school: s,
         title,
-        greeting: `Hello ${d.name},`,
+        greeting: greet(d.name),
         blocks: [
           para(`Well done: syllabus item ${d.itemCode} "${d.itemTitle}" is signed off.`),
           facts([
@@ -161,7 +174,7 @@ const composers: { [K in MailKind]: Composer<K> } = {
       ...render({
         school: s,
         title,
-        greeting: `Hello ${d.name},`,
+        greeting: greet(d.name),
         blocks: [
           para(`Your oral check on ${dateLong(d.checkedOn)} had answers marked Not yet for these syllabus items:`),
           bullets(d.itemCodes),
@@ -178,7 +191,7 @@ const composers: { [K in MailKind]: Composer<K> } = {
       ...render({
         school: s,
         title,
-        greeting: `Hello ${d.name},`,
+        greeting: greet(d.name),
         blocks: [
           para(`You are on the list for "${d.briefingTitle}".`),
           facts([
@@ -199,7 +212,7 @@ const composers: { [K in MailKind]: Composer<K> } = {
       ...render({
         school: s,
         title,
-        greeting: `Hello ${d.name},`,
+        greeting: greet(d.name),
         blocks: [
           para(`The ${d.assignmentKind} "${d.title}" was due on ${dateLong(d.dueOn)} and is not marked done yet.`),
           action(`Open the ${d.assignmentKind}`, appLink(d.path)),

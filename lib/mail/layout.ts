@@ -1,4 +1,4 @@
-import { formatInZone } from "@/lib/time";
+import { formatDay, formatDayTime, formatTime } from "@/lib/time";
 import { stripBidiControls } from "@/lib/validation/text";
 
 /**
@@ -37,24 +37,32 @@ export function oneLine(value: string): string {
     .trim();
 }
 
+/** The first name, for a greeting: "Imogen Farrant" → "Imogen". */
+export function firstName(fullName: string): string {
+  return fullName.trim().split(/\s+/)[0] || fullName;
+}
+
+/** Every mail greets its recipient by first name. */
+export function greet(fullName: string): string {
+  return `Hello ${firstName(fullName)},`;
+}
+
+// Mail uses the one date style of lib/time.ts ("Thu 3 Dec 2026, 09:00"), in the school's zone.
 export function whenLong(instant: Date, timeZone: string): string {
-  return formatInZone(instant, timeZone, "EEEE d MMMM yyyy, HH:mm");
+  return formatDayTime(instant, timeZone);
 }
 
 export function whenShort(instant: Date, timeZone: string): string {
-  return formatInZone(instant, timeZone, "EEE d MMM, HH:mm");
+  return formatDayTime(instant, timeZone);
 }
 
 export function timeOnly(instant: Date, timeZone: string): string {
-  return formatInZone(instant, timeZone, "HH:mm");
+  return formatTime(instant, timeZone);
 }
 
-/** "2026-12-09" → "Wednesday 9 December 2026" (a calendar date, no time zone shift). */
+/** "2026-12-09" → "Wed 9 Dec 2026" (a calendar date, no time zone shift). */
 export function dateLong(isoDate: string): string {
-  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(isoDate);
-  if (!m) return isoDate;
-  const d = new Date(Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3]), 12));
-  return formatInZone(d, "UTC", "EEEE d MMMM yyyy");
+  return formatDay(isoDate);
 }
 
 export const COLOURS = {

@@ -3,6 +3,7 @@ import {
   COLOURS,
   bullets,
   dateLong,
+  firstName,
   esc,
   facts,
   heading,
@@ -161,7 +162,7 @@ export function composeWeeklyLetter(d: WeeklyLetterData, school: MailSchool): Co
   const title = `Weekly letter: ${d.studentName}`;
   return {
     subject: oneLine(`Weekly letter: ${d.studentName}, week of ${dateLong(d.weekStart)}`),
-    ...render({ school, title, greeting: `Dear ${d.sponsorName},`, blocks, footer }),
+    ...render({ school, title, greeting: `Dear ${firstName(d.sponsorName)},`, blocks, footer }),
     headers: {
       "List-Unsubscribe": `<${d.oneClickUrl}>`,
       "List-Unsubscribe-Post": "List-Unsubscribe=One-Click",

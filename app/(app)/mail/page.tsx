@@ -6,7 +6,7 @@ import { requirePagePermission } from "@/lib/auth/guard";
 import { listOutbox } from "@/db/access/mail/outbox-list";
 import { listTray, mailTrayEnabled, readTrayMessage } from "@/db/access/mail/tray";
 import { getSchool } from "@/db/access/shared/school";
-import { formatInZone } from "@/lib/time";
+import { formatDayTime } from "@/lib/time";
 import { MAIL_KIND_WORDS, words } from "@/lib/labels";
 import { decodeHeaderWords } from "@/lib/mail/mime-words";
 import { OutboxTable } from "./_components/outbox-table";
@@ -49,7 +49,7 @@ export default async function MailTrayPage({ searchParams }: { searchParams: Pro
   const selectedId = (parsedQuery.success ? parsedQuery.data.m : undefined) ?? messages[0]?.id;
   const selected = selectedId ? await readTrayMessage(user.schoolId, selectedId) : null;
   const mail = selected ? await simpleParser(selected.raw) : null;
-  const when = (iso: string) => formatInZone(new Date(iso), school.timeZone, "d MMM HH:mm:ss");
+  const when = (iso: string) => formatDayTime(new Date(iso), school.timeZone, { seconds: true });
   return (
     <div className="space-y-6">
       <div>

@@ -6,7 +6,7 @@ import { listSessions } from "@/db/access/timetable/list-sessions";
 import { schedulingChoices } from "@/db/access/timetable/scheduling-choices";
 import { calendarFeedCreatedAt } from "@/db/access/timetable/calendar-feed";
 import { weekQuerySchema } from "@/lib/timetable/schema";
-import { dateInZone, formatInZone, zonedInstant } from "@/lib/time";
+import { dateInZone, zonedInstant, formatDay, formatDayTime } from "@/lib/time";
 import { now } from "@/lib/clock";
 import { TimetableFilters } from "./_components/filters";
 import { SessionCard } from "./_components/session-card";
@@ -51,7 +51,7 @@ export default async function TimetableWeekPage({
           <p className="text-caption font-semibold uppercase tracking-wide text-ink-soft">Week view · times in {school.timeZone}</p>
           <h1 className="text-display">Timetable</h1>
           <p className="text-ink-soft">
-            Week of {dayLabel(monday)} to {dayLabel(days[6]!)} {days[6]!.slice(0, 4)}
+            Week of {dayLabel(monday)} to {dayLabel(days[6]!)}
           </p>
         </div>
         <nav aria-label="Timetable views" className="flex flex-wrap gap-2">
@@ -115,9 +115,9 @@ export default async function TimetableWeekPage({
         })}
       </section>
       <p className="text-caption text-ink-soft">
-        {rows.length} session{rows.length === 1 ? "" : "s"} this week · shown {formatInZone(now(), school.timeZone, "d MMM HH:mm")}
+        {rows.length} session{rows.length === 1 ? "" : "s"} this week · shown {formatDayTime(now(), school.timeZone)}
       </p>
-      <CalendarLink since={feedSince ? formatInZone(feedSince, school.timeZone, "d MMM yyyy") : null} />
+      <CalendarLink since={feedSince ? formatDay(feedSince, school.timeZone) : null} />
     </div>
   );
 }

@@ -9,7 +9,7 @@ import { SponsorToday } from "./_components/sponsor-today";
 import { AttendanceDue } from "./_components/attendance-due";
 import { NextSessions } from "./_components/next-sessions";
 import { getSchool } from "@/db/access/shared/school";
-import { formatInZone } from "@/lib/time";
+import { formatDay } from "@/lib/time";
 import { now } from "@/lib/clock";
 
 export const metadata: Metadata = { title: "Today" };
@@ -23,7 +23,7 @@ export default async function TodayPage() {
       <header>
         <p className="text-caption font-semibold uppercase tracking-wide text-ink-soft">{school.name}</p>
         <h1 className="text-display">Today</h1>
-        <p className="text-ink-soft">{formatInZone(now(), school.timeZone, "EEEE d MMMM yyyy")}</p>
+        <p className="text-ink-soft">{formatDay(now(), school.timeZone)}</p>
       </header>
       {can(user, "today.school") && <ChiefToday user={user} />}
       {can(user, "today.school") && <RecordsToday user={user} />}

@@ -73,7 +73,7 @@ describe("session reminders", () => {
       expect(sink.received.map((m) => m.envelopeTo[0]).sort()).toEqual(attendees.map((p) => p.email).sort());
       const mail = await parseStored(sink, sink.received[0]!.file);
       // 09:00 UTC on 12 January is 09:00 in London (GMT in winter)
-      expect(mail.subject).toBe("Reminder: Drag and the minimum-drag speed, Tuesday 12 January 2027, 09:00");
+      expect(mail.subject).toBe("Reminder: Drag and the minimum-drag speed, Tue 12 Jan 2027, 09:00");
       expect(mail.text).toContain(s.school.name);
       expect(mail.html).toContain("10:30"); // the end time
     } finally {
@@ -137,7 +137,7 @@ describe("session reminders", () => {
       for (const m of sink.received) perPerson.set(m.envelopeTo[0]!, (perPerson.get(m.envelopeTo[0]!) ?? 0) + 1);
       expect([...perPerson.values()]).toEqual([2, 2]);
       const newest = await parseStored(sink, sink.received[3]!.file);
-      expect(newest.subject).toContain("Saturday 16 January 2027, 13:00");
+      expect(newest.subject).toContain("Sat 16 Jan 2027, 13:00");
     } finally {
       await sink.close();
     }
@@ -186,7 +186,7 @@ describe("overdue-assignment reminders", () => {
     await runDueWork(new Date("2027-02-05T09:00:00Z"));
     const written = await rows();
     expect(written.map((r) => r.recipient_id).sort()).toEqual(rest.map((p) => p!.id).sort());
-    expect(written[0]!.subject).toBe("Overdue briefing: Read before the drag session (was due Wednesday 3 February 2027)");
+    expect(written[0]!.subject).toBe("Overdue briefing: Read before the drag session (was due Wed 3 Feb 2027)");
   });
 });
 
@@ -300,7 +300,7 @@ describe("the Weekly letter", () => {
         expect(part).not.toContain("7.7 h");
         expect(part).not.toContain("missed");
       }
-      expect(subject).toBe(`Weekly letter: ${student.name}, week of Monday 7 December 2026`);
+      expect(subject).toBe(`Weekly letter: ${student.name}, week of Mon 7 Dec 2026`);
       for (const part of [html, text]) {
         expect(part).toContain("Own session: drag polar");
         expect(part).toContain("1.5 h"); // this week's credited hours

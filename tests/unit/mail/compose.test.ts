@@ -5,7 +5,8 @@ import { composeWeeklyLetter, progressBar } from "@/lib/mail/letter";
 import { signUnsubscribe, verifyUnsubscribe } from "@/lib/mail/unsubscribe-token";
 
 const school = { name: "Larkhollow Flying School", timeZone: "Europe/London" };
-const evil = `<script>alert("x")</script> & 'quote'`;
+// one word, so that even a greeting by first name carries all of it
+const evil = `<script>alert("x")</script>&'quote'`;
 
 const samples: { [K in keyof MailDataByKind]: MailDataByKind[K] } = {
   invitation: { name: evil, setPasswordUrl: "http://127.0.0.1:3000/set-password/abc", expiresAt: new Date("2026-07-08T10:00:00Z") },
@@ -45,22 +46,22 @@ describe.each(MAIL_KINDS)("composeMail(%s)", (kind) => {
   });
   test("escapes every user string in the HTML and keeps the subject on one line", () => {
     expect(mail.html).not.toContain("<script>");
-    expect(mail.html).toContain("&lt;script&gt;alert(&quot;x&quot;)&lt;/script&gt; &amp; &#39;quote&#39;");
+    expect(mail.html).toContain("&lt;script&gt;alert(&quot;x&quot;)&lt;/script&gt;&amp;&#39;quote&#39;");
     expect(mail.subject).not.toMatch(/[\r\n]/);
   });
 });
 
 test("times are shown in the school's zone: 08:00 UTC in July is 09:00 in London (BST)", () => {
   const m = composeMail("session.rescheduled", { ...samples["session.rescheduled"], briefingTitle: "Drag" }, school);
-  expect(m.subject).toBe("Session moved: Drag, now Thursday 2 July 2026, 09:00");
-  expect(m.text).toContain("Thursday 2 July 2026, 09:00 to 10:30");
-  expect(m.text).toContain("Was: Wednesday 1 July 2026, 09:00");
+  expect(m.subject).toBe("Session moved: Drag, now Thu 2 Jul 2026, 09:00");
+  expect(m.text).toContain("Thu 2 Jul 2026, 09:00 to 10:30");
+  expect(m.text).toContain("Was: Wed 1 Jul 2026, 09:00");
   const ny = composeMail(
     "session.rescheduled",
     { ...samples["session.rescheduled"], briefingTitle: "Drag" },
     { ...school, timeZone: "America/New_York" },
   );
-  expect(ny.subject).toBe("Session moved: Drag, now Thursday 2 July 2026, 04:00");
+  expect(ny.subject).toBe("Session moved: Drag, now Thu 2 Jul 2026, 04:00");
 });
 
 test("links are absolute, and a path that leaves the app is refused", () => {
@@ -145,4 +146,15 @@ describe("unsubscribe tokens", () => {
     process.env.CHALKWING_SIGNING_SECRET = "another-secret-entirely-0123456789";
     expect(verifyUnsubscribe(good)).toBeNull();
   });
+});
+
+test("mail greets by first name, in the one date style", () => {
+  const m = composeMail(
+    "record.signed",
+    { name: "Imogen Farrant", itemCode: "AER-03", itemTitle: "Drag", signerName: "Tomasz Varga", signedOn: "2026-12-03" },
+    school,
+  );
+  expect(m.text).toContain("Hello Imogen,");
+  expect(m.text).not.toContain("Hello Imogen Farrant");
+  expect(m.text).toContain("Thu 3 Dec 2026");
 });

@@ -1,5 +1,5 @@
 import type { OutboxListRow, OutboxState } from "@/db/access/mail/outbox-list";
-import { formatInZone } from "@/lib/time";
+import { formatDayTime } from "@/lib/time";
 import { RetryButton } from "./retry-button";
 import { ScrollArea } from "@/components/ui/scroll-area";
 import { MAIL_KIND_WORDS, MAIL_STATE_WORDS, words } from "@/lib/labels";
@@ -20,7 +20,7 @@ export function StateBadge({ state }: { state: OutboxState }) {
 /** The outbox as a table: state in words (never colour alone), attempts, error, and a retry for failed mail. */
 export function OutboxTable({ rows, timeZone }: { rows: OutboxListRow[]; timeZone: string }) {
   if (rows.length === 0) return <p className="text-ink-soft">No mail here.</p>;
-  const when = (d: Date | null) => (d ? formatInZone(new Date(d), timeZone, "d MMM HH:mm") : "—");
+  const when = (d: Date | null) => (d ? formatDayTime(new Date(d), timeZone) : "—");
   return (
     <ScrollArea label="Outbox">
       <table className="data-table" data-testid="outbox-table">

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { recentNotes, studentsForNotes } from "@/db/access/mail/sponsor-notes";
 import { getSchool } from "@/db/access/shared/school";
-import { formatInZone } from "@/lib/time";
+import { formatDayTime } from "@/lib/time";
 import { MailTabs } from "../_components/mail-tabs";
 import { NoteForm } from "../_components/note-form";
 
@@ -39,7 +39,7 @@ export default async function SponsorNotesPage() {
               <li key={n.id} className="py-3">
                 <p className="text-caption text-ink-soft">
                   About <strong className="text-ink">{n.studentName}</strong> · by {n.authorName} ·{" "}
-                  <span className="num">{formatInZone(new Date(n.createdAt), school.timeZone, "d MMM yyyy HH:mm")}</span>
+                  <span className="num">{formatDayTime(new Date(n.createdAt), school.timeZone)}</span>
                 </p>
                 <p className="mt-1 whitespace-pre-wrap break-words">{n.body}</p>
               </li>

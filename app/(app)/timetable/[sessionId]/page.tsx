@@ -7,7 +7,7 @@ import { getSession } from "@/db/access/timetable/session-detail";
 import { attendanceSheet } from "@/db/access/ground-log/attendance-sheet";
 import { getSchool } from "@/db/access/shared/school";
 import { schedulingChoices } from "@/db/access/timetable/scheduling-choices";
-import { formatInZone } from "@/lib/time";
+import { formatDay } from "@/lib/time";
 import { hoursLabel } from "@/lib/time";
 import { SessionChanges } from "../_components/session-changes";
 import { AttendanceSheet } from "../_components/attendance-sheet";
@@ -37,7 +37,7 @@ export default async function SessionPage({ params }: { params: Promise<{ sessio
         <h1 className="text-display">{s.briefingTitle}</h1>
         <p className="text-ink-soft">
           <span className="num">
-            {formatInZone(starts, school.timeZone, "EEEE d MMMM yyyy")}, {s.startLocal}–{s.endLocal}
+            {formatDay(starts, school.timeZone)}, {s.startLocal}–{s.endLocal}
           </span>{" "}
           ({s.durationMinutes} min) · {s.room}
         </p>

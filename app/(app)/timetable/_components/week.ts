@@ -1,3 +1,5 @@
+import { formatDay } from "@/lib/time";
+
 /** Calendar-date arithmetic on "yyyy-MM-dd" strings (no time zone involved). */
 export function addDaysIso(date: string, days: number): string {
   const d = new Date(`${date}T12:00:00Z`);
@@ -11,6 +13,7 @@ export function mondayOf(date: string): string {
   return addDaysIso(date, -((dow + 6) % 7));
 }
 
+/** A day of the week as "Thu 3 Dec 2026" (the one date style of lib/time.ts). */
 export function dayLabel(date: string): string {
-  return new Date(`${date}T12:00:00Z`).toLocaleDateString("en-GB", { weekday: "short", day: "numeric", month: "short", timeZone: "UTC" });
+  return formatDay(date);
 }

@@ -4,7 +4,8 @@ import { HttpError } from "@/lib/http/errors";
 import { trainingRecordFor } from "@/db/access/records/training-record";
 import { trainingRecordPdf } from "@/lib/records/training-record-pdf";
 import { LEVEL_LABEL, OUTCOME_LABEL, CHECK_OUTCOME_LABEL } from "@/lib/records/outcome";
-import { formatInZone, hoursLabel } from "@/lib/time";
+import { hoursLabel, formatDayTime } from "@/lib/time";
+import { ATTENDANCE_WORDS, SIGN_OFF_STATE_WORDS, STAGE_RESULT_WORDS, words } from "@/lib/labels";
 
 export const GET = route<{ studentId: string }>("progress.view", async ({ user, params }) => {
   if (!uuidParam.safeParse(params.studentId).success) throw new HttpError(404, "studentId: no such student", "studentId");
@@ -19,17 +20,17 @@ export const GET = route<{ studentId: string }>("progress.view", async ({ user, 
       `E-mail: ${r.student.email}`,
     ],
     groundSummary: `Credited ground time: ${hoursLabel(r.groundMinutes, r.student.minGroundMinutes)}`,
-    groundLog: r.groundLog.map((g) => [g.date, g.title, g.status.replace("_", " "), hoursLabel(g.minutes)]),
+    groundLog: r.groundLog.map((g) => [g.date, g.title, words(ATTENDANCE_WORDS, g.status), hoursLabel(g.minutes)]),
     signOffs: r.signOffs.map((s) => [
       `${s.itemCode} ${s.itemTitle}`,
       s.signedOn,
       s.signerName,
-      s.reason ? `${s.state}: ${s.reason}` : s.state,
+      s.reason ? `${words(SIGN_OFF_STATE_WORDS, s.state)}: ${s.reason}` : words(SIGN_OFF_STATE_WORDS, s.state),
       s.signatureHash.slice(0, 16),
     ]),
-    stageChecks: r.stageChecks.map((s) => [s.stageCode, s.date, s.examinerName, s.result, s.written ?? ""]),
+    stageChecks: r.stageChecks.map((s) => [s.stageCode, s.date, s.examinerName, words(STAGE_RESULT_WORDS, s.result), s.written ?? ""]),
     checks: r.checks.map((c) => ({
-      heading: `${formatInZone(c.occurredAt, tz, "yyyy-MM-dd HH:mm")} · ${c.itemCodes.join(", ")} · ${CHECK_OUTCOME_LABEL[c.outcome]} · level ${LEVEL_LABEL[c.levelShown].toLowerCase()} · ${c.instructorName}${c.withdrawn ? ` · WITHDRAWN: ${c.withdrawn.reason}` : ""}`,
+      heading: `${formatDayTime(c.occurredAt, tz)} · ${c.itemCodes.join(", ")} · ${CHECK_OUTCOME_LABEL[c.outcome]} · level ${LEVEL_LABEL[c.levelShown].toLowerCase()} · ${c.instructorName}${c.withdrawn ? ` · WITHDRAWN: ${c.withdrawn.reason}` : ""}`,
       lines: c.questions.map(
         (q) =>
           `${q.position}. [${q.itemCode}] ${q.text} - ${OUTCOME_LABEL[q.outcome]}${q.prompted ? ", prompted" : ""}${q.generated ? ` (computed answer ${q.generated.answer.display})` : ""}`,
@@ -37,7 +38,7 @@ export const GET = route<{ studentId: string }>("progress.view", async ({ user, 
     })),
     headHash: r.head.hash,
     headPosition: r.head.position,
-    generatedAt: formatInZone(r.generatedAt, tz, "yyyy-MM-dd HH:mm"),
+    generatedAt: formatDayTime(r.generatedAt, tz),
   });
   const safe =
     r.student.name
