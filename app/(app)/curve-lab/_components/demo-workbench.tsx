@@ -651,8 +651,8 @@ const CaseEditor = memo(function CaseEditor({
       </legend>
       <div className="flex flex-wrap items-end gap-2">
         <label className="flex min-h-touch items-center gap-2 text-caption">
-          <input type="radio" name="focus" checked={focused} onChange={() => onFocus(index)} className="h-5 w-5" /> Focus (readouts,
-          regions)
+          <input type="radio" name="focus" checked={focused} onChange={() => onFocus(index)} className="h-5 w-5" /> Spotlight (its readouts
+          and speed regions)
         </label>
         <label className="flex min-h-touch items-center gap-2 text-caption">
           <input

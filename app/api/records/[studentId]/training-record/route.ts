@@ -2,7 +2,7 @@
 import { route, uuidParam } from "@/lib/http/api";
 import { HttpError } from "@/lib/http/errors";
 import { trainingRecordFor } from "@/db/access/records/training-record";
-import { trainingRecordPdf } from "@/lib/records/training-record-pdf";
+import { certificationStatement, trainingRecordPdf } from "@/lib/records/training-record-pdf";
 import { LEVEL_LABEL, OUTCOME_LABEL, CHECK_OUTCOME_LABEL } from "@/lib/records/outcome";
 import { hoursLabel, formatDayTime } from "@/lib/time";
 import { ATTENDANCE_WORDS, SIGN_OFF_STATE_WORDS, STAGE_RESULT_WORDS, words } from "@/lib/labels";
@@ -25,17 +25,28 @@ export const GET = route<{ studentId: string }>("progress.view", async ({ user, 
       `${s.itemCode} ${s.itemTitle}`,
       s.signedOn,
       s.signerName,
+      s.certificateNumber ?? "none on that date",
       s.reason ? `${words(SIGN_OFF_STATE_WORDS, s.state)}: ${s.reason}` : words(SIGN_OFF_STATE_WORDS, s.state),
       s.signatureHash.slice(0, 16),
     ]),
-    stageChecks: r.stageChecks.map((s) => [s.stageCode, s.date, s.examinerName, words(STAGE_RESULT_WORDS, s.result), s.written ?? ""]),
+    stageChecks: r.stageChecks.map((s) => [s.stageCode, s.date, s.examinerName, s.certificateNumber ?? "none on that date", words(STAGE_RESULT_WORDS, s.result), s.written ?? ""]),
     checks: r.checks.map((c) => ({
-      heading: `${formatDayTime(c.occurredAt, tz)} · ${c.itemCodes.join(", ")} · ${CHECK_OUTCOME_LABEL[c.outcome]} · level ${LEVEL_LABEL[c.levelShown].toLowerCase()} · ${c.instructorName}${c.withdrawn ? ` · WITHDRAWN: ${c.withdrawn.reason}` : ""}`,
+      heading: `${formatDayTime(c.occurredAt, tz)} · ${c.itemCodes.join(", ")} · ${CHECK_OUTCOME_LABEL[c.outcome]} · level of learning shown: ${LEVEL_LABEL[c.levelShown]} · ${c.instructorName}${c.withdrawn ? ` · WITHDRAWN: ${c.withdrawn.reason}` : ""}`,
       lines: c.questions.map(
         (q) =>
           `${q.position}. [${q.itemCode}] ${q.text} - ${OUTCOME_LABEL[q.outcome]}${q.prompted ? ", prompted" : ""}${q.generated ? ` (computed answer ${q.generated.answer.display})` : ""}`,
       ),
     })),
+    notYetDone: r.notYetDone.map((i) => [i.code, i.stageCode, i.title]),
+    certification: {
+      statement: certificationStatement({
+        certifierName: r.certifier?.name ?? "the chief instructor",
+        studentName: r.student.name,
+        schoolName: r.school.name,
+      }),
+      name: r.certifier?.name ?? "",
+      certificateNumber: r.certifier?.certificateNumber ?? "",
+    },
     headHash: r.head.hash,
     headPosition: r.head.position,
     generatedAt: formatDayTime(r.generatedAt, tz),
