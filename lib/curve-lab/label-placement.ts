@@ -85,13 +85,34 @@ export function segmentHitsBox(p: Pt, q: Pt, b: Box): boolean {
   return t0 <= t1;
 }
 
-export function lineHitsBox(line: Pt[], b: Box): boolean {
+export function lineHitsBox(line: Pt[], b: Box, xSorted = false): boolean {
   if (line.length === 1) {
     const p = line[0]!;
     return p.x >= b.x && p.x <= b.x + b.w && p.y >= b.y && p.y <= b.y + b.h;
   }
-  for (let i = 1; i < line.length; i++) if (segmentHitsBox(line[i - 1]!, line[i]!, b)) return true;
+  let from = 1;
+  const to = line.length;
+  if (xSorted) {
+    // a curve sampled left to right: only the segments over the box's columns can cross it
+    let lo = 0;
+    let hi = line.length - 1;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (line[mid]!.x < b.x) lo = mid + 1;
+      else hi = mid;
+    }
+    from = Math.max(1, lo);
+  }
+  for (let i = from; i < to; i++) {
+    if (xSorted && line[i - 1]!.x > b.x + b.w) break;
+    if (segmentHitsBox(line[i - 1]!, line[i]!, b)) return true;
+  }
   return false;
+}
+
+function isXSorted(line: Pt[]): boolean {
+  for (let i = 1; i < line.length; i++) if (!(line[i]!.x >= line[i - 1]!.x)) return false;
+  return true;
 }
 
 function grow(b: Box, by: number): Box {
@@ -101,13 +122,14 @@ function grow(b: Box, by: number): Box {
 /** Places the labels in the order given (earlier labels win the better spots). */
 export function placeLabels({ labels, lines, bounds, padding = 3 }: PlacementInput): Placement[] {
   const taken: Box[] = [];
+  const sorted = lines.map(isXSorted);
   return labels.map((label) => {
     for (let i = 0; i < label.candidates.length; i++) {
       const b = label.candidates[i]!;
       if (!inside(b, bounds)) continue;
       const clear = grow(b, padding);
       if (taken.some((t) => boxesOverlap(clear, t))) continue;
-      if (lines.some((l) => lineHitsBox(l, clear))) continue;
+      if (lines.some((l, k) => lineHitsBox(l, clear, sorted[k]))) continue;
       taken.push(b);
       return { id: label.id, box: b, candidate: i };
     }

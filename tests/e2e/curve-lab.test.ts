@@ -131,6 +131,11 @@ describe("Curve Lab end to end", () => {
     const vmdText = (await page.textContent("[data-testid=readout-vmd]"))!;
     expect(await page.locator("[data-testid=call-result]").textContent()).toContain(vmdText);
     await screenshot(page, "curve-lab-student-reveal");
+    // one call per revision: a reload after the reveal shows the result and the student's own calls, not a new prompt
+    await page.reload();
+    await page.waitForSelector("[data-testid=call-result] >> text=answer");
+    expect(await page.locator("[data-testid=make-call]").isDisabled()).toBe(true);
+    expect(await page.locator("[data-testid=own-calls]").textContent()).toContain("Revision 1, Vmd: your call 65 kt");
 
     const { rows } = await db.query<{ predicted: number; actual: number; error: number; kind: string }>(
       `SELECT c.predicted_ms AS predicted, c.actual_ms AS actual, c.error_ms AS error, c.marker_kind AS kind

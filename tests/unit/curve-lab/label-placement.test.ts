@@ -87,6 +87,17 @@ describe("chart label placement", () => {
     expect(r[1]).toEqual({ id: "b", box: null, candidate: -1 });
   });
 
+  it("the column search over a left-to-right curve answers as the full scan does", () => {
+    const curve: Pt[] = [];
+    for (let i = 0; i < 400; i++) curve.push({ x: 10 + i * 2, y: 200 + 150 * Math.sin(i / 17) });
+    let seed = 3;
+    const rnd = () => (seed = (seed * 16807) % 2147483647) / 2147483647;
+    for (let k = 0; k < 2000; k++) {
+      const b: Box = { x: rnd() * 820 - 10, y: rnd() * 400, w: 5 + rnd() * 120, h: 5 + rnd() * 40 };
+      expect(lineHitsBox(curve, b, true)).toBe(lineHitsBox(curve, b, false));
+    }
+  });
+
   it("on many random charts no two placed labels overlap and none touches a line", () => {
     let seed = 7;
     const rnd = () => (seed = (seed * 16807) % 2147483647) / 2147483647;
