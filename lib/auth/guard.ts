@@ -1,15 +1,14 @@
 import "server-only";
 import { forbidden, redirect } from "next/navigation";
 import { getCurrentUser, type CurrentUser } from "./session";
-import { rolesAllow, type Permission } from "./permissions";
+import type { Permission } from "./permissions";
+import { can } from "./can";
 import { HttpError } from "@/lib/http/errors";
 import { safeNextPath } from "@/lib/validation/next-path";
 
 export { HttpError };
 
-export function can(user: CurrentUser, permission: Permission): boolean {
-  return rolesAllow(user.roles, permission);
-}
+export { can };
 
 /**
  * For route handlers and server actions: the caller, or an HttpError.

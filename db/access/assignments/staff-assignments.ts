@@ -2,7 +2,7 @@ import "server-only";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
 import type { AssignmentKind } from "../../models";
-import { can } from "@/lib/auth/guard";
+import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
 import { isOverdue } from "@/lib/assignments/overdue";
 import { schoolToday } from "./school-today";

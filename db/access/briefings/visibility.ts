@@ -1,7 +1,7 @@
 import "server-only";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
-import { can } from "@/lib/auth/guard";
+import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
 
 // Who may read a briefing: one who may read every briefing of the school, or a student it is

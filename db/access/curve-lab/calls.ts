@@ -2,7 +2,7 @@ import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { DemoCall, type CallMarkerKind } from "../../models";
-import { can } from "@/lib/auth/guard";
+import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
 
 // Call it first: a student's prediction on a demo, stored with the server's answer and its error.

@@ -3,7 +3,7 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { Demo, DemoRevision } from "../../models";
 import { HttpError } from "@/lib/http/errors";
-import { can } from "@/lib/auth/guard";
+import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { DemoSpec } from "@/lib/curve-lab/demo-spec";
 import { IN_USE_SQL, getDemo } from "./demos";
