@@ -4,7 +4,8 @@ import { requirePagePermission, can } from "@/lib/auth/guard";
 import { getSyllabusRevision } from "@/db/access/syllabus/revisions";
 import { listCoursesWithLatestRevision } from "@/db/access/syllabus/courses";
 import { activeEnrolment } from "@/db/access/shared/enrolment";
-import { ScrollArea } from "@/components/ui/scroll-area";
+import { WideTable } from "@/components/ui/wide-table";
+import { formatDay } from "@/lib/time";
 
 export const metadata: Metadata = { title: "Syllabus" };
 export const dynamic = "force-dynamic";
@@ -39,8 +40,8 @@ export default async function SyllabusPage() {
               {rev.course.code} · {rev.course.title}
             </h2>
             <p className="text-caption text-ink-soft">
-              Revision {rev.number} · approved {rev.approvedOn ?? "—"} · effective from {rev.effectiveFrom ?? "—"} · minimum ground time{" "}
-              {rev.course.minGroundMinutes / 60} h
+              Revision {rev.number} · approved {rev.approvedOn ? formatDay(rev.approvedOn) : "—"} · effective from{" "}
+              {rev.effectiveFrom ? formatDay(rev.effectiveFrom) : "—"} · minimum ground time {rev.course.minGroundMinutes / 60} h
             </p>
           </header>
           {rev.stages.map((s) => (
@@ -48,30 +49,34 @@ export default async function SyllabusPage() {
               <h3 id={`st-${s.id}`} className="font-semibold">
                 {s.code} · {s.title}
               </h3>
-              <ScrollArea label={`${s.code} items`} className="mt-2">
-                <table className="data-table">
-                  <thead>
-                    <tr>
-                      <th scope="col">Item</th>
-                      <th scope="col">Objective</th>
-                      <th scope="col">Completion standard</th>
-                      <th scope="col">Level</th>
-                    </tr>
-                  </thead>
-                  <tbody>
-                    {s.items.map((i) => (
-                      <tr key={i.id}>
-                        <td>
-                          <span className="num font-semibold">{i.code}</span> {i.title}
-                        </td>
-                        <td>{i.objective}</td>
-                        <td>{i.completionStandard}</td>
-                        <td>{LEVEL_LABEL[i.requiredLevel]}</td>
+              <div className="mt-2">
+                <WideTable label={`${s.code} items`} more={1}>
+                  <table className="data-table">
+                    <thead>
+                      <tr>
+                        <th scope="col">Item</th>
+                        <th scope="col">Level</th>
+                        <th scope="col">Objective</th>
+                        <th scope="col" data-more="">
+                          Completion standard
+                        </th>
                       </tr>
-                    ))}
-                  </tbody>
-                </table>
-              </ScrollArea>
+                    </thead>
+                    <tbody>
+                      {s.items.map((i) => (
+                        <tr key={i.id}>
+                          <td>
+                            <span className="num font-semibold">{i.code}</span> {i.title}
+                          </td>
+                          <td>{LEVEL_LABEL[i.requiredLevel]}</td>
+                          <td>{i.objective}</td>
+                          <td data-more="">{i.completionStandard}</td>
+                        </tr>
+                      ))}
+                    </tbody>
+                  </table>
+                </WideTable>
+              </div>
             </section>
           ))}
         </section>

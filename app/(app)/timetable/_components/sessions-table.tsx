@@ -3,7 +3,8 @@ import Link from "next/link";
 import { useState } from "react";
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import type { SessionRow } from "@/db/access/timetable/list-sessions";
-import { ScrollArea } from "@/components/ui/scroll-area";
+import { WideTable } from "@/components/ui/wide-table";
+import { formatDay } from "@/lib/time";
 import { apiErrorText } from "@/lib/validation/messages";
 
 interface Page {
@@ -15,13 +16,14 @@ interface Page {
 }
 
 type Sort = "starts_at" | "briefing" | "room" | "instructor" | "cohort";
-const COLUMNS: { key: Sort | null; label: string }[] = [
+/** `more`: below 768 px these wait behind "More columns" (components/ui/wide-table.tsx). */
+const COLUMNS: { key: Sort | null; label: string; more?: boolean }[] = [
   { key: "starts_at", label: "When" },
   { key: "briefing", label: "Briefing" },
   { key: "room", label: "Room" },
-  { key: "instructor", label: "Instructor" },
-  { key: "cohort", label: "Cohort" },
-  { key: null, label: "Status" },
+  { key: "instructor", label: "Instructor", more: true },
+  { key: "cohort", label: "Cohort", more: true },
+  { key: null, label: "Status", more: true },
 ];
 
 /** The list view: server-side sorting, filtering and pages through GET /api/sessions. */
@@ -156,7 +158,7 @@ export function SessionsTable({
           </p>
         )}
       </div>
-      <ScrollArea label="Sessions, scrolls sideways">
+      <WideTable label="Sessions, scrolls sideways" more={COLUMNS.filter((c) => c.more).length}>
         <table className="data-table" data-testid="sessions-table">
           <thead>
             <tr>
@@ -164,6 +166,7 @@ export function SessionsTable({
                 <th
                   key={c.label}
                   scope="col"
+                  data-more={c.more ? "" : undefined}
                   aria-sort={c.key && params.sort === c.key ? (params.dir === "asc" ? "ascending" : "descending") : undefined}
                 >
                   {c.key ? (
@@ -181,16 +184,19 @@ export function SessionsTable({
           <tbody>
             {data?.rows.map((s) => (
               <tr key={s.id}>
-                <td className="num whitespace-nowrap">
-                  {s.date} {s.startLocal}–{s.endLocal}
+                <td className="num">
+                  <span className="whitespace-nowrap">{formatDay(s.date)}</span>{" "}
+                  <span className="whitespace-nowrap">
+                    {s.startLocal}–{s.endLocal}
+                  </span>
                 </td>
                 <td>
                   <Link href={`/timetable/${s.id}`}>{s.briefingTitle}</Link>
                 </td>
                 <td>{s.room}</td>
-                <td>{s.instructorName}</td>
-                <td>{s.cohortName ?? "Individual students"}</td>
-                <td>{s.status === "cancelled" ? "Cancelled" : s.recordedCount > 0 ? "Attendance recorded" : "Scheduled"}</td>
+                <td data-more="">{s.instructorName}</td>
+                <td data-more="">{s.cohortName ?? "Individual students"}</td>
+                <td data-more="">{s.status === "cancelled" ? "Cancelled" : s.recordedCount > 0 ? "Attendance recorded" : "Scheduled"}</td>
               </tr>
             ))}
             {data && data.rows.length === 0 && (
@@ -202,7 +208,7 @@ export function SessionsTable({
             )}
           </tbody>
         </table>
-      </ScrollArea>
+      </WideTable>
       {data && (
         <nav aria-label="Pages" className="flex flex-wrap items-center gap-3">
           <button
