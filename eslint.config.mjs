@@ -24,6 +24,11 @@ const COMPONENTS = rule(
   "^(@/|(\\.\\./)+)components(/.*)?$",
   "Only UI code (app/, components/, tests/unit) imports components/: move shared rules to lib/<area>/.",
 );
+// The seed and the CLI load db/ outside Next.js, where next/navigation (pulled in by lib/auth/guard) does not load.
+const FRAMEWORK_GUARD = rule(
+  "^(@/|(\\.\\./)+)lib/auth/guard$",
+  "db/ asks can() from @/lib/auth/can: lib/auth/guard pulls in next/navigation, which the seed and the CLI cannot load.",
+);
 // lib/aero is a self-contained package: relative imports that stay inside lib/aero, and zod.
 const AERO_PACKAGES = rule("^(?!zod$|\\.\\.?/)", "lib/aero imports nothing outside lib/aero except zod.");
 const aeroEscape = (depth) => rule(`^(\\.\\./){${depth + 1},}`, "lib/aero imports nothing outside lib/aero except zod.");
@@ -68,7 +73,8 @@ const boundaries = [
     zone([`lib/aero/${"*/".repeat(depth)}*.${TS}`], [AERO_PACKAGES, aeroEscape(depth)], [`lib/aero/bench/**`]),
   ),
   zone([`lib/aero/bench/**/*.${TS}`], [BENCH_PACKAGES, BENCH_ESCAPE]),
-  zone([`db/**/*.${TS}`, `proxy.ts`, `tests/integration/**/*.${TS}`, `tests/e2e/**/*.${TS}`, `tests/helpers/**/*.${TS}`], [COMPONENTS]),
+  zone([`proxy.ts`, `tests/integration/**/*.${TS}`, `tests/e2e/**/*.${TS}`, `tests/helpers/**/*.${TS}`], [COMPONENTS]),
+  zone([`db/**/*.${TS}`], [COMPONENTS, FRAMEWORK_GUARD]),
 ];
 
 const config = [

@@ -132,6 +132,14 @@ const cases: Case[] = [
     code: `import { demoSpecSchema } from "@/lib/curve-lab/schema";`,
     forbidden: false,
   },
+  // db/ is loaded by the seed and the CLI outside Next.js
+  {
+    name: "db/access imports the framework guard",
+    filePath: "db/access/x/y.ts",
+    code: `import { can } from "@/lib/auth/guard";`,
+    forbidden: true,
+  },
+  { name: "db/access imports can()", filePath: "db/access/x/y.ts", code: `import { can } from "@/lib/auth/can";`, forbidden: false },
   {
     name: "unit test imports a component",
     filePath: "tests/unit/x/y.test.tsx",
