@@ -1,27 +1,11 @@
 import "server-only";
-import { QueryTypes, type Transaction } from "sequelize";
+import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
-import { DemoCall, type CallMarkerKind } from "../../models";
+import type { CallMarkerKind } from "../../models";
 import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
 
-// Call it first: a student's prediction on a demo, stored with the server's answer and its error.
-
-export async function recordCall(
-  input: {
-    schoolId: string;
-    demoRevisionId: string;
-    studentId: string;
-    markerKind: CallMarkerKind;
-    speedAxis: "equivalent" | "true";
-    predictedMs: number;
-    actualMs: number;
-  },
-  t: Transaction,
-) {
-  const c = await DemoCall.create({ ...input, errorMs: input.predictedMs - input.actualMs }, { transaction: t });
-  return { id: c.id, predictedMs: c.predictedMs, actualMs: c.actualMs, errorMs: c.errorMs, createdAt: c.createdAt.toISOString() };
-}
+// Call it first: the calls made on a demo, as the caller may see them (storing a call: call-once.ts).
 
 export interface CallRow {
   id: string;
