@@ -21,6 +21,9 @@ const nextConfig: NextConfig = {
   poweredByHeader: false,
   // Lets parallel checkouts or test runs build side by side without sharing .next.
   distDir: process.env.CHALKWING_DIST_DIR || ".next",
+  // Next.js adds each build folder's types to the tsconfig it is given unless that file `extends`
+  // another: tsconfig.next.json only extends tsconfig.json, so no build or test run edits a tracked file.
+  typescript: { tsconfigPath: "tsconfig.next.json" },
   experimental: { authInterrupts: true },
   async headers() {
     return [
