@@ -3,7 +3,7 @@
 // session in their week and sees their ground hours grow.
 import type { Page } from "playwright-core";
 import { launchBrowser, signIn, screenshot, type Browser } from "./helpers/browser";
-import { dateInZone } from "@/lib/time";
+import { dateInZone, formatDay } from "@/lib/time";
 
 const ZONE = "Europe/London"; // the demo school's time zone (db/seed/scenario.ts)
 
@@ -85,13 +85,18 @@ describe("Timetable end to end", () => {
     expect(Math.round((after - before) * 10) / 10).toBe(1); // 90 min less 30 late = 60 min = 1.0 h
     await student.goto("/ground-log");
     // on a phone the logbook is a list; printed, it is the full table without the app's navigation
-    const line = student.locator("ol[aria-label='Logbook lines'] li", { hasText: yesterday }).filter({ hasText: briefingTitle });
+    const line = student.locator("ol[aria-label='Logbook lines'] li", { hasText: formatDay(yesterday) }).filter({ hasText: briefingTitle });
     expect(await line.first().isVisible()).toBe(true);
     expect(await line.first().textContent()).toContain("Tomasz Varga, certificate LHV-GI-0142");
     await screenshot(student, "timetable-e2e-student-ground-log-390");
     await student.emulateMedia({ media: "print" });
     expect(await student.locator("nav[aria-label=Main]").isVisible()).toBe(false);
-    expect(await student.locator("[data-testid=logbook] tr", { hasText: yesterday }).first().isVisible()).toBe(true);
+    expect(
+      await student
+        .locator("[data-testid=logbook] tr", { hasText: formatDay(yesterday) })
+        .first()
+        .isVisible(),
+    ).toBe(true);
     await screenshot(student, "timetable-e2e-student-ground-log-print");
     await student.emulateMedia({ media: "screen" });
 

@@ -2,6 +2,7 @@
 import Link from "next/link";
 import { useQuery } from "@tanstack/react-query";
 import { ScrollArea } from "@/components/ui/scroll-area";
+import { formatDay } from "@/lib/time";
 
 interface Row {
   id: string;
@@ -78,7 +79,7 @@ export function DemoList({ staff }: { staff: boolean }) {
                 </>
               ) : (
                 <>
-                  <td className="num">{r.dueOn}</td>
+                  <td className="num">{r.dueOn ? formatDay(r.dueOn) : "—"}</td>
                   <td>{r.viaBriefingTitle ?? "Assigned directly"}</td>
                 </>
               )}

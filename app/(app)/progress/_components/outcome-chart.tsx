@@ -2,6 +2,7 @@
 import { Chart as ChartJS, BarElement, CategoryScale, LinearScale, Legend, Tooltip } from "chart.js";
 import { Bar } from "react-chartjs-2";
 import { ScrollArea } from "@/components/ui/scroll-area";
+import { formatDay } from "@/lib/time";
 
 ChartJS.register(BarElement, CategoryScale, LinearScale, Legend, Tooltip);
 
@@ -42,7 +43,7 @@ export function OutcomeChart({ data }: { data: { date: string; solid: number; sh
             <tbody>
               {data.map((d) => (
                 <tr key={d.date}>
-                  <td className="num">{d.date}</td>
+                  <td className="num">{formatDay(d.date)}</td>
                   <td className="num">{d.solid}</td>
                   <td className="num">{d.shaky}</td>
                   <td className="num">{d.notYet}</td>

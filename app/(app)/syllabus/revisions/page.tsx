@@ -113,7 +113,7 @@ export default async function SyllabusRevisionsPage({
               {enrolments.map((e) => (
                 <tr key={e.enrolmentId}>
                   <td>{e.studentName}</td>
-                  <td className="num">{e.enrolledOn}</td>
+                  <td className="num">{formatDay(e.enrolledOn)}</td>
                   <td className="num">{e.revisionNumber}</td>
                   <td>
                     <MoveEnrolment

@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { sessionsAwaitingAttendance } from "@/db/access/timetable/list-sessions";
 import type { CurrentUser } from "@/lib/auth/session";
+import { formatDay } from "@/lib/time";
 
 /** Sessions the instructor taught that ended more than 24 h ago with no attendance recorded. */
 export async function AttendanceDue({ user }: { user: CurrentUser }) {
@@ -17,7 +18,7 @@ export async function AttendanceDue({ user }: { user: CurrentUser }) {
               <Link href={`/timetable/${s.id}`} className="flex min-h-touch flex-wrap items-center justify-between gap-x-4">
                 <span className="font-medium">{s.briefingTitle}</span>
                 <span className="num text-caption text-ink-soft">
-                  {s.date} {s.startLocal}–{s.endLocal} · {s.cohortName ?? `${s.attendeeCount} students`} · {s.room}
+                  {formatDay(s.date)}, {s.startLocal}–{s.endLocal} · {s.cohortName ?? `${s.attendeeCount} students`} · {s.room}
                 </span>
               </Link>
             </li>

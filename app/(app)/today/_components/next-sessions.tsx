@@ -2,6 +2,7 @@ import Link from "next/link";
 import { listSessions } from "@/db/access/timetable/list-sessions";
 import type { CurrentUser } from "@/lib/auth/session";
 import { now } from "@/lib/clock";
+import { formatDay } from "@/lib/time";
 
 /** The student's next sessions (This week): scheduled and cancelled ones in the next seven days. */
 export async function NextSessions({ user }: { user: CurrentUser }) {
@@ -23,7 +24,7 @@ export async function NextSessions({ user }: { user: CurrentUser }) {
               <Link href={`/timetable/${s.id}`} className="flex min-h-touch flex-wrap items-center justify-between gap-x-4">
                 <span className={`font-medium ${s.status === "cancelled" ? "line-through" : ""}`}>{s.briefingTitle}</span>
                 <span className="num text-caption text-ink-soft">
-                  {s.date} {s.startLocal}–{s.endLocal} · {s.room}
+                  {formatDay(s.date)}, {s.startLocal}–{s.endLocal} · {s.room}
                   {s.status === "cancelled" ? " · Cancelled" : ""}
                 </span>
               </Link>
