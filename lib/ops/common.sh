@@ -27,7 +27,8 @@ ensure_node_modules() { # npm ci when node_modules is missing or the lock file c
   local want; want=$(sha256sum "$ROOT/package-lock.json" | cut -d' ' -f1)
   if [ ! -f "$stamp" ] || [ "$(cat "$stamp")" != "$want" ]; then
     echo "[setup] installing npm packages (npm ci)"
-    (cd "$ROOT" && npm ci --no-audit --no-fund --loglevel=error)
+    rm -f "$stamp"
+    (cd "$ROOT" && npm ci --no-audit --no-fund --loglevel=error) || { echo "[setup] npm ci failed" >&2; return 1; }
     echo "$want" > "$stamp"
   fi
 }
@@ -37,6 +38,14 @@ ensure_chromium() {
     echo "[setup] installing Chromium from Debian's packages"
     export DEBIAN_FRONTEND=noninteractive
     apt-get update -qq && apt-get install -y -qq chromium >/dev/null
+  fi
+}
+
+ensure_poppler() { # pdftotext, which the training-record test reads the printed PDF with
+  if ! command -v pdftotext >/dev/null 2>&1; then
+    echo "[setup] installing poppler-utils (pdftotext) from Debian's packages"
+    export DEBIAN_FRONTEND=noninteractive
+    apt-get update -qq && apt-get install -y -qq poppler-utils >/dev/null
   fi
 }
 
