@@ -1,6 +1,7 @@
-/** The caution's words, also printed on exported charts. */
-export const CAUTION_TEXT =
-  "For ground teaching only: not for flight planning or operation. The aircraft's flight manual, local regulations and licensed instructors prevail.";
+import { CAUTION_TEXT } from "@/lib/caution";
+
+/** The caution's words (lib/caution.ts), also printed on exported charts and the training record PDF. */
+export { CAUTION_TEXT };
 
 /** The caution every screen that shows calculations carries. */
 export function Caution({ className = "" }: { className?: string }) {

@@ -21,6 +21,10 @@ export const PERMISSIONS = {
   "students.own": { roles: ["student"], description: "See one's own progress, Ground log and timetable" },
   "students.sponsored": { roles: ["sponsor"], description: "See what a linked student shares with their sponsors" },
   "people.unlock": { roles: ["chief"], description: "Lift a sign-in lock on an account" },
+  "qualifications.manage": {
+    roles: ["chief"],
+    description: "Add and change instructors' qualifications, recency dates and courses (each change kept in the instructor's file)",
+  },
   "syllabus.view": { roles: ["chief", "instructor", "student"], description: "Read the syllabus" },
   "syllabus.all": { roles: ["chief", "instructor"], description: "Read every course's syllabus (students: the course they are on)" },
   "syllabus.edit": { roles: ["chief"], description: "Make syllabus revisions and move enrolments between them" },
@@ -63,6 +67,8 @@ export const PERMISSIONS = {
   },
   "stagechecks.designate": { roles: ["chief"], description: "Designate check instructors and override examiner rules" },
   "register.view": { roles: ["chief"], description: "See the Sign-off register and watch notes" },
+  "records.certify": { roles: ["chief"], description: "Certify printed training records as the chief instructor" },
+  "register.review": { roles: ["chief"], description: "Mark watch notes of the Sign-off register reviewed, with a remark" },
   "audit.verify": { roles: ["chief"], description: "Verify the audit trail's hash chain" },
   "progress.view": { roles: ["chief", "instructor", "student", "sponsor"], description: "See a Progress map (scoped to the caller)" },
   "mail.tray": { roles: ["chief"], description: "See captured mail (Mail tray) and outbox states" },
@@ -70,6 +76,20 @@ export const PERMISSIONS = {
     roles: ["chief", "instructor"],
     description: "Write a note for a student's sponsors, carried by the next Weekly letter",
   },
+  "sharing.manage": {
+    roles: ["student"],
+    description:
+      "See one's sponsors and decide what each may see and whether each receives the Weekly letter (adults; a minor's are the school's)",
+  },
+  "sharing.students": {
+    roles: ["chief", "instructor"],
+    description: "See the sponsors of the students whose records one keeps, and manage those of a student under 18",
+  },
+  "letters.received": {
+    roles: ["sponsor"],
+    description: "Read the Weekly letters one was sent, and turn the letter back on after stopping it",
+  },
+  "mail.letters": { roles: ["chief"], description: "Preview any sponsor's next Weekly letter and send it now" },
   "settings.edit": { roles: ["chief"], description: "Change school settings: mail sender, reminder lead time, letter day, limits" },
 } as const satisfies Record<string, { roles: readonly Role[]; description: string }>;
 

@@ -1,4 +1,5 @@
 import { PDFDocument, StandardFonts, rgb, type PDFFont, type PDFPage } from "pdf-lib";
+import { CAUTION_TEXT } from "@/lib/caution";
 
 /** The data the printable training record shows (plain values, already scoped and formatted). */
 export interface TrainingRecordPdfInput {
@@ -8,8 +9,14 @@ export interface TrainingRecordPdfInput {
   groundSummary: string;
   groundLog: string[][];
   checks: { heading: string; lines: string[] }[];
+  /** per sign-off: item, signed for, signer, the signer's certificate number, state, signature */
   signOffs: string[][];
+  /** per stage check: stage, date, examiner, the examiner's certificate number, result, written / oral */
   stageChecks: string[][];
+  /** syllabus items not yet signed off: code, stage, title */
+  notYetDone: string[][];
+  /** the chief instructor's certification of the printed record */
+  certification: { statement: string; name: string; certificateNumber: string };
   headHash: string;
   headPosition: number;
   generatedAt: string;
@@ -17,7 +24,8 @@ export interface TrainingRecordPdfInput {
 
 const A4: [number, number] = [595.28, 841.89];
 const MARGIN = 50;
-const FOOT = 40;
+const FOOT = 58;
+const CAUTION_SIZE = 7;
 
 /** Helvetica speaks WinAnsi only: strip accents and replace anything else it cannot print. */
 export function printable(s: string): string {
@@ -30,7 +38,18 @@ export function printable(s: string): string {
     .replace(/[^\x20-\x7e\xa0-\xff]/g, "?");
 }
 
-/** A paged PDF (pdf-lib, pure JS): every page carries "page x of y" and the audit chain's head hash. */
+/** The certification statement the chief instructor signs on the printed record. */
+export function certificationStatement(p: { certifierName: string; studentName: string; schoolName: string }): string {
+  return (
+    `I, ${p.certifierName}, chief instructor of ${p.schoolName}, certify that this is a true and complete copy of the ground ` +
+    `training record of ${p.studentName} as kept by the school on the date below, including the items not yet signed off.`
+  );
+}
+
+/**
+ * A paged PDF (pdf-lib, pure JS): every page carries the calculation caution (the record prints
+ * computed answers and credited hours), "page x of y" and the audit chain's head hash.
+ */
 export async function trainingRecordPdf(input: TrainingRecordPdfInput): Promise<Uint8Array> {
   const doc = await PDFDocument.create();
   doc.setTitle(printable(`Training record: ${input.studentName}`));
@@ -101,9 +120,11 @@ export async function trainingRecordPdf(input: TrainingRecordPdfInput): Promise<
   write(input.groundSummary, { f: bold });
   table(["Date", "Session", "Attendance", "Credited"], input.groundLog, [0.17, 0.5, 0.18, 0.15]);
   heading("Sign-offs");
-  table(["Item", "Signed for", "Signer", "State", "Signature"], input.signOffs, [0.3, 0.13, 0.2, 0.17, 0.2]);
+  table(["Item", "Signed for", "Signer", "Certificate", "State", "Signature"], input.signOffs, [0.26, 0.11, 0.16, 0.14, 0.16, 0.17]);
   heading("Stage checks");
-  table(["Stage", "Date", "Examiner", "Result", "Written / oral"], input.stageChecks, [0.1, 0.13, 0.2, 0.1, 0.47]);
+  table(["Stage", "Date", "Examiner", "Certificate", "Result", "Written / oral"], input.stageChecks, [0.08, 0.12, 0.16, 0.14, 0.08, 0.42]);
+  heading("Syllabus items not yet done");
+  table(["Item", "Stage", "Title"], input.notYetDone, [0.15, 0.12, 0.73]);
   heading("Oral checks");
   if (input.checks.length === 0) write("None.");
   for (const c of input.checks) {
@@ -112,8 +133,26 @@ export async function trainingRecordPdf(input: TrainingRecordPdfInput): Promise<
     y -= 4;
   }
 
+  heading("Certification by the chief instructor");
+  if (y < MARGIN + FOOT + 150) newPage();
+  write(input.certification.statement, { gap: 8 });
+  write(`Name: ${input.certification.name}`);
+  write(`Certificate number: ${input.certification.certificateNumber}`);
+  write("Date: ______________________", { gap: 18 });
+  write("Signature: ____________________________________________");
+
   const pages = doc.getPages();
+  const caution = wrap(`Caution: ${CAUTION_TEXT}`, font, CAUTION_SIZE, width);
   pages.forEach((p, i) => {
+    caution.forEach((l, j) =>
+      p.drawText(l, {
+        x: MARGIN,
+        y: 36 + (caution.length - 1 - j) * (CAUTION_SIZE + 2),
+        size: CAUTION_SIZE,
+        font,
+        color: rgb(0.45, 0.2, 0.05),
+      }),
+    );
     const foot = printable(`Audit chain head ${input.headHash} (${input.headPosition} events) · generated ${input.generatedAt}`);
     p.drawText(foot, { x: MARGIN, y: 26, size: 6.5, font: mono, color: rgb(0.3, 0.33, 0.4) });
     const label = `Page ${i + 1} of ${pages.length}`;

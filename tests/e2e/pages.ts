@@ -17,6 +17,13 @@ export const PAGES: CrawlPage[] = [
   // ---- foundation ----
   { name: "today", path: "/today", roles: ["chief", "instructor", "student", "sponsor"], waitFor: "main h1" },
   { name: "people", path: "/people", roles: ["chief", "instructor"], waitFor: "main h1" },
+  {
+    name: "people-instructor-file",
+    path: (fx) => `/people/${fx.instructor}`,
+    roles: ["chief"],
+    waitFor: "[data-testid=qualification-history] tbody tr",
+  },
+  { name: "people-instructor-file-forbidden", path: (fx) => `/people/${fx.instructor}`, roles: ["instructor"], waitFor: "h1", status: 403 },
   { name: "syllabus", path: "/syllabus", roles: ["chief", "instructor", "student"], waitFor: "main h1" },
   { name: "sign-in", path: "/sign-in", roles: ["signedOut"], waitFor: "form" },
   { name: "forbidden", path: "/people", roles: ["student"], waitFor: "h1", status: 403 },

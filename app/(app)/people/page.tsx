@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
 import { z } from "zod";
+import Link from "next/link";
 import { can, requirePagePermission } from "@/lib/auth/guard";
+import { rolesAllow } from "@/lib/auth/permissions";
 import { listPeople } from "@/db/access/people/list-people";
 import { listCohorts, listCohortMembers } from "@/db/access/cohorts/list-cohorts";
 import { ROLES, ROLE_LABELS } from "@/lib/auth/roles";
@@ -99,7 +101,7 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
               <tbody>
                 {people.map((p) => (
                   <tr key={p.id}>
-                    <td>{p.name}</td>
+                    <td>{rolesAllow(p.roles, "records.sign") ? <Link href={`/people/${p.id}`}>{p.name}</Link> : p.name}</td>
                     <td className="break-all">{p.email}</td>
                     <td>{p.roles.map((r) => ROLE_LABELS[r]).join(", ")}</td>
                     <td>{p.active ? "Active" : "Deactivated"}</td>

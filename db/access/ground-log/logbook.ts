@@ -31,7 +31,7 @@ export async function logbookFor(schoolId: string, studentId: string): Promise<L
             br.title AS "briefingTitle",
             br.title || COALESCE(' (' || (SELECT string_agg(i.code, ', ' ORDER BY i.code) FROM syllabus_items i WHERE i.id = ANY(g.syllabus_item_ids)) || ')', '') AS subjects,
             ip.name AS "instructorName",
-            (SELECT q.certificate_number FROM instructor_qualifications q WHERE q.person_id = g.instructor_id ORDER BY q.issued_on DESC LIMIT 1) AS "certificateNumber",
+            (SELECT q.certificate_number FROM instructor_qualifications_current q WHERE q.person_id = g.instructor_id ORDER BY q.issued_on DESC LIMIT 1) AS "certificateNumber",
             g.amendment_count > 0 AS amended, g.reason, g.recorded_at AS "recordedAt"
        FROM ground_log_current g JOIN briefing_revisions br ON br.id = g.briefing_revision_id JOIN people ip ON ip.id = g.instructor_id
       WHERE g.student_id = :s AND g.school_id = :school

@@ -35,8 +35,8 @@ export async function listQualifications(personId: string): Promise<Qualificatio
     `SELECT q.certificate_kind AS "certificateKind", q.certificate_number AS "certificateNumber", q.ratings,
             q.check_instructor AS "checkInstructor", q.recency_on AS "recencyOn", q.recency_months AS "recencyMonths",
             COALESCE(array_agg(c.code ORDER BY c.code) FILTER (WHERE c.code IS NOT NULL), '{}') AS courses
-       FROM instructor_qualifications q
-       LEFT JOIN instructor_courses ic ON ic.person_id = q.person_id
+       FROM instructor_qualifications_current q
+       LEFT JOIN instructor_courses_current ic ON ic.person_id = q.person_id
        LEFT JOIN courses c ON c.id = ic.course_id
       WHERE q.person_id = :personId
       GROUP BY q.id ORDER BY q.issued_on`,

@@ -1,6 +1,6 @@
 import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
-import { addDays, addMonths, format, parseISO } from "date-fns";
+import { addDays, format, parseISO } from "date-fns";
 import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
 import { HttpError } from "@/lib/http/errors";
@@ -12,6 +12,9 @@ import { getSchool } from "../shared/school";
 import type { StudentRef } from "../shared/enrolment";
 import { itemsOfRevision, assertStageOpen, openMakeupItemIds, type ItemRef } from "./items";
 import { RecordRefusal } from "./refusals";
+import { refuseUnlessStanding } from "./signer-standing";
+
+export { signerStanding } from "./signer-standing";
 
 // Whether an item may be signed off, and the statement the signer signs: every rule that must
 // hold before a sign-off, in order, each refusal naming its reason.
@@ -42,31 +45,6 @@ export interface SignOffPlan {
   signedOn: string;
   statement: string;
   signerName: string;
-}
-
-/** Whether the signer holds the course and is current on `onDate` (recency in calendar months). */
-export async function signerStanding(
-  personId: string,
-  courseId: string,
-  onDate: string,
-  t?: Transaction,
-): Promise<{ qualified: boolean; current: boolean; currentUntil: string | null }> {
-  const [course] = await sequelize.query<{ ok: boolean }>(
-    `SELECT EXISTS (SELECT 1 FROM instructor_courses WHERE person_id = :p AND course_id = :c) AS ok`,
-    { replacements: { p: personId, c: courseId }, type: QueryTypes.SELECT, transaction: t },
-  );
-  const quals = await sequelize.query<{ issued_on: string; recency_on: string; recency_months: number }>(
-    `SELECT issued_on, recency_on, recency_months FROM instructor_qualifications WHERE person_id = :p`,
-    { replacements: { p: personId }, type: QueryTypes.SELECT, transaction: t },
-  );
-  let currentUntil: string | null = null;
-  let current = false;
-  for (const q of quals) {
-    const until = format(addMonths(parseISO(q.recency_on), q.recency_months), "yyyy-MM-dd");
-    if (!currentUntil || until > currentUntil) currentUntil = until;
-    if (q.issued_on <= onDate && onDate < until) current = true;
-  }
-  return { qualified: !!course?.ok && quals.length > 0, current, currentUntil };
 }
 
 async function checksCovering(studentId: string, itemId: string, t?: Transaction): Promise<BasisCheck[]> {
@@ -110,15 +88,7 @@ export async function planSignOff(user: CurrentUser, input: Omit<SignOffInput, "
   const signedOn = input.signedOn ?? today;
   if (signedOn > today) throw new HttpError(400, "signedOn: cannot be in the future", "signedOn");
 
-  const standing = await signerStanding(user.id, student.courseId, signedOn, t);
-  if (!standing.qualified)
-    throw new RecordRefusal("signer_not_qualified", `signer: you are not qualified to sign off items of ${student.courseCode}`, "signer");
-  if (!standing.current)
-    throw new RecordRefusal(
-      "signer_not_current",
-      `signer: your instructor recency is not current on ${signedOn}${standing.currentUntil ? ` (it ran until ${standing.currentUntil})` : ""}`,
-      "signer",
-    );
+  await refuseUnlessStanding(user.id, student, signedOn, "sign off items", t);
   await assertStageOpen(student, [item], all, "itemId", t);
   if ((await openMakeupItemIds(student.id, t)).has(item.id))
     throw new RecordRefusal("makeup_open", `itemId: ${item.code} has an open make-up item; close it before signing off`, "itemId");

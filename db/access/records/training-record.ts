@@ -12,6 +12,8 @@ import { creditedMinutesFor } from "../ground-log/ground-hours";
 import { listChecksOfStudent, type CheckSummary } from "./check-history";
 import { signOffRegister } from "./sign-off-register";
 import { chainHead } from "./audit-chain";
+import { itemsOfRevision } from "./items";
+import { certificateNumbersOn, certifyingInstructor } from "../people/qualification-history";
 
 // The printable training record of one student.
 
@@ -29,8 +31,23 @@ export interface TrainingRecord {
     state: string;
     reason: string | null;
     signatureHash: string;
+    /** the signer's certificate number(s) in force on the date signed for */
+    certificateNumber: string | null;
   }[];
-  stageChecks: { stageCode: string; attempt: number; result: string; date: string; examinerName: string; written: string | null }[];
+  stageChecks: {
+    stageCode: string;
+    attempt: number;
+    result: string;
+    date: string;
+    examinerName: string;
+    written: string | null;
+    certificateNumber: string | null;
+  }[];
+  /** syllabus items of the student's revision without a sign-off in force */
+  notYetDone: { code: string; title: string; stageCode: string }[];
+  /** the chief instructor who certifies the printed record, with the certificate number in force today */
+  certifier: { name: string; certificateNumber: string | null } | null;
+  today: string;
   head: { hash: string; position: number };
   generatedAt: Date;
 }
@@ -55,26 +72,50 @@ export async function trainingRecordFor(viewer: CurrentUser, studentId: string):
   }));
   // the caller's access to this student was checked above: the register is read for them alone
   const { rows } = await signOffRegister(viewer, {}, { studentId: student.id });
+  const numbers = new Map<string, string | null>();
+  const numberOf = async (personId: string, date: string) => {
+    const k = `${personId}:${date}`;
+    if (!numbers.has(k)) numbers.set(k, await certificateNumbersOn(personId, date));
+    return numbers.get(k) ?? null;
+  };
+  const signed = new Set(rows.filter((r) => r.kind === "sign_off" && r.state === "current").map((r) => r.itemCode));
+  const today = dateInZone(now(), school.timeZone);
+  const signOffs = [];
+  for (const r of rows.filter((r) => r.kind === "sign_off"))
+    signOffs.push({
+      itemCode: r.itemCode ?? "",
+      itemTitle: r.itemTitle ?? "",
+      signedOn: r.date,
+      signerName: r.signerName,
+      state: r.state,
+      reason: r.reason,
+      signatureHash: r.signatureHash,
+      certificateNumber: await numberOf(r.signerId, r.date),
+    });
+  const stageChecks = [];
+  for (const r of rows.filter((r) => r.kind === "stage_check"))
+    stageChecks.push({
+      stageCode: r.stageCode,
+      attempt: 0,
+      result: r.state,
+      date: r.date,
+      examinerName: r.signerName,
+      written: r.basis,
+      certificateNumber: await numberOf(r.signerId, r.date),
+    });
   return {
     school: { name: school.name, timeZone: school.timeZone },
     student,
     groundMinutes: await creditedMinutesFor(student.id, student.courseId),
     groundLog,
     checks: await listChecksOfStudent(viewer.schoolId, student.id, { withRemarks: false }),
-    signOffs: rows
-      .filter((r) => r.kind === "sign_off")
-      .map((r) => ({
-        itemCode: r.itemCode ?? "",
-        itemTitle: r.itemTitle ?? "",
-        signedOn: r.date,
-        signerName: r.signerName,
-        state: r.state,
-        reason: r.reason,
-        signatureHash: r.signatureHash,
-      })),
-    stageChecks: rows
-      .filter((r) => r.kind === "stage_check")
-      .map((r) => ({ stageCode: r.stageCode, attempt: 0, result: r.state, date: r.date, examinerName: r.signerName, written: r.basis })),
+    signOffs,
+    stageChecks,
+    notYetDone: (await itemsOfRevision(student.revisionId))
+      .filter((i) => !signed.has(i.code))
+      .map((i) => ({ code: i.code, title: i.title, stageCode: i.stageCode })),
+    certifier: await certifyingInstructor(viewer.schoolId, viewer.id, today),
+    today,
     head: await chainHead(viewer.schoolId),
     generatedAt: now(),
   };

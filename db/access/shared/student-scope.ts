@@ -36,7 +36,7 @@ export function studentScopeSql(
   else if (scope.examiner)
     // a designated check instructor sees the school's students (read in SQL: no extra round trip)
     staff.push(
-      `(${column} IN (${schoolStudents}) AND EXISTS (SELECT 1 FROM instructor_qualifications q WHERE q.person_id = :${k}Uid AND q.check_instructor))`,
+      `(${column} IN (${schoolStudents}) AND EXISTS (SELECT 1 FROM instructor_qualifications_current q WHERE q.person_id = :${k}Uid AND q.check_instructor))`,
     );
   if (scope.taught)
     staff.push(

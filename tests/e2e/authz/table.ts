@@ -26,6 +26,7 @@ import { CURVE_LAB_TABLE } from "./curve-lab-table";
 import { TIMETABLE_TABLE } from "./timetable-table";
 import { BRIEFINGS_TABLE } from "./briefings/table";
 import { RECORDS_TABLE } from "./records/table";
+import { PEOPLE_TABLE } from "./people/table";
 
 function rowsOf(res: HarnessResponse): { id: string; primary: string }[] {
   const j = res.json as { rows?: { id: string; primary: string }[] } | undefined;
@@ -125,6 +126,9 @@ export const TABLE: AuthzTable = {
 
   // ---- records: oral checks, sign-offs, stage checks, register, Progress map (records/table.ts) ----
   ...RECORDS_TABLE,
+
+  // ---- people: instructor files (people/table.ts) ----
+  ...PEOPLE_TABLE,
 
   // ---- mail ----
   // Public by design (the signed token is the credential): a forged token is refused for everyone.

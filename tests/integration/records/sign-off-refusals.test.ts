@@ -8,6 +8,7 @@ import { withdrawSignOff, currentSignOffs } from "@/db/access/records/sign-offs"
 import { RecordRefusal } from "@/db/access/records/refusals";
 import { verifyChain } from "@/db/access/records/audit-chain";
 import { check, sign, itemId, auditCount, type School } from "./helpers";
+import { changeQualification, endCourseGrants } from "@/tests/helpers/qualifications";
 
 afterAll(closeDb);
 
@@ -116,7 +117,7 @@ describe("the signer must be qualified for the course and current on that date",
     const st = s2.people.students[3]!.id; // cohort B, led by instructor2
     const item = await itemId(s2, "AER-01");
     await check(s2.as.instructor2, st, [item]);
-    await sequelize.query(`DELETE FROM instructor_courses WHERE person_id = :p`, { replacements: { p: s2.people.instructor2.id } });
+    await endCourseGrants(s2.people.instructor2.id, "2020-01-01");
     expect(await refusal(sign(s2.as.instructor2, { studentId: st, itemId: item }))).toBe("signer_not_qualified");
   });
 
@@ -125,19 +126,14 @@ describe("the signer must be qualified for the course and current on that date",
     const st = s3.people.students[3]!.id;
     const item = await itemId(s3, "AER-01");
     await check(s3.as.instructor2, st, [item]);
-    await sequelize.query(`UPDATE instructor_qualifications SET recency_on = '2023-01-15', recency_months = 24 WHERE person_id = :p`, {
-      replacements: { p: s3.people.instructor2.id },
-    });
+    await changeQualification(s3.people.instructor2.id, { recencyOn: "2023-01-15", recencyMonths: 24 }, "2020-01-01");
     expect(await refusal(sign(s3.as.instructor2, { studentId: st, itemId: item }))).toBe("signer_not_current");
   });
 
   it("recency is counted in calendar months (31 January + 1 month ends on 28 February)", async () => {
     const s4 = await makeSchool("months");
     const p = s4.people.instructor2.id;
-    await sequelize.query(
-      `UPDATE instructor_qualifications SET issued_on = '2020-01-01', recency_on = '2025-01-31', recency_months = 1 WHERE person_id = :p`,
-      { replacements: { p } },
-    );
+    await changeQualification(p, { issuedOn: "2020-01-01", recencyOn: "2025-01-31", recencyMonths: 1 }, "2020-01-01");
     expect((await signerStanding(p, s4.course.id, "2025-02-27")).current).toBe(true);
     const end = await signerStanding(p, s4.course.id, "2025-02-28");
     expect(end.current).toBe(false);

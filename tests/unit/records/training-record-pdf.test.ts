@@ -1,6 +1,7 @@
 import { PDFDocument } from "pdf-lib";
 import { inflateSync } from "node:zlib";
 import { trainingRecordPdf, printable } from "@/lib/records/training-record-pdf";
+import { CAUTION_TEXT } from "@/lib/caution";
 
 const HEAD = "ab".repeat(32);
 
@@ -23,7 +24,7 @@ async function pageTexts(bytes: Uint8Array): Promise<string[]> {
 }
 
 describe("the printable training record", () => {
-  it("numbers its pages 'Page x of y' and prints the audit chain's head hash on every page", async () => {
+  it("numbers its pages 'Page x of y' and prints the audit chain's head hash and the calculation caution on every page", async () => {
     const checks = Array.from({ length: 40 }, (_, i) => ({
       heading: `2026-11-${String((i % 28) + 1).padStart(2, "0")} · AER-0${(i % 5) + 1} · Meets the standard`,
       lines: ["1. [AER-01] Name the parts of zero-lift drag - Solid", "2. [AER-03] Vmd at 1,000 kg - Solid"],
@@ -35,8 +36,10 @@ describe("the printable training record", () => {
       groundSummary: "Credited ground time: 3.5 of 35 h",
       groundLog: [["2026-11-20", "Drag and Vmd", "attended", "1.5 h"]],
       checks,
-      signOffs: [["AER-01 Zero-lift drag", "2026-11-21", "Tomasz Varga", "current", "0123456789abcdef"]],
+      signOffs: [["AER-01 Zero-lift drag", "2026-11-21", "Tomasz Varga", "LHV-GI-0142", "current", "0123456789abcdef"]],
       stageChecks: [],
+      notYetDone: [["AER-02", "S1", "Induced drag"]],
+      certification: { statement: "I certify this record.", name: "Imogen Farrant", certificateNumber: "LHV-GI-0007" },
       headHash: HEAD,
       headPosition: 42,
       generatedAt: "2026-12-02 10:00",
@@ -46,7 +49,13 @@ describe("the printable training record", () => {
     texts.forEach((t, i) => {
       expect(t).toContain(`Page ${i + 1} of ${texts.length}`);
       expect(t).toContain(HEAD);
+      // the caution is wrapped over lines; its words all appear on each page
+      expect(t.replace(/\s+/g, " ")).toContain(printable(CAUTION_TEXT).replace(/\s+/g, " ").slice(0, 60));
     });
+    const all = texts.join("\n");
+    expect(all).toContain("LHV-GI-0142");
+    expect(all).toContain("Certificate number: LHV-GI-0007");
+    expect(all).toContain("Syllabus items not yet done");
     expect(texts[0]).toContain("Training record: Zofia Wrobel");
   });
 

@@ -1,9 +1,11 @@
-import { schoolOverview } from "@/db/access/today/school-overview";
+import Link from "next/link";
+import { schoolOverview, RECENCY_WARNING_DAYS } from "@/db/access/today/school-overview";
 import type { CurrentUser } from "@/lib/auth/session";
 import { UnlockButton } from "./unlock-button";
+import { formatDay } from "@/lib/time";
 
 export async function ChiefToday({ user }: { user: CurrentUser }) {
-  const { counts, locked, currency } = await schoolOverview(user);
+  const { counts, locked, currency, dueSoon } = await schoolOverview(user);
   return (
     <section aria-labelledby="chief-title" className="space-y-4">
       <h2 id="chief-title" className="sr-only">
@@ -22,6 +24,21 @@ export async function ChiefToday({ user }: { user: CurrentUser }) {
           </div>
         ))}
       </dl>
+      {dueSoon.length > 0 && (
+        <section className="card" aria-labelledby="recency-due-title" data-testid="recency-due">
+          <h2 id="recency-due-title">Recency dates within {RECENCY_WARNING_DAYS} days</h2>
+          <ul className="mt-2 space-y-1">
+            {dueSoon.map((d) => (
+              <li key={`${d.personId}-${d.certificateNumber}`}>
+                <Link href={`/people/${d.personId}`}>{d.name}</Link> <span className="num">({d.certificateNumber})</span>:{" "}
+                {d.daysLeft <= 0
+                  ? `recency lapsed on ${formatDay(d.dueOn)}; signing is refused until the renewal is recorded`
+                  : `recency date ${formatDay(d.dueOn)}, in ${d.daysLeft} day${d.daysLeft === 1 ? "" : "s"}; signing is refused from that day`}
+              </li>
+            ))}
+          </ul>
+        </section>
+      )}
       <div className="grid gap-4 md:grid-cols-2">
         <section className="card" aria-labelledby="currency-title">
           <h2 id="currency-title">Instructor currency</h2>
@@ -39,7 +56,7 @@ export async function ChiefToday({ user }: { user: CurrentUser }) {
                   <td>{c.name}</td>
                   <td className="num">{c.certificateNumber}</td>
                   <td className="num">
-                    {c.dueOn}{" "}
+                    {formatDay(c.dueOn)}{" "}
                     {c.overdue && (
                       <span className="ml-1 rounded bg-notyet-100 px-1.5 text-caption font-semibold text-notyet-800">lapsed</span>
                     )}

@@ -29,7 +29,14 @@ export const GET = route<{ studentId: string }>("progress.view", async ({ user, 
       s.reason ? `${words(SIGN_OFF_STATE_WORDS, s.state)}: ${s.reason}` : words(SIGN_OFF_STATE_WORDS, s.state),
       s.signatureHash.slice(0, 16),
     ]),
-    stageChecks: r.stageChecks.map((s) => [s.stageCode, s.date, s.examinerName, s.certificateNumber ?? "none on that date", words(STAGE_RESULT_WORDS, s.result), s.written ?? ""]),
+    stageChecks: r.stageChecks.map((s) => [
+      s.stageCode,
+      s.date,
+      s.examinerName,
+      s.certificateNumber ?? "none on that date",
+      words(STAGE_RESULT_WORDS, s.result),
+      s.written ?? "",
+    ]),
     checks: r.checks.map((c) => ({
       heading: `${formatDayTime(c.occurredAt, tz)} · ${c.itemCodes.join(", ")} · ${CHECK_OUTCOME_LABEL[c.outcome]} · level of learning shown: ${LEVEL_LABEL[c.levelShown]} · ${c.instructorName}${c.withdrawn ? ` · WITHDRAWN: ${c.withdrawn.reason}` : ""}`,
       lines: c.questions.map(

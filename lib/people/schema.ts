@@ -1,0 +1,50 @@
+import { z } from "zod";
+import { calendarDate } from "@/lib/validation/dates";
+
+// The People area's schemas, shared by the forms and the server actions.
+
+const uuid = z.string().uuid();
+const emptyToNull = (v: unknown) => (v === "" || v === undefined ? null : v);
+
+/** Ratings: typed as one line separated by commas or semicolons, or already a list. */
+const ratingsList = z.preprocess(
+  (v) => (typeof v === "string" ? [...new Set(v.split(/[,;\n]/).map((r) => r.trim()))].filter(Boolean) : v),
+  z.array(z.string().trim().min(1, "A rating cannot be empty").max(80, "Each rating at most 80 characters")).max(20, "At most 20 ratings"),
+);
+
+/**
+ * Adding a qualification (no qualificationId) or recording a change to one. The change is in force
+ * from `effectiveFrom`; the version it replaces stays in the instructor's file.
+ */
+export const qualificationSchema = z
+  .object({
+    personId: uuid,
+    qualificationId: z.preprocess(emptyToNull, uuid.nullable()).default(null),
+    certificateKind: z.string().trim().min(1, "Enter the kind of certificate").max(100, "At most 100 characters"),
+    certificateNumber: z
+      .string()
+      .trim()
+      .min(1, "Enter the certificate number")
+      .max(40, "At most 40 characters")
+      .regex(/^[A-Za-z0-9][A-Za-z0-9 ./-]*$/, "Letters, digits, spaces, dots, slashes and hyphens only"),
+    ratings: ratingsList,
+    courseIds: z.array(uuid).max(50, "At most 50 courses").default([]),
+    checkInstructor: z.boolean().default(false),
+    issuedOn: calendarDate({ required: "Choose the date of issue" }),
+    recencyOn: calendarDate({ required: "Choose the date of the last recency activity" }),
+    recencyMonths: z.coerce
+      .number("Enter a whole number of months")
+      .int("Enter a whole number of months")
+      .min(1, "At least 1 month")
+      .max(120, "At most 120 months"),
+    effectiveFrom: calendarDate({ required: "Choose the date this takes effect" }),
+    changeNote: z.string().trim().max(500, "At most 500 characters").default(""),
+  })
+  .superRefine((v, ctx) => {
+    if (v.recencyOn && v.issuedOn && v.recencyOn < v.issuedOn)
+      ctx.addIssue({ code: "custom", path: ["recencyOn"], message: "Cannot be before the date of issue" });
+    if (v.qualificationId && !v.changeNote) ctx.addIssue({ code: "custom", path: ["changeNote"], message: "Say what changed and why" });
+  });
+
+export type QualificationFormInput = z.input<typeof qualificationSchema>;
+export type QualificationInput = z.output<typeof qualificationSchema>;

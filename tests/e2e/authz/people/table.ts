@@ -1,0 +1,41 @@
+// The People area's rows of the authorisation table: instructor files (qualifications with history).
+import type { AuthzTable, HarnessResponse } from "../types";
+
+const result = (res: HarnessResponse) => res.json as { ok: boolean; status?: number; data?: Record<string, unknown> };
+
+export const PEOPLE_TABLE: AuthzTable = {
+  "action app/(app)/people/actions.ts#saveQualificationAction": {
+    // a second qualification for the Kestrel lead: only the chief may add it
+    request: (fx, caller) => ({
+      args: [
+        {
+          personId: fx.instructor,
+          certificateKind: "Ground instructor (advanced)",
+          certificateNumber: `HARNESS-${caller.toUpperCase()}`,
+          ratings: "Principles of flight",
+          courseIds: [fx.course],
+          checkInstructor: false,
+          issuedOn: "2020-01-01",
+          recencyOn: "2020-01-01",
+          recencyMonths: 24,
+          effectiveFrom: "2020-01-01",
+          changeNote: "",
+        },
+      ],
+    }),
+    expect: {
+      signedOut: 401,
+      chief: {
+        status: 200,
+        check: (res) => {
+          expect(result(res).ok).toBe(true);
+          expect(result(res).data).toMatchObject({ version: 1 });
+        },
+      },
+      instructor: 403,
+      student: 403,
+      sponsor: 403,
+    },
+    mutates: true,
+  },
+};
