@@ -93,6 +93,21 @@ export function userMessage(message: string, field?: string | null): string {
   return m ? `${fieldLabel(m[1]!)}: ${message.slice(m[0].length)}` : message;
 }
 
+/**
+ * A failure on one row of a list ("lines.2.status") told with the row's own name:
+ * "Ada Quill: Status: choose attended, late, left early or absent". Other failures keep their message.
+ */
+export function rowMessage(
+  failure: { message: string; field?: string; fieldErrors?: Record<string, string[]> },
+  rowName: (index: number) => string | undefined,
+): string {
+  const m = failure.field ? /^(.*?)\.(\d+)\.(.+)$/.exec(failure.field) : null;
+  const name = m ? rowName(Number(m[2])) : undefined;
+  if (!m || !name) return failure.message;
+  const text = failure.fieldErrors?.[failure.field!]?.[0] ?? failure.message;
+  return `${name}: ${fieldLabel(m[3]!)}: ${text}`;
+}
+
 /** The text a screen shows for an API error body `{ message, field? }`. */
 export function apiErrorText(error: { message?: string; field?: string } | null | undefined, fallback: string): string {
   return error?.message ? userMessage(error.message, error.field) : fallback;

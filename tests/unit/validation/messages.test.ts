@@ -1,7 +1,7 @@
 // Error messages a user would write: zod issues in plain English (no library wording), field keys
 // turned into their words for the screen, and the key kept for code.
 import { z } from "zod";
-import { apiErrorText, fieldLabel, installUserWords, plainIssueMessage, userMessage } from "@/lib/validation/messages";
+import { apiErrorText, fieldLabel, installUserWords, plainIssueMessage, rowMessage, userMessage } from "@/lib/validation/messages";
 
 installUserWords();
 
@@ -60,5 +60,20 @@ describe("field keys become words on screens", () => {
   test("an API error body reads as words, with a fallback when there is none", () => {
     expect(apiErrorText({ message: "dueOn: must be today or later", field: "dueOn" }, "x")).toBe("Due date: must be today or later");
     expect(apiErrorText(null, "The sessions could not be loaded")).toBe("The sessions could not be loaded");
+  });
+});
+
+describe("a wrong row is named by its student", () => {
+  const names = ["Ada Quill", "Ben Lark", "Cleo Finch"];
+  test("a failure on lines.2 names the third student", () => {
+    const failure = {
+      message: "Status (line 3): choose attended, late, left early or absent",
+      field: "lines.2.status",
+      fieldErrors: { "lines.2.status": ["choose attended, late, left early or absent"] },
+    };
+    expect(rowMessage(failure, (i) => names[i])).toBe("Cleo Finch: Status: choose attended, late, left early or absent");
+  });
+  test("a failure that is not on a row keeps its message", () => {
+    expect(rowMessage({ message: "Session: not found", field: "sessionId" }, (i) => names[i])).toBe("Session: not found");
   });
 });

@@ -14,6 +14,7 @@ import {
 import type { AttendanceSheetLine } from "@/db/access/ground-log/attendance-sheet";
 import { recordAttendanceAction, amendEntryAction } from "../actions";
 import { ScrollArea } from "@/components/ui/scroll-area";
+import { rowMessage } from "@/lib/validation/messages";
 
 type In = z.input<typeof recordAttendanceSchema>;
 type Out = z.output<typeof recordAttendanceSchema>;
@@ -56,7 +57,9 @@ export function AttendanceSheet({
   async function onSubmit(data: Out) {
     const r = await recordAttendanceAction({ ...data, idempotencyKey: key });
     setMsg(
-      r.ok ? { ok: true, text: `Recorded ${r.data.recorded} student${r.data.recorded === 1 ? "" : "s"}.` } : { ok: false, text: r.message },
+      r.ok
+        ? { ok: true, text: `Recorded ${r.data.recorded} student${r.data.recorded === 1 ? "" : "s"}.` }
+        : { ok: false, text: rowMessage(r, (i) => open[i]?.name) },
     );
     if (r.ok) router.refresh();
   }
