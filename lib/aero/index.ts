@@ -101,6 +101,17 @@ export {
   type SampleCurvesOptions,
 } from "./curves";
 
+export {
+  VALIDITY_FLAGS,
+  VALIDITY_FLAG_TEXT,
+  INCOMPRESSIBLE_MACH_LIMIT,
+  FAR_BELOW_STALL_FRACTION,
+  validity,
+  validityText,
+  type Validity,
+  type ValidityFlag,
+} from "./validity";
+
 export { vmdMassScaling, vmdZeroLiftDragScaling, trueAirspeedFactor } from "./sensitivities";
 
 export {

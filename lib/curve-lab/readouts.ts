@@ -1,4 +1,4 @@
-import { bestGlide, minimumDragSpeed, minimumPowerSpeed, stallSpeed } from "@/lib/aero";
+import { bestGlide, minimumDragSpeed, minimumPowerSpeed, stallSpeed, validity, validityText } from "@/lib/aero";
 import {
   CONFIGURATION_KEYS,
   CONFIGURATION_LABELS,
@@ -19,6 +19,16 @@ export interface CaseFigures {
   bestGlideMs: number;
   glideRatio: number;
   vmdTasMs: number;
+  /**
+   * Where a speed leaves the model's validity (below the stall, above Mach 0.3), as the short
+   * words shown beside it; "" when valid. From lib/aero's `validity`.
+   */
+  flags: { vmd: string; vmp: string; bestGlide: string };
+}
+
+/** A speed with its validity words beside it, e.g. "52 kt (below stall: model not valid)". */
+export function flaggedSpeed(ms: number, unit: Parameters<typeof formatSpeed>[1], flag: string): string {
+  return flag ? `${formatSpeed(ms, unit)} (${flag})` : formatSpeed(ms, unit);
 }
 
 export function caseFigures(airframe: AirframeSnapshot, c: DemoCase, axis: "equivalent" | "true"): CaseFigures {
@@ -27,15 +37,18 @@ export function caseFigures(airframe: AirframeSnapshot, c: DemoCase, axis: "equi
   const pick = (v: { equivalentAirspeedMs: number; trueAirspeedMs: number }) =>
     axis === "true" ? v.trueAirspeedMs : v.equivalentAirspeedMs;
   const vmd = minimumDragSpeed(aircraft, cond);
+  const vmp = minimumPowerSpeed(aircraft, cond);
   const glide = bestGlide(aircraft, cond);
+  const flagAt = (tasMs: number) => validityText(validity(aircraft, { ...cond, trueAirspeedMs: tasMs }).flags);
   return {
     vmdMs: pick(vmd),
-    vmpMs: pick(minimumPowerSpeed(aircraft, cond)),
+    vmpMs: pick(vmp),
     stallMs: pick(stallSpeed(aircraft, cond)),
     maxLiftToDrag: vmd.maxLiftToDrag,
     bestGlideMs: pick(glide),
     glideRatio: glide.glideRatio,
     vmdTasMs: vmd.trueAirspeedMs,
+    flags: { vmd: flagAt(vmd.trueAirspeedMs), vmp: flagAt(vmp.trueAirspeedMs), bestGlide: flagAt(glide.trueAirspeedMs) },
   };
 }
 

@@ -26,7 +26,7 @@ import {
   type DemoCase,
   type DemoSpec,
 } from "@/lib/curve-lab/demo-spec";
-import { caseFigures, whatIf, GUST_ABOVE_VMD, GUST_BELOW_VMD, AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
+import { caseFigures, flaggedSpeed, whatIf, GUST_ABOVE_VMD, GUST_BELOW_VMD, AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
 import { kgToLb, mToFt, ftToM } from "@/lib/aero";
 import { callGap } from "@/lib/curve-lab/call-gap";
 import { deleteDemoAction, duplicateDemoAction, makeCallAction, renameDemoAction, saveDemoAction } from "../actions";
@@ -493,9 +493,9 @@ export function DemoWorkbench(props: WorkbenchProps) {
               <h2 id="readouts-h">{focused.label}</h2>
               <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 num">
                 <dt>Vmd</dt>
-                <dd data-testid="readout-vmd">{formatSpeed(figures.vmdMs, unit)}</dd>
+                <dd data-testid="readout-vmd">{flaggedSpeed(figures.vmdMs, unit, figures.flags.vmd)}</dd>
                 <dt>Vmp</dt>
-                <dd data-testid="readout-vmp">{formatSpeed(figures.vmpMs, unit)}</dd>
+                <dd data-testid="readout-vmp">{flaggedSpeed(figures.vmpMs, unit, figures.flags.vmp)}</dd>
                 <dt>Stall</dt>
                 <dd data-testid="readout-stall">
                   {formatSpeed(figures.stallMs, unit)} ({CONFIGURATION_LABELS[focused.configuration].toLowerCase()})
@@ -504,7 +504,7 @@ export function DemoWorkbench(props: WorkbenchProps) {
                 <dd>{fmt(figures.maxLiftToDrag, 1)}</dd>
                 <dt>Best glide</dt>
                 <dd>
-                  {formatSpeed(figures.bestGlideMs, unit)}, {fmt(figures.glideRatio, 1)}:1
+                  {flaggedSpeed(figures.bestGlideMs, unit, figures.flags.bestGlide)}, {fmt(figures.glideRatio, 1)}:1
                 </dd>
               </dl>
               <p className="text-caption text-ink-soft">Speeds as {spec.axis.speed === "true" ? "TAS" : "EAS (IAS = CAS = EAS here)"}.</p>
