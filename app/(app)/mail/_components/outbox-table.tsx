@@ -1,7 +1,7 @@
 import type { OutboxListRow, OutboxState } from "@/db/access/mail/outbox-list";
 import { formatDayTime } from "@/lib/time";
 import { RetryButton } from "./retry-button";
-import { ScrollArea } from "@/components/ui/scroll-area";
+import { WideTable } from "@/components/ui/wide-table";
 import { MAIL_KIND_WORDS, MAIL_STATE_WORDS, words } from "@/lib/labels";
 
 const STATE_STYLE: Record<OutboxState, string> = {
@@ -22,18 +22,28 @@ export function OutboxTable({ rows, timeZone }: { rows: OutboxListRow[]; timeZon
   if (rows.length === 0) return <p className="text-ink-soft">No mail here.</p>;
   const when = (d: Date | null) => (d ? formatDayTime(new Date(d), timeZone) : "—");
   return (
-    <ScrollArea label="Outbox">
+    <WideTable label="Outbox" more={5}>
       <table className="data-table" data-testid="outbox-table">
         <thead>
           <tr>
             <th scope="col">State</th>
             <th scope="col">Kind</th>
-            <th scope="col">To</th>
             <th scope="col">Subject</th>
-            <th scope="col">Due</th>
-            <th scope="col">Sent</th>
-            <th scope="col">Attempts</th>
-            <th scope="col">Last error</th>
+            <th scope="col" data-more="">
+              To
+            </th>
+            <th scope="col" data-more="">
+              Due
+            </th>
+            <th scope="col" data-more="">
+              Sent
+            </th>
+            <th scope="col" data-more="">
+              Attempts
+            </th>
+            <th scope="col" data-more="">
+              Last error
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -41,25 +51,34 @@ export function OutboxTable({ rows, timeZone }: { rows: OutboxListRow[]; timeZon
             <tr key={r.id}>
               <td>
                 <StateBadge state={r.state} />
-              </td>
-              <td className="whitespace-nowrap">{words(MAIL_KIND_WORDS, r.kind)}</td>
-              <td className="break-all">{r.to}</td>
-              <td>{r.subject}</td>
-              <td className="num whitespace-nowrap">{when(r.dueAt)}</td>
-              <td className="num whitespace-nowrap">{when(r.sentAt)}</td>
-              <td className="num">{r.attempts}</td>
-              <td className="text-caption">
-                {r.lastError ?? "—"}
+                {/* the retry sits with the state, so it is there on a phone without "More columns" */}
                 {r.state === "failed" && (
                   <div className="mt-1">
                     <RetryButton outboxId={r.id} />
                   </div>
                 )}
               </td>
+              <td className="whitespace-nowrap">{words(MAIL_KIND_WORDS, r.kind)}</td>
+              <td className="[overflow-wrap:anywhere]">{r.subject}</td>
+              <td className="break-all" data-more="">
+                {r.to}
+              </td>
+              <td className="num whitespace-nowrap" data-more="">
+                {when(r.dueAt)}
+              </td>
+              <td className="num whitespace-nowrap" data-more="">
+                {when(r.sentAt)}
+              </td>
+              <td className="num" data-more="">
+                {r.attempts}
+              </td>
+              <td className="text-caption" data-more="">
+                {r.lastError ?? "—"}
+              </td>
             </tr>
           ))}
         </tbody>
       </table>
-    </ScrollArea>
+    </WideTable>
   );
 }
