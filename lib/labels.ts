@@ -12,9 +12,10 @@ export const ATTENDANCE_WORDS: Record<AttendanceCode, string> = {
 };
 
 /** A syllabus item's place on the Progress map. */
-export type ItemStatusCode = "not_started" | "checked" | "signed" | "stage_passed";
+export type ItemStatusCode = "not_started" | "taught" | "checked" | "signed" | "stage_passed";
 export const ITEM_STATUS_WORDS: Record<ItemStatusCode, string> = {
   not_started: "Not started",
+  taught: "Taught",
   checked: "Checked",
   signed: "Signed off",
   stage_passed: "Stage passed",

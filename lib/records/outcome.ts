@@ -69,10 +69,25 @@ export function evaluateCheck(input: { levelShown: LevelOfLearning; items: RuleI
     if (notSolid.length > 0) reasons.push(`${notSolid.length} required question${notSolid.length === 1 ? " is" : "s are"} not Solid`);
     if (!levelReaches(input.levelShown, item.requiredLevel)) {
       reasons.push(
-        `level shown (${LEVEL_LABEL[input.levelShown]}) is below the level ${item.code} requires (${LEVEL_LABEL[item.requiredLevel]})`,
+        `the level of learning shown (${LEVEL_LABEL[input.levelShown]}) is below what ${item.code} requires (${LEVEL_LABEL[item.requiredLevel]})`,
       );
     }
     return { itemId: item.id, code: item.code, meets: reasons.length === 0, reasons };
   });
   return { outcome: items.length > 0 && items.every((i) => i.meets) ? "meets" : "not_yet", items };
+}
+
+const SEVERITY: Record<QuestionOutcome, number> = { solid: 0, shaky: 1, not_yet: 2 };
+
+/**
+ * One item's own result in one check, over all of its questions in that check (not its last
+ * question): the weakest outcome among its questions on required elements, or among all of its
+ * questions when none was on a required element; null when the check asked nothing on it.
+ */
+export function itemOwnOutcome(itemId: string, questions: RuleQuestion[]): QuestionOutcome | null {
+  const mine = questions.filter((q) => q.syllabusItemId === itemId);
+  const counted = mine.some((q) => q.required) ? mine.filter((q) => q.required) : mine;
+  let worst: QuestionOutcome | null = null;
+  for (const q of counted) if (worst === null || SEVERITY[q.outcome] > SEVERITY[worst]) worst = q.outcome;
+  return worst;
 }

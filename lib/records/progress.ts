@@ -4,15 +4,19 @@ import { ITEM_STATUS_WORDS } from "@/lib/labels";
 
 // Pure rules of the Progress map: an item's status, and the outcomes counted per check date.
 
-export type ItemStatus = "not_started" | "checked" | "signed" | "stage_passed";
+export type ItemStatus = "not_started" | "taught" | "checked" | "signed" | "stage_passed";
 /** Words for the statuses: the one label map (lib/labels.ts). */
 export const ITEM_STATUS_LABEL: Record<ItemStatus, string> = ITEM_STATUS_WORDS;
 
-/** A passed stage outranks a sign-off, which outranks an oral check in force. */
-export function itemStatus(f: { stagePassed: boolean; signed: boolean; checked: boolean }): ItemStatus {
+/**
+ * A passed stage outranks a sign-off, which outranks an oral check in force, which outranks
+ * teaching (a session covering the item that the student attended, late or leaving early).
+ */
+export function itemStatus(f: { stagePassed: boolean; signed: boolean; checked: boolean; taught?: boolean }): ItemStatus {
   if (f.stagePassed) return "stage_passed";
   if (f.signed) return "signed";
   if (f.checked) return "checked";
+  if (f.taught) return "taught";
   return "not_started";
 }
 

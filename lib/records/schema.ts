@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { calendarDate as realDate, dateTime } from "@/lib/validation/dates";
 import { LEVELS, QUESTION_OUTCOMES } from "./outcome";
+import { WATCH_NOTE_KINDS } from "./watch-notes";
 import { QUESTION_KINDS, AIRCRAFT_SOURCE_KINDS, type AircraftSourceKind, type QuestionKind } from "./questions";
 
 // The Records area's zod schemas, used by both the server actions and the forms (and the
@@ -12,13 +13,19 @@ const uuid = z.string().uuid("must be an id");
 const reason = z.string().trim().min(3, "give a reason of at least 3 characters").max(2000);
 const isoDate = realDate();
 const num = (max: number) => z.number().finite().min(0).max(max);
-const password = z.string().min(1, "re-enter your password").max(200);
+const password = z.string("re-enter your password").min(1, "re-enter your password").max(200);
 
+// Nothing is chosen for the examiner: every outcome, level, element kind and result must be
+// picked, and a missing one is refused with a message naming what to choose.
 const MSG = {
   items: "choose at least one syllabus item",
+  item: "choose the syllabus item of the question",
   level: "choose the level of learning shown",
-  outcome: "choose Solid, Shaky or Not yet",
+  outcome: "choose the outcome: Solid, Shaky or Not yet",
+  required: "choose whether the question is on a required element",
   questions: "record at least one question",
+  result: "choose the result: pass or fail",
+  oralOutcome: "choose the oral outcome of the item: Solid, Shaky or Not yet",
 } as const;
 const MAX_TEXT = 2000;
 const MAX_REMARKS = 4000;
@@ -31,7 +38,7 @@ export const questionSchema = z.object({
   questionText: z.string().trim().max(MAX_TEXT).optional(),
   answerSummary: z.string().trim().max(MAX_TEXT).default(""),
   outcome: z.enum(QUESTION_OUTCOMES, MSG.outcome),
-  required: z.boolean().default(true),
+  required: z.boolean(MSG.required),
   prompted: z.boolean().default(false),
   correctiveGiven: z.boolean().default(false),
   generated: z
@@ -62,10 +69,18 @@ export const recordCheckSchema = z.object({
 });
 export type RecordCheckInput = z.input<typeof recordCheckSchema>;
 
+/** Amending an oral check: a new check that refers to the original, with a reason, signed with the password. */
+export const amendCheckSchema = recordCheckSchema.extend({ amends: z.object({ checkId: uuid, reason }), password });
+export type AmendCheckInput = z.input<typeof amendCheckSchema>;
+
 export const withdrawCheckSchema = z.object({ checkId: uuid, reason });
 export const acknowledgeCheckSchema = z.object({ checkId: uuid });
 
 // ---------------------------------------------------------------- the oral-check form (text fields)
+
+/** Whether a question is on a required element of the item (the form's choice). */
+export const ELEMENT_KINDS = ["required", "optional"] as const;
+export type ElementKind = (typeof ELEMENT_KINDS)[number];
 
 const optionalNumber = z
   .string()
@@ -74,7 +89,7 @@ const optionalNumber = z
 
 export const checkFormQuestionSchema = z
   .object({
-    syllabusItemId: z.string().min(1, "choose the item"),
+    syllabusItemId: z.string(MSG.item).min(1, MSG.item),
     mode: z.enum(["written", "generated"]),
     questionText: z.string().max(MAX_TEXT),
     kind: z.enum(QUESTION_KINDS),
@@ -86,7 +101,8 @@ export const checkFormQuestionSchema = z
     studentFigure: optionalNumber,
     answerSummary: z.string().max(MAX_TEXT),
     outcome: z.enum(QUESTION_OUTCOMES, MSG.outcome),
-    required: z.boolean(),
+    /** "required" or "optional": chosen for every question, never preset */
+    required: z.enum(ELEMENT_KINDS, MSG.required),
     prompted: z.boolean(),
     correctiveGiven: z.boolean(),
   })
@@ -139,7 +155,7 @@ export function checkFormToInput(studentId: string, v: CheckFormValues) {
         questionText: q.mode === "written" ? q.questionText : undefined,
         answerSummary: q.answerSummary,
         outcome: q.outcome,
-        required: q.required,
+        required: q.required === "required",
         prompted: q.prompted,
         correctiveGiven: q.correctiveGiven,
         generated:
@@ -177,12 +193,27 @@ export const amendSignOffSchema = z.object({
 export const stageCheckSchema = z.object({
   studentId: uuid,
   stageId: uuid,
-  result: z.enum(["pass", "fail"], "choose pass or fail"),
-  oralOutcomes: z.array(z.object({ itemId: uuid, outcome: z.enum(QUESTION_OUTCOMES), note: z.string().max(500).optional() })).max(40),
+  result: z.enum(["pass", "fail"], MSG.result),
+  oralOutcomes: z
+    .array(z.object({ itemId: uuid, outcome: z.enum(QUESTION_OUTCOMES, MSG.oralOutcome), note: z.string().max(500).optional() }))
+    .max(40),
   writtenScorePercent: z.number().finite().min(0, "0 to 100").max(100, "0 to 100").nullable().optional(),
   remarks: z.string().trim().max(MAX_REMARKS).default(""),
   occurredAt: dateTime(),
   overrideReason: z.string().trim().max(2000).optional(),
+  /** the examiner signs the stage check as a sign-off is signed: re-entering the password */
+  password,
+});
+
+// ---------------------------------------------------------------- watch-note reviews
+
+/** The chief marks a watch note reviewed, with a remark (appended, never changed). */
+export const reviewWatchNoteSchema = z.object({
+  recordType: z.enum(["sign_off", "oral_check", "stage_check"], "choose the kind of record"),
+  recordId: uuid,
+  kind: z.enum(WATCH_NOTE_KINDS, "choose the watch note"),
+  itemCode: z.string().trim().max(40).nullable().optional(),
+  remark: z.string().trim().min(3, "write a remark of at least 3 characters").max(2000),
 });
 
 export const designateCheckInstructorSchema = z.object({ personId: uuid, checkInstructor: z.boolean() });

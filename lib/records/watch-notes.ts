@@ -4,15 +4,17 @@ import { dateInZone } from "@/lib/time";
 // The watch-note rules of the Sign-off register (pure): which notes a sign-off, a stage check
 // or an oral check raises, and their labels. The data layer reads the facts; this decides.
 
-export type WatchNoteKind =
-  | "signed_before_check"
-  | "signer_not_current"
-  | "examiner_was_lead"
-  | "missed_session"
-  | "late_entry"
-  | "repeated_not_yet"
-  | "amended"
-  | "withdrawn";
+export const WATCH_NOTE_KINDS = [
+  "signed_before_check",
+  "signer_not_current",
+  "examiner_was_lead",
+  "missed_session",
+  "late_entry",
+  "repeated_not_yet",
+  "amended",
+  "withdrawn",
+] as const;
+export type WatchNoteKind = (typeof WATCH_NOTE_KINDS)[number];
 
 export const WATCH_NOTE_LABEL: Record<WatchNoteKind, string> = {
   signed_before_check: "Signed before its check",
@@ -35,6 +37,19 @@ export interface WatchNote {
   studentName: string;
   itemCode: string | null;
   at: Date;
+  /** the chief's reviews of this note, oldest first (appended, never removed) */
+  reviews?: WatchNoteReview[];
+}
+
+export interface WatchNoteReview {
+  remark: string;
+  reviewerName: string;
+  reviewedAt: Date;
+}
+
+/** A derived note's stable name: its record, kind and item. */
+export function watchNoteKey(n: Pick<WatchNote, "recordType" | "recordId" | "kind"> & { itemCode?: string | null | undefined }): string {
+  return `${n.recordType}:${n.recordId}:${n.kind}:${n.itemCode ?? ""}`;
 }
 
 /** What the rules need to know about a sign-off. */

@@ -62,8 +62,11 @@ describe("Records end to end", () => {
     expect(preview).toMatch(/Answer: \d+\.\d kt TAS/);
     await page.fill("[id='questions.0.figure']", "78");
     await page.fill("[id='questions.0.answer']", "Worked it from the EAS and the density ratio.");
+    // nothing starts as a pass: the verdict waits for the outcome and the element kind (issue 12)
+    expect(await page.textContent("[data-testid=outcome-verdict]")).toContain("not decided yet");
     await page.check("input[name='questions.0.outcome'][value=solid]");
-    expect(await page.textContent("[data-testid=outcome-preview]")).toContain("Meets the standard");
+    await page.check("input[name='questions.0.required'][value=required]");
+    expect(await page.textContent("[data-testid=outcome-verdict]")).toContain("Meets the standard");
     await screenshot(page, "records-e2e-check-form");
     await page.click("button[type=submit]:has-text('Record the check')");
     await page.waitForSelector("[data-testid=check-message]:has-text('Check recorded: Meets the standard')", { timeout: 20_000 });

@@ -2,11 +2,12 @@
 import { revalidatePath } from "next/cache";
 import { runAction } from "@/lib/actions/run-action";
 import { recordOralCheck } from "@/db/access/records/record-oral-check";
-import { withdrawOralCheck } from "@/db/access/records/oral-check-corrections";
+import { amendOralCheck, withdrawOralCheck } from "@/db/access/records/oral-check-corrections";
 import { signOff, withdrawSignOff, amendSignOff } from "@/db/access/records/sign-offs";
 import { conductStageCheck, designateCheckInstructor } from "@/db/access/records/stage-checks";
 import {
   recordCheckSchema,
+  amendCheckSchema,
   withdrawCheckSchema,
   signOffSchema,
   withdrawSignOffSchema,
@@ -26,6 +27,24 @@ export async function recordCheckAction(input: unknown) {
       return r;
     },
     { idempotent: "check.record" },
+  );
+}
+
+/**
+ * Amends an oral check: the instructor who recorded it (or one who may manage records) records
+ * the corrected check with a reason and their password; the original stays visible, amended.
+ */
+export async function amendCheckAction(input: unknown) {
+  return runAction(
+    "records.amend",
+    amendCheckSchema,
+    input,
+    async (data, { user, t }) => {
+      const r = await amendOralCheck(t, user, data);
+      revalidatePath(`/records/${data.studentId}`);
+      return r;
+    },
+    { idempotent: "check.amend" },
   );
 }
 

@@ -4,11 +4,16 @@ import { requirePagePermission, can } from "@/lib/auth/guard";
 import { signOffRegister, registerFilterOptions } from "@/db/access/records/sign-off-register";
 import { chainHead } from "@/db/access/records/audit-chain";
 import { registerQuerySchema, toFilter } from "@/lib/records/schema";
+import { ScrollArea } from "@/components/ui/scroll-area";
+import { SIGN_OFF_STATE_WORDS, STAGE_RESULT_WORDS } from "@/lib/labels";
+import { getSchool } from "@/db/access/shared/school";
+import { formatInZone, formatDay } from "@/lib/time";
+import { ReviewNote } from "./_components/review-note";
 
 export const metadata: Metadata = { title: "Sign-off register" };
 export const dynamic = "force-dynamic";
 
-const STATE_LABEL = { current: "Current", withdrawn: "Withdrawn", amended: "Amended", pass: "Pass", fail: "Fail" } as const;
+const STATE_LABEL = { ...SIGN_OFF_STATE_WORDS, ...STAGE_RESULT_WORDS };
 
 export default async function RegisterPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requirePagePermission("register.view", "/register");
@@ -20,6 +25,8 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
     registerFilterOptions(user.schoolId),
     chainHead(user.schoolId),
   ]);
+  const school = await getSchool(user.schoolId);
+  const mayReview = can(user, "register.review");
   const qs = new URLSearchParams(Object.entries(q).filter(([, v]) => v) as [string, string][]).toString();
   return (
     <div className="space-y-6">
@@ -117,12 +124,23 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
         ) : (
           <ul className="mt-2 space-y-1" data-testid="watch-notes">
             {notes.map((n, i) => (
-              <li key={`${n.recordId}-${n.kind}-${i}`}>
+              <li key={`${n.recordId}-${n.kind}-${i}`} data-testid="watch-note" data-reviewed={n.reviews?.length ? "yes" : "no"}>
                 <span className="mr-2 rounded bg-unstable-100 px-1.5 text-caption font-semibold text-unstable-700">{n.label}</span>
                 <Link className="underline" href={`/records/${n.studentId}`}>
                   {n.studentName}
                 </Link>
                 {n.itemCode ? ` · ${n.itemCode}` : ""} · {n.detail}
+                {(n.reviews ?? []).map((r, k) => (
+                  <p key={k} className="ml-4 text-caption" data-testid="watch-note-review">
+                    <span className="font-semibold">Reviewed</span> by {r.reviewerName} on{" "}
+                    {formatInZone(r.reviewedAt, school.timeZone, "d MMM yyyy HH:mm")}: {r.remark}
+                  </p>
+                ))}
+                {mayReview && (
+                  <ReviewNote
+                    note={{ recordType: n.recordType, recordId: n.recordId, kind: n.kind, itemCode: n.itemCode, label: n.label }}
+                  />
+                )}
               </li>
             ))}
           </ul>
@@ -133,7 +151,7 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
         <h2 id="rows-title">
           Sign-offs and stage checks <span className="text-caption font-normal text-ink-soft">({rows.length})</span>
         </h2>
-        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Sign-offs and stage checks">
+        <ScrollArea label="Sign-offs and stage checks" className="mt-2">
           <table className="data-table text-caption" data-testid="register-table">
             <thead>
               <tr>
@@ -149,7 +167,7 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
             <tbody>
               {rows.map((r) => (
                 <tr key={r.id} data-testid="register-row">
-                  <td className="num whitespace-nowrap">{r.date}</td>
+                  <td className="num whitespace-nowrap">{formatDay(r.date)}</td>
                   <td>
                     <Link className="underline" href={`/records/${r.studentId}`}>
                       {r.studentName}
@@ -177,7 +195,7 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollArea>
       </section>
     </div>
   );

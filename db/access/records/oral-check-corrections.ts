@@ -2,13 +2,45 @@ import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
-import { can } from "@/lib/auth/guard";
+import { can } from "@/lib/auth/can";
 import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";
 import { requireStudentFor } from "../shared/student-scope";
 import { writeAudit } from "./audit-chain";
+import { recordOralCheck, type OralCheckInput } from "./record-oral-check";
+import { confirmPassword } from "./sign-offs";
 
-// Corrections around an oral check: withdrawing it, and the student's acknowledgement of the debrief.
+// Corrections around an oral check: amending or withdrawing it, and the student's acknowledgement of the debrief.
+
+/**
+ * Amends an oral check: a new check that refers to the original, with a reason; the original
+ * stays visible, marked amended. Only the instructor who recorded it, or one who may manage
+ * records, amends it, re-entering their password as for a sign-off.
+ */
+export async function amendOralCheck(
+  t: Transaction,
+  user: CurrentUser,
+  input: OralCheckInput & { amends: { checkId: string; reason: string }; password: string },
+) {
+  const [c] = await sequelize.query<{ id: string; instructor_id: string }>(
+    `SELECT id, instructor_id FROM oral_checks WHERE id = :id AND school_id = :schoolId AND student_id = :studentId`,
+    {
+      replacements: { id: input.amends.checkId, schoolId: user.schoolId, studentId: input.studentId },
+      type: QueryTypes.SELECT,
+      transaction: t,
+    },
+  );
+  if (!c) throw new HttpError(404, "amends.checkId: no such check", "amends.checkId");
+  await requireStudentFor(user, input.studentId, "records", t);
+  if (!can(user, "records.manage") && c.instructor_id !== user.id)
+    throw new HttpError(
+      403,
+      "amends.checkId: only the instructor who recorded the check, or the chief instructor, may amend it",
+      "amends.checkId",
+    );
+  await confirmPassword(user, input.password, t);
+  return recordOralCheck(t, user, input);
+}
 
 /** Withdraws an oral check (it stays visible, marked withdrawn, with the reason). */
 export async function withdrawOralCheck(t: Transaction, user: CurrentUser, input: { checkId: string; reason: string }) {

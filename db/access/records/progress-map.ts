@@ -3,7 +3,7 @@ import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
 import { dateInZone } from "@/lib/time";
-import type { QuestionOutcome, LevelOfLearning } from "@/lib/records/outcome";
+import { itemOwnOutcome, type QuestionOutcome, type LevelOfLearning } from "@/lib/records/outcome";
 import { itemStatus, outcomesByDate, type ItemStatus } from "@/lib/records/progress";
 import { requireStudentFor, type ViewerAccess } from "../shared/student-scope";
 import { getSchool } from "../shared/school";
@@ -29,6 +29,8 @@ export interface ProgressMap {
       lastCheckedOn: string | null;
       signedOn: string | null;
       signerName: string | null;
+      /** the passing stage check of the item's stage: its examiner and date */
+      stagePassed: { examinerName: string; on: string } | null;
     }[];
   })[];
   ground: { minutes: number; minimumMinutes: number } | null;
@@ -51,10 +53,31 @@ export async function progressFor(viewer: CurrentUser, studentId: string, opts: 
   const signed = new Map((await currentSignOffs(student.id)).map((s) => [s.itemId, s]));
   const checks = await listChecksOfStudent(viewer.schoolId, student.id, { withRemarks: access === "staff" });
   const inForce = checks.filter((c) => !c.withdrawn && !c.amendedBy);
+  // each item's own result in its latest check in force (over all its questions in that check)
   const last = new Map<string, { outcome: QuestionOutcome; on: string }>();
-  for (const c of [...inForce].reverse()) {
-    for (const q of c.questions) last.set(q.itemCode, { outcome: q.outcome, on: dateInZone(c.occurredAt, school.timeZone) });
+  for (const c of inForce) {
+    const qs = c.questions.map((q) => ({ syllabusItemId: q.itemCode, outcome: q.outcome, required: q.required }));
+    for (const code of c.itemCodes) {
+      if (last.has(code)) continue;
+      const outcome = itemOwnOutcome(code, qs);
+      if (outcome) last.set(code, { outcome, on: dateInZone(c.occurredAt, school.timeZone) });
+    }
   }
+  const taught = new Set(
+    (
+      await sequelize.query<{ item_id: string }>(
+        `SELECT DISTINCT x.item_id FROM ground_log_current g CROSS JOIN LATERAL unnest(g.syllabus_item_ids) AS x(item_id)
+          WHERE g.student_id = :id AND g.status IN ('attended','late','left_early')`,
+        { replacements: { id: student.id }, type: QueryTypes.SELECT },
+      )
+    ).map((r) => r.item_id),
+  );
+  const passedBy = new Map(
+    stages.flatMap((s) => {
+      const pass = s.attempts.find((a) => a.result === "pass");
+      return pass ? [[s.stageId, { examinerName: pass.examinerName, on: dateInZone(pass.occurredAt, school.timeZone) }] as const] : [];
+    }),
+  );
   const passed = new Set(stages.filter((s) => s.passed).map((s) => s.stageId));
   const checkedItems = new Set(inForce.flatMap((c) => c.itemCodes));
   let ground: ProgressMap["ground"] = {
@@ -90,11 +113,17 @@ export async function progressFor(viewer: CurrentUser, studentId: string, opts: 
             code: i.code,
             title: i.title,
             requiredLevel: i.requiredLevel,
-            status: itemStatus({ stagePassed: passed.has(i.stageId), signed: !!so, checked: checkedItems.has(i.code) }),
+            status: itemStatus({
+              stagePassed: passed.has(i.stageId),
+              signed: !!so,
+              checked: checkedItems.has(i.code),
+              taught: taught.has(i.id),
+            }),
             lastOutcome: l?.outcome ?? null,
             lastCheckedOn: l?.on ?? null,
             signedOn: so?.signedOn ?? null,
             signerName: so?.signerName ?? null,
+            stagePassed: passed.has(i.stageId) ? (passedBy.get(i.stageId) ?? null) : null,
           };
         }),
     })),

@@ -28,6 +28,7 @@ import { requireStudentFor } from "../shared/student-scope";
 import { getSchool } from "../shared/school";
 import { enqueueMail } from "../mail/outbox";
 import { writeAudit } from "./audit-chain";
+import { refuseUnlessStanding } from "./signer-standing";
 import { itemsOfRevision, assertStageOpen, type ItemRef } from "./items";
 import { listQuestionAircraft, recentSessionsOf } from "./question-aircraft";
 
@@ -75,6 +76,8 @@ export interface RecordedCheck {
   outcome: CheckOutcome;
   items: ItemOutcome[];
   notYetMailed: boolean;
+  /** make-up items this check closed (items meeting the standard) */
+  makeupItemsClosed: string[];
 }
 
 /**
@@ -95,6 +98,8 @@ export async function recordOralCheck(t: Transaction, user: CurrentUser, input: 
   const at = now();
   if (input.occurredAt.getTime() > at.getTime() + 5 * 60_000) throw new HttpError(400, "occurredAt: cannot be in the future", "occurredAt");
   if (input.questions.length === 0) throw new HttpError(400, "questions: record at least one question", "questions");
+  const checkedOn = dateInZone(input.occurredAt, (await getSchool(user.schoolId, t)).timeZone);
+  await refuseUnlessStanding(user.id, student, checkedOn, "record oral checks", t);
 
   let amendsId: string | null = null;
   if (input.amends) {
@@ -192,6 +197,21 @@ export async function recordOralCheck(t: Transaction, user: CurrentUser, input: 
       },
     );
   }
+  // A check meeting the standard on an item closes that item's make-up items that were open
+  // when the check happened (opened at or before it), in this transaction, linked to the check.
+  const meeting = evaluation.items.filter((i) => i.meets).map((i) => i.itemId);
+  const closed = meeting.length
+    ? await sequelize.query<{ id: string }>(
+        `UPDATE makeup_items SET state = 'done', closed_by_kind = 'oral_check', closed_by_id = :check, closed_at = :at, scheduled_session_id = NULL
+          WHERE student_id = :studentId AND syllabus_item_id IN (:items) AND state IN ('open','scheduled') AND created_at <= :occurredAt
+          RETURNING id`,
+        {
+          replacements: { check: check.id, at, studentId: student.id, items: meeting, occurredAt: input.occurredAt },
+          type: QueryTypes.SELECT,
+          transaction: t,
+        },
+      )
+    : [];
   await writeAudit(t, {
     schoolId: user.schoolId,
     actor: user,
@@ -215,6 +235,7 @@ export async function recordOralCheck(t: Transaction, user: CurrentUser, input: 
         generated: q.generated ? { kind: q.generated.kind, answer: q.generated.answer.value } : null,
       })),
       ...(amendsId ? { amends: amendsId, reason: input.amends?.reason.trim() } : {}),
+      ...(closed.length ? { makeupItemsClosed: closed.map((c) => c.id) } : {}),
     },
     occurredAt: at,
   });
@@ -237,5 +258,5 @@ export async function recordOralCheck(t: Transaction, user: CurrentUser, input: 
       ...mail,
     });
   }
-  return { id: check.id, outcome: evaluation.outcome, items: evaluation.items, notYetMailed };
+  return { id: check.id, outcome: evaluation.outcome, items: evaluation.items, notYetMailed, makeupItemsClosed: closed.map((c) => c.id) };
 }

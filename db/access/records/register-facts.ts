@@ -15,6 +15,10 @@ export interface SignOffRow extends SignOffFacts {
   item_title: string;
   check_level: string;
   check_outcome: CheckOutcome;
+  /** the signed item's own result in its basis check (the stored per-item outcome), null if not stored */
+  item_meets: boolean | null;
+  /** the outcomes of the basis check's questions on the signed item, in order */
+  item_question_outcomes: QuestionOutcome[] | null;
   amended_by: string | null;
   signature_hash: string;
 }
@@ -49,7 +53,11 @@ export async function registerFacts(schoolId: string, studentId: string | null =
   const signOffs = await sequelize.query<SignOffRow>(
     `SELECT s.id, s.student_id, st.name AS student_name, c.id AS cohort_id, c.name AS cohort_name, g.id AS stage_id, g.code AS stage_code,
             i.id AS item_id, i.code AS item_code, i.title AS item_title, e.course_id, s.signer_id, sp.name AS signer_name, s.signed_on, s.signed_at,
-            oc.occurred_at AS check_at, oc.level_shown AS check_level, oc.outcome AS check_outcome, s.amends_id, s.amend_reason,
+            oc.occurred_at AS check_at, oc.level_shown AS check_level, oc.outcome AS check_outcome,
+            (SELECT (e->>'meets')::boolean FROM jsonb_array_elements(oc.item_outcomes) e WHERE e->>'itemId' = s.syllabus_item_id::text LIMIT 1) AS item_meets,
+            (SELECT array_agg(q.outcome ORDER BY q.position) FROM oral_check_questions q
+              WHERE q.check_id = s.basis_check_id AND q.syllabus_item_id = s.syllabus_item_id) AS item_question_outcomes,
+            s.amends_id, s.amend_reason,
             w.reason AS withdraw_reason, (SELECT a.id FROM sign_offs a WHERE a.amends_id = s.id) AS amended_by, s.signature_hash
        FROM sign_offs s
        JOIN people st ON st.id = s.student_id JOIN people sp ON sp.id = s.signer_id

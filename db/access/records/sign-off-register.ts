@@ -1,7 +1,9 @@
 import "server-only";
 import type { CurrentUser } from "@/lib/auth/session";
 import { dateInZone } from "@/lib/time";
-import { standingKey, watchNotes, type SignerStanding, type WatchNote } from "@/lib/records/watch-notes";
+import { standingKey, watchNoteKey, watchNotes, type SignerStanding, type WatchNote } from "@/lib/records/watch-notes";
+import { OUTCOME_LABEL } from "@/lib/records/outcome";
+import { watchNoteReviews } from "./watch-note-reviews";
 import { getSchool } from "../shared/school";
 import { registerFacts } from "./register-facts";
 import { signerStanding } from "./sign-off-plan";
@@ -43,6 +45,17 @@ export interface RegisterFilter {
 }
 
 /**
+ * A sign-off's basis: the signed item's own result in its basis check (never the check's overall
+ * outcome, which may be Not yet because of another item), with its questions' outcomes.
+ */
+function signOffBasis(s: Awaited<ReturnType<typeof registerFacts>>["signOffs"][number], tz: string): string {
+  const outcomes = s.item_question_outcomes ?? [];
+  const meets = s.item_meets ?? (outcomes.length > 0 && outcomes.every((o) => o === "solid"));
+  const asked = outcomes.length ? ` (${outcomes.map((o) => OUTCOME_LABEL[o]).join(", ")})` : "";
+  return `Oral check of ${dateInZone(s.check_at, tz)}, ${s.item_code}: ${meets ? "meets the standard" : "Not yet"}${asked}, level ${s.check_level}`;
+}
+
+/**
  * The register's rows (sign-offs and stage checks) and every watch note of the caller's school.
  * `studentId` restricts both to one student: callers pass it only after checking their access to
  * that student (the training record).
@@ -69,6 +82,8 @@ export async function signOffRegister(
     missedSessions: facts.missedSessions,
     standingOf: (s) => standings.get(standingKey(s))!,
   });
+  const reviews = await watchNoteReviews(user.schoolId);
+  for (const n of notes) n.reviews = reviews.get(watchNoteKey(n)) ?? [];
 
   const notesFor = (id: string) => notes.filter((n) => n.recordId === id);
   let rows: RegisterRow[] = [
@@ -87,7 +102,7 @@ export async function signOffRegister(
       signerName: s.signer_name,
       date: s.signed_on,
       recordedAt: s.signed_at,
-      basis: `Oral check of ${dateInZone(s.check_at, tz)}: ${s.check_outcome === "meets" ? "meets the standard" : "Not yet"}, level ${s.check_level}`,
+      basis: signOffBasis(s, tz),
       state: s.withdraw_reason ? "withdrawn" : s.amended_by ? "amended" : "current",
       reason: s.withdraw_reason ?? s.amend_reason,
       signatureHash: s.signature_hash,

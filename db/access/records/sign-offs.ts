@@ -3,7 +3,7 @@ import { createHash } from "node:crypto";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
-import { can } from "@/lib/auth/guard";
+import { can } from "@/lib/auth/can";
 import { verifyPassword } from "@/lib/auth/password";
 import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";
@@ -26,7 +26,8 @@ function signatureOf(fields: Record<string, string | number | null>): string {
   return createHash("sha256").update(canonical).digest("hex");
 }
 
-async function confirmPassword(user: CurrentUser, password: string, t?: Transaction) {
+/** The signer re-enters their password: a mismatch is a `wrong_password` refusal naming the field. */
+export async function confirmPassword(user: CurrentUser, password: string, t?: Transaction) {
   const [row] = await sequelize.query<{ password_hash: string | null }>(`SELECT password_hash FROM people WHERE id = :id`, {
     replacements: { id: user.id },
     type: QueryTypes.SELECT,

@@ -3,7 +3,7 @@ import { createHash } from "node:crypto";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
-import { can } from "@/lib/auth/guard";
+import { can } from "@/lib/auth/can";
 import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";
 import type { QuestionOutcome } from "@/lib/records/outcome";
@@ -12,15 +12,20 @@ import { getSchool } from "../shared/school";
 import { writeAudit } from "./audit-chain";
 import { itemsOfRevision } from "./items";
 import { RecordRefusal } from "./refusals";
+import { refuseUnlessStanding } from "./signer-standing";
+import { appendQualificationVersion, openVersions, qualificationFieldsOf } from "../people/qualification-history";
 import { stageReadiness } from "./stage-readiness";
+import { confirmPassword } from "./sign-offs";
+import { dateInZone } from "@/lib/time";
+import { stageCheckStatement } from "@/lib/records/statements";
 
 // Stage checks: who may examine, recording a check (a fail opens remedial make-up items),
 // and the chief's designation of check instructors.
 
-/** Designated check instructor (instructor_qualifications.check_instructor on any of their qualifications). */
+/** Designated check instructor (check_instructor on any of their qualifications in force). */
 export async function isCheckInstructor(personId: string, t?: Transaction): Promise<boolean> {
   const [r] = await sequelize.query<{ ok: boolean }>(
-    `SELECT EXISTS (SELECT 1 FROM instructor_qualifications WHERE person_id = :p AND check_instructor) AS ok`,
+    `SELECT EXISTS (SELECT 1 FROM instructor_qualifications_current WHERE person_id = :p AND check_instructor) AS ok`,
     { replacements: { p: personId }, type: QueryTypes.SELECT, transaction: t },
   );
   return !!r?.ok;
@@ -34,7 +39,7 @@ export async function mayExamine(user: CurrentUser, t?: Transaction): Promise<bo
 /** The school's active instructors and whether each is a designated check instructor. */
 export async function listCheckInstructors(schoolId: string): Promise<{ id: string; name: string; check_instructor: boolean }[]> {
   return sequelize.query<{ id: string; name: string; check_instructor: boolean }>(
-    `SELECT p.id, p.name, bool_or(q.check_instructor) AS check_instructor FROM people p JOIN instructor_qualifications q ON q.person_id = p.id
+    `SELECT p.id, p.name, bool_or(q.check_instructor) AS check_instructor FROM people p JOIN instructor_qualifications_current q ON q.person_id = p.id
       WHERE p.school_id = :s AND 'instructor' = ANY(p.roles) AND p.active GROUP BY p.id, p.name ORDER BY p.name`,
     { replacements: { s: schoolId }, type: QueryTypes.SELECT },
   );
@@ -49,6 +54,8 @@ export interface StageCheckInput {
   remarks: string;
   occurredAt: Date;
   overrideReason?: string | undefined;
+  /** re-entered by the examiner: the stage check is signed like a sign-off */
+  password: string;
 }
 
 /**
@@ -107,9 +114,19 @@ export async function conductStageCheck(t: Transaction, user: CurrentUser, input
     if (input.oralOutcomes.some((o) => o.outcome === "not_yet"))
       throw new HttpError(422, "result: an oral outcome is Not yet; the result cannot be a pass", "result");
   }
+  await refuseUnlessStanding(user.id, student, dateInZone(input.occurredAt, school.timeZone), "conduct stage checks", t);
+  await confirmPassword(user, input.password, t);
+  const statement = stageCheckStatement({
+    examinerName: user.name,
+    studentName: student.name,
+    stageCode: stage.code,
+    stageTitle: stage.title,
+    occurredOn: dateInZone(input.occurredAt, school.timeZone),
+  });
   const at = now();
   const attempt = stage.attempts.length + 1;
   const fields = {
+    statement,
     studentId: student.id,
     stageId: stage.stageId,
     attempt,
@@ -125,8 +142,8 @@ export async function conductStageCheck(t: Transaction, user: CurrentUser, input
     .digest("hex");
   const [row] = await sequelize.query<{ id: string }>(
     `INSERT INTO stage_checks (school_id, student_id, enrolment_id, stage_id, attempt, examiner_id, lead_instructor_id, override_reason, result,
-                               oral_outcomes, written_score_percent, pass_mark_percent, remarks, occurred_at, recorded_at, signature_hash)
-     VALUES (:schoolId, :studentId, :enrolmentId, :stageId, :attempt, :examiner, :lead, :override, :result, :oral::jsonb, :written, :passMark, :remarks, :occurredAt, :recordedAt, :hash)
+                               oral_outcomes, written_score_percent, pass_mark_percent, remarks, occurred_at, recorded_at, signature_hash, statement)
+     VALUES (:schoolId, :studentId, :enrolmentId, :stageId, :attempt, :examiner, :lead, :override, :result, :oral::jsonb, :written, :passMark, :remarks, :occurredAt, :recordedAt, :hash, :statement)
      ON CONFLICT (student_id, stage_id, attempt) DO NOTHING RETURNING id`,
     {
       transaction: t,
@@ -148,6 +165,7 @@ export async function conductStageCheck(t: Transaction, user: CurrentUser, input
         occurredAt: input.occurredAt,
         recordedAt: at,
         hash: signatureHash,
+        statement,
       },
     },
   );
@@ -196,15 +214,24 @@ export async function conductStageCheck(t: Transaction, user: CurrentUser, input
 /** The chief designates (or stops designating) a check instructor. */
 export async function designateCheckInstructor(t: Transaction, user: CurrentUser, input: { personId: string; checkInstructor: boolean }) {
   const [p] = await sequelize.query<{ id: string; before: boolean }>(
-    `SELECT p.id, bool_or(q.check_instructor) AS before FROM people p JOIN instructor_qualifications q ON q.person_id = p.id
+    `SELECT p.id, bool_or(q.check_instructor) AS before FROM people p JOIN instructor_qualifications_current q ON q.person_id = p.id
       WHERE p.id = :id AND p.school_id = :schoolId AND 'instructor' = ANY(p.roles) GROUP BY p.id`,
     { replacements: { id: input.personId, schoolId: user.schoolId }, type: QueryTypes.SELECT, transaction: t },
   );
   if (!p) throw new HttpError(404, "personId: no such instructor", "personId");
-  await sequelize.query(`UPDATE instructor_qualifications SET check_instructor = :v WHERE person_id = :id`, {
-    replacements: { v: input.checkInstructor, id: p.id },
-    transaction: t,
-  });
+  // the instructor file keeps its history: each open version that changes is closed today and followed by the next
+  const today = dateInZone(now(), (await getSchool(user.schoolId, t)).timeZone);
+  for (const open of await openVersions(p.id, t)) {
+    if (open.check_instructor === input.checkInstructor) continue;
+    await appendQualificationVersion(t, {
+      personId: p.id,
+      open,
+      fields: { ...qualificationFieldsOf(open), checkInstructor: input.checkInstructor },
+      effectiveFrom: today < open.valid_from ? open.valid_from : today,
+      recordedBy: user.id,
+      changeNote: input.checkInstructor ? "Designated check instructor" : "No longer a designated check instructor",
+    });
+  }
   await writeAudit(t, {
     schoolId: user.schoolId,
     actor: user,

@@ -142,6 +142,7 @@ describe("the Records actions", () => {
       oralOutcomes: [],
       remarks: "",
       occurredAt: new Date().toISOString(),
+      password: TEST_PASSWORD,
     });
     expect(r).toMatchObject({ ok: false, status: 422 });
     expect(r).toMatchObject({ field: "examiner", message: expect.stringMatching(/^Examiner: /) });

@@ -1,7 +1,7 @@
 jest.setTimeout(180_000);
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
-import { makeSchool, closeDb } from "@/tests/helpers/factories";
+import { makeSchool, closeDb, TEST_PASSWORD } from "@/tests/helpers/factories";
 import { conductStageCheck, designateCheckInstructor } from "@/db/access/records/stage-checks";
 import { stageReadiness } from "@/db/access/records/stage-readiness";
 import { withdrawSignOff } from "@/db/access/records/sign-offs";
@@ -46,6 +46,7 @@ const conduct = (
       writtenScorePercent: 90,
       remarks: "",
       occurredAt: new Date(Date.now() - 60_000),
+      password: TEST_PASSWORD,
       ...over,
     }),
   );

@@ -7,7 +7,7 @@ import { progressFor } from "@/db/access/records/progress-map";
 import { getSchool } from "@/db/access/shared/school";
 import { ITEM_STATUS_LABEL, type ItemStatus } from "@/lib/records/progress";
 import { LEVEL_LABEL, CHECK_OUTCOME_LABEL } from "@/lib/records/outcome";
-import { formatInZone, hoursLabel } from "@/lib/time";
+import { hoursLabel, formatDay } from "@/lib/time";
 import { Caution } from "@/components/caution";
 import { OutcomeBadge } from "../_components/outcome-badge";
 import { OutcomeChart } from "../_components/outcome-chart";
@@ -18,11 +18,12 @@ export const dynamic = "force-dynamic";
 
 const STATUS_STYLE: Record<ItemStatus, string> = {
   not_started: "border-paper-edge bg-white",
+  taught: "border-paper-edge bg-paper-deep",
   checked: "border-shaky-600 bg-shaky-100",
   signed: "border-solid-600 bg-solid-100",
   stage_passed: "border-wing-600 bg-wing-100",
 };
-const STATUS_MARK: Record<ItemStatus, string> = { not_started: "○", checked: "◐", signed: "●", stage_passed: "★" };
+const STATUS_MARK: Record<ItemStatus, string> = { not_started: "○", taught: "◌", checked: "◐", signed: "●", stage_passed: "★" };
 
 export default async function ProgressPage({ params }: { params: Promise<{ studentId: string }> }) {
   const { studentId } = await params;
@@ -46,7 +47,8 @@ export default async function ProgressPage({ params }: { params: Promise<{ stude
         </p>
         <h1 className="text-display">{map.student.name}</h1>
         <p className="text-ink-soft">
-          {map.student.courseCode} {map.student.courseTitle} · {map.student.cohortName ?? "no cohort"} · enrolled {map.student.enrolledOn}
+          {map.student.courseCode} {map.student.courseTitle} · {map.student.cohortName ?? "no cohort"} · enrolled{" "}
+          {formatDay(map.student.enrolledOn)}
           {map.access !== "sponsor" && (
             <>
               {" "}
@@ -100,8 +102,9 @@ export default async function ProgressPage({ params }: { params: Promise<{ stude
             <h3 id={`stage-${s.stageId}`} className="font-semibold">
               {s.code} · {s.title}{" "}
               <span className="text-caption font-normal text-ink-soft">
-                · {s.passed ? "stage check passed" : s.ready ? "ready for the stage check" : `waiting for ${s.waitingFor}`} ·{" "}
-                {s.signedCount} of {s.itemCount} signed
+                ·{" "}
+                {s.passed ? "stage check passed" : s.ready ? "ready for the stage check" : `not ready yet, still to come: ${s.waitingFor}`}{" "}
+                · {s.signedCount} of {s.itemCount} signed
               </span>
             </h3>
             <ul className="mt-2 grid gap-2 sm:grid-cols-2 lg:grid-cols-3" data-testid="progress-grid">
@@ -118,7 +121,11 @@ export default async function ProgressPage({ params }: { params: Promise<{ stude
                   <p className="text-caption">
                     <span aria-hidden="true">{STATUS_MARK[i.status]} </span>
                     {ITEM_STATUS_LABEL[i.status]}
-                    {i.signedOn ? ` ${i.signedOn} (${i.signerName})` : ""}
+                    {i.status === "stage_passed" && i.stagePassed
+                      ? ` ${i.stagePassed.on} (examiner ${i.stagePassed.examinerName})`
+                      : i.signedOn
+                        ? ` ${formatDay(i.signedOn)} (${i.signerName})`
+                        : ""}
                   </p>
                   <p className="text-caption text-ink-soft">
                     Requires {LEVEL_LABEL[i.requiredLevel].toLowerCase()}
@@ -146,11 +153,11 @@ export default async function ProgressPage({ params }: { params: Promise<{ stude
           {map.checks.map((c) => (
             <li key={c.id} className="border-b border-paper-edge pb-2" data-testid="progress-check">
               <p className="font-semibold">
-                {formatInZone(c.occurredAt, school.timeZone, "d MMM yyyy")} · {c.itemCodes.join(", ")} · {CHECK_OUTCOME_LABEL[c.outcome]}
+                {formatDay(c.occurredAt, school.timeZone)} · {c.itemCodes.join(", ")} · {CHECK_OUTCOME_LABEL[c.outcome]}
                 {c.withdrawn ? " (withdrawn)" : ""}
               </p>
               <p className="text-caption text-ink-soft">
-                with {c.instructorName} · level shown {LEVEL_LABEL[c.levelShown].toLowerCase()}
+                with {c.instructorName} · level of learning shown: {LEVEL_LABEL[c.levelShown]}
               </p>
               {c.questions.length > 0 && (
                 <ol className="mt-1 list-decimal pl-5 text-caption">
@@ -170,9 +177,7 @@ export default async function ProgressPage({ params }: { params: Promise<{ stude
               {isSelf &&
                 !c.withdrawn &&
                 (c.acknowledgedAt ? (
-                  <p className="text-caption">
-                    You acknowledged this debrief on {formatInZone(c.acknowledgedAt, school.timeZone, "d MMM yyyy")}.
-                  </p>
+                  <p className="text-caption">You acknowledged this debrief on {formatDay(c.acknowledgedAt, school.timeZone)}.</p>
                 ) : (
                   <AcknowledgeButton checkId={c.id} />
                 ))}

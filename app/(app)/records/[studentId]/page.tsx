@@ -14,13 +14,19 @@ import { currentSignOffs } from "@/db/access/records/sign-offs";
 import { ITEM_STATUS_LABEL } from "@/lib/records/progress";
 import { Caution } from "@/components/caution";
 import { LEVEL_LABEL, OUTCOME_LABEL, CHECK_OUTCOME_LABEL } from "@/lib/records/outcome";
-import { formatInZone } from "@/lib/time";
+import { formatDay, formatDayTime } from "@/lib/time";
 import { CheckForm } from "./_components/check-form";
 import { SignOffPanel } from "./_components/sign-off-panel";
 import { WithdrawButton } from "./_components/withdraw-button";
 import { AmendButton } from "./_components/amend-button";
 import { StageCheckForm } from "./_components/stage-check-form";
+import { AmendCheck } from "./_components/amend-check";
+import { stageCheckStatement } from "@/lib/records/statements";
+import { dateInZone } from "@/lib/time";
+import { now } from "@/lib/clock";
 import { OutcomeBadge } from "@/app/(app)/progress/_components/outcome-badge";
+import { ScrollArea } from "@/components/ui/scroll-area";
+import { STAGE_RESULT_WORDS, words } from "@/lib/labels";
 
 export const metadata: Metadata = { title: "Student record" };
 export const dynamic = "force-dynamic";
@@ -41,7 +47,7 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
   const aircraft = await listQuestionAircraft(user.schoolId, undefined, student.id);
   const sessions = (await recentSessionsOf(student.id, user.schoolId)).map((x) => ({
     id: x.id,
-    label: `${formatInZone(x.startsAt, school.timeZone, "d MMM HH:mm")} · ${x.title}`,
+    label: `${formatDayTime(x.startsAt, school.timeZone)} · ${x.title}`,
   }));
   const signed = new Map((await currentSignOffs(student.id)).map((s) => [s.itemId, s]));
   const openStages = progress.stages.filter((s, i) => !s.passed && (i === 0 || progress.stages[i - 1]!.passed));
@@ -105,7 +111,7 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
             {recent.map((c) => (
               <li key={c.id} className="border-b border-paper-edge pb-2">
                 <p className="text-caption text-ink-soft num">
-                  {formatInZone(c.occurredAt, school.timeZone, "d MMM yyyy HH:mm")} · {c.instructorName}
+                  {formatDayTime(c.occurredAt, school.timeZone)} · {c.instructorName}
                 </p>
                 <p className="font-semibold">
                   {c.itemCodes.join(", ")} · {CHECK_OUTCOME_LABEL[c.outcome]}
@@ -126,7 +132,7 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
 
       <section className="card" aria-labelledby="signoffs">
         <h2 id="signoffs">Sign-offs</h2>
-        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Sign-offs">
+        <ScrollArea label="Sign-offs" className="mt-2">
           <table className="data-table">
             <thead>
               <tr>
@@ -155,7 +161,7 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
                         {so ? (
                           <div className="space-y-1">
                             <p>
-                              Signed for {so.signedOn} by {so.signerName}
+                              Signed for {formatDay(so.signedOn)} by {so.signerName}
                             </p>
                             {can(user, "records.amend") && (
                               <div className="flex flex-wrap gap-2">
@@ -182,7 +188,7 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
               )}
             </tbody>
           </table>
-        </div>
+        </ScrollArea>
       </section>
 
       <section className="card" aria-labelledby="stages">
@@ -194,11 +200,14 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
                 <span className="font-semibold">
                   {s.code} · {s.title}
                 </span>
-                : {s.passed ? "passed" : s.ready ? "ready for its stage check" : `waiting for ${s.waitingFor}`}
+                : {s.passed ? "passed" : s.ready ? "ready for its stage check" : `not ready yet, still to come: ${s.waitingFor}`}
                 {s.attempts.length > 0 && (
                   <span className="text-caption text-ink-soft">
                     {" "}
-                    · attempts: {s.attempts.map((a) => `${a.attempt} ${a.result} (${a.examinerName})`).join(", ")}
+                    · attempts:{" "}
+                    {s.attempts
+                      .map((a) => `${a.attempt} ${words(STAGE_RESULT_WORDS, a.result).toLowerCase()} (${a.examinerName})`)
+                      .join(", ")}
                   </span>
                 )}
               </p>
@@ -211,6 +220,13 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
                   isLead={student.leadInstructorId === user.id}
                   mayOverride={can(user, "stagechecks.designate")}
                   passMark={school.settings.stageCheckPassMarkPercent}
+                  statement={stageCheckStatement({
+                    examinerName: user.name,
+                    studentName: student.name,
+                    stageCode: s.code,
+                    stageTitle: s.title,
+                    occurredOn: dateInZone(now(), school.timeZone),
+                  })}
                 />
               )}
             </li>
@@ -222,23 +238,38 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
         <h2 id="history">Oral checks</h2>
         <ul className="mt-2 space-y-4">
           {progress.checks.map((c) => (
-            <li key={c.id} className="border-b border-paper-edge pb-3" data-testid="check-history">
-              <p className="font-semibold">
-                {formatInZone(c.occurredAt, school.timeZone, "d MMM yyyy HH:mm")} · {c.itemCodes.join(", ")} ·{" "}
-                {CHECK_OUTCOME_LABEL[c.outcome]} · level {LEVEL_LABEL[c.levelShown].toLowerCase()} · {c.durationMinutes} min ·{" "}
-                {c.instructorName}
+            <li key={c.id} id={`check-${c.id}`} className="border-b border-paper-edge pb-3" data-testid="check-history">
+              <p className={`font-semibold ${c.withdrawn || c.amendedBy ? "line-through" : ""}`}>
+                {formatDayTime(c.occurredAt, school.timeZone)} · {c.itemCodes.join(", ")} · {CHECK_OUTCOME_LABEL[c.outcome]} · level{" "}
+                {LEVEL_LABEL[c.levelShown].toLowerCase()} · {c.durationMinutes} min · {c.instructorName}
               </p>
               {c.withdrawn && (
                 <p className="text-notyet-800">
                   Withdrawn by {c.withdrawn.byName}: {c.withdrawn.reason}
                 </p>
               )}
-              {c.amends && <p className="text-caption">Amends an earlier check: {c.amends.reason}</p>}
-              {c.amendedBy && <p className="text-caption">Amended by a later check.</p>}
+              {c.amends && (
+                <p className="text-caption">
+                  Amends{" "}
+                  <a className="underline" href={`#check-${c.amends.id}`}>
+                    an earlier check
+                  </a>
+                  : {c.amends.reason}
+                </p>
+              )}
+              {c.amendedBy && (
+                <p className="text-caption" data-testid="amended-by">
+                  Amended by{" "}
+                  <a className="underline" href={`#check-${c.amendedBy}`}>
+                    a later check
+                  </a>
+                  ; kept here as recorded.
+                </p>
+              )}
               <p className="text-caption text-ink-soft">
-                Recorded {formatInZone(c.recordedAt, school.timeZone, "d MMM yyyy HH:mm")}
+                Recorded {formatDayTime(c.recordedAt, school.timeZone)}
                 {c.acknowledgedAt
-                  ? ` · debrief acknowledged ${formatInZone(c.acknowledgedAt, school.timeZone, "d MMM yyyy")}`
+                  ? ` · debrief acknowledged ${formatDay(c.acknowledgedAt, school.timeZone)}`
                   : " · debrief not yet acknowledged"}
               </p>
               <ol className="mt-1 list-decimal space-y-1 pl-5">
@@ -264,7 +295,18 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
                 </p>
               )}
               {!c.withdrawn && !c.amendedBy && can(user, "records.amend") && (
-                <WithdrawButton kind="check" id={c.id} label="Withdraw this check" />
+                <div className="mt-1 flex flex-wrap gap-2">
+                  <WithdrawButton kind="check" id={c.id} label="Withdraw this check" />
+                  {openItems.length > 0 && (
+                    <AmendCheck
+                      checkId={c.id}
+                      studentId={student.id}
+                      items={openItems.map((i) => ({ id: i.id, code: i.code, title: i.title, requiredLevel: i.requiredLevel }))}
+                      aircraft={aircraft}
+                      sessions={sessions}
+                    />
+                  )}
+                </div>
               )}
             </li>
           ))}

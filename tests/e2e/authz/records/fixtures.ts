@@ -37,6 +37,14 @@ export const RECORDS_LOOKUPS: Record<string, { sql: string; params?: unknown[] }
   recordsSignOffToAmendByChief: signOff("saoirse.dunleavy@chalkwing.test", "AER-05"),
   recordsCheckToWithdrawByLead: firstCheck("elin.haugen@chalkwing.test"),
   recordsCheckToWithdrawByChief: firstCheck("ivo.petrak@chalkwing.test"),
+  /** Noor's checks on AER-02: the chief amends the first, her lead the latest */
+  recordsCheckToAmendByChief: firstCheck("noor.brandt@chalkwing.test"),
+  recordsCheckToAmendByLead: {
+    sql: `SELECT c.id FROM oral_checks c JOIN people p ON p.id = c.student_id WHERE lower(p.email) = $1 ORDER BY c.occurred_at DESC, c.recorded_at DESC LIMIT 1`,
+    params: ["noor.brandt@chalkwing.test"],
+  },
+  recordsNoor: person("noor.brandt@chalkwing.test"),
+  recordsItemAer02: item("AER-02"),
   /** Ada's first check: she acknowledges its debrief */
   recordsAdaCheck: firstCheck("student@chalkwing.test"),
 };

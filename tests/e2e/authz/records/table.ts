@@ -48,6 +48,49 @@ export const RECORDS_TABLE: AuthzTable = {
     mutates: true,
   },
 
+  "action app/(app)/records/actions.ts#amendCheckAction": {
+    // the chief amends Noor's first check (any instructor's), her lead his own latest one
+    request: (fx, caller) => ({
+      args: [
+        {
+          ...checkArgs(fx),
+          studentId: fx.recordsNoor,
+          itemIds: [fx.recordsItemAer02],
+          questions: [{ ...checkArgs(fx).questions[0]!, syllabusItemId: fx.recordsItemAer02, questionText: "What does mass do to it?" }],
+          amends: {
+            checkId: byCaller(caller, fx.recordsCheckToAmendByChief, fx.recordsCheckToAmendByLead, fx.recordsCheckToAmendByLead),
+            reason: "harness amendment",
+          },
+          password: PASSWORD,
+        },
+      ],
+    }),
+    expect: {
+      signedOut: 401,
+      chief: { status: 200, check: (res) => expect(okData(res).outcome).toBe("meets") },
+      instructor: { status: 200, check: (res) => expect(okData(res).outcome).toBe("meets") },
+      student: 403,
+      sponsor: 403,
+    },
+    mutates: true,
+    secrets: (fx) => [fx.recordsNoor!, "Noor Brandt"],
+  },
+
+  "action app/(app)/register/actions.ts#reviewWatchNoteAction": {
+    // the late-entry note of Elin's first check
+    request: (fx) => ({
+      args: [{ recordType: "oral_check", recordId: fx.recordsCheckToWithdrawByLead, kind: "late_entry", remark: "harness review" }],
+    }),
+    expect: {
+      signedOut: 401,
+      chief: { status: 200, check: (res) => expect(okData(res).id).toMatch(/^[0-9a-f-]{36}$/) },
+      instructor: 403,
+      student: 403,
+      sponsor: 403,
+    },
+    mutates: true,
+  },
+
   "action app/(app)/records/actions.ts#withdrawCheckAction": {
     request: (fx, caller) => ({
       args: [
@@ -131,6 +174,7 @@ export const RECORDS_TABLE: AuthzTable = {
           writtenScorePercent: 88,
           remarks: "harness",
           occurredAt: at(),
+          password: PASSWORD,
         },
       ],
     }),

@@ -3,7 +3,7 @@ import { useState, useTransition } from "react";
 import { useRouter } from "next/navigation";
 import { useFieldArray, useForm, useWatch, type Control } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { recordCheckAction } from "../../actions";
+import { amendCheckAction, recordCheckAction } from "../../actions";
 import {
   LEVELS,
   LEVEL_LABEL,
@@ -26,6 +26,7 @@ import {
   checkFormSchema,
   checkFormToInput,
   generatorInputsOf,
+  ELEMENT_KINDS,
   recordCheckSchema,
   type CheckFormQuestion,
   type CheckFormValues,
@@ -40,6 +41,11 @@ interface Item {
 
 type FormValues = CheckFormValues;
 type QuestionValues = CheckFormQuestion;
+/** A question as the form opens it: item, outcome and element kind not chosen yet. */
+type BlankQuestion = Omit<QuestionValues, "outcome" | "required"> & {
+  outcome: QuestionValues["outcome"] | undefined;
+  required: QuestionValues["required"] | undefined;
+};
 
 function localNow(): string {
   const d = new Date();
@@ -54,7 +60,9 @@ const NEEDS: Record<QuestionKind, ("massKg" | "altitudeFt" | "speedKt" | "height
 };
 const INPUT_LABEL = { massKg: "Mass (kg)", altitudeFt: "Altitude (ft)", speedKt: "Speed (kt EAS)", heightFt: "Height (ft)" } as const;
 
-function blankQuestion(itemId: string, aircraftKey: string): QuestionValues {
+// Nothing starts as a pass: the item (when the check covers more than one), the outcome and
+// whether the element is required are chosen by the examiner for every question.
+function blankQuestion(itemId: string, aircraftKey: string): BlankQuestion {
   return {
     syllabusItemId: itemId,
     mode: "written",
@@ -67,8 +75,8 @@ function blankQuestion(itemId: string, aircraftKey: string): QuestionValues {
     heightFt: "",
     studentFigure: "",
     answerSummary: "",
-    outcome: "solid",
-    required: true,
+    outcome: undefined,
+    required: undefined,
     prompted: false,
     correctiveGiven: false,
   };
@@ -79,12 +87,19 @@ export function CheckForm({
   items,
   aircraft,
   sessions,
+  amends,
 }: {
   studentId: string;
   items: Item[];
   aircraft: AircraftSnapshot[];
   sessions: { id: string; label: string }[];
+  /** amending this check: the form records the corrected check, with a reason and the password */
+  amends?: { checkId: string };
 }) {
+  const [amendReason, setAmendReason] = useState("");
+  /** prefix of element ids: an amendment form may be open beside the new-check form */
+  const px = amends ? `amend-${amends.checkId}-` : "";
+  const [password, setPassword] = useState("");
   const router = useRouter();
   const [pending, start] = useTransition();
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
@@ -93,13 +108,13 @@ export function CheckForm({
   const form = useForm<FormValues>({
     resolver: zodResolver(checkFormSchema),
     defaultValues: {
-      itemIds: items[0] ? [items[0].id] : [],
-      levelShown: "understanding",
+      itemIds: [],
+      levelShown: undefined,
       durationMinutes: "10",
       occurredAt: localNow(),
       sessionId: "",
       remarks: "",
-      questions: [blankQuestion(items[0]?.id ?? "", firstAircraft)],
+      questions: [blankQuestion("", firstAircraft) as QuestionValues],
     },
   });
   const { register, control, handleSubmit, formState, setError, reset } = form;
@@ -108,11 +123,22 @@ export function CheckForm({
   const level = useWatch({ control, name: "levelShown" });
   const qs = useWatch({ control, name: "questions" }) ?? [];
   const chosenItems = items.filter((i) => chosen.includes(i.id));
-  const preview = evaluateCheck({
-    levelShown: level,
-    items: chosenItems.map((i) => ({ id: i.id, code: i.code, requiredLevel: i.requiredLevel })),
-    questions: qs.map((q) => ({ syllabusItemId: q.syllabusItemId, outcome: q.outcome, required: q.required })),
-  });
+  // the rule speaks only once everything it reads has been chosen
+  const undecided = [
+    ...(chosenItems.length === 0 ? ["the items"] : []),
+    ...(level ? [] : ["the level of learning"]),
+    ...(qs.some((q) => !q.syllabusItemId) ? ["each question's item"] : []),
+    ...(qs.some((q) => !q.outcome) ? ["each question's outcome"] : []),
+    ...(qs.some((q) => !q.required) ? ["whether each question is on a required element"] : []),
+  ];
+  const preview =
+    undecided.length === 0
+      ? evaluateCheck({
+          levelShown: level,
+          items: chosenItems.map((i) => ({ id: i.id, code: i.code, requiredLevel: i.requiredLevel })),
+          questions: qs.map((q) => ({ syllabusItemId: q.syllabusItemId, outcome: q.outcome, required: q.required === "required" })),
+        })
+      : null;
 
   const onSubmit = (v: FormValues) =>
     start(async () => {
@@ -127,21 +153,23 @@ export function CheckForm({
         return;
       }
       const payload = { idempotencyKey, ...input };
-      const r = await recordCheckAction(payload);
+      const r = amends
+        ? await amendCheckAction({ ...payload, amends: { checkId: amends.checkId, reason: amendReason }, password })
+        : await recordCheckAction(payload);
       if (r.ok) {
         setMessage({
           ok: true,
-          text: `Check recorded: ${CHECK_OUTCOME_LABEL[r.data.outcome]}.${r.data.notYetMailed ? " The student was sent a note about the Not yet items." : ""}`,
+          text: `${amends ? "Amendment" : "Check"} recorded: ${CHECK_OUTCOME_LABEL[r.data.outcome]}.${r.data.notYetMailed ? " The student was sent a note about the Not yet items." : ""}${r.data.makeupItemsClosed.length ? ` It closed ${r.data.makeupItemsClosed.length} make-up item${r.data.makeupItemsClosed.length === 1 ? "" : "s"}.` : ""}`,
         });
         setKey(crypto.randomUUID());
         reset({
-          itemIds: v.itemIds,
-          levelShown: v.levelShown,
+          itemIds: [],
+          levelShown: undefined,
           durationMinutes: "10",
           occurredAt: localNow(),
           sessionId: v.sessionId,
           remarks: "",
-          questions: [blankQuestion(v.itemIds[0] ?? "", firstAircraft)],
+          questions: [blankQuestion("", firstAircraft) as QuestionValues],
         });
         router.refresh();
       } else {
@@ -163,7 +191,12 @@ export function CheckForm({
   };
 
   return (
-    <form onSubmit={handleSubmit(onSubmit)} className="mt-3 space-y-5" noValidate aria-label="Oral check">
+    <form
+      onSubmit={handleSubmit(onSubmit)}
+      className="mt-3 space-y-5"
+      noValidate
+      aria-label={amends ? "Amend the oral check" : "Oral check"}
+    >
       <fieldset>
         <legend className="field-label">Syllabus items checked</legend>
         <div className="mt-1 flex flex-wrap gap-2">
@@ -200,10 +233,10 @@ export function CheckForm({
 
       <div className="grid gap-3 sm:grid-cols-3">
         <div>
-          <label htmlFor="sessionId" className="field-label">
+          <label htmlFor={`${px}sessionId`} className="field-label">
             During or after a session (optional)
           </label>
-          <select id="sessionId" {...register("sessionId")} className="field-input">
+          <select id={`${px}sessionId`} {...register("sessionId")} className="field-input">
             <option value="">No session</option>
             {sessions.map((x) => (
               <option key={x.id} value={x.id}>
@@ -213,17 +246,17 @@ export function CheckForm({
           </select>
         </div>
         <div>
-          <label htmlFor="occurredAt" className="field-label">
+          <label htmlFor={`${px}occurredAt`} className="field-label">
             When it happened
           </label>
-          <input id="occurredAt" type="datetime-local" {...register("occurredAt")} className="field-input" />
+          <input id={`${px}occurredAt`} type="datetime-local" {...register("occurredAt")} className="field-input" />
           {err("occurredAt")}
         </div>
         <div>
-          <label htmlFor="durationMinutes" className="field-label">
+          <label htmlFor={`${px}durationMinutes`} className="field-label">
             Duration (min)
           </label>
-          <input id="durationMinutes" inputMode="numeric" {...register("durationMinutes")} className="field-input num" />
+          <input id={`${px}durationMinutes`} inputMode="numeric" {...register("durationMinutes")} className="field-input num" />
           {err("durationMinutes")}
         </div>
       </div>
@@ -234,6 +267,7 @@ export function CheckForm({
           <QuestionFields
             key={f.id}
             idx={idx}
+            px={px}
             control={control}
             register={register}
             items={chosenItems.length ? chosenItems : items}
@@ -246,37 +280,76 @@ export function CheckForm({
         <button
           type="button"
           className="btn-quiet"
-          onClick={() => questions.append(blankQuestion(chosen[0] ?? items[0]?.id ?? "", firstAircraft))}
+          onClick={() => questions.append(blankQuestion(chosen.length === 1 ? chosen[0]! : "", firstAircraft) as QuestionValues)}
         >
           Add a question
         </button>
       </div>
 
       <div>
-        <label htmlFor="remarks" className="field-label">
+        <label htmlFor={`${px}remarks`} className="field-label">
           Remarks (internal: never shown to the student or sponsors)
         </label>
-        <textarea id="remarks" rows={2} {...register("remarks")} className="field-input py-2" />
+        <textarea id={`${px}remarks`} rows={2} {...register("remarks")} className="field-input py-2" />
       </div>
 
       <div className="rounded-md border border-paper-edge bg-paper p-3" aria-live="polite" data-testid="outcome-preview">
-        <p className="font-semibold">Outcome by the rule: {CHECK_OUTCOME_LABEL[preview.outcome]}</p>
-        <ul className="text-caption">
-          {preview.items.map((i) => (
-            <li key={i.itemId}>
-              {i.code}: {i.meets ? "meets the standard" : i.reasons.join("; ")}
-            </li>
-          ))}
-        </ul>
+        {preview ? (
+          <>
+            <p className="font-semibold" data-testid="outcome-verdict">
+              Outcome by the rule: {CHECK_OUTCOME_LABEL[preview.outcome]}
+            </p>
+            <ul className="text-caption">
+              {preview.items.map((i) => (
+                <li key={i.itemId}>
+                  {i.code}: {i.meets ? "meets the standard" : i.reasons.join("; ")}
+                </li>
+              ))}
+            </ul>
+          </>
+        ) : (
+          <p className="font-semibold" data-testid="outcome-verdict">
+            Outcome by the rule: not decided yet. Still to choose: {undecided.join(", ")}.
+          </p>
+        )}
         <details className="text-caption text-ink-soft">
           <summary>The rule</summary>
           {DEFAULT_OUTCOME_RULE.text}
         </details>
       </div>
 
+      {amends && (
+        <div className="grid gap-3 sm:grid-cols-2">
+          <div>
+            <label htmlFor={`amend-reason-${amends.checkId}`} className="field-label">
+              Reason for the amendment
+            </label>
+            <input
+              id={`amend-reason-${amends.checkId}`}
+              value={amendReason}
+              onChange={(e) => setAmendReason(e.target.value)}
+              className="field-input"
+            />
+          </div>
+          <div>
+            <label htmlFor={`amend-pw-${amends.checkId}`} className="field-label">
+              Re-enter your password to sign
+            </label>
+            <input
+              id={`amend-pw-${amends.checkId}`}
+              type="password"
+              autoComplete="current-password"
+              value={password}
+              onChange={(e) => setPassword(e.target.value)}
+              className="field-input"
+            />
+          </div>
+        </div>
+      )}
+
       <div className="flex flex-wrap items-center gap-3">
         <button type="submit" className="btn-primary" disabled={pending}>
-          {pending ? "Recording…" : "Record the check"}
+          {pending ? "Recording…" : amends ? "Record the amendment" : "Record the check"}
         </button>
         {message && (
           <p role="status" className={message.ok ? "font-semibold text-solid-800" : "field-error"} data-testid="check-message">
@@ -290,6 +363,7 @@ export function CheckForm({
 
 function QuestionFields({
   idx,
+  px,
   control,
   register,
   items,
@@ -298,6 +372,7 @@ function QuestionFields({
   onRemove,
 }: {
   idx: number;
+  px: string;
   control: Control<FormValues>;
   register: ReturnType<typeof useForm<FormValues>>["register"];
   items: Item[];
@@ -324,10 +399,11 @@ function QuestionFields({
       <legend className="px-1 font-semibold">Question {idx + 1}</legend>
       <div className="grid gap-3 sm:grid-cols-2">
         <div>
-          <label htmlFor={`${p}.item`} className="field-label">
+          <label htmlFor={`${px}${p}.item`} className="field-label">
             Syllabus item
           </label>
-          <select id={`${p}.item`} {...register(`${p}.syllabusItemId`)} className="field-input">
+          <select id={`${px}${p}.item`} {...register(`${p}.syllabusItemId`)} className="field-input">
+            <option value="">Choose the item…</option>
             {items.map((i) => (
               <option key={i.id} value={i.id}>
                 {i.code} {i.title}
@@ -337,10 +413,10 @@ function QuestionFields({
           {err(`${p}.syllabusItemId`)}
         </div>
         <div>
-          <label htmlFor={`${p}.mode`} className="field-label">
+          <label htmlFor={`${px}${p}.mode`} className="field-label">
             Question
           </label>
-          <select id={`${p}.mode`} {...register(`${p}.mode`)} className="field-input">
+          <select id={`${px}${p}.mode`} {...register(`${p}.mode`)} className="field-input">
             <option value="written">Written as asked</option>
             <option value="generated">Generated numeric question</option>
           </select>
@@ -350,10 +426,10 @@ function QuestionFields({
         <div className="space-y-2">
           <div className="grid gap-3 sm:grid-cols-2">
             <div>
-              <label htmlFor={`${p}.kind`} className="field-label">
+              <label htmlFor={`${px}${p}.kind`} className="field-label">
                 Kind
               </label>
-              <select id={`${p}.kind`} {...register(`${p}.kind`)} className="field-input">
+              <select id={`${px}${p}.kind`} {...register(`${p}.kind`)} className="field-input">
                 {QUESTION_KINDS.map((k) => (
                   <option key={k} value={k}>
                     {QUESTION_KIND_LABEL[k]}
@@ -362,10 +438,10 @@ function QuestionFields({
               </select>
             </div>
             <div>
-              <label htmlFor={`${p}.aircraft`} className="field-label">
+              <label htmlFor={`${px}${p}.aircraft`} className="field-label">
                 Aircraft
               </label>
-              <select id={`${p}.aircraft`} {...register(`${p}.aircraftKey`)} className="field-input">
+              <select id={`${px}${p}.aircraft`} {...register(`${p}.aircraftKey`)} className="field-input">
                 {aircraft.map((a) => (
                   <option key={`${a.source.kind}:${a.source.id}`} value={`${a.source.kind}:${a.source.id}`}>
                     {a.name}
@@ -378,10 +454,10 @@ function QuestionFields({
           <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
             {NEEDS[q.kind].map((f) => (
               <div key={f}>
-                <label htmlFor={`${p}.${f}`} className="field-label">
+                <label htmlFor={`${px}${p}.${f}`} className="field-label">
                   {INPUT_LABEL[f]}
                 </label>
-                <input id={`${p}.${f}`} inputMode="decimal" {...register(`${p}.${f}`)} className="field-input num" />
+                <input id={`${px}${p}.${f}`} inputMode="decimal" {...register(`${p}.${f}`)} className="field-input num" />
                 {err(`${p}.${f}`)}
               </div>
             ))}
@@ -399,28 +475,28 @@ function QuestionFields({
           )}
           {generated?.answer.type === "number" && (
             <div className="max-w-xs">
-              <label htmlFor={`${p}.figure`} className="field-label">
+              <label htmlFor={`${px}${p}.figure`} className="field-label">
                 Student&apos;s figure ({generated.answer.unit})
               </label>
-              <input id={`${p}.figure`} inputMode="decimal" {...register(`${p}.studentFigure`)} className="field-input num" />
+              <input id={`${px}${p}.figure`} inputMode="decimal" {...register(`${p}.studentFigure`)} className="field-input num" />
               {within !== null && <p className="text-caption font-semibold">{within ? "Within tolerance" : "Outside tolerance"}</p>}
             </div>
           )}
         </div>
       ) : (
         <div>
-          <label htmlFor={`${p}.text`} className="field-label">
+          <label htmlFor={`${px}${p}.text`} className="field-label">
             Question as asked
           </label>
-          <textarea id={`${p}.text`} rows={2} {...register(`${p}.questionText`)} className="field-input py-2" />
+          <textarea id={`${px}${p}.text`} rows={2} {...register(`${p}.questionText`)} className="field-input py-2" />
           {err(`${p}.questionText`)}
         </div>
       )}
       <div>
-        <label htmlFor={`${p}.answer`} className="field-label">
+        <label htmlFor={`${px}${p}.answer`} className="field-label">
           Answer, in short
         </label>
-        <input id={`${p}.answer`} {...register(`${p}.answerSummary`)} className="field-input" />
+        <input id={`${px}${p}.answer`} {...register(`${p}.answerSummary`)} className="field-input" />
       </div>
       <fieldset>
         <legend className="field-label">Outcome</legend>
@@ -437,10 +513,24 @@ function QuestionFields({
         </div>
         {err(`${p}.outcome`)}
       </fieldset>
+      <fieldset>
+        <legend className="field-label">Element</legend>
+        <div className="mt-1 grid grid-cols-2 gap-2">
+          {ELEMENT_KINDS.map((k) => (
+            <label
+              key={k}
+              className="inline-flex min-h-touch cursor-pointer items-center justify-center gap-2 rounded-md border border-paper-edge bg-white px-2 has-[:checked]:border-wing-600 has-[:checked]:bg-wing-50"
+            >
+              <input type="radio" value={k} {...register(`${p}.required`)} className="h-5 w-5" />
+              {k === "required" ? "Required element" : "Not a required element"}
+            </label>
+          ))}
+        </div>
+        {err(`${p}.required`)}
+      </fieldset>
       <div className="flex flex-wrap gap-x-5 gap-y-2">
         {(
           [
-            ["required", "Required element"],
             ["prompted", "Needed prompting"],
             ["correctiveGiven", "Corrective instruction given"],
           ] as const

@@ -3,6 +3,7 @@ import { useState, useTransition } from "react";
 import { useRouter } from "next/navigation";
 import { conductStageCheckAction } from "../../actions";
 import { QUESTION_OUTCOMES, OUTCOME_LABEL, type QuestionOutcome } from "@/lib/records/outcome";
+import { STAGE_RESULT_WORDS, words } from "@/lib/labels";
 
 export function StageCheckForm({
   studentId,
@@ -12,6 +13,7 @@ export function StageCheckForm({
   isLead,
   mayOverride,
   passMark,
+  statement,
 }: {
   studentId: string;
   stageId: string;
@@ -20,10 +22,15 @@ export function StageCheckForm({
   isLead: boolean;
   mayOverride: boolean;
   passMark: number;
+  /** the certification statement the examiner signs (as for a sign-off) */
+  statement: string;
 }) {
-  const [outcomes, setOutcomes] = useState<Record<string, QuestionOutcome>>(Object.fromEntries(items.map((i) => [i.id, "solid"])));
+  // Nothing starts as a pass: every oral outcome and the result are chosen by the examiner.
+  const [outcomes, setOutcomes] = useState<Record<string, QuestionOutcome | "">>({});
   const [written, setWritten] = useState("");
-  const [result, setResult] = useState<"pass" | "fail">("pass");
+  const [result, setResult] = useState<"pass" | "fail" | "">("");
+  const [password, setPassword] = useState("");
+  const [errors, setErrors] = useState<Record<string, string>>({});
   const [remarks, setRemarks] = useState("");
   const [override, setOverride] = useState("");
   const [message, setMessage] = useState<string | null>(null);
@@ -41,12 +48,22 @@ export function StageCheckForm({
       aria-label={`Stage check ${stageCode}`}
       onSubmit={(e) => {
         e.preventDefault();
+        const missing: Record<string, string> = {};
+        for (const i of items) if (!outcomes[i.id]) missing[`outcome-${i.id}`] = `choose the oral outcome of ${i.code}`;
+        if (!result) missing.result = "choose the result: pass or fail";
+        if (password === "") missing.password = "re-enter your password";
+        setErrors(missing);
+        if (Object.keys(missing).length > 0) {
+          setMessage(`Still to choose: ${Object.values(missing).join("; ")}`);
+          return;
+        }
         start(async () => {
           const r = await conductStageCheckAction({
             studentId,
             stageId,
             result,
-            oralOutcomes: items.map((i) => ({ itemId: i.id, outcome: outcomes[i.id] ?? "solid" })),
+            password,
+            oralOutcomes: items.map((i) => ({ itemId: i.id, outcome: outcomes[i.id] })),
             writtenScorePercent: written.trim() === "" ? null : Number(written),
             remarks,
             occurredAt: new Date().toISOString(),
@@ -54,10 +71,13 @@ export function StageCheckForm({
           });
           setMessage(
             r.ok
-              ? `Recorded: ${r.data.result}${r.data.makeupItemsOpened ? `, ${r.data.makeupItemsOpened} make-up items opened` : ""}`
+              ? `Recorded: ${words(STAGE_RESULT_WORDS, r.data.result).toLowerCase()}${r.data.makeupItemsOpened ? `, ${r.data.makeupItemsOpened} make-up items opened` : ""}`
               : r.message,
           );
-          if (r.ok) router.refresh();
+          if (r.ok) {
+            setPassword("");
+            router.refresh();
+          } else if (r.field) setErrors({ [r.field]: r.message });
         });
       }}
     >
@@ -82,15 +102,22 @@ export function StageCheckForm({
                 <select
                   id={`sc-${i.id}`}
                   className="field-input"
-                  value={outcomes[i.id]}
+                  value={outcomes[i.id] ?? ""}
+                  aria-invalid={errors[`outcome-${i.id}`] ? true : undefined}
                   onChange={(e) => setOutcomes({ ...outcomes, [i.id]: e.target.value as QuestionOutcome })}
                 >
+                  <option value="">Choose…</option>
                   {QUESTION_OUTCOMES.map((o) => (
                     <option key={o} value={o}>
                       {OUTCOME_LABEL[o]}
                     </option>
                   ))}
                 </select>
+                {errors[`outcome-${i.id}`] && (
+                  <p className="field-error" role="alert">
+                    {errors[`outcome-${i.id}`]}
+                  </p>
+                )}
               </td>
             </tr>
           ))}
@@ -117,11 +144,18 @@ export function StageCheckForm({
             id={`result-${stageId}`}
             className="field-input"
             value={result}
+            aria-invalid={errors.result ? true : undefined}
             onChange={(e) => setResult(e.target.value as "pass" | "fail")}
           >
+            <option value="">Choose the result…</option>
             <option value="pass">Pass</option>
             <option value="fail">Fail (opens make-up items)</option>
           </select>
+          {errors.result && (
+            <p className="field-error" role="alert">
+              {errors.result}
+            </p>
+          )}
         </div>
       </div>
       {isLead && (
@@ -138,8 +172,31 @@ export function StageCheckForm({
         </label>
         <input id={`remarks-${stageId}`} className="field-input" value={remarks} onChange={(e) => setRemarks(e.target.value)} />
       </div>
+      <p className="font-semibold">Statement</p>
+      <blockquote className="border-l-4 border-wing-600 pl-3" data-testid="stage-statement">
+        {statement}
+      </blockquote>
+      <div>
+        <label htmlFor={`sc-pw-${stageId}`} className="field-label">
+          Re-enter your password to sign
+        </label>
+        <input
+          id={`sc-pw-${stageId}`}
+          type="password"
+          autoComplete="current-password"
+          value={password}
+          onChange={(e) => setPassword(e.target.value)}
+          className="field-input"
+          aria-invalid={errors.password ? true : undefined}
+        />
+        {errors.password && (
+          <p className="field-error" role="alert">
+            {errors.password}
+          </p>
+        )}
+      </div>
       <button type="submit" className="btn-primary" disabled={pending}>
-        Record the stage check
+        Sign the stage check
       </button>
       {message && (
         <p role="status" className="font-semibold">
