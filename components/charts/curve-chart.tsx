@@ -286,8 +286,20 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
 
       if (!o.conceal?.regions) {
         const xv = Math.min(a.right, Math.max(a.left, px(c.vmdMs)));
-        labels.push({ id: "unstable", lines: ["speed-unstable"], colour: pal.unstableText, weight: 600, place: topDown(xv, "left") });
-        labels.push({ id: "stable", lines: ["speed-stable"], colour: pal.stableText, weight: 600, place: topDown(xv, "right") });
+        // anywhere on its own side of Vmd, nearest the rule first: on a narrow phone chart the label still finds a gap
+        const within = (side: "left" | "right") => (w: number, h: number) => {
+          const out: Box[] = [];
+          for (let y0 = a.top + 4; y0 + h <= a.bottom; y0 += step) {
+            for (let k = 0; k <= 8; k++) {
+              const x0 = side === "left" ? xv - 6 - w - (k * w) / 4 : xv + 6 + (k * w) / 4;
+              if (side === "left" ? x0 < a.left : x0 + w > a.right) break;
+              out.push({ x: x0, y: y0, w, h });
+            }
+          }
+          return out;
+        };
+        labels.push({ id: "unstable", lines: ["speed-unstable"], colour: pal.unstableText, weight: 600, place: within("left") });
+        labels.push({ id: "stable", lines: ["speed-stable"], colour: pal.stableText, weight: 600, place: within("right") });
       }
       if (!hidden("vmd") && inside(c.vmdMs)) {
         rule(c.vmdMs, [], pal.chalk);
@@ -375,7 +387,7 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
         const name = o.spec.cases[ci]?.label ?? `case ${ci + 1}`;
         labels.push({
           id: `thrust-${ci}`,
-          lines: [`thrust held, ${name}`],
+          lines: [o.frame.cases.length > 1 ? `thrust held, ${name}` : "thrust held"],
           colour,
           weight: 400,
           place: (w, h) => {
@@ -425,7 +437,16 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
         const one = l.lines.map((t) => ctx.measureText(t).width);
         const w = Math.ceil(Math.max(...one));
         const candidates = l.place(w, lineH * l.lines.length);
-        const split = l.lines.length === 1 && l.lines[0]!.includes("-") ? l.lines[0]!.replace("-", "-\n").split("\n") : null;
+        // the two-line form: after a hyphen ("speed-" / "unstable"), else at the first space ("Vmp" / "53 kt")
+        const t0 = l.lines[0]!;
+        const split =
+          l.lines.length !== 1
+            ? null
+            : t0.includes("-")
+              ? t0.replace("-", "-\n").split("\n")
+              : t0.includes(" ")
+                ? t0.replace(" ", "\n").split("\n")
+                : null;
         if (split) {
           const w2 = Math.ceil(Math.max(...split.map((t) => ctx.measureText(t).width)));
           return { l, candidates, split, splitCandidates: l.place(w2, lineH * 2) };
