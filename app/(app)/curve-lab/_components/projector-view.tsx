@@ -126,7 +126,9 @@ export function ProjectorView({ name, spec: saved, backHref }: { name: string; s
       className="fixed inset-0 z-50 flex flex-col gap-2 overflow-hidden bg-board-950 px-5 py-3 text-[22px] leading-snug text-chalk outline-none [@media(min-height:1000px)]:gap-3 [@media(min-height:1000px)]:p-6 [@media(min-height:1000px)]:text-[28px]"
     >
       <header className="flex flex-wrap items-baseline justify-between gap-x-8 gap-y-1">
-        <h1 className="line-clamp-2 min-w-0 text-[32px] font-bold break-words [@media(min-height:1000px)]:text-[40px]">{name}</h1>
+        <h1 className="line-clamp-2 min-w-0 pb-1 text-[32px] leading-[1.3] font-bold [overflow-wrap:anywhere] [@media(min-height:1000px)]:text-[40px]">
+          {name}
+        </h1>
         <p className="flex flex-wrap items-baseline gap-x-6 text-[28px]" data-testid="projector-readout">
           <span>
             <span
