@@ -133,6 +133,7 @@ describe("Projector view and export", () => {
     await page.check("[data-testid=export-paper]");
     const [download] = await Promise.all([page.waitForEvent("download"), page.click("text=Export chart (PNG)")]);
     const png = readFileSync((await download.path())!);
+    await download.saveAs("tests/artifacts/screenshots/curve-lab-export-paper.png");
     // PNG signature, then the IHDR chunk: width and height as big-endian 32-bit integers at bytes 16 and 20
     expect(png.subarray(1, 4).toString("latin1")).toBe("PNG");
     expect(png.subarray(12, 16).toString("latin1")).toBe("IHDR");
