@@ -5,6 +5,7 @@ import { chainHead } from "@/db/access/records/audit-chain";
 import { registerQuerySchema, toFilter } from "@/lib/records/schema";
 import { toCsv } from "@/lib/csv";
 import { now } from "@/lib/clock";
+import { SIGN_OFF_STATE_WORDS, STAGE_RESULT_WORDS, words } from "@/lib/labels";
 
 export const GET = route("register.view", async ({ req, user }) => {
   const q = parseQuery(req, registerQuerySchema);
@@ -36,7 +37,7 @@ export const GET = route("register.view", async ({ req, user }) => {
     r.itemTitle ?? "",
     r.signerName,
     r.basis,
-    r.state,
+    words({ ...SIGN_OFF_STATE_WORDS, ...STAGE_RESULT_WORDS }, r.state),
     r.reason ?? "",
     r.notes.map((n) => `${n.label}: ${n.detail}`).join(" | "),
     r.recordedAt.toISOString(),
