@@ -3,7 +3,7 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";
-import { can } from "@/lib/auth/guard";
+import { can } from "@/lib/auth/can";
 import { accessTo } from "../shared/student-scope";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { MakeupCloseOutput, MakeupScheduleOutput, MakeupWaiveOutput } from "@/lib/timetable/schema";

@@ -4,7 +4,7 @@ import { sequelize } from "../../index";
 import { getSchool } from "../shared/school";
 import { dateInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
-import { can } from "@/lib/auth/guard";
+import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
 
 export interface RosterStudent {

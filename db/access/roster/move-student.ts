@@ -3,7 +3,7 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { moveStudentToCohort } from "../cohorts/memberships";
 import { HttpError } from "@/lib/http/errors";
-import { can } from "@/lib/auth/guard";
+import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { MoveStudentInput } from "@/lib/roster/schema";
 

@@ -5,7 +5,7 @@ import { getSchool } from "../shared/school";
 import { studentScopeSql } from "../shared/student-scope";
 import { formatInZone, dateInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
-import { can } from "@/lib/auth/guard";
+import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { SessionRow } from "./list-sessions";
 

@@ -1,7 +1,7 @@
 import "server-only";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
-import { can } from "@/lib/auth/guard";
+import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
 import { listCohorts, listCohortMembers } from "../cohorts/list-cohorts";
 import { listSponsoredStudents } from "../cohorts/sponsor-links";
