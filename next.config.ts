@@ -1,20 +1,9 @@
 import type { NextConfig } from "next";
+import { API_CSP } from "./lib/http/csp";
 
-const isDev = process.env.NODE_ENV !== "production";
-
-// Security headers on every response.
-const csp = [
-  "default-src 'self'",
-  `script-src 'self' 'unsafe-inline'${isDev ? " 'unsafe-eval'" : ""}`,
-  "style-src 'self' 'unsafe-inline'",
-  "img-src 'self' data: blob:",
-  "font-src 'self'",
-  "connect-src 'self'",
-  "object-src 'none'",
-  "base-uri 'self'",
-  "form-action 'self'",
-  "frame-ancestors 'none'",
-].join("; ");
+// Security headers on every response. Pages get their Content-Security-Policy (with a nonce
+// per request) from proxy.ts; route handlers and static files get a script-free one here,
+// except handout downloads, which set their own sandbox CSP and Referrer-Policy.
 
 const nextConfig: NextConfig = {
   serverExternalPackages: ["sequelize", "pg", "pg-hstore", "pg-boss", "nodemailer", "bcryptjs"],
@@ -30,13 +19,17 @@ const nextConfig: NextConfig = {
       {
         source: "/:path*",
         headers: [
-          { key: "Content-Security-Policy", value: csp },
           { key: "X-Content-Type-Options", value: "nosniff" },
-          { key: "Referrer-Policy", value: "strict-origin-when-cross-origin" },
           { key: "X-Frame-Options", value: "DENY" },
           { key: "Permissions-Policy", value: "camera=(), microphone=(), geolocation=()" },
         ],
       },
+      { source: "/((?!api/handouts/).*)", headers: [{ key: "Referrer-Policy", value: "strict-origin-when-cross-origin" }] },
+      // what proxy.ts does not see (see its matcher): route handlers and static files
+      ...["/api/((?!handouts/).*)", "/_next/:path*", "/favicon.ico", "/robots.txt"].map((source) => ({
+        source,
+        headers: [{ key: "Content-Security-Policy", value: API_CSP }],
+      })),
     ];
   },
 };

@@ -1,4 +1,5 @@
 import type { Metadata, Viewport } from "next";
+import { headers } from "next/headers";
 import "./globals.css";
 import { sans, mono } from "./fonts";
 import { Providers } from "@/components/providers";
@@ -10,7 +11,10 @@ export const metadata: Metadata = {
 
 export const viewport: Viewport = { width: "device-width", initialScale: 1 };
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  // Reading the request makes every page render per request, so each gets the nonce that
+  // proxy.ts put in its Content-Security-Policy (Next.js adds it to its own scripts).
+  await headers();
   return (
     <html lang="en-GB" className={`${sans.variable} ${mono.variable}`}>
       <body>
