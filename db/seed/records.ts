@@ -192,7 +192,7 @@ export async function seedRecords(ctx: SeedContext): Promise<void> {
       q("AER-02", "Effect of mass on lift-dependent drag?", "solid"),
       q("AER-03", "", "solid", {
         questionText: undefined,
-        generated: { kind: "vmd_heavier", aircraft: { kind: "reference", id: "lt-4" }, inputs: { massKg: 1150 } },
+        generated: { kind: "vmd_heavier", aircraft: { kind: "reference", id: "lt-4" }, inputs: { massKg: 1100 } },
       }),
       q("AER-04", "", "solid", {
         questionText: undefined,
