@@ -42,6 +42,21 @@ export async function launchBrowser(viewport = { width: 1280, height: 800 }): Pr
   };
 }
 
+export interface SharedBrowser {
+  /** A fresh context of the one browser: its own cookies and storage, like a separate visitor. */
+  newContext(viewport?: { width: number; height: number }): Promise<BrowserContext>;
+  close(): Promise<void>;
+}
+
+/** One Debian Chromium for several isolated contexts at once (e.g. a crawl that visits pages in parallel). */
+export async function launchSharedBrowser(): Promise<SharedBrowser> {
+  const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium", headless: true, args: FLAGS });
+  return {
+    newContext: (viewport = { width: 1280, height: 800 }) => browser.newContext({ viewport, baseURL: BASE_URL }),
+    close: () => browser.close(),
+  };
+}
+
 export async function signIn(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
   await page.goto("/sign-in");
   await page.fill("#email", email);
