@@ -6,6 +6,7 @@ import { callSchema, demoIdSchema, renameDemoSchema, saveDemoSchema } from "@/li
 import { createDemo, deleteDemo, duplicateDemo, renameDemo, saveDemoSpec } from "@/db/access/curve-lab/save-demo";
 import { getDemoRevision } from "@/db/access/curve-lab/demos";
 import { recordCallOnce } from "@/db/access/curve-lab/call-once";
+import { completeDemoAssignmentsOnCall } from "@/db/access/assignments/complete-on-call";
 import { studentMayOpenRevision } from "./_lib/student-access";
 
 /**
@@ -58,7 +59,7 @@ export async function makeCallAction(input: unknown) {
       if (revision.spec.callKind !== kind) throw new HttpError(400, "kind: this demo does not ask for that call", "kind");
       const actualMs = callAnswer(revision.spec, kind);
       // one call per student per revision: a second call returns the first, unchanged
-      return recordCallOnce(
+      const call = await recordCallOnce(
         {
           schoolId: user.schoolId,
           demoRevisionId,
@@ -70,6 +71,9 @@ export async function makeCallAction(input: unknown) {
         },
         t,
       );
+      // the call completes the student's assignments of this demo, in the transaction that stores it
+      await completeDemoAssignmentsOnCall(user.schoolId, user.id, demoRevisionId, t);
+      return call;
     },
     { idempotent: "demo.call" },
   );

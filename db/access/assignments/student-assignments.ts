@@ -31,18 +31,28 @@ export async function listAssignmentsForStudent(
   opts: { from?: string; to?: string } = {},
 ): Promise<StudentAssignment[]> {
   const today = await schoolToday(schoolId);
+  // One due date per thing: a demo also reached through an assigned briefing (whose current
+  // revision uses it) is due on the earliest of its own date and those briefings' dates.
   const rows = await sequelize.query<Omit<StudentAssignment, "done" | "overdue">>(
-    `SELECT s.assignment_id AS id, s.kind, s.briefing_id AS "briefingId", s.demo_id AS "demoId", s.due_on AS "dueOn",
+    `WITH mine AS (
+       SELECT s.*, CASE WHEN s.kind = 'demo' THEN LEAST(s.due_on, (
+                SELECT min(sb.due_on) FROM assignment_students sb
+                  JOIN briefings b2 ON b2.id = sb.briefing_id
+                  JOIN briefing_revision_demos bd ON bd.briefing_revision_id = b2.current_revision_id
+                  JOIN demo_revisions dr ON dr.id = bd.demo_revision_id
+                 WHERE sb.student_id = s.student_id AND sb.school_id = s.school_id AND sb.kind = 'briefing' AND dr.demo_id = s.demo_id))
+              ELSE s.due_on END AS effective_due
+         FROM assignment_students s WHERE s.school_id = :schoolId AND s.student_id = :studentId)
+     SELECT s.assignment_id AS id, s.kind, s.briefing_id AS "briefingId", s.demo_id AS "demoId", s.effective_due AS "dueOn",
             a.note, ap.name AS "assignedByName", s.completed_at AS "completedAt",
             COALESCE(br.title, (SELECT name FROM demos WHERE id = s.demo_id), '—') AS title
-       FROM assignment_students s
+       FROM mine s
        JOIN assignments a ON a.id = s.assignment_id
        JOIN people ap ON ap.id = a.assigned_by
        LEFT JOIN briefings b ON b.id = s.briefing_id
        LEFT JOIN briefing_revisions br ON br.id = b.current_revision_id
-      WHERE s.school_id = :schoolId AND s.student_id = :studentId
-        AND (:from::date IS NULL OR s.due_on >= :from::date) AND (:to::date IS NULL OR s.due_on <= :to::date)
-      ORDER BY s.completed_at IS NOT NULL, s.due_on, title`,
+      WHERE (:from::date IS NULL OR s.effective_due >= :from::date) AND (:to::date IS NULL OR s.effective_due <= :to::date)
+      ORDER BY s.completed_at IS NOT NULL, s.effective_due, title`,
     { replacements: { schoolId, studentId, from: opts.from ?? null, to: opts.to ?? null }, type: QueryTypes.SELECT },
   );
   return rows.map((r) => ({ ...r, done: r.completedAt !== null, overdue: isOverdue(r.dueOn, r.completedAt !== null, today) }));
