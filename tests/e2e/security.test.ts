@@ -114,6 +114,21 @@ describe("security headers", () => {
     expect(asset).toBeDefined();
     expectHeaders(await fetch(`${BASE_URL}${asset}`), "asset");
   });
+
+  test("robots.txt (keeps search engines out) and the favicon reach signed-out visitors; the pages' CSP lets the icon load", async () => {
+    const robots = await fetch(`${BASE_URL}/robots.txt`, { redirect: "manual" });
+    expect({ status: robots.status, type: robots.headers.get("content-type") }).toEqual({
+      status: 200,
+      type: expect.stringContaining("text/plain"),
+    });
+    expect((await robots.text()).split(/\r?\n/)).toEqual(expect.arrayContaining(["User-agent: *", "Disallow: /"]));
+    const icon = await fetch(`${BASE_URL}/favicon.ico`, { redirect: "manual" });
+    expect(icon.status).toBe(200);
+    expect([...new Uint8Array(await icon.arrayBuffer()).slice(0, 4)]).toEqual([0, 0, 1, 0]); // ICO file header
+    for (const res of [robots, icon]) expect(res.headers.get("x-content-type-options")).toBe("nosniff");
+    const page = await fetch(`${BASE_URL}/sign-in`);
+    expect(page.headers.get("content-security-policy")).toMatch(/(^|; )img-src 'self'/);
+  });
 });
 
 describe("a second server of the same build whose database is unreachable", () => {
