@@ -1,6 +1,6 @@
 import { migrateUp } from "./migrate";
 
-// db/cli.ts migrate | seed | reset — run with tsx (see package.json).
+// db/cli.ts migrate | seed | scale --students N — run with tsx (see package.json).
 async function main() {
   const cmd = process.argv[2];
   if (cmd === "migrate") {
@@ -9,8 +9,13 @@ async function main() {
   } else if (cmd === "seed") {
     const { seedDemo } = await import("./seed/demo");
     await seedDemo();
+  } else if (cmd === "scale") {
+    const i = process.argv.indexOf("--students");
+    const n = Number(i > 0 ? process.argv[i + 1] : process.argv[3]);
+    const { generateScale } = await import("./seed/scale");
+    await generateScale(n, { log: console.log });
   } else {
-    console.error("usage: tsx db/cli.ts migrate|seed");
+    console.error("usage: tsx db/cli.ts migrate|seed|scale --students N");
     process.exit(2);
   }
   const { sequelize } = await import("./index");
