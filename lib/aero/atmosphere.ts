@@ -17,7 +17,10 @@ import { STANDARD_GRAVITY_MS2 } from "./units";
 export const ISA = Object.freeze({
   seaLevelTemperatureK: 288.15,
   seaLevelPressurePa: 101325,
-  /** Specific gas constant of dry air R* / M0 = 8.31432 / 0.0289644, J/(kg K). */
+  /**
+   * Specific gas constant of dry air, J/(kg K), as ICAO Doc 7488/3 and ISO 2533 state it:
+   * R* / M = 8.31432 / 0.02896442 = 287.05287 (US Std Atm 1976's M0 = 0.0289644 gives 287.0531; REFERENCES.md §1).
+   */
   gasConstantJKgK: 287.05287,
   gravityMs2: STANDARD_GRAVITY_MS2,
   /** Troposphere lapse rate, K per metre of geopotential altitude. */

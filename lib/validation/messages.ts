@@ -50,6 +50,8 @@ export const FIELD_LABELS: Record<string, string> = {
   maxMassKg: "Maximum mass",
   massKg: "Mass (kg)",
   altitudeFt: "Altitude (ft)",
+  speedKt: "Speed (kt EAS)",
+  heightFt: "Height (ft)",
   onDate: "Move date",
   stages: "Stages",
   elements: "Lesson elements",

@@ -9,12 +9,18 @@ import { REFERENCE_AIRCRAFT, type AircraftSnapshot } from "@/lib/records/questio
 
 interface DemoAirframe {
   name: string;
+  emptyMassKg?: number;
   maxMassKg: number;
   wingAreaM2: number;
   wingSpanM: number;
   oswaldEfficiency: number;
   zeroLiftDragCoefficient: number;
   configurations?: { clean?: { maxLiftCoefficient?: number } };
+}
+
+/** The profile's clean CLmax when it gives one; nothing otherwise (never an invented value). */
+function cleanMaxLift(v: unknown): { maxLiftCoefficient?: number } {
+  return typeof v === "number" && Number.isFinite(v) && v > 0 ? { maxLiftCoefficient: v } : {};
 }
 
 /**
@@ -47,14 +53,17 @@ export async function listQuestionAircraft(schoolId: string, t?: Transaction, st
           wingSpanM: a.wingSpanM,
           zeroLiftDragCoefficient: a.zeroLiftDragCoefficient,
           oswaldEfficiency: a.oswaldEfficiency,
-          maxLiftCoefficient: a.configurations?.clean?.maxLiftCoefficient ?? 1.4,
+          // no invented CLmax: a profile without one is asked no stall-based question
+          ...cleanMaxLift(a.configurations?.clean?.maxLiftCoefficient),
         },
+        limits: { emptyMassKg: a.emptyMassKg ?? a.maxMassKg, maxMassKg: a.maxMassKg },
       });
     }
   }
   const rows = await sequelize.query<{
     id: string;
     name: string;
+    empty_mass_kg: number;
     max_mass_kg: number;
     wing_area_m2: number;
     wing_span_m: number;
@@ -76,8 +85,9 @@ export async function listQuestionAircraft(schoolId: string, t?: Transaction, st
         wingSpanM: r.wing_span_m,
         zeroLiftDragCoefficient: r.zero_lift_drag_coefficient + (r.configurations?.clean?.cd0Increment ?? 0),
         oswaldEfficiency: r.oswald_efficiency,
-        maxLiftCoefficient: r.configurations?.clean?.maxLiftCoefficient ?? 1.4,
+        ...cleanMaxLift(r.configurations?.clean?.maxLiftCoefficient),
       },
+      limits: { emptyMassKg: r.empty_mass_kg, maxMassKg: r.max_mass_kg },
     });
   }
   return [...out, ...REFERENCE_AIRCRAFT];

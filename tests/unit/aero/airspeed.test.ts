@@ -33,7 +33,7 @@ describe("EAS and TAS", () => {
   });
 
   it("the Mach number of 100 m/s at sea level is 100 / 340.294", () => {
-    // Speed of sound at sea level 340.294 m/s: ambiance Doc 7488 table (Seen, §1).
+    // Speed of sound at sea level 340.294 m/s: ICAO Doc 7488/3 table, Derived in REFERENCES.md §1.
     expectRelative(machNumber(100, 0), 100 / 340.294, 2e-6);
   });
 });

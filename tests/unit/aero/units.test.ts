@@ -28,7 +28,7 @@ import { expectInputError, expectRelative, expectWithin } from "./helpers";
 type Converter = (x: number) => number;
 
 // Each pair: library converter, its inverse, js-quantities units, and the relative tolerance set by the
-// precision of js-quantities' own factor (gentooboontoo/js-quantities src/quantities/definitions.js, Seen, §11):
+// precision of js-quantities' own factor (gentooboontoo/js-quantities src/quantities/definitions.js, Seen, REFERENCES.md §11):
 // knot 0.514444444 (8.6e-10), kph 0.277777778 (8e-10), lbf 4.448222 (8.6e-8), hp 745.699872 (5.7e-10),
 // inHg 3386.3881472 (2.5e-7 from the conventional 3386.389); ft, mph, lb, hPa are exact there.
 const PAIRS: { name: string; to: Converter; from: Converter; qtyFrom: string; qtyTo: string; tol: number }[] = [
@@ -74,7 +74,8 @@ describe("unit conversions against js-quantities (independent npm library)", () 
 
 describe("unit conversions against published exact factors", () => {
   it("1 kt = 1.852 km/h exactly, 1.150779 mph and 1.687810 ft/s", () => {
-    // edwilliams.org Aviation Formulary conversions, quoted in ahuimanu/CIDM6330 acme/avform/conversions.py (Seen, §4).
+    // Derived from the exact definitions (REFERENCES.md §4.4): 1852/1000 = 1.852; 1852/1609.344 = 1.1507794;
+    // 1852/3600/0.3048 = 1.6878099.
     expectWithin(msToKmh(ktToMs(1)), 1.852, 1e-15);
     expectWithin(msToMph(ktToMs(1)), 1.150779, 5e-7);
     expectWithin(mToFt(ktToMs(1)), 1.68781, 5e-7);
