@@ -1,7 +1,12 @@
 import "server-only";
-import { QueryTypes, type Transaction } from "sequelize";
 import { z } from "zod";
-import { sequelize } from "@/db/index";
+import {
+  lockIdempotencyKey,
+  priorIdempotentResult,
+  storeIdempotentResult,
+  withTransaction,
+  type Transaction,
+} from "@/db/access/shared/transaction";
 import { HttpError, requirePermission } from "@/lib/auth/guard";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { Permission } from "@/lib/auth/permissions";
@@ -97,14 +102,11 @@ export async function runAction<S extends z.ZodType, T>(
     }
   }
   try {
-    return await sequelize.transaction(async (t) => {
+    return await withTransaction(async (t) => {
       if (key) {
         // Serialise retries of the same key; the second waits and then sees the first result.
-        await sequelize.query(`SELECT pg_advisory_xact_lock(hashtext(:k))`, { replacements: { k: `${user.id}:${key}` }, transaction: t });
-        const [prior] = await sequelize.query<{ result: { data: T }; scope: string }>(
-          `SELECT result, scope FROM idempotency_keys WHERE person_id = :p AND key = :k`,
-          { replacements: { p: user.id, k: key }, type: QueryTypes.SELECT, transaction: t },
-        );
+        await lockIdempotencyKey(t, user.id, key);
+        const prior = await priorIdempotentResult<T>(t, user.id, key);
         if (prior) {
           if (prior.scope !== options.idempotent)
             throw new HttpError(409, "idempotencyKey: already used for another action", "idempotencyKey");
@@ -112,12 +114,7 @@ export async function runAction<S extends z.ZodType, T>(
         }
       }
       const data = await work(parsed.data, { user, t });
-      if (key) {
-        await sequelize.query(`INSERT INTO idempotency_keys (person_id, key, scope, result) VALUES (:p, :k, :s, :r::jsonb)`, {
-          replacements: { p: user.id, k: key, s: options.idempotent, r: JSON.stringify({ data: data ?? null }) },
-          transaction: t,
-        });
-      }
+      if (key) await storeIdempotentResult(t, user.id, key, options.idempotent!, data);
       return { ok: true as const, data };
     });
   } catch (e) {

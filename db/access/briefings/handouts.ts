@@ -70,3 +70,4 @@ export async function getHandoutFile(
   if (!h) return { status: "missing" };
   return { status: "ok", fileName: h.fileName, contentType: h.contentType, content: h.content };
 }
+export type { HandoutContentType };

@@ -1,4 +1,4 @@
-import type { HandoutContentType } from "@/db/models/briefing";
+import type { HandoutContentType } from "@/db/access/briefings/handouts";
 
 // Handout files: what the bytes are (from their first bytes, never from the name), and a
 // download name that is safe in a Content-Disposition header.
