@@ -8,16 +8,18 @@ import { groundLogStudentsFor, mayViewGroundLog } from "@/db/access/ground-log/v
 import { listMakeupFor } from "@/db/access/ground-log/list-makeup";
 import { listSessions } from "@/db/access/timetable/list-sessions";
 import { getSchool } from "@/db/access/shared/school";
-import { hoursLabel, dateInZone } from "@/lib/time";
+import { hoursLabel, dateInZone, formatDay } from "@/lib/time";
 import { now } from "@/lib/clock";
 import { ATTENDANCE_LABELS } from "@/lib/timetable/schema";
 import { MakeupActions } from "./_components/makeup-actions";
 import { PrintButton } from "./_components/print-button";
+import { MAKEUP_STATE_WORDS } from "@/lib/labels";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 export const metadata: Metadata = { title: "Ground log" };
 export const dynamic = "force-dynamic";
 
-const STATE_LABEL = { open: "Open", scheduled: "Scheduled", done: "Done", waived: "Waived" } as const;
+const STATE_LABEL = MAKEUP_STATE_WORDS;
 const CLOSED_BY = {
   session: "by a later session",
   one_to_one: "by a one-to-one briefing",
@@ -98,7 +100,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
                   {hoursLabel(hours.creditedMinutes, hours.minimumMinutes)}
                 </p>
                 <p className="text-caption text-ink-soft">{hours.courseCode}: credited time only, against the course minimum.</p>
-                <div className="mt-3 overflow-x-auto" tabIndex={0} role="region" aria-label="Hours per stage, scrolls sideways">
+                <ScrollArea label="Hours per stage, scrolls sideways" className="mt-3">
                   <table className="data-table">
                     <caption className="sr-only">Credited hours per stage</caption>
                     <thead>
@@ -128,7 +130,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
                       )}
                     </tbody>
                   </table>
-                </div>
+                </ScrollArea>
               </>
             ) : (
               <p className="mt-1 text-ink-soft">Not enrolled on a course at the moment.</p>
@@ -148,7 +150,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
               {log.map((l) => (
                 <li key={l.entryId} className="py-2">
                   <p className="flex justify-between gap-2">
-                    <span className="num font-semibold">{l.date}</span>
+                    <span className="num font-semibold">{formatDay(l.date)}</span>
                     <span className="num">
                       {hoursLabel(l.durationMinutes)} · {ATTENDANCE_LABELS[l.status]}
                     </span>
@@ -162,12 +164,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
               ))}
               {log.length === 0 && <li className="py-2 text-ink-soft">No entries yet.</li>}
             </ol>
-            <div
-              className="mt-2 hidden overflow-x-auto sm:block print:block print:overflow-visible"
-              tabIndex={0}
-              role="region"
-              aria-label="Logbook lines, scrolls sideways"
-            >
+            <ScrollArea label="Logbook lines, scrolls sideways" className="mt-2 hidden sm:block print:block print:overflow-visible">
               <table className="data-table" data-testid="logbook">
                 <caption className="sr-only">Logbook lines, one per ground-training entry</caption>
                 <thead>
@@ -185,7 +182,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
                 <tbody>
                   {log.map((l) => (
                     <tr key={l.entryId}>
-                      <td className="num whitespace-nowrap">{l.date}</td>
+                      <td className="num whitespace-nowrap">{formatDay(l.date)}</td>
                       <td className="num text-right whitespace-nowrap">{hoursLabel(l.durationMinutes)}</td>
                       <td>
                         {ATTENDANCE_LABELS[l.status]}
@@ -205,7 +202,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
                   )}
                 </tbody>
               </table>
-            </div>
+            </ScrollArea>
             <p className="mt-2 text-caption text-ink-soft">
               Printed from {school.name}. Entries are never edited: a correction is an amendment and the original stays on record.
             </p>
@@ -215,7 +212,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
             {makeup.length === 0 ? (
               <p className="mt-1 text-ink-soft">None: nothing missed.</p>
             ) : (
-              <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Make-up items, scrolls sideways">
+              <ScrollArea label="Make-up items, scrolls sideways" className="mt-2">
                 <table className="data-table" data-testid="makeup">
                   <thead>
                     <tr>
@@ -260,7 +257,10 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
                                 itemId={m.id}
                                 state={m.state}
                                 canWaive={can(user, "makeup.waive")}
-                                sessions={upcoming.map((s) => ({ id: s.id, label: `${s.date} ${s.startLocal} ${s.briefingTitle}` }))}
+                                sessions={upcoming.map((s) => ({
+                                  id: s.id,
+                                  label: `${formatDay(s.date)} ${s.startLocal} ${s.briefingTitle}`,
+                                }))}
                               />
                             )}
                           </td>
@@ -269,7 +269,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
                     ))}
                   </tbody>
                 </table>
-              </div>
+              </ScrollArea>
             )}
           </section>
         </>

@@ -3,7 +3,8 @@ import Link from "next/link";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { verifyChain, listAuditEvents } from "@/db/access/records/audit-chain";
 import { getSchool } from "@/db/access/shared/school";
-import { formatInZone } from "@/lib/time";
+import { formatDayTime } from "@/lib/time";
+import { ScrollArea } from "@/components/ui/scroll-area";
 
 export const metadata: Metadata = { title: "Audit chain" };
 export const dynamic = "force-dynamic";
@@ -44,7 +45,7 @@ export default async function ChainPage() {
       </section>
       <section className="card" aria-labelledby="latest">
         <h2 id="latest">Latest events</h2>
-        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Latest audit events">
+        <ScrollArea label="Latest audit events" className="mt-2">
           <table className="data-table text-caption">
             <thead>
               <tr>
@@ -59,7 +60,7 @@ export default async function ChainPage() {
               {events.map((e) => (
                 <tr key={e.id}>
                   <td className="num">{e.position}</td>
-                  <td className="num whitespace-nowrap">{formatInZone(e.occurredAt, school.timeZone, "d MMM yyyy HH:mm:ss")}</td>
+                  <td className="num whitespace-nowrap">{formatDayTime(e.occurredAt, school.timeZone, { seconds: true })}</td>
                   <td>{e.actorName ?? "—"}</td>
                   <td>
                     {e.action} · {e.recordType}
@@ -69,7 +70,7 @@ export default async function ChainPage() {
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollArea>
       </section>
     </div>
   );
