@@ -32,6 +32,10 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/roster", label: "Roster", permission: "roster.manage", group: "School" },
   { href: "/mail", label: "Mail tray", permission: "mail.tray", group: "School" },
   { href: "/mail/notes", label: "Notes for sponsors", permission: "sponsornotes.write", group: "School" },
+  { href: "/mail/letters", label: "Weekly letters", permission: "mail.letters", group: "School" },
+  // the student's and the sponsor's own pages
+  { href: "/sharing", label: "Sharing", permission: "sharing.manage" },
+  { href: "/letters", label: "Weekly letters", permission: "letters.received" },
   { href: "/settings", label: "Settings", permission: "settings.edit", group: "School" },
 ];
 

@@ -28,10 +28,10 @@ const extensions: { name: string; run: (ctx: SeedContext) => Promise<void> }[] =
   { name: "briefings", run: seedBriefings },
   // the Timetable schedules the briefings: keep it after the briefings seed
   { name: "timetable", run: seedTimetable },
-  // a note for the demo sponsor's Weekly letter
-  { name: "mail", run: seedMail },
-  // records sign off items that the timetable's attendance and make-up items may touch: keep it last
+  // records sign off items that the timetable's attendance and make-up items may touch
   { name: "records", run: seedRecords },
+  // a note for the demo sponsor and the Weekly letters already sent, composed from everything above: keep it last
+  { name: "mail", run: seedMail },
 ];
 
 export async function runSeedExtensions(ctx: SeedContext): Promise<void> {

@@ -58,6 +58,7 @@ export const WEEKLY_LETTER_SECTION_FLAGS = {
   attendance: ["shares_attendance"],
   hours: ["shares_hours"],
   progress: SPONSOR_SHARE_FLAGS.progress ?? [],
+  outcomes: ["shares_outcomes"],
   nextWeek: SPONSOR_SHARE_FLAGS.schedule ?? [],
 } as const satisfies Record<string, readonly string[]>;
 
@@ -67,5 +68,11 @@ export type WeeklyLetterSection = keyof typeof WEEKLY_LETTER_SECTION_FLAGS;
 export function weeklyLetterSections(flags: Readonly<Record<string, boolean | undefined>>): Record<WeeklyLetterSection, boolean> {
   const open = (s: WeeklyLetterSection) =>
     WEEKLY_LETTER_SECTION_FLAGS[s].length > 0 && WEEKLY_LETTER_SECTION_FLAGS[s].every((f) => !!flags[f]);
-  return { attendance: open("attendance"), hours: open("hours"), progress: open("progress"), nextWeek: open("nextWeek") };
+  return {
+    attendance: open("attendance"),
+    hours: open("hours"),
+    progress: open("progress"),
+    outcomes: open("outcomes"),
+    nextWeek: open("nextWeek"),
+  };
 }

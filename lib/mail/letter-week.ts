@@ -1,7 +1,9 @@
+import { TZDate } from "@date-fns/tz";
+import { addDays as addCalendarDays } from "date-fns";
 import { dateInZone, formatInZone } from "@/lib/time";
 
 // The Weekly letter's calendar (pure): which week a clock value falls in, in the school's zone,
-// and whether that week's letter is due yet.
+// whether that week's letter is due yet, and the window a letter covers.
 
 /** Local hour on the letter day from which the Weekly letter goes out. */
 export const LETTER_HOUR = 17;
@@ -21,4 +23,37 @@ export function letterWeek(at: Date, timeZone: string, letterDay: number): { wee
   const todayIdx = isoDow - 1;
   const due = todayIdx > letterIdx || (todayIdx === letterIdx && hour >= LETTER_HOUR);
   return { weekStart, due };
+}
+
+/**
+ * What one letter covers, from the moment it is written (`at`), so no day falls between two
+ * letters and none is told twice: "this week" is the seven days before `at`, "the week ahead" the
+ * seven days after it (same local time of day, so a change of clocks moves nothing). Dates are the
+ * first and last calendar days of each part in the school's zone, for the words of the letter.
+ */
+export interface LetterWindow {
+  pastFrom: Date;
+  /** = the sending moment */
+  at: Date;
+  nextTo: Date;
+  pastFirstDay: string;
+  pastLastDay: string;
+  nextFirstDay: string;
+  nextLastDay: string;
+}
+
+export function letterWindow(at: Date, timeZone: string): LetterWindow {
+  const day = dateInZone(at, timeZone);
+  const shift = (days: number) => new Date(addCalendarDays(new TZDate(at.getTime(), timeZone), days).getTime());
+  const pastFrom = shift(-7);
+  const nextTo = shift(7);
+  return {
+    pastFrom,
+    at,
+    nextTo,
+    pastFirstDay: dateInZone(pastFrom, timeZone),
+    pastLastDay: day,
+    nextFirstDay: day,
+    nextLastDay: dateInZone(nextTo, timeZone),
+  };
 }

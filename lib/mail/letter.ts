@@ -16,7 +16,8 @@ import {
   type ComposedMail,
   type MailSchool,
 } from "./layout";
-import { ATTENDANCE_WORDS } from "@/lib/labels";
+import { ATTENDANCE_WORDS, CHECK_OUTCOME_WORDS } from "@/lib/labels";
+import { assessWeek } from "./week-assessment";
 
 export type AttendanceStatus = "attended" | "late" | "left_early" | "absent_excused" | "absent";
 
@@ -30,19 +31,25 @@ export const ATTENDANCE_LABEL: Record<AttendanceStatus, string> = ATTENDANCE_WOR
 export interface WeeklyLetterData {
   sponsorName: string;
   studentName: string;
-  /** Monday of the week, "yyyy-MM-dd" */
+  /** Monday of the week, "yyyy-MM-dd" (names the letter in its subject) */
   weekStart: string;
+  /** the days the letter covers: the seven before it was written and the seven after (lib/mail/letter-week.ts) */
+  window?: { pastFirstDay: string; pastLastDay: string; nextFirstDay: string; nextLastDay: string };
   /** shares_attendance */
   attendance?: { startsAt: Date; title: string; status: AttendanceStatus; creditedMinutes: number }[];
   /** shares_hours */
   hours?: { weekMinutes: number; totalMinutes: number; minimumMinutes: number; courseTitle: string };
-  /** shares_progress */
+  /** shares_progress: the facts; the headline and reasons come from one assessment (assessWeek) */
   progress?: {
     signedItems: { code: string; title: string }[];
     stagesPassed: { code: string; title: string }[];
-    behindReasons: string[];
     makeupsToBook: { code: string; title: string }[];
+    lateAssignments: number;
+    /** null when attendance is not shared with this sponsor */
+    missedSessions: number | null;
   };
+  /** shares_outcomes: oral checks of the week and their results */
+  outcomes?: { occurredAt: Date; outcome: "meets" | "not_yet"; items: string }[];
   /** shares_schedule */
   nextWeek?: { startsAt: Date; endsAt: Date; title: string; room: string }[];
   /** a note an instructor wrote for the sponsor */
@@ -71,14 +78,15 @@ export function progressBar(done: number, total: number, label: string): Block {
   };
 }
 
-function week(weekStart: string): string {
-  const end = new Date(Date.parse(`${weekStart}T12:00:00Z`) + 6 * 86_400_000).toISOString().slice(0, 10);
-  return `${dateLong(weekStart)} to ${dateLong(end)}`;
+function week(d: WeeklyLetterData): string {
+  if (d.window) return `${dateLong(d.window.pastFirstDay)} to ${dateLong(d.window.pastLastDay)}`;
+  const end = new Date(Date.parse(`${d.weekStart}T12:00:00Z`) + 6 * 86_400_000).toISOString().slice(0, 10);
+  return `${dateLong(d.weekStart)} to ${dateLong(end)}`;
 }
 
 export function composeWeeklyLetter(d: WeeklyLetterData, school: MailSchool): ComposedMail {
   const blocks: Block[] = [];
-  blocks.push(para(`Here is ${d.studentName}'s week at ${school.name} ground school, ${week(d.weekStart)}.`));
+  blocks.push(para(`Here is ${d.studentName}'s week at ${school.name} ground school, ${week(d)}.`));
 
   if (d.attendance) {
     blocks.push(heading("This week's sessions"));
@@ -114,11 +122,14 @@ export function composeWeeklyLetter(d: WeeklyLetterData, school: MailSchool): Co
   if (d.progress) {
     const p = d.progress;
     blocks.push(heading("Progress"));
-    if (p.behindReasons.length === 0) blocks.push(para(`On track: nothing is outstanding.`));
-    else {
-      blocks.push(para(`Behind, because:`));
-      blocks.push(bullets(p.behindReasons));
-    }
+    const a = assessWeek({
+      makeupsToBook: p.makeupsToBook.length,
+      missedSessions: p.missedSessions,
+      lateAssignments: p.lateAssignments,
+      milestones: p.signedItems.length + p.stagesPassed.length,
+    });
+    blocks.push(para(a.headline));
+    if (a.reasons.length > 0) blocks.push(bullets(a.reasons));
     const milestones = [
       ...p.signedItems.map((i) => `Signed off: ${i.code} ${i.title}`),
       ...p.stagesPassed.map((s) => `Stage check passed: ${s.code} ${s.title}`),
@@ -134,8 +145,19 @@ export function composeWeeklyLetter(d: WeeklyLetterData, school: MailSchool): Co
     }
   }
 
+  if (d.outcomes) {
+    blocks.push(heading("Check results"));
+    if (d.outcomes.length === 0) blocks.push(para("No oral checks this week."));
+    else
+      blocks.push(
+        facts(
+          d.outcomes.map((c) => [whenShort(c.occurredAt, school.timeZone), `Oral check on ${c.items}: ${CHECK_OUTCOME_WORDS[c.outcome]}`]),
+        ),
+      );
+  }
+
   if (d.nextWeek) {
-    blocks.push(heading("Next week"));
+    blocks.push(heading(d.window ? `Coming up, to ${dateLong(d.window.nextLastDay)}` : "Next week"));
     if (d.nextWeek.length === 0) blocks.push(para("No sessions are planned yet."));
     else
       blocks.push(

@@ -1,11 +1,12 @@
 import "server-only";
-import { inTransaction } from "@/db/access/mail/connection";
+import { inTransaction, type Transaction } from "@/db/access/mail/connection";
 import { enqueueMail } from "@/db/access/mail/outbox";
 import { overdueAssignments } from "@/db/access/mail/overdue";
 import { cancelStaleReminders, dueReminders } from "@/db/access/mail/session-reminders";
 import { weeklyLetterData } from "@/db/access/mail/weekly-letter-data";
-import { letterSchools, weeklyLetterRecipients } from "@/db/access/mail/weekly-letter-recipients";
-import { DEFAULT_SETTINGS } from "@/db/access/shared/school";
+import { letterSchools, weeklyLetterRecipients, type LetterRecipient, type LetterSchool } from "@/db/access/mail/weekly-letter-recipients";
+import { DEFAULT_SETTINGS, getSchool } from "@/db/access/shared/school";
+import { letterOfWeek, sendableLetterLink } from "@/db/access/mail/send-letter-now";
 import { appLink, composeMail } from "./compose";
 import { composeWeeklyLetter } from "./letter";
 import { letterWeek } from "./letter-week";
@@ -101,6 +102,51 @@ export function unsubscribeLinks(sponsorId: string, studentId: string) {
   return { unsubscribeUrl: appLink(`/unsubscribe/${token}`), oneClickUrl: appLink(`/api/unsubscribe?token=${encodeURIComponent(token)}`) };
 }
 
+/** One sponsor's letter about one student, written at `at` (the worker, the chief's preview and "send now"). */
+export async function composeLetterFor(link: LetterRecipient, school: LetterSchool, at: Date, t?: Transaction) {
+  const { weekStart } = letterWeek(at, school.timeZone, school.settings.weeklyLetterDay ?? DEFAULT_SETTINGS.weeklyLetterDay);
+  const data = await weeklyLetterData(link, school, weekStart, at, t);
+  const mail = composeWeeklyLetter(
+    { ...data, ...unsubscribeLinks(link.sponsorId, link.studentId) },
+    { name: school.name, timeZone: school.timeZone, senderName: school.settings.mailSenderName },
+  );
+  return { weekStart, idempotencyKey: `weekly.letter:${link.sponsorId}:${link.studentId}:${weekStart}`, mail };
+}
+
+/** Writes one letter to the outbox in `t`; false when this week's letter for the pair is already written. */
+export async function enqueueLetter(t: Transaction, link: LetterRecipient, school: LetterSchool, at: Date): Promise<boolean> {
+  const { idempotencyKey, mail } = await composeLetterFor(link, school, at, t);
+  return enqueueMail(t, {
+    schoolId: school.id,
+    kind: "weekly.letter",
+    idempotencyKey,
+    recipientId: link.sponsorId,
+    to: link.sponsorEmail,
+    dueAt: at,
+    ...mail,
+  });
+}
+
+/**
+ * The chief's "send now": this week's letter for one pair, written at `at` under the week's key
+ * (one letter however often it is clicked; the Friday run then finds it written).
+ */
+export async function sendLetterNow(
+  t: Transaction,
+  caller: { schoolId: string },
+  sponsorId: string,
+  studentId: string,
+  at: Date,
+): Promise<{ outboxId: string; written: boolean; state: string }> {
+  const link = await sendableLetterLink(caller, sponsorId, studentId, t);
+  const school = await getSchool(caller.schoolId, t);
+  const written = await enqueueLetter(t, link, school, at);
+  const { weekStart } = letterWeek(at, school.timeZone, school.settings.weeklyLetterDay ?? DEFAULT_SETTINGS.weeklyLetterDay);
+  const row = await letterOfWeek(`weekly.letter:${sponsorId}:${studentId}:${weekStart}`, t);
+  if (!row) throw new Error("letter not written");
+  return { outboxId: row.id, written, state: row.state };
+}
+
 /** The Weekly letter to each sponsor who agreed to it, once per week, from the school's letter day on. */
 export async function produceWeeklyLetters(at: Date): Promise<number> {
   let written = 0;
@@ -108,23 +154,7 @@ export async function produceWeeklyLetters(at: Date): Promise<number> {
     const { weekStart, due } = letterWeek(at, school.timeZone, school.settings.weeklyLetterDay ?? DEFAULT_SETTINGS.weeklyLetterDay);
     if (!due) continue;
     for (const link of await weeklyLetterRecipients(school.id, weekStart)) {
-      const wrote = await inTransaction(async (t) => {
-        const data = await weeklyLetterData(link, school, weekStart, at, t);
-        const mail = composeWeeklyLetter(
-          { ...data, ...unsubscribeLinks(link.sponsorId, link.studentId) },
-          { name: school.name, timeZone: school.timeZone, senderName: school.settings.mailSenderName },
-        );
-        return enqueueMail(t, {
-          schoolId: school.id,
-          kind: "weekly.letter",
-          idempotencyKey: `weekly.letter:${link.sponsorId}:${link.studentId}:${weekStart}`,
-          recipientId: link.sponsorId,
-          to: link.sponsorEmail,
-          dueAt: at,
-          ...mail,
-        });
-      });
-      if (wrote) written++;
+      if (await inTransaction((t) => enqueueLetter(t, link, school, at))) written++;
     }
   }
   return written;

@@ -29,7 +29,13 @@ export interface LetterRecipient {
   studentId: string;
   studentName: string;
   /** the sponsor link's share flags, by column name (what the letter may carry) */
-  flags: { shares_attendance: boolean; shares_hours: boolean; shares_progress: boolean; shares_schedule: boolean };
+  flags: {
+    shares_attendance: boolean;
+    shares_hours: boolean;
+    shares_progress: boolean;
+    shares_outcomes: boolean;
+    shares_schedule: boolean;
+  };
 }
 
 /** The letters still to write for the week starting `weekStart` (yyyy-MM-dd), ordered by sponsor, then student. */
@@ -49,9 +55,10 @@ export async function weeklyLetterRecipients(schoolId: string, weekStart: string
       shares_attendance: boolean;
       shares_hours: boolean;
       shares_progress: boolean;
+      shares_outcomes: boolean;
       shares_schedule: boolean;
     }>(
-      `SELECT l.student_id, st.name AS student_name, l.shares_attendance, l.shares_hours, l.shares_progress, l.shares_schedule
+      `SELECT l.student_id, st.name AS student_name, l.shares_attendance, l.shares_hours, l.shares_progress, l.shares_outcomes, l.shares_schedule
          FROM sponsor_links l JOIN people st ON st.id = l.student_id
         WHERE l.sponsor_id = :sp AND st.school_id = :school AND st.active AND ${scope.sql}
           AND NOT EXISTS (SELECT 1 FROM mail_unsubscribes u WHERE u.sponsor_id = l.sponsor_id AND u.student_id = l.student_id AND u.kind = 'weekly.letter')
@@ -70,6 +77,7 @@ export async function weeklyLetterRecipients(schoolId: string, weekStart: string
           shares_attendance: r.shares_attendance,
           shares_hours: r.shares_hours,
           shares_progress: r.shares_progress,
+          shares_outcomes: r.shares_outcomes,
           shares_schedule: r.shares_schedule,
         },
       });

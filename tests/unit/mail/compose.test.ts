@@ -96,13 +96,14 @@ describe("the Weekly letter", () => {
         progress: {
           signedItems: [{ code: "AER-01", title: "Zero-lift drag" }],
           stagesPassed: [],
-          behindReasons: ["one make-up item is still to be booked"],
           makeupsToBook: [{ code: "AER-02", title: "Lift-dependent drag" }],
+          lateAssignments: 0,
+          missedSessions: 0,
         },
       },
       school,
     );
-    expect(m.text).toContain("Behind, because:\n\n- one make-up item is still to be booked");
+    expect(m.text).toContain("Behind: one thing needs catching up.\n\n- one make-up item is still to be booked");
     expect(m.text).toContain("Signed off: AER-01 Zero-lift drag");
     expect(m.text).toContain("Action needed");
     expect(m.text).toContain("- AER-02 Lift-dependent drag");

@@ -4,6 +4,7 @@ const TABS = [
   { href: "/mail", label: "Mail tray" },
   { href: "/mail/outbox", label: "Outbox" },
   { href: "/mail/notes", label: "Notes for sponsors" },
+  { href: "/mail/letters", label: "Weekly letters" },
 ] as const;
 
 export function MailTabs({ current, show }: { current: (typeof TABS)[number]["href"]; show: readonly string[] }) {
