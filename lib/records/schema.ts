@@ -2,7 +2,7 @@ import { z } from "zod";
 import { calendarDate as realDate, dateTime } from "@/lib/validation/dates";
 import { LEVELS, QUESTION_OUTCOMES } from "./outcome";
 import { WATCH_NOTE_KINDS } from "./watch-notes";
-import { QUESTION_KINDS, AIRCRAFT_SOURCE_KINDS, type AircraftSourceKind, type QuestionKind } from "./questions";
+import { QUESTION_KINDS, AIRCRAFT_SOURCE_KINDS, ANSWER_MODES, type AircraftSourceKind, type QuestionKind } from "./questions";
 
 // The Records area's zod schemas, used by both the server actions and the forms (and the
 // register's query string). The oral-check form holds text fields; `checkFormSchema` checks
@@ -51,6 +51,8 @@ export const questionSchema = z.object({
         speedKt: num(1000).optional(),
         heightFt: num(60_000).optional(),
       }),
+      /** rule of thumb accepted or exact answer asked (lib/records/questions.ts); exact when absent */
+      answerMode: z.enum(ANSWER_MODES).optional(),
     })
     .optional(),
   studentFigure: z.number().finite().nullable().optional(),
@@ -98,6 +100,7 @@ export const checkFormQuestionSchema = z
     altitudeFt: optionalNumber,
     speedKt: optionalNumber,
     heightFt: optionalNumber,
+    answerMode: z.enum(ANSWER_MODES),
     studentFigure: optionalNumber,
     answerSummary: z.string().max(MAX_TEXT),
     outcome: z.enum(QUESTION_OUTCOMES, MSG.outcome),
@@ -160,7 +163,12 @@ export function checkFormToInput(studentId: string, v: CheckFormValues) {
         correctiveGiven: q.correctiveGiven,
         generated:
           q.mode === "generated"
-            ? { kind: q.kind as QuestionKind, aircraft: { kind: kind as AircraftSourceKind, id: id ?? "" }, inputs: generatorInputsOf(q) }
+            ? {
+                kind: q.kind as QuestionKind,
+                aircraft: { kind: kind as AircraftSourceKind, id: id ?? "" },
+                inputs: generatorInputsOf(q),
+                answerMode: q.answerMode,
+              }
             : undefined,
         studentFigure: q.mode === "generated" && q.studentFigure.trim() !== "" ? Number(q.studentFigure) : null,
       };

@@ -18,6 +18,7 @@ import {
   generateQuestion,
   QuestionInputError,
   type AircraftSourceKind,
+  type AnswerMode,
   type AircraftSnapshot,
   type GeneratedQuestion,
   type QuestionInputs,
@@ -43,7 +44,14 @@ export interface QuestionInput {
   required: boolean;
   prompted: boolean;
   correctiveGiven: boolean;
-  generated?: { kind: QuestionKind; aircraft: { kind: AircraftSourceKind; id: string }; inputs: QuestionInputs } | undefined;
+  generated?:
+    | {
+        kind: QuestionKind;
+        aircraft: { kind: AircraftSourceKind; id: string };
+        inputs: QuestionInputs;
+        answerMode?: AnswerMode | undefined;
+      }
+    | undefined;
   studentFigure?: number | null | undefined;
 }
 
@@ -63,7 +71,7 @@ function buildGenerated(q: NonNullable<QuestionInput["generated"]>, aircraft: Ai
   const snapshot = aircraft.find((a) => a.source.kind === q.aircraft.kind && a.source.id === q.aircraft.id);
   if (!snapshot) throw new HttpError(400, `${field}.aircraft: no such aircraft`, `${field}.aircraft`);
   try {
-    return generateQuestion(q.kind, snapshot, q.inputs);
+    return generateQuestion(q.kind, snapshot, q.inputs, { answerMode: q.answerMode });
   } catch (e) {
     if (e instanceof QuestionInputError) throw new HttpError(400, `${field}.inputs.${e.message}`, `${field}.inputs.${e.field}`);
     if (isAeroInputError(e)) throw new HttpError(400, `${field}.inputs: ${e.message}`, `${field}.inputs`);

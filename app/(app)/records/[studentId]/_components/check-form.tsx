@@ -15,10 +15,17 @@ import {
   type LevelOfLearning,
 } from "@/lib/records/outcome";
 import {
+  ANSWER_MODES,
+  ANSWER_MODE_LABEL,
+  QUESTION_INPUTS_NEEDED,
+  QUESTION_INPUT_LABEL,
   QUESTION_KINDS,
   QUESTION_KIND_LABEL,
+  QuestionInputError,
+  RULE_OF_THUMB,
   generateQuestion,
   figureWithinTolerance,
+  toleranceText,
   type AircraftSnapshot,
   type QuestionKind,
 } from "@/lib/records/questions";
@@ -52,13 +59,9 @@ function localNow(): string {
   d.setMinutes(d.getMinutes() - d.getTimezoneOffset());
   return d.toISOString().slice(0, 16);
 }
-const NEEDS: Record<QuestionKind, ("massKg" | "altitudeFt" | "speedKt" | "heightFt")[]> = {
-  vmd: ["massKg", "altitudeFt"],
-  vmd_heavier: ["massKg"],
-  stability_side: ["massKg", "altitudeFt", "speedKt"],
-  glide_distance: ["heightFt"],
-};
-const INPUT_LABEL = { massKg: "Mass (kg)", altitudeFt: "Altitude (ft)", speedKt: "Speed (kt EAS)", heightFt: "Height (ft)" } as const;
+// the inputs of each kind and the boxes' labels (with units) come from lib/records/questions.ts, whose refusals use the same words
+const NEEDS: Record<QuestionKind, readonly ("massKg" | "altitudeFt" | "speedKt" | "heightFt")[]> = QUESTION_INPUTS_NEEDED;
+const INPUT_LABEL = QUESTION_INPUT_LABEL;
 
 // Nothing starts as a pass: the item (when the check covers more than one), the outcome and
 // whether the element is required are chosen by the examiner for every question.
@@ -73,6 +76,7 @@ function blankQuestion(itemId: string, aircraftKey: string): BlankQuestion {
     altitudeFt: "0",
     speedKt: "",
     heightFt: "",
+    answerMode: "exact",
     studentFigure: "",
     answerSummary: "",
     outcome: undefined,
@@ -388,9 +392,9 @@ function QuestionFields({
     const snap = aircraft.find((a) => `${a.source.kind}:${a.source.id}` === q.aircraftKey);
     try {
       if (!snap) throw new Error("choose an aircraft");
-      generated = generateQuestion(q.kind, snap, generatorInputsOf(q));
+      generated = generateQuestion(q.kind, snap, generatorInputsOf(q), { answerMode: RULE_OF_THUMB[q.kind] ? q.answerMode : "exact" });
     } catch (e) {
-      problem = e instanceof Error ? e.message : "check the inputs";
+      problem = e instanceof QuestionInputError ? e.boxMessage : e instanceof Error ? e.message : "check the inputs";
     }
   }
   const within = generated && q && q.studentFigure.trim() !== "" ? figureWithinTolerance(generated, Number(q.studentFigure)) : null;
@@ -451,6 +455,21 @@ function QuestionFields({
               </select>
             </div>
           </div>
+          {RULE_OF_THUMB[q.kind] && (
+            <div className="max-w-md">
+              <label htmlFor={`${px}${p}.answerMode`} className="field-label">
+                Answer accepted
+              </label>
+              <select id={`${px}${p}.answerMode`} {...register(`${p}.answerMode`)} className="field-input">
+                {ANSWER_MODES.map((m) => (
+                  <option key={m} value={m}>
+                    {ANSWER_MODE_LABEL[m]}
+                    {m === "rule_of_thumb" ? ` (${RULE_OF_THUMB[q.kind]})` : ""}
+                  </option>
+                ))}
+              </select>
+            </div>
+          )}
           <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
             {NEEDS[q.kind].map((f) => (
               <div key={f}>
@@ -467,7 +486,7 @@ function QuestionFields({
               <p>{generated.text}</p>
               <p className="text-caption">
                 <span className="font-semibold">Answer:</span> {generated.answer.display}
-                {generated.tolerance ? ` · accepted within ${generated.tolerance.relative * 100} %` : ""}
+                {generated.tolerance ? ` · ${toleranceText(generated)}` : ""}
               </p>
             </div>
           ) : (
