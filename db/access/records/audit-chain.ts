@@ -106,3 +106,44 @@ export async function listAuditEvents(schoolId: string, opts: { recordId?: strin
     )
   ).map((r) => ({ ...r, position: Number(r.position) }));
 }
+
+/**
+ * Verifies only the events written since the school's checkpoint (the last verified position and
+ * head), then moves the checkpoint to the new head: three queries, whatever the chain's length.
+ * A full walk from position 1 stays `verifyChain`, the deliberate act on the chain page.
+ */
+export async function verifyChainSinceCheckpoint(schoolId: string): Promise<ChainVerification & { since: number }> {
+  const [cp] = await sequelize.query<{ chain_pos: string; head_hash: string }>(
+    `SELECT chain_pos, head_hash FROM audit_checkpoints WHERE school_id = :schoolId`,
+    { replacements: { schoolId }, type: QueryTypes.SELECT },
+  );
+  const since = cp ? Number(cp.chain_pos) : 0;
+  const [r] = await sequelize.query<{
+    ok: boolean;
+    checked: string;
+    head_hash: string;
+    broken_pos: string | null;
+    broken_seq: string | null;
+    broken_id: string | null;
+    problem: string | null;
+  }>(`SELECT * FROM audit_verify_from(:schoolId, :since, :hash)`, {
+    replacements: { schoolId, since, hash: cp?.head_hash ?? "0".repeat(64) },
+    type: QueryTypes.SELECT,
+  });
+  if (!r) throw new Error("audit_verify_from returned nothing");
+  const checked = Number(r.checked);
+  if (r.ok)
+    await sequelize.query(
+      `INSERT INTO audit_checkpoints (school_id, chain_pos, head_hash, verified_at) VALUES (:schoolId, :pos, :hash, :at)
+       ON CONFLICT (school_id) DO UPDATE SET chain_pos = EXCLUDED.chain_pos, head_hash = EXCLUDED.head_hash, verified_at = EXCLUDED.verified_at
+        WHERE audit_checkpoints.chain_pos <= EXCLUDED.chain_pos`,
+      { replacements: { schoolId, pos: checked, hash: r.head_hash, at: now() } },
+    );
+  return {
+    ok: r.ok,
+    checked,
+    headHash: r.head_hash,
+    since,
+    broken: r.ok ? null : { position: Number(r.broken_pos), seq: Number(r.broken_seq), id: r.broken_id ?? "", problem: r.problem ?? "" },
+  };
+}

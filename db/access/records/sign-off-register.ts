@@ -1,12 +1,12 @@
 import "server-only";
 import type { CurrentUser } from "@/lib/auth/session";
 import { dateInZone } from "@/lib/time";
-import { standingKey, watchNoteKey, watchNotes, type SignerStanding, type WatchNote } from "@/lib/records/watch-notes";
+import { standingKey, watchNoteKey, watchNotes, type WatchNote } from "@/lib/records/watch-notes";
 import { OUTCOME_LABEL } from "@/lib/records/outcome";
 import { watchNoteReviews } from "./watch-note-reviews";
 import { getSchool } from "../shared/school";
 import { registerFacts } from "./register-facts";
-import { signerStanding } from "./sign-off-plan";
+import { signerStandings } from "./signer-standings";
 
 // The Sign-off register: sign-offs and stage checks as rows, each with its watch notes
 // (the rules are in lib/records/watch-notes.ts), filtered and newest first.
@@ -68,11 +68,7 @@ export async function signOffRegister(
   const school = await getSchool(user.schoolId);
   const tz = school.timeZone;
   const facts = await registerFacts(user.schoolId, opts.studentId ?? null);
-  const standings = new Map<string, SignerStanding>();
-  for (const s of facts.signOffs) {
-    const key = standingKey(s);
-    if (!standings.has(key)) standings.set(key, await signerStanding(s.signer_id, s.course_id, s.signed_on));
-  }
+  const standings = await signerStandings(facts.signOffs);
   const notes = watchNotes({
     timeZone: tz,
     lateEntryDays: school.settings.lateEntryDays,

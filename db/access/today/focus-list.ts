@@ -3,7 +3,7 @@ import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
 import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
-import { listCohorts, listCohortMembers } from "../cohorts/list-cohorts";
+import { listCohorts } from "../cohorts/list-cohorts";
 import { listSponsoredStudents } from "../cohorts/sponsor-links";
 import { activeEnrolment } from "../shared/enrolment";
 
@@ -33,12 +33,15 @@ export async function todayFocusList(user: CurrentUser): Promise<{ title: string
     };
   }
   if (can(user, "today.teaching")) {
-    const cohorts = await listCohorts(user.schoolId, { leadInstructorId: user.id });
-    const rows: TodayFocusRow[] = [];
-    for (const c of cohorts) {
-      for (const m of await listCohortMembers(c.id)) rows.push({ id: m.studentId, primary: m.name, secondary: c.name });
-    }
-    return { title: "Your students", rows };
+    // one query for every cohort they lead (current members, by cohort then name)
+    const members = await sequelize.query<{ id: string; name: string; cohort: string }>(
+      `SELECT m.student_id AS id, p.name, c.name AS cohort
+         FROM cohorts c JOIN cohort_memberships m ON m.cohort_id = c.id AND m.to_date IS NULL JOIN people p ON p.id = m.student_id
+        WHERE c.school_id = :school AND c.lead_instructor_id = :me
+        ORDER BY c.starts_on, c.name, p.name`,
+      { replacements: { school: user.schoolId, me: user.id }, type: QueryTypes.SELECT },
+    );
+    return { title: "Your students", rows: members.map((m) => ({ id: m.id, primary: m.name, secondary: m.cohort })) };
   }
   if (can(user, "today.learning")) {
     const enrolment = await activeEnrolment(user.schoolId, user.id);
