@@ -13,6 +13,8 @@ export interface SchoolSettings {
   /** 0 = Sunday … 6 = Saturday */
   weeklyLetterDay?: number;
   authority?: string;
+  /** The date of the students' knowledge test ("yyyy-MM-dd"), shown beside the practice test when set. */
+  knowledgeTestOn?: string;
 }
 
 export class School extends Model<InferAttributes<School>, InferCreationAttributes<School>> {

@@ -26,6 +26,7 @@ import { dateInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
 import { OutcomeBadge } from "@/app/(app)/progress/_components/outcome-badge";
 import { ScrollArea } from "@/components/ui/scroll-area";
+import { PracticeReadiness } from "@/app/(app)/practice/_components/practice-readiness";
 import { STAGE_RESULT_WORDS, words } from "@/lib/labels";
 
 export const metadata: Metadata = { title: "Student record" };
@@ -233,6 +234,8 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
           ))}
         </ul>
       </section>
+
+      <PracticeReadiness user={user} studentId={studentId} />
 
       <section className="card" aria-labelledby="history">
         <h2 id="history">Oral checks</h2>
