@@ -35,6 +35,11 @@ export const PERMISSIONS = {
   "demos.edit": { roles: ["chief", "instructor"], description: "Build, save and delete demos in Curve Lab" },
   "demos.view": { roles: ["chief", "instructor", "student"], description: "Open demos (students: only those assigned)" },
   "demos.call": { roles: ["student"], description: "Make a Call it first prediction on an assigned demo" },
+  "practice.take": {
+    roles: ["student"],
+    description: "Answer practice questions on one's own demos and syllabus items (never an oral check)",
+  },
+  "practice.view": { roles: ["chief", "instructor"], description: "See a student's practice readiness per item (scoped as Records)" },
   "demos.manage": { roles: ["chief"], description: "Change, rename and delete any demo of the school, not only one's own" },
   "briefings.edit": { roles: ["chief", "instructor"], description: "Write briefings and upload handouts" },
   "briefings.all": {
