@@ -28,7 +28,7 @@ import { expectInputError, expectRelative, expectWithin } from "./helpers";
 type Converter = (x: number) => number;
 
 // Each pair: library converter, its inverse, js-quantities units, and the relative tolerance set by the
-// precision of js-quantities' own factor (gentooboontoo/js-quantities src/quantities/definitions.js, Seen, REFERENCES.md §11):
+// precision of js-quantities' own factor (the installed npm package's unit definitions, REFERENCES.md §11):
 // knot 0.514444444 (8.6e-10), kph 0.277777778 (8e-10), lbf 4.448222 (8.6e-8), hp 745.699872 (5.7e-10),
 // inHg 3386.3881472 (2.5e-7 from the conventional 3386.389); ft, mph, lb, hPa are exact there.
 const PAIRS: { name: string; to: Converter; from: Converter; qtyFrom: string; qtyTo: string; tol: number }[] = [
