@@ -24,7 +24,7 @@ import {
 } from "@/lib/curve-lab/demo-spec";
 import { formatNumber } from "./format";
 import { MAX_CASES, datasetIndex, fillFrame, newFrame, type Frame } from "@/lib/curve-lab/chart-frame";
-import { besideRule, nearCurve, placeLabels, type Box, type LabelRequest, type Pt } from "@/lib/curve-lab/label-placement";
+import { besideRule, nearCurve, placeLabels, withinRegion, type Box, type LabelRequest, type Pt } from "@/lib/curve-lab/label-placement";
 import type { CurveSet } from "@/lib/aero";
 
 ChartJS.register(LineController, LineElement, PointElement, LinearScale);
@@ -176,6 +176,8 @@ interface TextLabel {
   weight: 400 | 600;
   /** candidate boxes, best first (built once the text is measured) */
   place: (w: number, h: number) => Box[];
+  /** last resort: candidates for the text turned to read upwards (w = its line height, h = its length) */
+  upright?: (w: number, h: number) => Box[];
 }
 
 /**
@@ -298,8 +300,28 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
           }
           return out;
         };
-        labels.push({ id: "unstable", lines: ["speed-unstable"], colour: pal.unstableText, weight: 600, place: within("left") });
-        labels.push({ id: "stable", lines: ["speed-stable"], colour: pal.stableText, weight: 600, place: within("right") });
+        // then the whole region, and last the text turned upright in a gap between rules (a phone chart)
+        const region = (side: "left" | "right") => (w: number, h: number) => [
+          ...within(side)(w, h),
+          ...withinRegion(xv, side, w, h, bounds, step),
+        ];
+        const upright = (side: "left" | "right") => (w: number, h: number) => withinRegion(xv, side, w, h, bounds, step);
+        labels.push({
+          id: "unstable",
+          lines: ["speed-unstable"],
+          colour: pal.unstableText,
+          weight: 600,
+          place: region("left"),
+          upright: upright("left"),
+        });
+        labels.push({
+          id: "stable",
+          lines: ["speed-stable"],
+          colour: pal.stableText,
+          weight: 600,
+          place: region("right"),
+          upright: upright("right"),
+        });
       }
       if (!hidden("vmd") && inside(c.vmdMs)) {
         rule(c.vmdMs, [], pal.chalk);
@@ -447,13 +469,17 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
               : t0.includes(" ")
                 ? t0.replace(" ", "\n").split("\n")
                 : null;
+        const uprightCandidates = l.upright ? l.upright(lineH * l.lines.length, w) : [];
         if (split) {
           const w2 = Math.ceil(Math.max(...split.map((t) => ctx.measureText(t).width)));
-          return { l, candidates, split, splitCandidates: l.place(w2, lineH * 2) };
+          return { l, candidates, split, splitCandidates: l.place(w2, lineH * 2), uprightCandidates };
         }
-        return { l, candidates, split: null, splitCandidates: [] as Box[] };
+        return { l, candidates, split: null, splitCandidates: [] as Box[], uprightCandidates };
       });
-      const requests: LabelRequest[] = measured.map((m) => ({ id: m.l.id, candidates: [...m.candidates, ...m.splitCandidates] }));
+      const requests: LabelRequest[] = measured.map((m) => ({
+        id: m.l.id,
+        candidates: [...m.candidates, ...m.splitCandidates, ...m.uprightCandidates],
+      }));
       const placed = placeLabels({ labels: requests, lines, bounds, padding: Math.max(2, lw / 2) });
       ctx.save();
       ctx.textBaseline = "top";
@@ -462,10 +488,21 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
       placed.forEach((p, i) => {
         const m = measured[i]!;
         if (!p.box) return;
-        const text = p.candidate >= m.candidates.length && m.split ? m.split : m.l.lines;
         ctx.font = `${m.l.weight} ${o.fontPx}px sans-serif`;
         ctx.fillStyle = m.l.colour;
-        text.forEach((t, row) => ctx.fillText(t, p.box!.x, p.box!.y + row * lineH + Math.round((lineH - o.fontPx) / 2)));
+        const pad = Math.round((lineH - o.fontPx) / 2);
+        if (p.candidate >= m.candidates.length + m.splitCandidates.length) {
+          // upright: turned a quarter anticlockwise, reading upwards from the box's bottom-left corner
+          ctx.save();
+          ctx.translate(p.box.x, p.box.y + p.box.h);
+          ctx.rotate(-Math.PI / 2);
+          m.l.lines.forEach((t, row) => ctx.fillText(t, 0, row * lineH + pad));
+          ctx.restore();
+          drawn.push(m.l.id);
+          return;
+        }
+        const text = p.candidate >= m.candidates.length && m.split ? m.split : m.l.lines;
+        text.forEach((t, row) => ctx.fillText(t, p.box!.x, p.box!.y + row * lineH + pad));
         drawn.push(m.l.id);
       });
       ctx.restore();

@@ -176,3 +176,22 @@ export function nearCurve(points: Pt[], w: number, h: number, from = 0.85, gap =
   }
   return out;
 }
+
+/**
+ * Candidates anywhere on one side of a vertical boundary at `edge` (a region of the chart, e.g.
+ * left of Vmd), rows from the top of the plot down, and on each row from the boundary outwards in
+ * steps of `step` px up to the plot's edge: on a narrow phone chart, where rules split the region,
+ * the label still finds the gap between them.
+ */
+export function withinRegion(edge: number, side: "left" | "right", w: number, h: number, bounds: Box, step: number, gap = 6): Box[] {
+  const out: Box[] = [];
+  const s = Math.max(1, step);
+  for (let y = bounds.y + 4; y + h <= bounds.y + bounds.h; y += s) {
+    for (let k = 0; ; k++) {
+      const x = side === "left" ? edge - gap - w - k * s : edge + gap + k * s;
+      if (side === "left" ? x < bounds.x : x + w > bounds.x + bounds.w) break;
+      out.push({ x, y, w, h });
+    }
+  }
+  return out;
+}

@@ -5,6 +5,7 @@ import {
   nearCurve,
   placeLabels,
   segmentHitsBox,
+  withinRegion,
   type Box,
   type Pt,
 } from "@/lib/curve-lab/label-placement";
@@ -129,5 +130,63 @@ describe("chart label placement", () => {
       }
       expect(placed.length).toBeGreaterThan(0);
     }
+  });
+
+  describe("on a phone-sized chart (390 px screen: a plot about 295 x 260 px, 40 to 150 kt, 0 to 1,600 N)", () => {
+    // the seeded bucket demo's shape: Vmd 70 kt, Vmp 53 kt, minimum drag 600 N split evenly
+    const phone: Box = { x: 45, y: 8, w: 295, h: 260 };
+    const xOf = (kt: number) => phone.x + ((kt - 40) * phone.w) / 110;
+    const yOf = (n: number) => phone.y + phone.h * (1 - n / 1600);
+    const curve = (drag: (kt: number) => number): Pt[] => {
+      const out: Pt[] = [];
+      for (let kt = 40; kt <= 150; kt += 0.5) out.push({ x: xOf(kt), y: Math.max(phone.y, yOf(drag(kt))) });
+      return out;
+    };
+    const zeroLift = curve((kt) => 300 * (kt / 70) ** 2);
+    const liftDependent = curve((kt) => 300 * (70 / kt) ** 2);
+    const total = curve((kt) => 300 * (kt / 70) ** 2 + 300 * (70 / kt) ** 2);
+    const rule = (kt: number): Pt[] => [
+      { x: xOf(kt), y: phone.y },
+      { x: xOf(kt), y: phone.y + phone.h },
+    ];
+    const lines = [zeroLift, liftDependent, total, rule(70), rule(53)];
+    const vmd = xOf(70);
+    // "speed-unstable" in 13 px semi-bold is about 100 px long, its two-line form ("speed-" / "unstable") about 58 px wide
+    const lineH = 16;
+    const step = 13 * 0.6;
+
+    it("level text finds no gap left of Vmd: the Vmp rule splits the region into strips narrower than the label (the label went missing)", () => {
+      const level = [...withinRegion(vmd, "left", 100, lineH, phone, step), ...withinRegion(vmd, "left", 58, lineH * 2, phone, step)];
+      const [p] = placeLabels({ labels: [{ id: "unstable", candidates: level }], lines, bounds: phone, padding: 2 });
+      expect(p!.box).toBeNull();
+    });
+
+    it("turned upright, the label fits between the Vmp and Vmd rules above the curves, left of Vmd and clear of every line", () => {
+      const level = withinRegion(vmd, "left", 100, lineH, phone, step);
+      const upright = withinRegion(vmd, "left", lineH, 100, phone, step);
+      const [p] = placeLabels({
+        labels: [{ id: "unstable", candidates: [...level, ...upright] }],
+        lines,
+        bounds: phone,
+        padding: 2,
+      });
+      expect(p!.box).not.toBeNull();
+      expect(p!.candidate).toBeGreaterThanOrEqual(level.length);
+      expect(p!.box!.x + p!.box!.w).toBeLessThan(vmd);
+      for (const l of lines) expect(lineHitsBox(l, p!.box!)).toBe(false);
+    });
+  });
+
+  it("region candidates stay on their own side of the boundary and inside the plot, nearest the boundary first", () => {
+    const left = withinRegion(300, "left", 50, 20, plot, 10);
+    const right = withinRegion(300, "right", 50, 20, plot, 10);
+    expect(left.length).toBeGreaterThan(0);
+    expect(right.length).toBeGreaterThan(0);
+    for (const b of left) expect(b.x + b.w).toBeLessThanOrEqual(300 - 6);
+    for (const b of left) expect(b.x).toBeGreaterThanOrEqual(plot.x);
+    for (const b of right) expect(b.x).toBeGreaterThanOrEqual(300 + 6);
+    for (const b of right) expect(b.x + b.w).toBeLessThanOrEqual(plot.x + plot.w);
+    expect(left[0]).toEqual({ x: 244, y: 4, w: 50, h: 20 });
+    expect(left[1]!.x).toBeLessThan(left[0]!.x);
   });
 });
