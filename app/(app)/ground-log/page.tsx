@@ -8,13 +8,14 @@ import { groundLogStudentsFor, mayViewGroundLog } from "@/db/access/ground-log/v
 import { listMakeupFor } from "@/db/access/ground-log/list-makeup";
 import { listSessions } from "@/db/access/timetable/list-sessions";
 import { getSchool } from "@/db/access/shared/school";
-import { hoursLabel, dateInZone, formatDay } from "@/lib/time";
+import { hoursLabel, formatDay } from "@/lib/time";
 import { now } from "@/lib/clock";
 import { ATTENDANCE_LABELS } from "@/lib/timetable/schema";
 import { MakeupActions } from "./_components/makeup-actions";
 import { PrintButton } from "./_components/print-button";
 import { MAKEUP_STATE_WORDS } from "@/lib/labels";
 import { ScrollArea } from "@/components/ui/scroll-area";
+import { WideTable } from "@/components/ui/wide-table";
 
 export const metadata: Metadata = { title: "Ground log" };
 export const dynamic = "force-dynamic";
@@ -45,13 +46,15 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
   const log = student ? await logbookFor(user.schoolId, student.id) : [];
   const makeup = student ? await listMakeupFor([student.id]) : [];
   const staff = can(user, "attendance.record");
+  // the student's record page (where each oral check has its anchor) is open to those who record checks
+  const canOpenRecord = can(user, "checks.record");
   const upcoming =
     staff && student && makeup.some((m) => m.state === "open")
       ? (await listSessions(user, { attendee: student.id, status: "scheduled", fromInstant: now() }, { pageSize: 20 })).rows
       : [];
   return (
     <div className="space-y-6">
-      <style>{`@media print { header:has(nav[aria-label="Main"]), a[href="#main"], .no-print { display: none !important; } .card { box-shadow: none; border: 0; break-inside: avoid; } }`}</style>
+      <style>{`@media print { header:has(nav[aria-label="Main"]), a[href="#main"], .no-print { display: none !important; } .card { box-shadow: none; border: 0; break-inside: avoid; } .wide-table [data-more]:not(.no-print) { display: table-cell !important; } .wide-table > button { display: none !important; } }`}</style>
       <header>
         <h1 className="text-display">Ground log</h1>
         <p className="text-ink-soft">
@@ -100,37 +103,39 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
                   {hoursLabel(hours.creditedMinutes, hours.minimumMinutes)}
                 </p>
                 <p className="text-caption text-ink-soft">{hours.courseCode}: credited time only, against the course minimum.</p>
-                <ScrollArea label="Hours per stage, scrolls sideways" className="mt-3">
-                  <table className="data-table">
-                    <caption className="sr-only">Credited hours per stage</caption>
-                    <thead>
-                      <tr>
-                        <th scope="col">Stage</th>
-                        <th scope="col" className="text-right">
-                          Credited
-                        </th>
-                      </tr>
-                    </thead>
-                    <tbody>
-                      {hours.byStage.map((st) => (
-                        <tr key={st.stageCode ?? "none"}>
-                          <td>
-                            {st.stageCode ? `${st.stageCode} · ` : ""}
-                            {st.stageTitle}
-                          </td>
-                          <td className="num text-right">{hoursLabel(st.minutes)}</td>
-                        </tr>
-                      ))}
-                      {hours.byStage.length === 0 && (
+                <div className="mt-3">
+                  <WideTable label="Hours per stage, scrolls sideways" more={0}>
+                    <table className="data-table">
+                      <caption className="sr-only">Credited hours per stage</caption>
+                      <thead>
                         <tr>
-                          <td colSpan={2} className="text-ink-soft">
-                            No credited time yet.
-                          </td>
+                          <th scope="col">Stage</th>
+                          <th scope="col" className="text-right">
+                            Credited
+                          </th>
                         </tr>
-                      )}
-                    </tbody>
-                  </table>
-                </ScrollArea>
+                      </thead>
+                      <tbody>
+                        {hours.byStage.map((st) => (
+                          <tr key={st.stageCode ?? "none"}>
+                            <td>
+                              {st.stageCode ? `${st.stageCode} · ` : ""}
+                              {st.stageTitle}
+                            </td>
+                            <td className="num text-right">{hoursLabel(st.minutes)}</td>
+                          </tr>
+                        ))}
+                        {hours.byStage.length === 0 && (
+                          <tr>
+                            <td colSpan={2} className="text-ink-soft">
+                              No credited time yet.
+                            </td>
+                          </tr>
+                        )}
+                      </tbody>
+                    </table>
+                  </WideTable>
+                </div>
               </>
             ) : (
               <p className="mt-1 text-ink-soft">Not enrolled on a course at the moment.</p>
@@ -212,64 +217,82 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
             {makeup.length === 0 ? (
               <p className="mt-1 text-ink-soft">None: nothing missed.</p>
             ) : (
-              <ScrollArea label="Make-up items, scrolls sideways" className="mt-2">
-                <table className="data-table" data-testid="makeup">
-                  <thead>
-                    <tr>
-                      <th scope="col">Syllabus item</th>
-                      <th scope="col">Missed</th>
-                      <th scope="col">State</th>
-                      {staff && (
-                        <th scope="col" className="no-print">
-                          Action
+              <div className="mt-2">
+                <WideTable label="Make-up items, scrolls sideways" more={staff ? 2 : 1}>
+                  <table className="data-table" data-testid="makeup">
+                    <thead>
+                      <tr>
+                        <th scope="col">Syllabus item</th>
+                        <th scope="col">State</th>
+                        <th scope="col" data-more="">
+                          Missed
                         </th>
-                      )}
-                    </tr>
-                  </thead>
-                  <tbody>
-                    {makeup.map((m) => (
-                      <tr key={m.id}>
-                        <td>
-                          {m.itemCode} {m.itemTitle}
-                        </td>
-                        <td>
-                          {m.sourceTitle ?? m.sourceKind}
-                          {m.sourceStartsAt ? (
-                            <span className="num block text-caption text-ink-soft">
-                              {dateInZone(new Date(m.sourceStartsAt), school.timeZone)}
-                            </span>
-                          ) : null}
-                        </td>
-                        <td>
-                          <span className="font-semibold">{STATE_LABEL[m.state]}</span>
-                          {m.closedByKind && (
-                            <span className="block text-caption text-ink-soft">
-                              {CLOSED_BY[m.closedByKind] ?? m.closedByKind}
-                              {m.note ? `: ${m.note}` : ""}
-                            </span>
-                          )}
-                          {m.waivedReason && <span className="block text-caption text-ink-soft">{m.waivedReason}</span>}
-                        </td>
                         {staff && (
-                          <td className="no-print">
-                            {(m.state === "open" || m.state === "scheduled") && (
-                              <MakeupActions
-                                itemId={m.id}
-                                state={m.state}
-                                canWaive={can(user, "makeup.waive")}
-                                sessions={upcoming.map((s) => ({
-                                  id: s.id,
-                                  label: `${formatDay(s.date)} ${s.startLocal} ${s.briefingTitle}`,
-                                }))}
-                              />
-                            )}
-                          </td>
+                          <th scope="col" className="no-print" data-more="">
+                            Action
+                          </th>
                         )}
                       </tr>
-                    ))}
-                  </tbody>
-                </table>
-              </ScrollArea>
+                    </thead>
+                    <tbody>
+                      {makeup.map((m) => (
+                        <tr key={m.id}>
+                          <td>
+                            {m.itemCode} {m.itemTitle}
+                          </td>
+                          <td>
+                            <span className="font-semibold">{STATE_LABEL[m.state]}</span>
+                            {m.closedByKind === "oral_check" && m.closedById && m.closedByCheckAt ? (
+                              <span className="block text-caption text-ink-soft" data-testid="makeup-closed-by-check">
+                                {"Closed by "}
+                                {canOpenRecord ? (
+                                  <a className="underline" href={`/records/${m.studentId}#check-${m.closedById}`}>
+                                    the oral check of {formatDay(new Date(m.closedByCheckAt), school.timeZone)}
+                                  </a>
+                                ) : (
+                                  <>the oral check of {formatDay(new Date(m.closedByCheckAt), school.timeZone)}</>
+                                )}
+                                {m.note ? `: ${m.note}` : ""}
+                              </span>
+                            ) : (
+                              m.closedByKind && (
+                                <span className="block text-caption text-ink-soft">
+                                  {CLOSED_BY[m.closedByKind] ?? m.closedByKind}
+                                  {m.note ? `: ${m.note}` : ""}
+                                </span>
+                              )
+                            )}
+                            {m.waivedReason && <span className="block text-caption text-ink-soft">{m.waivedReason}</span>}
+                          </td>
+                          <td data-more="">
+                            {m.sourceTitle ?? m.sourceKind}
+                            {m.sourceStartsAt ? (
+                              <span className="num block text-caption text-ink-soft">
+                                {formatDay(new Date(m.sourceStartsAt), school.timeZone)}
+                              </span>
+                            ) : null}
+                          </td>
+                          {staff && (
+                            <td className="no-print" data-more="">
+                              {(m.state === "open" || m.state === "scheduled") && (
+                                <MakeupActions
+                                  itemId={m.id}
+                                  state={m.state}
+                                  canWaive={can(user, "makeup.waive")}
+                                  sessions={upcoming.map((s) => ({
+                                    id: s.id,
+                                    label: `${formatDay(s.date)} ${s.startLocal} ${s.briefingTitle}`,
+                                  }))}
+                                />
+                              )}
+                            </td>
+                          )}
+                        </tr>
+                      ))}
+                    </tbody>
+                  </table>
+                </WideTable>
+              </div>
             )}
           </section>
         </>
