@@ -3,7 +3,7 @@ import { useEffect, useMemo, useRef, useState, useSyncExternalStore } from "reac
 import { createPortal } from "react-dom";
 import { CurveChart, CASE_COLOURS } from "@/components/charts/curve-chart";
 import { CURVE_LABELS, formatSpeed, MARKER_KEYS, type CurveKey, type DemoSpec } from "@/lib/curve-lab/demo-spec";
-import { caseFigures, AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
+import { caseFigures, flaggedSpeed, AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
 import { Caution } from "@/components/caution";
 
 const CURVE_SHORTCUTS: [string, CurveKey][] = [
@@ -138,8 +138,12 @@ export function ProjectorView({ name, spec: saved, backHref }: { name: string; s
             />
             {c.label}
           </span>
-          <span className="num">Vmd {formatSpeed(fig.vmdMs, unit)}</span>
-          <span className="num">Vmp {formatSpeed(fig.vmpMs, unit)}</span>
+          <span className="num" data-testid="projector-vmd">
+            Vmd {flaggedSpeed(fig.vmdMs, unit, fig.flags.vmd)}
+          </span>
+          <span className="num" data-testid="projector-vmp">
+            Vmp {flaggedSpeed(fig.vmpMs, unit, fig.flags.vmp)}
+          </span>
           <span className="num">stall {formatSpeed(fig.stallMs, unit)}</span>
           <span className="num">(L/D)max {fig.maxLiftToDrag.toFixed(1)}</span>
         </p>
