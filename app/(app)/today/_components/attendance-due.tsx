@@ -1,16 +1,16 @@
 import Link from "next/link";
-import { sessionsAwaitingAttendance } from "@/db/access/timetable/list-sessions";
+import { sessionsAwaitingAttendance } from "@/db/access/today/teaching-week";
 import type { CurrentUser } from "@/lib/auth/session";
 import { formatDay } from "@/lib/time";
 
-/** Sessions the instructor taught that ended more than 24 h ago with no attendance recorded. */
+/** Sessions the instructor taught that have ended with no attendance recorded: asked for as soon as a session ends. */
 export async function AttendanceDue({ user }: { user: CurrentUser }) {
   const rows = await sessionsAwaitingAttendance(user);
   return (
     <section className="card" aria-labelledby="att-due-title">
       <h2 id="att-due-title">Attendance to record</h2>
       {rows.length === 0 ? (
-        <p className="mt-2 text-ink-soft">Nothing waiting: every session you taught more than a day ago has its attendance.</p>
+        <p className="mt-2 text-ink-soft">Nothing waiting: every session you taught that has ended has its attendance.</p>
       ) : (
         <ul className="mt-2 divide-y divide-paper-edge" data-testid="attendance-due">
           {rows.map((s) => (

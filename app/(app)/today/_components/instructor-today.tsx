@@ -1,25 +1,87 @@
+import Link from "next/link";
 import { listCohorts } from "@/db/access/cohorts/list-cohorts";
+import { teachingWeek } from "@/db/access/today/teaching-week";
+import type { SessionRow } from "@/db/access/timetable/list-sessions";
 import type { CurrentUser } from "@/lib/auth/session";
+import { formatDay } from "@/lib/time";
+
+function SessionList({ rows, withDay, testId }: { rows: SessionRow[]; withDay: boolean; testId: string }) {
+  return (
+    <ul className="mt-2 divide-y divide-paper-edge" data-testid={testId}>
+      {rows.map((s) => (
+        <li key={s.id} className="py-1">
+          <Link href={`/timetable/${s.id}`} className="flex min-h-touch flex-wrap items-center justify-between gap-x-4">
+            <span className="font-medium">{s.briefingTitle}</span>
+            <span className="num text-caption text-ink-soft">
+              {withDay ? `${formatDay(s.date)}, ` : ""}
+              {s.startLocal}–{s.endLocal} · {s.cohortName ?? `${s.attendeeCount} students`} · {s.room}
+            </span>
+          </Link>
+        </li>
+      ))}
+    </ul>
+  );
+}
 
 export async function InstructorToday({ user }: { user: CurrentUser }) {
-  const cohorts = await listCohorts(user.schoolId, { leadInstructorId: user.id });
+  const [cohorts, week] = await Promise.all([listCohorts(user.schoolId, { leadInstructorId: user.id }), teachingWeek(user)]);
   return (
-    <section className="card" aria-labelledby="lead-title">
-      <h2 id="lead-title">Cohorts you lead</h2>
-      {cohorts.length === 0 ? (
-        <p className="mt-2 text-ink-soft">You do not lead a cohort at the moment.</p>
-      ) : (
-        <ul className="mt-2 space-y-1">
-          {cohorts.map((c) => (
-            <li key={c.id}>
-              <span className="font-semibold">{c.name}</span>{" "}
-              <span className="text-ink-soft">
-                · {c.courseCode} · started {c.startsOn} · <span className="num">{c.memberCount}</span> students
-              </span>
-            </li>
-          ))}
-        </ul>
-      )}
-    </section>
+    <>
+      <section className="card" aria-labelledby="teaching-today-title">
+        <h2 id="teaching-today-title">Your sessions today</h2>
+        {week.todaySessions.length === 0 ? (
+          <p className="mt-2 text-ink-soft">No session of yours today.</p>
+        ) : (
+          <SessionList rows={week.todaySessions} withDay={false} testId="sessions-today" />
+        )}
+        <h3 className="mt-4 font-semibold">
+          This week{" "}
+          <span className="num text-caption font-normal text-ink-soft">
+            ({formatDay(week.weekFrom)} to {formatDay(week.weekTo)})
+          </span>
+        </h3>
+        {week.weekSessions.length === 0 ? (
+          <p className="mt-1 text-ink-soft">No other session of yours this week.</p>
+        ) : (
+          <SessionList rows={week.weekSessions} withDay testId="sessions-week" />
+        )}
+      </section>
+      <section className="card" aria-labelledby="checks-due-title">
+        <h2 id="checks-due-title">Stage checks due</h2>
+        {week.checksDue.length === 0 ? (
+          <p className="mt-2 text-ink-soft">No student you teach has a stage ready for its check.</p>
+        ) : (
+          <ul className="mt-2 divide-y divide-paper-edge" data-testid="checks-due">
+            {week.checksDue.map((c) => (
+              <li key={`${c.studentId}-${c.stageCode}`} className="flex min-h-touch flex-wrap items-center justify-between gap-x-4 py-1">
+                <Link href={`/records/${c.studentId}`} className="font-medium underline">
+                  {c.studentName}
+                </Link>
+                <span className="text-caption text-ink-soft">
+                  stage {c.stageCode} ready for its check{c.since ? ` · every item signed off by ${formatDay(c.since, week.timeZone)}` : ""}
+                </span>
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
+      <section className="card" aria-labelledby="lead-title">
+        <h2 id="lead-title">Cohorts you lead</h2>
+        {cohorts.length === 0 ? (
+          <p className="mt-2 text-ink-soft">You do not lead a cohort at the moment.</p>
+        ) : (
+          <ul className="mt-2 space-y-1">
+            {cohorts.map((c) => (
+              <li key={c.id}>
+                <span className="font-semibold">{c.name}</span>{" "}
+                <span className="text-ink-soft">
+                  · {c.courseCode} · started {c.startsOn} · <span className="num">{c.memberCount}</span> students
+                </span>
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
+    </>
   );
 }

@@ -1,0 +1,68 @@
+import "server-only";
+import { listSessions, type SessionRow } from "../timetable/list-sessions";
+import { stagesWaiting, type StageWaiting } from "../records/stages-waiting";
+import { getSchool } from "../shared/school";
+import { can } from "@/lib/auth/can";
+import { now } from "@/lib/clock";
+import { dateInZone, zonedInstant } from "@/lib/time";
+import type { CurrentUser } from "@/lib/auth/session";
+
+// The instructor's Today: their own sessions today and this week, the stage checks waiting among the
+// students they teach, and the sessions that have ended with no attendance recorded yet.
+
+export interface TeachingWeek {
+  /** the school's date today (YYYY-MM-DD) */
+  today: string;
+  timeZone: string;
+  /** Monday and Sunday of this week, in the school's time zone */
+  weekFrom: string;
+  weekTo: string;
+  todaySessions: SessionRow[];
+  /** the week's other sessions, Monday to Sunday, today's left out */
+  weekSessions: SessionRow[];
+  checksDue: StageWaiting[];
+}
+
+function addDays(date: string, days: number): string {
+  const d = new Date(`${date}T00:00:00Z`);
+  d.setUTCDate(d.getUTCDate() + days);
+  return d.toISOString().slice(0, 10);
+}
+
+export async function teachingWeek(user: CurrentUser): Promise<TeachingWeek> {
+  const { timeZone } = await getSchool(user.schoolId);
+  const today = dateInZone(now(), timeZone);
+  const weekday = (new Date(`${today}T00:00:00Z`).getUTCDay() + 6) % 7; // Monday 0 … Sunday 6
+  const monday = addDays(today, -weekday);
+  const { rows } = await listSessions(
+    user,
+    {
+      instructor: user.id,
+      status: "scheduled",
+      fromInstant: zonedInstant(monday, "00:00", timeZone),
+      toInstant: zonedInstant(addDays(monday, 7), "00:00", timeZone),
+    },
+    { sort: "starts_at", dir: "asc", pageSize: 200 },
+  );
+  const checksDue = can(user, "today.teaching") ? await stagesWaiting(user) : [];
+  return {
+    today,
+    timeZone,
+    weekFrom: monday,
+    weekTo: addDays(monday, 6),
+    todaySessions: rows.filter((r) => r.date === today),
+    weekSessions: rows.filter((r) => r.date !== today),
+    checksDue,
+  };
+}
+
+/** Sessions the instructor taught that have ended (by the clock) with nobody's attendance recorded: asked for as soon as they end. */
+export async function sessionsAwaitingAttendance(user: CurrentUser): Promise<SessionRow[]> {
+  const at = now();
+  const { rows } = await listSessions(
+    user,
+    { status: "scheduled", toInstant: at, instructor: user.id },
+    { sort: "starts_at", dir: "desc", pageSize: 50 },
+  );
+  return rows.filter((r) => new Date(r.endsAt).getTime() <= at.getTime() && r.recordedCount === 0 && r.attendeeCount > 0);
+}
