@@ -22,6 +22,7 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/assignments", label: "Assignments", permission: "assignments.manage", group: "Teaching" },
   { href: "/assignments", label: "Assignments", permission: "assignments.complete", group: "Teaching" },
   { href: "/timetable", label: "Timetable", permission: "timetable.view", group: "Teaching" },
+  { href: "/practice", label: "Practice", permission: "practice.take", group: "Teaching" },
   // records
   { href: "/ground-log", label: "Ground log", permission: "groundlog.view", group: "Records" },
   { href: "/records", label: "Records", permission: "checks.record", group: "Records" },
@@ -30,6 +31,7 @@ export const NAV_ITEMS: NavItem[] = [
   // school
   { href: "/people", label: "People", permission: "people.view", group: "School" },
   { href: "/roster", label: "Roster", permission: "roster.manage", group: "School" },
+  { href: "/rooms", label: "Rooms", permission: "rooms.manage", group: "School" },
   { href: "/mail", label: "Mail tray", permission: "mail.tray", group: "School" },
   { href: "/mail/notes", label: "Notes for sponsors", permission: "sponsornotes.write", group: "School" },
   { href: "/mail/letters", label: "Weekly letters", permission: "mail.letters", group: "School" },

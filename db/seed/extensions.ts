@@ -4,6 +4,7 @@ import { seedCurveLab } from "./curve-lab";
 import { seedBriefings } from "./briefings";
 import { seedRecords } from "./records";
 import { seedMail } from "./mail";
+import { seedStudentWeek } from "./student-week";
 
 export interface SeedContext {
   t: Transaction;
@@ -30,6 +31,8 @@ const extensions: { name: string; run: (ctx: SeedContext) => Promise<void> }[] =
   { name: "timetable", run: seedTimetable },
   // records sign off items that the timetable's attendance and make-up items may touch
   { name: "records", run: seedRecords },
+  // planned ends, the knowledge test date and the demo student's practice: after the demos and records
+  { name: "student-week", run: seedStudentWeek },
   // a note for the demo sponsor and the Weekly letters already sent, composed from everything above: keep it last
   { name: "mail", run: seedMail },
 ];

@@ -41,7 +41,7 @@ const LINKS: Record<Who, string[]> = {
     "Roster",
     "Notes for sponsors",
   ],
-  student: ["Today", "Syllabus", "Curve Lab", "Briefings", "Assignments", "Timetable", "Ground log", "Progress map"],
+  student: ["Today", "Syllabus", "Curve Lab", "Briefings", "Assignments", "Timetable", "Practice", "Ground log", "Progress map"],
   sponsor: ["Today", "Ground log", "Progress map"],
 };
 

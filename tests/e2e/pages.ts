@@ -30,6 +30,9 @@ export const PAGES: CrawlPage[] = [
   { name: "not-found", path: "/no-such-page", roles: ["student"], waitFor: "h1", status: 404 },
 
   // ---- other areas: add your pages below ----
+  // ---- practice questions (issue 14) ----
+  { name: "practice", path: "/practice", roles: ["student"], waitFor: "[data-testid=practice-test]" },
+  { name: "practice-forbidden", path: "/practice", roles: ["instructor", "sponsor"], waitFor: "h1", status: 403 },
   // ---- Curve Lab ----
   { name: "curve-lab", path: "/curve-lab", roles: ["chief", "instructor", "student"], waitFor: "[data-testid=demo-list] tbody tr" },
   { name: "curve-lab-forbidden", path: "/curve-lab", roles: ["sponsor"], waitFor: "h1", status: 403 },
@@ -158,6 +161,9 @@ export const PAGES: CrawlPage[] = [
   { name: "letters", path: "/letters", roles: ["sponsor"], waitFor: "[data-testid=letter-history]" },
   { name: "letters-forbidden", path: "/letters", roles: ["student"], waitFor: "h1", status: 403 },
   { name: "settings", path: "/settings", roles: ["chief"], waitFor: "main h1" },
+  // ---- rooms ----
+  { name: "rooms", path: "/rooms", roles: ["chief"], waitFor: "[data-testid=rooms-table] tbody tr" },
+  { name: "rooms-forbidden", path: "/rooms", roles: ["instructor"], waitFor: "h1", status: 403 },
   { name: "set-password-invalid", path: "/set-password/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },
   { name: "unsubscribe-invalid", path: "/unsubscribe/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },
 ];

@@ -16,7 +16,7 @@ export interface PracticeTopic {
   items: { id: string; code: string; title: string }[];
 }
 
-interface DemoAirframe {
+export interface DemoAirframe {
   name?: string;
   emptyMassKg?: number;
   maxMassKg?: number;
@@ -29,7 +29,7 @@ interface DemoAirframe {
 
 const num = (v: unknown): v is number => typeof v === "number" && Number.isFinite(v) && v > 0;
 
-function snapshotOf(demoRevisionId: string, demoName: string, a: DemoAirframe | null): AircraftSnapshot | null {
+export function snapshotOfDemo(demoRevisionId: string, demoName: string, a: DemoAirframe | null): AircraftSnapshot | null {
   if (!a || !num(a.maxMassKg) || !num(a.wingAreaM2) || !num(a.wingSpanM) || !num(a.oswaldEfficiency) || !num(a.zeroLiftDragCoefficient))
     return null;
   const clmax = a.configurations?.clean?.maxLiftCoefficient;
@@ -68,7 +68,7 @@ export async function practiceTopicsFor(schoolId: string, studentId: string): Pr
   );
   const out: PracticeTopic[] = [];
   for (const r of revisions) {
-    const snapshot = snapshotOf(r.demoRevisionId, r.name, specs.find((s) => s.id === r.demoRevisionId)?.airframe ?? null);
+    const snapshot = snapshotOfDemo(r.demoRevisionId, r.name, specs.find((s) => s.id === r.demoRevisionId)?.airframe ?? null);
     if (!snapshot) continue;
     out.push({
       demoId: r.demoId,

@@ -27,7 +27,9 @@ import { TIMETABLE_TABLE } from "./timetable-table";
 import { BRIEFINGS_TABLE } from "./briefings/table";
 import { RECORDS_TABLE } from "./records/table";
 import { PEOPLE_TABLE } from "./people/table";
+import { PRACTICE_TABLE } from "./practice/table";
 import { SHARING_TABLE } from "./sharing/table";
+import { ROOMS_TABLE } from "./rooms/table";
 
 function rowsOf(res: HarnessResponse): { id: string; primary: string }[] {
   const j = res.json as { rows?: { id: string; primary: string }[] } | undefined;
@@ -131,8 +133,14 @@ export const TABLE: AuthzTable = {
   // ---- people: instructor files (people/table.ts) ----
   ...PEOPLE_TABLE,
 
+  // ---- practice questions (practice/table.ts) ----
+  ...PRACTICE_TABLE,
+
   // ---- consent and sponsors, the sponsor's letters, the chief's Weekly letters (sharing/table.ts) ----
   ...SHARING_TABLE,
+
+  // ---- rooms (rooms/table.ts) ----
+  ...ROOMS_TABLE,
 
   // ---- mail ----
   // Public by design (the signed token is the credential): a forged token is refused for everyone.
