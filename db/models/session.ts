@@ -11,7 +11,9 @@ export class TrainingSession extends Model<InferAttributes<TrainingSession>, Inf
   declare briefingRevisionId: string;
   declare startsAt: Date;
   declare endsAt: Date;
-  declare room: string;
+  /** the room's name, copied from rooms by a trigger (0560); roomId is the truth */
+  declare room: CreationOptional<string>;
+  declare roomId: string;
   declare instructorId: string;
   declare cohortId: string | null;
   declare status: CreationOptional<SessionStatus>;
@@ -29,7 +31,8 @@ TrainingSession.init(
     briefingRevisionId: { type: DataTypes.UUID, allowNull: false },
     startsAt: { type: DataTypes.DATE, allowNull: false },
     endsAt: { type: DataTypes.DATE, allowNull: false },
-    room: { type: DataTypes.TEXT, allowNull: false },
+    room: { type: DataTypes.TEXT, allowNull: true },
+    roomId: { type: DataTypes.UUID, allowNull: false },
     instructorId: { type: DataTypes.UUID, allowNull: false },
     cohortId: { type: DataTypes.UUID, allowNull: true },
     status: { type: DataTypes.TEXT, allowNull: false, defaultValue: "scheduled" },

@@ -1,6 +1,7 @@
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../index";
 import { scheduleSession } from "../access/timetable/schedule-session";
+import { createRoom } from "../access/rooms/save-room";
 import { cancelSession } from "../access/timetable/cancel-session";
 import { recordAttendance } from "../access/ground-log/record-attendance";
 import { scheduleSessionSchema, recordAttendanceSchema, type AttendanceStatusName } from "@/lib/timetable/schema";
@@ -81,6 +82,9 @@ export async function seedTimetable(ctx: SeedContext): Promise<void> {
   const chief: CurrentUser = { id: ctx.people.chief, name: "Imogen Farrant", roles: ["chief", "instructor"], schoolId: ctx.schoolId };
   const HANGAR = "Hangar classroom";
   const ROOM2 = "Briefing room 2";
+  // the school's list of rooms (the Timetable books only listed rooms)
+  await createRoom(chief, { name: HANGAR, capacity: 24 }, ctx.t);
+  await createRoom(chief, { name: ROOM2, capacity: 10 }, ctx.t);
   const plan = (i: number) => briefings[i % briefings.length]!.id;
   const schedule = async (
     briefingId: string,

@@ -96,6 +96,10 @@ export const PERMISSIONS = {
   },
   "mail.letters": { roles: ["chief"], description: "Preview any sponsor's next Weekly letter and send it now" },
   "settings.edit": { roles: ["chief"], description: "Change school settings: mail sender, reminder lead time, letter day, limits" },
+  "rooms.manage": {
+    roles: ["chief"],
+    description: "Add, rename and take out of use the school's rooms (the Timetable books from this list)",
+  },
 } as const satisfies Record<string, { roles: readonly Role[]; description: string }>;
 
 export type Permission = keyof typeof PERMISSIONS;

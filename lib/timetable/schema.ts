@@ -9,13 +9,25 @@ export const isoDate = calendarDate();
 export const wallTime = wallClockTime();
 const uuid = z.string().uuid("not a valid id");
 
+// A session's room: `roomId` from the school's list of rooms (the forms' select); `room`, a name
+// that must match a room of the list once normalised, is still taken from older callers.
+const roomFields = {
+  roomId: z
+    .union([z.literal(""), z.string().uuid("choose a room")])
+    .optional()
+    .default(""),
+  room: z.string().trim().max(100, "at most 100 characters").optional().default(""),
+};
+const hasRoom = (v: { roomId: string; room: string }) => v.roomId !== "" || v.room !== "";
+const roomMissing = { message: "choose a room", path: ["roomId"] };
+
 export const scheduleSessionSchema = z
   .object({
     briefingId: z.string().uuid("choose a briefing"),
     date: isoDate,
     time: wallTime,
     durationMinutes: z.coerce.number().int("whole minutes").min(15, "at least 15 minutes").max(480, "at most 480 minutes"),
-    room: z.string().trim().min(1, "required").max(100, "at most 100 characters"),
+    ...roomFields,
     instructorId: z.string().uuid("choose an instructor"),
     cohortId: z
       .union([z.literal(""), uuid])
@@ -23,19 +35,24 @@ export const scheduleSessionSchema = z
       .default(""),
     studentIds: z.array(uuid).max(200).optional().default([]),
   })
-  .refine((v) => v.cohortId !== "" || v.studentIds.length > 0, { message: "choose a cohort or at least one student", path: ["cohortId"] });
+  .refine((v) => v.cohortId !== "" || v.studentIds.length > 0, { message: "choose a cohort or at least one student", path: ["cohortId"] })
+  .refine(hasRoom, roomMissing);
 export type ScheduleSessionInput = z.input<typeof scheduleSessionSchema>;
-export type ScheduleSessionOutput = z.output<typeof scheduleSessionSchema>;
+/** What the data layer takes: the parsed form, where the room is given by `roomId` or by `room` (a name). */
+type RoomGiven<T> = Omit<T, "roomId" | "room"> & { roomId?: string; room?: string };
+export type ScheduleSessionOutput = RoomGiven<z.output<typeof scheduleSessionSchema>>;
 
-export const rescheduleSessionSchema = z.object({
-  sessionId: uuid,
-  date: isoDate,
-  time: wallTime,
-  durationMinutes: z.coerce.number().int("whole minutes").min(15, "at least 15 minutes").max(480, "at most 480 minutes"),
-  room: z.string().trim().min(1, "required").max(100, "at most 100 characters"),
-  instructorId: z.string().uuid("choose an instructor"),
-});
-export type RescheduleSessionOutput = z.output<typeof rescheduleSessionSchema>;
+export const rescheduleSessionSchema = z
+  .object({
+    sessionId: uuid,
+    date: isoDate,
+    time: wallTime,
+    durationMinutes: z.coerce.number().int("whole minutes").min(15, "at least 15 minutes").max(480, "at most 480 minutes"),
+    ...roomFields,
+    instructorId: z.string().uuid("choose an instructor"),
+  })
+  .refine(hasRoom, roomMissing);
+export type RescheduleSessionOutput = RoomGiven<z.output<typeof rescheduleSessionSchema>>;
 
 export const cancelSessionSchema = z.object({
   sessionId: uuid,

@@ -46,6 +46,8 @@ export const FIELD_LABELS: Record<string, string> = {
   title: "Title",
   objective: "Objective",
   room: "Room",
+  roomId: "Room",
+  capacity: "Seats",
   examiner: "Examiner",
   maxMassKg: "Maximum mass",
   massKg: "Mass (kg)",

@@ -53,7 +53,7 @@ describe("Timetable end to end", () => {
     await page.fill("#date", yesterday);
     await page.fill("#time", "06:30");
     await page.fill("#durationMinutes", "90");
-    await page.fill("#room", "Hangar classroom");
+    await page.selectOption("#roomId", { label: "Hangar classroom (24 seats)" });
     await page.selectOption("#cohortId", { label: "Kestrel cohort" });
     await screenshot(page, "timetable-e2e-schedule-form");
     await Promise.all([
@@ -114,7 +114,7 @@ describe("Timetable end to end", () => {
     await page.fill("#date", yesterday);
     await page.fill("#time", "07:00");
     await page.fill("#durationMinutes", "30");
-    await page.fill("#room", "Briefing room 2");
+    await page.selectOption("#roomId", { label: "Briefing room 2 (10 seats)" });
     await page.selectOption("#studentIds", { label: "Maren Tofte" });
     await page.click("button[type=submit]:has-text('Schedule the session')");
     const msg = await page.waitForSelector("[data-testid=form-message]");

@@ -24,7 +24,7 @@ export interface Range {
 async function conflictError(
   t: Transaction,
   constraint: string | undefined,
-  s: { schoolId: string; sessionId: string | null; instructorId: string; room: string; studentIds: string[] } & Range,
+  s: { schoolId: string; sessionId: string | null; instructorId: string; room: { id: string; name: string }; studentIds: string[] } & Range,
   timeZone: string,
 ): Promise<HttpError> {
   const when = (r: { startsAt: Date; endsAt: Date; title: string }) =>
@@ -33,7 +33,7 @@ async function conflictError(
                   JOIN briefing_revisions br ON br.id = s.briefing_revision_id
                  WHERE s.status = 'scheduled' AND tstzrange(s.starts_at, s.ends_at, '[)') && tstzrange(:a, :b, '[)')
                    AND (:self::uuid IS NULL OR s.id <> :self::uuid)`;
-  const rep = { a: s.startsAt, b: s.endsAt, self: s.sessionId, i: s.instructorId, room: s.room, school: s.schoolId };
+  const rep = { a: s.startsAt, b: s.endsAt, self: s.sessionId, i: s.instructorId, room: s.room.id };
   if (constraint === "training_sessions_instructor_busy") {
     const [hit] = await sequelize.query<{ startsAt: Date; endsAt: Date; title: string }>(`${base} AND s.instructor_id = :i LIMIT 1`, {
       replacements: rep,
@@ -52,11 +52,12 @@ async function conflictError(
     );
   }
   if (constraint === "training_sessions_room_busy") {
-    const [hit] = await sequelize.query<{ startsAt: Date; endsAt: Date; title: string }>(
-      `${base} AND s.school_id = :school AND lower(btrim(s.room)) = lower(btrim(:room)) LIMIT 1`,
-      { replacements: rep, type: QueryTypes.SELECT, transaction: t },
-    );
-    return new HttpError(409, `room: ${s.room} is already booked for ${hit ? when(hit) : "that time"}`, "room");
+    const [hit] = await sequelize.query<{ startsAt: Date; endsAt: Date; title: string }>(`${base} AND s.room_id = :room LIMIT 1`, {
+      replacements: rep,
+      type: QueryTypes.SELECT,
+      transaction: t,
+    });
+    return new HttpError(409, `room: ${s.room.name} is already booked for ${hit ? when(hit) : "that time"}`, "room");
   }
   if (constraint === "session_attendees_student_busy") {
     const [hit] = await sequelize.query<{ startsAt: Date; endsAt: Date; title: string; name: string }>(
@@ -84,7 +85,13 @@ async function conflictError(
 /** Runs `fn` in a savepoint; an exclusion refusal comes back as a 409 naming what is busy. */
 export async function guardOverlap<T>(
   t: Transaction,
-  ctx: { schoolId: string; sessionId: string | null; instructorId: string; room: string; studentIds: string[] } & Range,
+  ctx: {
+    schoolId: string;
+    sessionId: string | null;
+    instructorId: string;
+    room: { id: string; name: string };
+    studentIds: string[];
+  } & Range,
   timeZone: string,
   fn: (sp: Transaction) => Promise<T>,
 ): Promise<T> {

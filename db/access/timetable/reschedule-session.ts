@@ -3,6 +3,7 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { enqueueMail } from "../mail/outbox";
 import { guardOverlap } from "./overlap-guard";
+import { resolveRoom } from "../rooms/resolve-room";
 import { lockSessionForChange, assertNoAttendanceRecorded } from "./lock-session";
 import { attendeesToTell, requireInstructor } from "./session-people";
 import { mailSchool } from "./mail-school";
@@ -22,6 +23,7 @@ export async function rescheduleSession(user: CurrentUser, input: RescheduleSess
   if (s.status !== "scheduled") throw new HttpError(409, "sessionId: a cancelled session cannot be moved; schedule a new one", "sessionId");
   await assertNoAttendanceRecorded(s.id, "moved", t);
   const instructor = await requireInstructor(user.schoolId, input.instructorId, t);
+  const room = await resolveRoom(user.schoolId, input, t);
   const startsAt = zonedInstant(input.date, input.time, school.timeZone);
   const endsAt = new Date(startsAt.getTime() + input.durationMinutes * 60_000);
   const attendees = await attendeesToTell(s.id, t);
@@ -29,17 +31,17 @@ export async function rescheduleSession(user: CurrentUser, input: RescheduleSess
     schoolId: user.schoolId,
     sessionId: s.id,
     instructorId: input.instructorId,
-    room: input.room,
+    room,
     studentIds: attendees.map((a) => a.id),
     startsAt,
     endsAt,
   };
   const sequence = await guardOverlap(t, ctx, school.timeZone, async (sp) => {
     const [row] = await sequelize.query<{ sequence: number }>(
-      `UPDATE training_sessions SET starts_at = :a, ends_at = :e, room = :room, instructor_id = :i, sequence = sequence + 1, updated_at = now()
+      `UPDATE training_sessions SET starts_at = :a, ends_at = :e, room_id = :room, instructor_id = :i, sequence = sequence + 1, updated_at = now()
         WHERE id = :id RETURNING sequence`,
       {
-        replacements: { a: startsAt, e: endsAt, room: input.room.trim(), i: input.instructorId, id: s.id },
+        replacements: { a: startsAt, e: endsAt, room: room.id, i: input.instructorId, id: s.id },
         type: QueryTypes.SELECT,
         transaction: sp,
       },
@@ -55,7 +57,7 @@ export async function rescheduleSession(user: CurrentUser, input: RescheduleSess
         previousStartsAt: new Date(s.startsAt),
         startsAt,
         endsAt,
-        room: input.room.trim(),
+        room: room.name,
         instructorName: instructor.name,
       },
       school,

@@ -3,6 +3,7 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { getSchool } from "../shared/school";
 import { guardOverlap } from "./overlap-guard";
+import { resolveRoom } from "../rooms/resolve-room";
 import { attendeesFor, requireInstructor } from "./session-people";
 import { HttpError } from "@/lib/http/errors";
 import { zonedInstant } from "@/lib/time";
@@ -38,6 +39,7 @@ export async function scheduleSession(user: CurrentUser, input: ScheduleSessionO
     });
     if (!c) throw new HttpError(404, "cohortId: no such cohort at this school", "cohortId");
   }
+  const room = await resolveRoom(user.schoolId, input, t);
   const startsAt = zonedInstant(input.date, input.time, school.timeZone);
   const endsAt = new Date(startsAt.getTime() + input.durationMinutes * 60_000);
   const attendees = await attendeesFor(user.schoolId, input.cohortId, input.studentIds, input.date, t);
@@ -46,14 +48,14 @@ export async function scheduleSession(user: CurrentUser, input: ScheduleSessionO
     schoolId: user.schoolId,
     sessionId: null,
     instructorId: input.instructorId,
-    room: input.room,
+    room,
     studentIds: [...attendees.keys()],
     startsAt,
     endsAt,
   };
   const id = await guardOverlap(t, ctx, school.timeZone, async (sp) => {
     const [row] = await sequelize.query<{ id: string }>(
-      `INSERT INTO training_sessions (school_id, briefing_id, briefing_revision_id, starts_at, ends_at, room, instructor_id, cohort_id, created_by)
+      `INSERT INTO training_sessions (school_id, briefing_id, briefing_revision_id, starts_at, ends_at, room_id, instructor_id, cohort_id, created_by)
        VALUES (:s, :b, :r, :a, :e, :room, :i, :c, :by) RETURNING id`,
       {
         replacements: {
@@ -62,7 +64,7 @@ export async function scheduleSession(user: CurrentUser, input: ScheduleSessionO
           r: briefing.revisionId,
           a: startsAt,
           e: endsAt,
-          room: input.room.trim(),
+          room: room.id,
           i: input.instructorId,
           c: input.cohortId || null,
           by: user.id,

@@ -6,7 +6,7 @@ import { TEACHING_ROLES } from "./session-people";
 
 type Db = { transaction?: Transaction };
 
-/** What the scheduling forms offer: current briefings, instructors, cohorts, students and rooms used before. */
+/** What the scheduling forms offer: current briefings, instructors, cohorts, students and the school's rooms. */
 export async function schedulingChoices(user: CurrentUser, db: Db = {}) {
   const rep = { replacements: { s: user.schoolId }, type: QueryTypes.SELECT as const, transaction: db.transaction };
   const [briefings, instructors, cohorts, students, rooms] = await Promise.all([
@@ -25,10 +25,19 @@ export async function schedulingChoices(user: CurrentUser, db: Db = {}) {
       `SELECT id, name FROM people WHERE school_id = :s AND active AND 'student' = ANY(roles) ORDER BY name`,
       rep,
     ),
-    sequelize.query<{ room: string }>(
-      `SELECT DISTINCT ON (lower(btrim(room))) btrim(room) AS room FROM training_sessions WHERE school_id = :s ORDER BY lower(btrim(room))`,
+    sequelize.query<{ id: string; name: string; capacity: number | null; active: boolean }>(
+      `SELECT id, name, capacity, active FROM rooms WHERE school_id = :s ORDER BY name_key`,
       rep,
     ),
   ]);
-  return { briefings, instructors, cohorts, students, rooms: rooms.map((r) => r.room) };
+  return {
+    briefings,
+    instructors,
+    cohorts,
+    students,
+    /** every room's name, for the Timetable's filters (rooms out of use still have sessions) */
+    rooms: rooms.map((r) => r.name),
+    /** the rooms a session can be booked in: the school's active rooms */
+    roomChoices: rooms.filter((r) => r.active).map(({ id, name, capacity }) => ({ id, name, capacity })),
+  };
 }

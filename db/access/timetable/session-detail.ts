@@ -10,6 +10,8 @@ import type { CurrentUser } from "@/lib/auth/session";
 import type { SessionRow } from "./list-sessions";
 
 export interface SessionDetail extends SessionRow {
+  /** the room in the school's list of rooms (`room` is its name) */
+  roomId: string;
   objective: string;
   syllabusItems: { id: string; code: string; title: string }[];
   attendees: { studentId: string; name: string; via: "cohort" | "individual" }[];
@@ -27,13 +29,14 @@ export async function getSession(user: CurrentUser, sessionId: string): Promise<
     Omit<SessionRow, "date" | "startLocal" | "endLocal" | "startsAt" | "endsAt"> & {
       startsAt: Date;
       endsAt: Date;
+      roomId: string;
       objective: string;
       cohortLeadId: string | null;
     }
   >(
     `SELECT s.id, s.briefing_id AS "briefingId", br.title AS "briefingTitle", br.number AS "revisionNumber", br.objective,
             s.starts_at AS "startsAt", s.ends_at AS "endsAt", (extract(epoch FROM s.ends_at - s.starts_at) / 60)::int AS "durationMinutes",
-            s.room, s.instructor_id AS "instructorId", ip.name AS "instructorName", s.cohort_id AS "cohortId", c.name AS "cohortName",
+            s.room, s.room_id AS "roomId", s.instructor_id AS "instructorId", ip.name AS "instructorName", s.cohort_id AS "cohortId", c.name AS "cohortName",
             c.lead_instructor_id AS "cohortLeadId", s.status, s.sequence, s.cancel_reason AS "cancelReason",
             (SELECT count(*)::int FROM session_attendees a WHERE a.session_id = s.id) AS "attendeeCount",
             (SELECT count(DISTINCT g.student_id)::int FROM ground_log_entries g WHERE g.session_id = s.id) AS "recordedCount"

@@ -10,6 +10,7 @@ import { CURVE_LAB_LOOKUPS } from "./curve-lab-fixtures";
 import { TIMETABLE_LOOKUPS } from "./timetable-fixtures";
 import { BRIEFINGS_LOOKUPS } from "./briefings/fixtures";
 import { RECORDS_LOOKUPS } from "./records/fixtures";
+import { ROOMS_LOOKUPS } from "./rooms/fixtures";
 
 const person = (email: string) => ({ sql: `SELECT id FROM people WHERE lower(email) = lower($1)`, params: [email] });
 
@@ -43,6 +44,8 @@ export const LOOKUPS: Record<string, { sql: string; params?: unknown[] }> = {
   ...BRIEFINGS_LOOKUPS,
   // ---- records ----
   ...RECORDS_LOOKUPS,
+  // ---- rooms ----
+  ...ROOMS_LOOKUPS,
 };
 
 export async function loadFixtures(c: Client): Promise<Fixtures> {

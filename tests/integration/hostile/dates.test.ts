@@ -8,7 +8,7 @@ import { GET as listSessionsRoute } from "@/app/api/sessions/route";
 import { scheduleSessionAction, rescheduleSessionAction } from "@/app/(app)/timetable/actions";
 import { moveStudentAction } from "@/app/(app)/roster/actions";
 import { actAs, closeDb, makeSchool } from "@/tests/helpers/factories";
-import { makeBriefing, count } from "../timetable/helpers";
+import { makeBriefing, count, addRooms } from "../timetable/helpers";
 
 jest.mock("next/cache", () => ({ revalidatePath: jest.fn() }));
 
@@ -18,6 +18,7 @@ let briefingId: string;
 
 beforeAll(async () => {
   s = await makeSchool("hostile-dates");
+  await addRooms(s, ["Hangar classroom", ...BAD_DATES.map(([v]) => `Room ${v}`)]);
   briefingId = (await makeBriefing(s, "Stalling and the polar", ["AER-01"])).id;
 });
 afterAll(async () => {

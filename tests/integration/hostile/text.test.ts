@@ -5,7 +5,7 @@ import { NextRequest } from "next/server";
 import { GET as listSessionsRoute } from "@/app/api/sessions/route";
 import { scheduleSessionAction, cancelSessionAction } from "@/app/(app)/timetable/actions";
 import { actAs, closeDb, makeSchool } from "@/tests/helpers/factories";
-import { makeBriefing, count } from "../timetable/helpers";
+import { makeBriefing, count, addRooms } from "../timetable/helpers";
 
 jest.mock("next/cache", () => ({ revalidatePath: jest.fn() }));
 
@@ -13,6 +13,7 @@ let s: Awaited<ReturnType<typeof makeSchool>>;
 let briefingId: string;
 beforeAll(async () => {
   s = await makeSchool("hostile-text");
+  await addRooms(s, ["Hangar classroom"]);
   briefingId = (await makeBriefing(s, "Gliding range", ["AER-01"])).id;
 });
 afterAll(async () => {

@@ -13,7 +13,7 @@ import { listChecksOfStudent } from "@/db/access/records/check-history";
 import { scheduleSession } from "@/db/access/timetable/schedule-session";
 import { recordAttendance } from "@/db/access/ground-log/record-attendance";
 import { scheduleSessionSchema, recordAttendanceSchema } from "@/lib/timetable/schema";
-import { makeBriefing } from "@/tests/integration/timetable/helpers";
+import { makeBriefing, addRooms } from "@/tests/integration/timetable/helpers";
 import { check, sign, itemId, auditCount, type School } from "./helpers";
 
 // Issue 12, "Assessment integrity": each test failed on the behaviour before the change.
@@ -45,6 +45,7 @@ async function stageId(s: School, code: string) {
 /** A session covering the codes for cohort A, with one attendance line for the student. */
 async function sessionWith(s: School, codes: string[], studentId: string, status: "attended" | "absent", date: string) {
   const b = await makeBriefing(s, `Briefing ${codes.join(" ")}`, codes);
+  await addRooms(s, ["Hangar classroom"]);
   const session = await sequelize.transaction((t) =>
     scheduleSession(
       s.as.instructor,

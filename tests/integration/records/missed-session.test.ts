@@ -8,13 +8,14 @@ import { waiveMakeup } from "@/db/access/ground-log/change-makeup";
 import { scheduleSessionSchema, recordAttendanceSchema } from "@/lib/timetable/schema";
 import { signOffRegister } from "@/db/access/records/sign-off-register";
 import { RecordRefusal } from "@/db/access/records/refusals";
-import { makeBriefing } from "@/tests/integration/timetable/helpers";
+import { makeBriefing, addRooms } from "@/tests/integration/timetable/helpers";
 import { check, sign, itemId } from "./helpers";
 
 afterAll(closeDb);
 
 it("an item signed while the student missed its covering session with no completed make-up raises a watch note", async () => {
   const s = await makeSchool("missed");
+  await addRooms(s, ["Hangar classroom"]);
   const st = s.people.students[0]!.id;
   const aer = await makeBriefing(s, "Drag curves", ["AER-01"]);
   const session = await sequelize.transaction((t) =>

@@ -10,7 +10,7 @@ import { resetCalendarToken } from "@/db/access/timetable/calendar-feed";
 import { scheduleSessionSchema } from "@/lib/timetable/schema";
 import { GET } from "@/app/api/calendar/[token]/route";
 import { setClock, resetClock } from "@/lib/clock";
-import { makeBriefing } from "./helpers";
+import { makeBriefing, addRooms } from "./helpers";
 
 afterAll(async () => {
   resetClock();
@@ -21,6 +21,7 @@ type School = Awaited<ReturnType<typeof makeSchool>>;
 let s: School;
 beforeAll(async () => {
   s = await makeSchool("ics");
+  await addRooms(s, ["Briefing room 2", "Elsewhere"]);
   setClock(() => new Date("2026-11-01T12:00:00Z"));
 });
 

@@ -14,7 +14,7 @@ import { waiveMakeup, closeMakeup, scheduleMakeup } from "@/db/access/ground-log
 import { scheduleSessionSchema, recordAttendanceSchema, amendEntrySchema } from "@/lib/timetable/schema";
 import { hoursLabel } from "@/lib/time";
 import { setClock, resetClock } from "@/lib/clock";
-import { makeBriefing, count } from "./helpers";
+import { makeBriefing, count, addRooms } from "./helpers";
 
 afterAll(async () => {
   resetClock();
@@ -28,6 +28,7 @@ let atm: Awaited<ReturnType<typeof makeBriefing>>;
 
 beforeAll(async () => {
   s = await makeSchool("gl");
+  await addRooms(s, ["Hangar classroom", "Office"]);
   aer = await makeBriefing(s, "Drag curves", ["AER-01", "AER-02"]);
   atm = await makeBriefing(s, "The standard atmosphere", ["ATM-01"]);
   setClock(() => new Date("2026-11-30T12:00:00Z"));

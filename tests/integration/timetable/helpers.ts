@@ -42,3 +42,11 @@ export async function count(sql: string, replacements: Record<string, unknown>):
   const [row] = await sequelize.query<{ n: number }>(sql, { replacements, type: QueryTypes.SELECT });
   return row!.n;
 }
+
+/** Puts rooms of these names on the school's list (the Timetable books only listed rooms). */
+export async function addRooms(s: School, names: string[]): Promise<void> {
+  await sequelize.query(
+    `INSERT INTO rooms (school_id, name) SELECT :s, unnest(ARRAY[:names]::text[]) ON CONFLICT (school_id, name_key) DO NOTHING`,
+    { replacements: { s: s.school.id, names } },
+  );
+}

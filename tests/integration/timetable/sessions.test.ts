@@ -9,7 +9,7 @@ import { schedulingChoices } from "@/db/access/timetable/scheduling-choices";
 import { scheduleSessionSchema } from "@/lib/timetable/schema";
 import { HttpError } from "@/lib/http/errors";
 import { formatInZone } from "@/lib/time";
-import { makeBriefing, count } from "./helpers";
+import { makeBriefing, count, addRooms } from "./helpers";
 
 afterAll(closeDb);
 
@@ -19,6 +19,19 @@ let briefing: { id: string };
 
 beforeAll(async () => {
   s = await makeSchool("tt");
+  await addRooms(s, [
+    "Hangar classroom",
+    "Briefing room 2",
+    "Room A",
+    "Room B",
+    "Room C",
+    "Room D",
+    "Room E",
+    "Room F",
+    "Elsewhere",
+    "DST room",
+    "Night room",
+  ]);
   briefing = await makeBriefing(s, "Drag and the minimum-drag speed", ["AER-01", "AER-02"]);
 });
 

@@ -90,11 +90,11 @@ export default async function SessionPage({ params }: { params: Promise<{ sessio
             date: s.date,
             time: s.startLocal,
             durationMinutes: s.durationMinutes,
-            room: s.room,
+            roomId: s.roomId,
             instructorId: s.instructorId,
           }}
           instructors={choices.instructors}
-          rooms={choices.rooms}
+          rooms={choices.roomChoices}
         />
       )}
     </div>

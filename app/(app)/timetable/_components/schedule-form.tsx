@@ -16,6 +16,7 @@ export interface SchedulingChoices {
   cohorts: { id: string; name: string }[];
   students: { id: string; name: string }[];
   rooms: string[];
+  roomChoices: { id: string; name: string; capacity: number | null }[];
 }
 
 function newKey() {
@@ -39,7 +40,8 @@ export function ScheduleForm({ choices, defaults }: { choices: SchedulingChoices
       date: defaults.date,
       time: "09:00",
       durationMinutes: 60,
-      room: choices.rooms[0] ?? "",
+      roomId: choices.roomChoices[0]?.id ?? "",
+      room: "",
       instructorId: defaults.instructorId,
       cohortId: "",
       studentIds: [],
@@ -137,22 +139,19 @@ export function ScheduleForm({ choices, defaults }: { choices: SchedulingChoices
         {err("durationMinutes")}
       </div>
       <div>
-        <label htmlFor="room" className="field-label">
+        <label htmlFor="roomId" className="field-label">
           Room
         </label>
-        <input
-          id="room"
-          list="room-list"
-          className="field-input"
-          aria-invalid={!!errors.room}
-          aria-describedby="room-error"
-          {...register("room")}
-        />
-        <datalist id="room-list">
-          {choices.rooms.map((r) => (
-            <option key={r} value={r} />
+        <select id="roomId" className="field-input" aria-invalid={!!errors.roomId} aria-describedby="roomId-error" {...register("roomId")}>
+          <option value="">Choose a room</option>
+          {choices.roomChoices.map((r) => (
+            <option key={r.id} value={r.id}>
+              {r.name}
+              {r.capacity ? ` (${r.capacity} seats)` : ""}
+            </option>
           ))}
-        </datalist>
+        </select>
+        {err("roomId")}
         {err("room")}
       </div>
       <div>

@@ -18,9 +18,9 @@ export function SessionChanges({
   instructors,
   rooms,
 }: {
-  session: { id: string; date: string; time: string; durationMinutes: number; room: string; instructorId: string };
+  session: { id: string; date: string; time: string; durationMinutes: number; roomId: string; instructorId: string };
   instructors: { id: string; name: string }[];
-  rooms: string[];
+  rooms: { id: string; name: string }[];
 }) {
   const router = useRouter();
   const [msg, setMsg] = useState<{ text: string; ok: boolean } | null>(null);
@@ -31,7 +31,8 @@ export function SessionChanges({
       date: session.date,
       time: session.time,
       durationMinutes: session.durationMinutes,
-      room: session.room,
+      roomId: session.roomId,
+      room: "",
       instructorId: session.instructorId,
     },
   });
@@ -89,13 +90,15 @@ export function SessionChanges({
           <label htmlFor="rs-room" className="field-label">
             Room
           </label>
-          <input id="rs-room" list="rs-rooms" className="field-input" {...r.register("room")} />
-          <datalist id="rs-rooms">
+          <select id="rs-room" className="field-input" {...r.register("roomId")}>
+            <option value="">Choose a room</option>
             {rooms.map((x) => (
-              <option key={x} value={x} />
+              <option key={x.id} value={x.id}>
+                {x.name}
+              </option>
             ))}
-          </datalist>
-          {re.room && <p className="field-error">{re.room.message}</p>}
+          </select>
+          {re.roomId && <p className="field-error">{re.roomId.message}</p>}
         </div>
         <div className="sm:col-span-2">
           <label htmlFor="rs-instructor" className="field-label">
