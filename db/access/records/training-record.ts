@@ -13,7 +13,7 @@ import { listChecksOfStudent, type CheckSummary } from "./check-history";
 import { signOffRegister } from "./sign-off-register";
 import { chainHead } from "./audit-chain";
 import { itemsOfRevision } from "./items";
-import { certificateNumbersOn, certifyingInstructor } from "../people/qualification-history";
+import { certificateNumbersOn, certifyingInstructor } from "../people/qualification-reads";
 
 // The printable training record of one student.
 

@@ -3,7 +3,7 @@ import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
 import { listLockedAccounts } from "../people/sign-in-locks";
-import { recencyDueSoon } from "../people/qualification-history";
+import { recencyDueSoon } from "../people/qualification-reads";
 import { getSchool } from "../shared/school";
 import { now } from "@/lib/clock";
 import { dateInZone } from "@/lib/time";

@@ -11,7 +11,7 @@ import { makeSchool, closeDb, actAs, TEST_PASSWORD } from "@/tests/helpers/facto
 import { changeQualification } from "@/tests/helpers/qualifications";
 import { saveQualificationAction } from "@/app/(app)/people/actions";
 import { GET as trainingRecordRoute } from "@/app/api/records/[studentId]/training-record/route";
-import { qualificationHistory } from "@/db/access/people/qualification-history";
+import { qualificationHistory } from "@/db/access/people/qualification-reads";
 import { signerStanding } from "@/db/access/records/sign-off-plan";
 import { signOffRegister } from "@/db/access/records/sign-off-register";
 import { conductStageCheck } from "@/db/access/records/stage-checks";

@@ -8,7 +8,7 @@ import { uuidParam } from "@/lib/http/api";
 import { now } from "@/lib/clock";
 import { dateInZone } from "@/lib/time";
 import { getPersonInSchool } from "@/db/access/people/list-people";
-import { qualificationHistory, schoolCourses } from "@/db/access/people/qualification-history";
+import { qualificationHistory, schoolCourses } from "@/db/access/people/qualification-reads";
 import { getSchool } from "@/db/access/shared/school";
 import { ScrollArea } from "@/components/ui/scroll-area";
 import { QualificationForm } from "./_components/qualification-form";
