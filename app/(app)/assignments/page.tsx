@@ -11,7 +11,7 @@ import { AssignmentForm } from "./_components/assignment-form";
 import { DoneToggle } from "./_components/done-toggle";
 import { StatusBadge } from "./_components/status-badge";
 import { formatDueOn } from "./_components/format";
-import { ScrollArea } from "@/components/ui/scroll-area";
+import { WideTable } from "@/components/ui/wide-table";
 
 export const metadata: Metadata = { title: "Assignments" };
 export const dynamic = "force-dynamic";
@@ -43,39 +43,49 @@ export default async function AssignmentsPage({ searchParams }: { searchParams: 
           {rows.length === 0 ? (
             <p className="mt-2 text-ink-soft">Nothing assigned yet.</p>
           ) : (
-            <ScrollArea label="Assignments table (scrolls sideways on small screens)" className="mt-2">
-              <table className="data-table" data-testid="staff-assignments">
-                <thead>
-                  <tr>
-                    <th scope="col">What</th>
-                    <th scope="col">For</th>
-                    <th scope="col">Due</th>
-                    <th scope="col">Done</th>
-                    <th scope="col">Overdue</th>
-                    <th scope="col">Set by</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {rows.map((a) => (
-                    <tr key={a.id}>
-                      <td>
-                        <Link href={`/assignments/${a.id}`} className="font-semibold">
-                          {a.title}
-                        </Link>{" "}
-                        <span className="text-caption text-ink-soft">· {a.kind === "briefing" ? "briefing" : "demo"}</span>
-                      </td>
-                      <td>{a.target}</td>
-                      <td className="num">{formatDueOn(a.dueOn)}</td>
-                      <td className="num">
-                        {a.done} of {a.students}
-                      </td>
-                      <td className="num">{a.overdue}</td>
-                      <td>{a.assignedByName}</td>
+            <div className="mt-2">
+              <WideTable label="Assignments table (scrolls sideways on small screens)" more={3}>
+                <table className="data-table" data-testid="staff-assignments">
+                  <thead>
+                    <tr>
+                      <th scope="col">What</th>
+                      <th scope="col" data-more="">
+                        For
+                      </th>
+                      <th scope="col">Due</th>
+                      <th scope="col">Done</th>
+                      <th scope="col" data-more="">
+                        Overdue
+                      </th>
+                      <th scope="col" data-more="">
+                        Set by
+                      </th>
                     </tr>
-                  ))}
-                </tbody>
-              </table>
-            </ScrollArea>
+                  </thead>
+                  <tbody>
+                    {rows.map((a) => (
+                      <tr key={a.id}>
+                        <td>
+                          <Link href={`/assignments/${a.id}`} className="font-semibold">
+                            {a.title}
+                          </Link>{" "}
+                          <span className="text-caption text-ink-soft">· {a.kind === "briefing" ? "briefing" : "demo"}</span>
+                        </td>
+                        <td data-more="">{a.target}</td>
+                        <td className="num">{formatDueOn(a.dueOn)}</td>
+                        <td className="num">
+                          {a.done} of {a.students}
+                        </td>
+                        <td className="num" data-more="">
+                          {a.overdue}
+                        </td>
+                        <td data-more="">{a.assignedByName}</td>
+                      </tr>
+                    ))}
+                  </tbody>
+                </table>
+              </WideTable>
+            </div>
           )}
         </section>
       </div>

@@ -5,7 +5,7 @@ import { listBriefings } from "@/db/access/briefings/list";
 import { briefingListQuery } from "@/lib/briefings/schema";
 import { getSchool } from "@/db/access/shared/school";
 import { formatDay } from "@/lib/time";
-import { ScrollArea } from "@/components/ui/scroll-area";
+import { WideTable } from "@/components/ui/wide-table";
 
 export const metadata: Metadata = { title: "Briefings" };
 export const dynamic = "force-dynamic";
@@ -101,49 +101,66 @@ export default async function BriefingsPage({ searchParams }: { searchParams: Pr
             : `${result.total} briefing${result.total === 1 ? "" : "s"} · page ${query.page} of ${pages}`}
         </p>
         {result.rows.length > 0 && (
-          <ScrollArea label="Briefings table (scrolls sideways on small screens)" className="mt-2">
-            <table className="data-table" data-testid="briefings-table">
-              <thead>
-                <tr>
-                  {COLUMNS.map((c) => {
-                    const active = query.sort === c.key;
-                    const nextDir = active && query.dir === "asc" ? "desc" : "asc";
-                    return (
-                      <th key={c.key} scope="col" aria-sort={active ? (query.dir === "asc" ? "ascending" : "descending") : "none"}>
-                        <Link href={href({ sort: c.key, dir: nextDir, page: 1 })} className="inline-flex min-h-10 items-center gap-1">
-                          {c.label}
-                          <span aria-hidden="true">{active ? (query.dir === "asc" ? "▲" : "▼") : ""}</span>
-                          {active && <span className="sr-only">, sorted {query.dir === "asc" ? "ascending" : "descending"}</span>}
-                        </Link>
-                      </th>
-                    );
-                  })}
-                  <th scope="col">Syllabus items</th>
-                  <th scope="col">Handouts · demos</th>
-                </tr>
-              </thead>
-              <tbody>
-                {result.rows.map((b) => (
-                  <tr key={b.id}>
-                    <td>
-                      <Link href={`/briefings/${b.id}`} className="font-semibold">
-                        {b.title}
-                      </Link>
-                    </td>
-                    <td className="num">{b.minutes}</td>
-                    <td className="num">{b.revisionNumber}</td>
-                    <td className="num">
-                      {formatDay(new Date(b.updatedAt), school.timeZone)} <span className="text-ink-soft">· {b.updatedByName}</span>
-                    </td>
-                    <td className="num">{b.itemCodes.join(", ") || "—"}</td>
-                    <td className="num">
-                      {b.handouts} · {b.demos}
-                    </td>
+          <div className="mt-2">
+            <WideTable label="Briefings table (scrolls sideways on small screens)" more={4}>
+              <table className="data-table" data-testid="briefings-table">
+                <thead>
+                  <tr>
+                    {COLUMNS.map((c) => {
+                      const active = query.sort === c.key;
+                      const nextDir = active && query.dir === "asc" ? "desc" : "asc";
+                      return (
+                        <th
+                          key={c.key}
+                          scope="col"
+                          data-more={c.key === "revision" || c.key === "updated" ? "" : undefined}
+                          aria-sort={active ? (query.dir === "asc" ? "ascending" : "descending") : "none"}
+                        >
+                          <Link href={href({ sort: c.key, dir: nextDir, page: 1 })} className="inline-flex min-h-10 items-center gap-1">
+                            {c.label}
+                            <span aria-hidden="true">{active ? (query.dir === "asc" ? "▲" : "▼") : ""}</span>
+                            {active && <span className="sr-only">, sorted {query.dir === "asc" ? "ascending" : "descending"}</span>}
+                          </Link>
+                        </th>
+                      );
+                    })}
+                    <th scope="col" data-more="">
+                      Syllabus items
+                    </th>
+                    <th scope="col" data-more="">
+                      Handouts · demos
+                    </th>
                   </tr>
-                ))}
-              </tbody>
-            </table>
-          </ScrollArea>
+                </thead>
+                <tbody>
+                  {result.rows.map((b) => (
+                    <tr key={b.id}>
+                      <td>
+                        <Link href={`/briefings/${b.id}`} className="font-semibold">
+                          {b.title}
+                        </Link>
+                      </td>
+                      <td className="num">{b.minutes}</td>
+                      <td className="num" data-more="">
+                        {b.revisionNumber}
+                      </td>
+                      <td className="num" data-more="">
+                        {formatDay(new Date(b.updatedAt), school.timeZone)}
+                        {/* who revised it is staff information */}
+                        {!isStudent && <span className="text-ink-soft"> · {b.updatedByName}</span>}
+                      </td>
+                      <td className="num" data-more="">
+                        {b.itemCodes.join(", ") || "—"}
+                      </td>
+                      <td className="num" data-more="">
+                        {b.handouts} · {b.demos}
+                      </td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </WideTable>
+          </div>
         )}
         {pages > 1 && (
           <nav aria-label="Pages" className="mt-3 flex items-center gap-2">

@@ -6,7 +6,8 @@ import { rolesAllow } from "@/lib/auth/permissions";
 import { listPeople } from "@/db/access/people/list-people";
 import { listCohorts, listCohortMembers } from "@/db/access/cohorts/list-cohorts";
 import { ROLES, ROLE_LABELS } from "@/lib/auth/roles";
-import { ScrollArea } from "@/components/ui/scroll-area";
+import { WideTable } from "@/components/ui/wide-table";
+import { formatDay } from "@/lib/time";
 
 export const metadata: Metadata = { title: "People" };
 export const dynamic = "force-dynamic";
@@ -37,28 +38,38 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
               · lead {cohort.leadInstructorName} · from {cohort.startsOn}
             </span>
           </h2>
-          <ScrollArea label={`${cohort.name} roster`} className="mt-2">
-            <table className="data-table">
-              <thead>
-                <tr>
-                  <th scope="col">Student</th>
-                  <th scope="col">E-mail</th>
-                  <th scope="col">Member from</th>
-                  <th scope="col">to</th>
-                </tr>
-              </thead>
-              <tbody>
-                {members.map((m) => (
-                  <tr key={`${m.studentId}-${m.fromDate}`}>
-                    <td>{m.name}</td>
-                    <td className="break-all">{m.email}</td>
-                    <td className="num">{m.fromDate}</td>
-                    <td className="num">{m.toDate ?? "—"}</td>
+          <div className="mt-2">
+            <WideTable label={`${cohort.name} roster, scrolls sideways`} more={2}>
+              <table className="data-table">
+                <thead>
+                  <tr>
+                    <th scope="col">Student</th>
+                    <th scope="col" data-more="">
+                      E-mail
+                    </th>
+                    <th scope="col">Member from</th>
+                    <th scope="col" data-more="">
+                      to
+                    </th>
                   </tr>
-                ))}
-              </tbody>
-            </table>
-          </ScrollArea>
+                </thead>
+                <tbody>
+                  {members.map((m) => (
+                    <tr key={`${m.studentId}-${m.fromDate}`}>
+                      <td>{m.name}</td>
+                      <td className="break-all" data-more="">
+                        {m.email}
+                      </td>
+                      <td className="num">{formatDay(m.fromDate)}</td>
+                      <td className="num" data-more="">
+                        {m.toDate ? formatDay(m.toDate) : "—"}
+                      </td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </WideTable>
+          </div>
         </section>
       ))}
       {everyone && (
@@ -88,28 +99,36 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
               Filter
             </button>
           </form>
-          <ScrollArea label="Everyone at the school" className="mt-3">
-            <table className="data-table">
-              <thead>
-                <tr>
-                  <th scope="col">Name</th>
-                  <th scope="col">E-mail</th>
-                  <th scope="col">Roles</th>
-                  <th scope="col">Status</th>
-                </tr>
-              </thead>
-              <tbody>
-                {people.map((p) => (
-                  <tr key={p.id}>
-                    <td>{rolesAllow(p.roles, "records.sign") ? <Link href={`/people/${p.id}`}>{p.name}</Link> : p.name}</td>
-                    <td className="break-all">{p.email}</td>
-                    <td>{p.roles.map((r) => ROLE_LABELS[r]).join(", ")}</td>
-                    <td>{p.active ? "Active" : "Deactivated"}</td>
+          <div className="mt-3">
+            <WideTable label="Everyone at the school, scrolls sideways" more={2}>
+              <table className="data-table">
+                <thead>
+                  <tr>
+                    <th scope="col">Name</th>
+                    <th scope="col" data-more="">
+                      E-mail
+                    </th>
+                    <th scope="col">Roles</th>
+                    <th scope="col" data-more="">
+                      Status
+                    </th>
                   </tr>
-                ))}
-              </tbody>
-            </table>
-          </ScrollArea>
+                </thead>
+                <tbody>
+                  {people.map((p) => (
+                    <tr key={p.id}>
+                      <td>{rolesAllow(p.roles, "records.sign") ? <Link href={`/people/${p.id}`}>{p.name}</Link> : p.name}</td>
+                      <td className="break-all" data-more="">
+                        {p.email}
+                      </td>
+                      <td>{p.roles.map((r) => ROLE_LABELS[r]).join(", ")}</td>
+                      <td data-more="">{p.active ? "Active" : "Deactivated"}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </WideTable>
+          </div>
         </section>
       )}
     </div>

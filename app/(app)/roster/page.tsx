@@ -4,12 +4,12 @@ import { listCohorts } from "@/db/access/cohorts/list-cohorts";
 import { listRoster } from "@/db/access/roster/list-roster";
 import { cohortsManagedBy } from "@/db/access/roster/managed-cohorts";
 import { getSchool } from "@/db/access/shared/school";
-import { dateInZone } from "@/lib/time";
+import { dateInZone, formatDay } from "@/lib/time";
 import { now } from "@/lib/clock";
 import { AddStudentForm } from "./_components/add-student-form";
 import { RosterImport } from "./_components/roster-import";
 import { MoveStudent } from "./_components/move-student";
-import { ScrollArea } from "@/components/ui/scroll-area";
+import { WideTable } from "@/components/ui/wide-table";
 
 export const metadata: Metadata = { title: "Roster" };
 export const dynamic = "force-dynamic";
@@ -42,51 +42,61 @@ export default async function RosterPage() {
                 <span className="num">{members.length}</span> students
               </span>
             </h2>
-            <ScrollArea label={`${c.name} students, scrolls sideways`} className="mt-2">
-              <table className="data-table">
-                <thead>
-                  <tr>
-                    <th scope="col">Student</th>
-                    <th scope="col">E-mail</th>
-                    <th scope="col">Cohort history</th>
-                    <th scope="col">Sponsor</th>
-                    <th scope="col">Move</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {members.map((m) => (
-                    <tr key={m.studentId}>
-                      <td>{m.name}</td>
-                      <td className="whitespace-nowrap">{m.email}</td>
-                      <td className="text-caption">
-                        {m.history.map((h) => (
-                          <span key={`${h.cohortName}-${h.fromDate}`} className="block num">
-                            {h.cohortName}: {h.fromDate} – {h.toDate ?? "now"}
-                          </span>
-                        ))}
-                      </td>
-                      <td>{m.sponsors.length ? m.sponsors.join(", ") : "—"}</td>
-                      <td>
-                        <MoveStudent
-                          studentId={m.studentId}
-                          studentName={m.name}
-                          currentCohortId={c.id}
-                          cohorts={allCohorts}
-                          today={today}
-                        />
-                      </td>
-                    </tr>
-                  ))}
-                  {members.length === 0 && (
+            <div className="mt-2">
+              <WideTable label={`${c.name} students, scrolls sideways`} more={3}>
+                <table className="data-table">
+                  <thead>
                     <tr>
-                      <td colSpan={5} className="text-ink-soft">
-                        No students in this cohort now.
-                      </td>
+                      <th scope="col">Student</th>
+                      <th scope="col" data-more="">
+                        E-mail
+                      </th>
+                      <th scope="col">Cohort history</th>
+                      <th scope="col" data-more="">
+                        Sponsor
+                      </th>
+                      <th scope="col" data-more="">
+                        Move
+                      </th>
                     </tr>
-                  )}
-                </tbody>
-              </table>
-            </ScrollArea>
+                  </thead>
+                  <tbody>
+                    {members.map((m) => (
+                      <tr key={m.studentId}>
+                        <td>{m.name}</td>
+                        <td className="whitespace-nowrap" data-more="">
+                          {m.email}
+                        </td>
+                        <td className="text-caption">
+                          {m.history.map((h) => (
+                            <span key={`${h.cohortName}-${h.fromDate}`} className="block num">
+                              {h.cohortName}: {formatDay(h.fromDate)} – {h.toDate ? formatDay(h.toDate) : "now"}
+                            </span>
+                          ))}
+                        </td>
+                        <td data-more="">{m.sponsors.length ? m.sponsors.join(", ") : "—"}</td>
+                        <td data-more="">
+                          <MoveStudent
+                            studentId={m.studentId}
+                            studentName={m.name}
+                            currentCohortId={c.id}
+                            cohorts={allCohorts}
+                            today={today}
+                          />
+                        </td>
+                      </tr>
+                    ))}
+                    {members.length === 0 && (
+                      <tr>
+                        <td colSpan={5} className="text-ink-soft">
+                          No students in this cohort now.
+                        </td>
+                      </tr>
+                    )}
+                  </tbody>
+                </table>
+              </WideTable>
+            </div>
           </section>
         );
       })}

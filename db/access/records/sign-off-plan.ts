@@ -5,7 +5,7 @@ import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
 import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";
-import { dateInZone } from "@/lib/time";
+import { dateInZone, formatDay } from "@/lib/time";
 import { LEVEL_LABEL, levelReaches, type ItemOutcome, type LevelOfLearning } from "@/lib/records/outcome";
 import { requireStudentFor } from "../shared/student-scope";
 import { getSchool } from "../shared/school";
@@ -69,8 +69,8 @@ function statementText(p: {
 }): string {
   return (
     `I, ${p.signerName}, certify that ${p.studentName} has met the completion standard of syllabus item ${p.item.code} "${p.item.title}" ` +
-    `at the level of ${LEVEL_LABEL[p.item.requiredLevel].toLowerCase()} or above, on the basis of the oral check of ${dateInZone(p.basis.occurredAt, p.timeZone)} ` +
-    `recorded by ${p.basis.instructorName}. Signed for ${p.signedOn}.`
+    `at the level of ${LEVEL_LABEL[p.item.requiredLevel].toLowerCase()} or above, on the basis of the oral check of ${formatDay(p.basis.occurredAt, p.timeZone)} ` +
+    `recorded by ${p.basis.instructorName}. Signed for ${formatDay(p.signedOn)}.`
   );
 }
 
@@ -113,7 +113,7 @@ export async function planSignOff(user: CurrentUser, input: Omit<SignOffInput, "
   if (basis.withdrawn)
     throw new RecordRefusal(
       "check_withdrawn",
-      `basisCheckId: the oral check of ${dateInZone(basis.occurredAt, school.timeZone)} on ${item.code} was withdrawn`,
+      `basisCheckId: the oral check of ${formatDay(basis.occurredAt, school.timeZone)} on ${item.code} was withdrawn`,
       "basisCheckId",
     );
   if (!levelReaches(basis.levelShown, item.requiredLevel)) {

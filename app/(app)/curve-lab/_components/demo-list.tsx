@@ -1,7 +1,7 @@
 "use client";
 import Link from "next/link";
 import { useQuery } from "@tanstack/react-query";
-import { ScrollArea } from "@/components/ui/scroll-area";
+import { WideTable } from "@/components/ui/wide-table";
 import { formatDay } from "@/lib/time";
 
 interface Row {
@@ -40,7 +40,7 @@ export function DemoList({ staff }: { staff: boolean }) {
       </p>
     );
   return (
-    <ScrollArea label="List, scrolls sideways">
+    <WideTable label="List, scrolls sideways" more={staff ? 3 : 1}>
       <table className="data-table" data-testid="demo-list">
         <thead>
           <tr>
@@ -48,15 +48,23 @@ export function DemoList({ staff }: { staff: boolean }) {
             {staff ? (
               <>
                 <th scope="col">Airframe</th>
-                <th scope="col">Cases</th>
-                <th scope="col">Revision</th>
-                <th scope="col">Owner</th>
+                <th scope="col" data-more="">
+                  Cases
+                </th>
+                <th scope="col" data-more="">
+                  Revision
+                </th>
+                <th scope="col" data-more="">
+                  Owner
+                </th>
                 <th scope="col">Use</th>
               </>
             ) : (
               <>
                 <th scope="col">Due</th>
-                <th scope="col">Through</th>
+                <th scope="col" data-more="">
+                  Through
+                </th>
               </>
             )}
           </tr>
@@ -72,21 +80,25 @@ export function DemoList({ staff }: { staff: boolean }) {
               {staff ? (
                 <>
                   <td>{r.airframeName}</td>
-                  <td className="num">{r.caseCount}</td>
-                  <td className="num">{r.revisionNumber}</td>
-                  <td>{r.ownerName}</td>
+                  <td className="num" data-more="">
+                    {r.caseCount}
+                  </td>
+                  <td className="num" data-more="">
+                    {r.revisionNumber}
+                  </td>
+                  <td data-more="">{r.ownerName}</td>
                   <td>{r.inUse ? "In use" : "Not used yet"}</td>
                 </>
               ) : (
                 <>
                   <td className="num">{r.dueOn ? formatDay(r.dueOn) : "—"}</td>
-                  <td>{r.viaBriefingTitle ?? "Assigned directly"}</td>
+                  <td data-more="">{r.viaBriefingTitle ?? "Assigned directly"}</td>
                 </>
               )}
             </tr>
           ))}
         </tbody>
       </table>
-    </ScrollArea>
+    </WideTable>
   );
 }

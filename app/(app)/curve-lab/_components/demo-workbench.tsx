@@ -30,6 +30,7 @@ import { caseFigures, flaggedSpeed, whatIf, GUST_ABOVE_VMD, GUST_BELOW_VMD, AXIS
 import { kgToLb, mToFt, ftToM } from "@/lib/aero";
 import { callGap } from "@/lib/curve-lab/call-gap";
 import { deleteDemoAction, duplicateDemoAction, makeCallAction, renameDemoAction, saveDemoAction } from "../actions";
+import { formatDay } from "@/lib/time";
 
 export interface WorkbenchProps {
   mode: "builder" | "student";
@@ -428,8 +429,7 @@ export function DemoWorkbench(props: WorkbenchProps) {
                   return (
                     <li key={c.id} className="num">
                       Revision {c.revisionNumber}, {CALL_KIND_LABELS[c.kind]}: your call {g.call}, answer {g.answer},{" "}
-                      {g.direction === "on the answer" ? "on the answer" : `${g.gap} ${g.direction}`} ·{" "}
-                      {new Date(c.createdAt).toISOString().slice(0, 10)}
+                      {g.direction === "on the answer" ? "on the answer" : `${g.gap} ${g.direction}`} · {formatDay(new Date(c.createdAt))}
                     </li>
                   );
                 })}

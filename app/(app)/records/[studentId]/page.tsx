@@ -25,7 +25,7 @@ import { stageCheckStatement } from "@/lib/records/statements";
 import { dateInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
 import { OutcomeBadge } from "@/app/(app)/progress/_components/outcome-badge";
-import { ScrollArea } from "@/components/ui/scroll-area";
+import { WideTable } from "@/components/ui/wide-table";
 import { PracticeReadiness } from "@/app/(app)/practice/_components/practice-readiness";
 import { STAGE_RESULT_WORDS, words } from "@/lib/labels";
 
@@ -133,63 +133,67 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
 
       <section className="card" aria-labelledby="signoffs">
         <h2 id="signoffs">Sign-offs</h2>
-        <ScrollArea label="Sign-offs" className="mt-2">
-          <table className="data-table">
-            <thead>
-              <tr>
-                <th scope="col">Item</th>
-                <th scope="col">Status</th>
-                <th scope="col">Sign-off</th>
-              </tr>
-            </thead>
-            <tbody>
-              {progress.stages.flatMap((s) =>
-                s.items.map((i) => {
-                  const so = signed.get(i.id);
-                  const plan = plans.find((p) => p.item.id === i.id);
-                  return (
-                    <tr key={i.id}>
-                      <td>
-                        <span className="num font-semibold">{i.code}</span> {i.title}
-                        <br />
-                        <span className="text-caption text-ink-soft">requires {LEVEL_LABEL[i.requiredLevel].toLowerCase()}</span>
-                      </td>
-                      <td>
-                        {ITEM_STATUS_LABEL[i.status]}
-                        {i.lastOutcome && <> · last {OUTCOME_LABEL[i.lastOutcome]}</>}
-                      </td>
-                      <td>
-                        {so ? (
-                          <div className="space-y-1">
-                            <p>
-                              Signed for {formatDay(so.signedOn)} by {so.signerName}
+        <div className="mt-2">
+          <WideTable label="Sign-offs, scrolls sideways" more={1}>
+            <table className="data-table">
+              <thead>
+                <tr>
+                  <th scope="col">Item</th>
+                  <th scope="col">Status</th>
+                  <th scope="col" data-more="">
+                    Sign-off
+                  </th>
+                </tr>
+              </thead>
+              <tbody>
+                {progress.stages.flatMap((s) =>
+                  s.items.map((i) => {
+                    const so = signed.get(i.id);
+                    const plan = plans.find((p) => p.item.id === i.id);
+                    return (
+                      <tr key={i.id}>
+                        <td>
+                          <span className="num font-semibold">{i.code}</span> {i.title}
+                          <br />
+                          <span className="text-caption text-ink-soft">requires {LEVEL_LABEL[i.requiredLevel].toLowerCase()}</span>
+                        </td>
+                        <td>
+                          {ITEM_STATUS_LABEL[i.status]}
+                          {i.lastOutcome && <> · last {OUTCOME_LABEL[i.lastOutcome]}</>}
+                        </td>
+                        <td data-more="">
+                          {so ? (
+                            <div className="space-y-1">
+                              <p>
+                                Signed for {formatDay(so.signedOn)} by {so.signerName}
+                              </p>
+                              {can(user, "records.amend") && (
+                                <div className="flex flex-wrap gap-2">
+                                  <WithdrawButton kind="signOff" id={so.id} label={`Withdraw sign-off of ${i.code}`} />
+                                  <AmendButton signOffId={so.id} itemCode={i.code} />
+                                </div>
+                              )}
+                            </div>
+                          ) : plan?.statement ? (
+                            can(user, "records.sign") ? (
+                              <SignOffPanel studentId={student.id} itemId={i.id} itemCode={i.code} statement={plan.statement} />
+                            ) : null
+                          ) : plan?.refusal ? (
+                            <p className="text-caption text-ink-soft" data-testid={`refusal-${i.code}`}>
+                              Not yet signable: {plan.refusal}
                             </p>
-                            {can(user, "records.amend") && (
-                              <div className="flex flex-wrap gap-2">
-                                <WithdrawButton kind="signOff" id={so.id} label={`Withdraw sign-off of ${i.code}`} />
-                                <AmendButton signOffId={so.id} itemCode={i.code} />
-                              </div>
-                            )}
-                          </div>
-                        ) : plan?.statement ? (
-                          can(user, "records.sign") ? (
-                            <SignOffPanel studentId={student.id} itemId={i.id} itemCode={i.code} statement={plan.statement} />
-                          ) : null
-                        ) : plan?.refusal ? (
-                          <p className="text-caption text-ink-soft" data-testid={`refusal-${i.code}`}>
-                            Not yet signable: {plan.refusal}
-                          </p>
-                        ) : (
-                          <p className="text-caption text-ink-soft">{s.passed ? "Stage passed" : "Stage not open"}</p>
-                        )}
-                      </td>
-                    </tr>
-                  );
-                }),
-              )}
-            </tbody>
-          </table>
-        </ScrollArea>
+                          ) : (
+                            <p className="text-caption text-ink-soft">{s.passed ? "Stage passed" : "Stage not open"}</p>
+                          )}
+                        </td>
+                      </tr>
+                    );
+                  }),
+                )}
+              </tbody>
+            </table>
+          </WideTable>
+        </div>
       </section>
 
       <section className="card" aria-labelledby="stages">
