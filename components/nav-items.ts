@@ -32,6 +32,7 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/people", label: "People", permission: "people.view", group: "School" },
   { href: "/roster", label: "Roster", permission: "roster.manage", group: "School" },
   { href: "/rooms", label: "Rooms", permission: "rooms.manage", group: "School" },
+  { href: "/cohorts", label: "Cohorts", permission: "cohorts.manage", group: "School" },
   { href: "/mail", label: "Mail tray", permission: "mail.tray", group: "School" },
   { href: "/mail/notes", label: "Notes for sponsors", permission: "sponsornotes.write", group: "School" },
   { href: "/mail/letters", label: "Weekly letters", permission: "mail.letters", group: "School" },

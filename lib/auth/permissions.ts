@@ -96,6 +96,10 @@ export const PERMISSIONS = {
   },
   "mail.letters": { roles: ["chief"], description: "Preview any sponsor's next Weekly letter and send it now" },
   "settings.edit": { roles: ["chief"], description: "Change school settings: mail sender, reminder lead time, letter day, limits" },
+  "cohorts.manage": {
+    roles: ["chief"],
+    description: "Create, rename and close cohorts; add students to a cohort and move them between cohorts from a date",
+  },
   "rooms.manage": {
     roles: ["chief"],
     description: "Add, rename and take out of use the school's rooms (the Timetable books from this list)",

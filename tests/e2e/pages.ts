@@ -164,6 +164,9 @@ export const PAGES: CrawlPage[] = [
   // ---- rooms ----
   { name: "rooms", path: "/rooms", roles: ["chief"], waitFor: "[data-testid=rooms-table] tbody tr" },
   { name: "rooms-forbidden", path: "/rooms", roles: ["instructor"], waitFor: "h1", status: 403 },
+  // ---- cohorts ----
+  { name: "cohorts", path: "/cohorts", roles: ["chief"], waitFor: "[data-testid=cohorts-table] tbody tr" },
+  { name: "cohorts-forbidden", path: "/cohorts", roles: ["instructor"], waitFor: "h1", status: 403 },
   { name: "set-password-invalid", path: "/set-password/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },
   { name: "unsubscribe-invalid", path: "/unsubscribe/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },
 ];

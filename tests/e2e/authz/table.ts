@@ -30,6 +30,7 @@ import { PEOPLE_TABLE } from "./people/table";
 import { PRACTICE_TABLE } from "./practice/table";
 import { SHARING_TABLE } from "./sharing/table";
 import { ROOMS_TABLE } from "./rooms/table";
+import { COHORTS_TABLE } from "./cohorts/table";
 
 function rowsOf(res: HarnessResponse): { id: string; primary: string }[] {
   const j = res.json as { rows?: { id: string; primary: string }[] } | undefined;
@@ -141,6 +142,9 @@ export const TABLE: AuthzTable = {
 
   // ---- rooms (rooms/table.ts) ----
   ...ROOMS_TABLE,
+
+  // ---- cohorts (cohorts/table.ts) ----
+  ...COHORTS_TABLE,
 
   // ---- mail ----
   // Public by design (the signed token is the credential): a forged token is refused for everyone.
