@@ -15,6 +15,8 @@ export interface SchoolSettings {
   authority?: string;
   /** The date of the students' knowledge test ("yyyy-MM-dd"), shown beside the practice test when set. */
   knowledgeTestOn?: string;
+  /** The school's own certificate number (14 CFR 141.95(b)), printed on graduation certificates. */
+  schoolCertificateNumber?: string;
 }
 
 export class School extends Model<InferAttributes<School>, InferCreationAttributes<School>> {

@@ -16,7 +16,13 @@ export interface TrainingRecordPdfInput {
   /** syllabus items not yet signed off: code, stage, title */
   notYetDone: string[][];
   /** the chief instructor's certification of the printed record */
-  certification: { statement: string; name: string; certificateNumber: string };
+  certification: {
+    statement: string;
+    name: string;
+    certificateNumber: string;
+    /** filled when the chief has certified the record in Chalkwing (end of training, transfer out) */
+    certified?: { on: string; auditHash: string };
+  };
   headHash: string;
   headPosition: number;
   generatedAt: string;
@@ -138,8 +144,13 @@ export async function trainingRecordPdf(input: TrainingRecordPdfInput): Promise<
   write(input.certification.statement, { gap: 8 });
   write(`Name: ${input.certification.name}`);
   write(`Certificate number: ${input.certification.certificateNumber}`);
-  write("Date: ______________________", { gap: 18 });
-  write("Signature: ____________________________________________");
+  if (input.certification.certified) {
+    write(`Certified on: ${input.certification.certified.on}`);
+    write(`Signed with password re-entry; audit chain event ${input.certification.certified.auditHash}`, { f: mono, size: 7.5 });
+  } else {
+    write("Date: ______________________", { gap: 18 });
+    write("Signature: ____________________________________________");
+  }
 
   const pages = doc.getPages();
   const caution = wrap(`Caution: ${CAUTION_TEXT}`, font, CAUTION_SIZE, width);

@@ -5,8 +5,8 @@ import type { CurrentUser } from "@/lib/auth/session";
 import { HttpError } from "@/lib/http/errors";
 import { dateInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
-import { requireStudentFor } from "../shared/student-scope";
-import type { StudentRef } from "../shared/enrolment";
+import { recordStudentFor } from "../completion/record-student";
+import type { RecordStudent } from "../completion/record-student";
 import { getSchool } from "../shared/school";
 import { creditedMinutesFor } from "../ground-log/ground-hours";
 import { listChecksOfStudent, type CheckSummary } from "./check-history";
@@ -14,12 +14,13 @@ import { signOffRegister } from "./sign-off-register";
 import { chainHead } from "./audit-chain";
 import { itemsOfRevision } from "./items";
 import { certificateNumbersOn, certifyingInstructor } from "../people/qualification-reads";
+import { certificationsOf, type Certification } from "../completion/certifications";
 
 // The printable training record of one student.
 
 export interface TrainingRecord {
   school: { name: string; timeZone: string };
-  student: StudentRef;
+  student: RecordStudent;
   groundMinutes: number;
   groundLog: { date: string; title: string; status: string; minutes: number }[];
   checks: CheckSummary[];
@@ -47,6 +48,8 @@ export interface TrainingRecord {
   notYetDone: { code: string; title: string; stageCode: string }[];
   /** the chief instructor who certifies the printed record, with the certificate number in force today */
   certifier: { name: string; certificateNumber: string | null } | null;
+  /** the chief's certification of this enrolment's record at its end (newest), if any */
+  certification: Certification | null;
   today: string;
   head: { hash: string; position: number };
   generatedAt: Date;
@@ -54,7 +57,8 @@ export interface TrainingRecord {
 
 /** Everything the printable training record shows (staff or the student themself). */
 export async function trainingRecordFor(viewer: CurrentUser, studentId: string): Promise<TrainingRecord> {
-  const { student, access } = await requireStudentFor(viewer, studentId, "progress");
+  // the record outlives the enrolment: a graduate or a student who left still gets it (141.101(e))
+  const { student, access } = await recordStudentFor(viewer, studentId, "progress");
   if (access === "sponsor") throw new HttpError(404, "studentId: no such student", "studentId");
   const school = await getSchool(viewer.schoolId);
   const groundLog = (
@@ -115,6 +119,8 @@ export async function trainingRecordFor(viewer: CurrentUser, studentId: string):
       .filter((i) => !signed.has(i.code))
       .map((i) => ({ code: i.code, title: i.title, stageCode: i.stageCode })),
     certifier: await certifyingInstructor(viewer.schoolId, viewer.id, today),
+    certification:
+      (await certificationsOf(viewer.schoolId, student.id)).filter((c) => c.enrolmentId === student.enrolmentId).at(-1) ?? null,
     today,
     head: await chainHead(viewer.schoolId),
     generatedAt: now(),

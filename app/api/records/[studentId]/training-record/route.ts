@@ -4,7 +4,7 @@ import { HttpError } from "@/lib/http/errors";
 import { trainingRecordFor } from "@/db/access/records/training-record";
 import { certificationStatement, trainingRecordPdf } from "@/lib/records/training-record-pdf";
 import { LEVEL_LABEL, OUTCOME_LABEL, CHECK_OUTCOME_LABEL } from "@/lib/records/outcome";
-import { hoursLabel, formatDayTime } from "@/lib/time";
+import { hoursLabel, formatDay, formatDayTime } from "@/lib/time";
 import { ATTENDANCE_WORDS, SIGN_OFF_STATE_WORDS, STAGE_RESULT_WORDS, words } from "@/lib/labels";
 
 export const GET = route<{ studentId: string }>("progress.view", async ({ user, params }) => {
@@ -16,6 +16,11 @@ export const GET = route<{ studentId: string }>("progress.view", async ({ user, 
     studentName: r.student.name,
     enrolment: [
       `Course: ${r.student.courseCode} ${r.student.courseTitle}`,
+      ...(r.student.ended
+        ? [
+            `Training ended on ${r.student.ended.on}: ${r.student.ended.kind ?? "ended"}${r.student.ended.reason ? ` (${r.student.ended.reason})` : ""}`,
+          ]
+        : []),
       `Enrolled on ${r.student.enrolledOn}; cohort ${r.student.cohortName ?? "none"}; lead instructor ${r.student.leadInstructorName ?? "none"}`,
       `E-mail: ${r.student.email}`,
     ],
@@ -45,15 +50,22 @@ export const GET = route<{ studentId: string }>("progress.view", async ({ user, 
       ),
     })),
     notYetDone: r.notYetDone.map((i) => [i.code, i.stageCode, i.title]),
-    certification: {
-      statement: certificationStatement({
-        certifierName: r.certifier?.name ?? "the chief instructor",
-        studentName: r.student.name,
-        schoolName: r.school.name,
-      }),
-      name: r.certifier?.name ?? "",
-      certificateNumber: r.certifier?.certificateNumber ?? "",
-    },
+    certification: r.certification
+      ? {
+          statement: r.certification.statement,
+          name: r.certification.certifierName,
+          certificateNumber: r.certification.certifierCertificate ?? "none recorded",
+          certified: { on: formatDay(r.certification.certifiedOn), auditHash: r.certification.auditHash },
+        }
+      : {
+          statement: certificationStatement({
+            certifierName: r.certifier?.name ?? "the chief instructor",
+            studentName: r.student.name,
+            schoolName: r.school.name,
+          }),
+          name: r.certifier?.name ?? "",
+          certificateNumber: r.certifier?.certificateNumber ?? "",
+        },
     headHash: r.head.hash,
     headPosition: r.head.position,
     generatedAt: formatDayTime(r.generatedAt, tz),

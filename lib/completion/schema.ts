@@ -1,0 +1,36 @@
+import { z } from "zod";
+import { calendarDate } from "@/lib/validation/dates";
+
+// End of training and transfers: the zod schemas used by the forms and the server actions.
+
+export const END_KINDS = ["graduated", "terminated", "transferred"] as const;
+export type EndKind = (typeof END_KINDS)[number];
+
+const uuid = z.string().uuid("must be an id");
+const password = z.string("re-enter your password").min(1, "re-enter your password").max(200);
+
+export const endTrainingSchema = z.object({
+  studentId: uuid,
+  kind: z.enum(END_KINDS, "choose how training ended: graduated, terminated or transferred"),
+  endedOn: calendarDate(),
+  reason: z.string().trim().min(3, "give a reason of at least 3 characters").max(2000),
+  /** the chief's certification statement as they accept it on the form */
+  statement: z.string().trim().min(20, "the certification statement is required").max(4000),
+  password,
+});
+export type EndTrainingInput = z.output<typeof endTrainingSchema>;
+
+export const transferCreditSchema = z.object({
+  studentId: uuid,
+  sourceSchool: z.string().trim().min(2, "name the earlier school").max(200),
+  sourceApproved: z.boolean("say whether the earlier course was approved"),
+  creditedMinutes: z.number("give the minutes credited").int("whole minutes").min(0).max(100_000),
+  itemIds: z.array(uuid).max(500),
+  /** the knowledge test the receiving school gave: date, score and what it covered */
+  testGivenOn: calendarDate(),
+  testScorePercent: z.number("give the test score").min(0).max(100),
+  testNote: z.string().trim().max(2000).default(""),
+  /** an uploaded evidence file's id (stored like handouts), optional */
+  evidenceId: uuid.optional(),
+});
+export type TransferCreditInput = z.output<typeof transferCreditSchema>;

@@ -1,0 +1,182 @@
+import { execFileSync } from "node:child_process";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import { NextRequest } from "next/server";
+import { QueryTypes } from "sequelize";
+import { sequelize } from "@/db/index";
+import { makeSchool, closeDb, actAs, TEST_PASSWORD } from "@/tests/helpers/factories";
+import { endTrainingAction } from "@/app/(app)/completion/actions";
+import { GET as certificateRoute } from "@/app/api/records/[studentId]/certificate/route";
+import { GET as trainingRecordRoute } from "@/app/api/records/[studentId]/training-record/route";
+import { conductStageCheck } from "@/db/access/records/stage-checks";
+import { itemsOfRevision } from "@/db/access/records/items";
+import { completionStatement } from "@/lib/completion/statements";
+import { dateInZone, formatDay } from "@/lib/time";
+import { check, sign, auditCount, type School } from "../records/helpers";
+
+// End of training (issue 13): graduation refused until every item is signed and every stage check
+// passed, the chief's certification (141.101(c)) with password re-entry, append-only and audited;
+// the graduation certificate (141.95(b)) and the graduate's own record after the enrolment ended (141.101(e)).
+
+let s: School;
+const today = () => dateInZone(new Date(), "Europe/London");
+const statement = "I certify that this training record is true and complete as kept by the school.";
+
+beforeAll(async () => {
+  s = await makeSchool("eot");
+  await sequelize.query(`UPDATE schools SET settings = settings || '{"schoolCertificateNumber":"KSC-4471"}'::jsonb WHERE id = :id`, {
+    replacements: { id: s.school.id },
+  });
+});
+afterAll(async () => {
+  actAs(null);
+  await closeDb();
+});
+
+async function enrolment(studentId: string) {
+  const [r] = await sequelize.query<{ status: string; ended_on: string | null; end_kind: string | null }>(
+    `SELECT status, ended_on, end_kind FROM enrolments WHERE student_id = :studentId`,
+    { replacements: { studentId }, type: QueryTypes.SELECT },
+  );
+  return r!;
+}
+
+async function completeCourse(studentId: string) {
+  const items = await itemsOfRevision(s.revision.id);
+  const stages = [...new Set(items.map((i) => i.stageId))];
+  for (const stageId of stages) {
+    const own = items.filter((i) => i.stageId === stageId);
+    for (const i of own) {
+      await check(s.as.instructor, studentId, [i.id]);
+      await sign(s.as.instructor, { studentId, itemId: i.id });
+    }
+    await sequelize.transaction((t) =>
+      conductStageCheck(t, s.as.chief, {
+        studentId,
+        stageId,
+        result: "pass",
+        oralOutcomes: own.map((i) => ({ itemId: i.id, outcome: "solid" as const })),
+        writtenScorePercent: 92,
+        remarks: "",
+        occurredAt: new Date(Date.now() - 60_000),
+        password: TEST_PASSWORD,
+      }),
+    );
+  }
+}
+
+async function pdfText(res: Response): Promise<string> {
+  const dir = mkdtempSync(path.join(tmpdir(), "eot-"));
+  try {
+    const file = path.join(dir, "x.pdf");
+    writeFileSync(file, Buffer.from(await res.arrayBuffer()));
+    // pdftotext: Debian's poppler-utils, installed by ensure_poppler in lib/ops/common.sh
+    return execFileSync("pdftotext", ["-enc", "UTF-8", file, "-"], { encoding: "utf8" }).replace(/\s+/g, " ");
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+const req = (st: string, what: string) =>
+  [new NextRequest(`http://127.0.0.1/api/records/${st}/${what}`), { params: Promise.resolve({ studentId: st }) }] as const;
+
+describe("ending training", () => {
+  it("refuses a graduation with items not signed off, naming them, and changes nothing", async () => {
+    const st = s.people.students[1]!.id;
+    actAs(s.as.chief);
+    const r = await endTrainingAction({
+      studentId: st,
+      kind: "graduated",
+      endedOn: today(),
+      reason: "course done",
+      statement,
+      password: TEST_PASSWORD,
+    });
+    expect(r).toMatchObject({ ok: false, status: 409, field: "kind" });
+    expect(!r.ok && r.message).toMatch(/items not signed off: AER-01/);
+    expect((await enrolment(st)).status).toBe("active");
+  });
+
+  it("refuses a wrong password, a date before enrolment, and callers without records.certify", async () => {
+    const st = s.people.students[1]!.id;
+    actAs(s.as.chief);
+    const base = { studentId: st, kind: "terminated", endedOn: today(), reason: "left the area", statement };
+    expect(await endTrainingAction({ ...base, password: "wrong-one" })).toMatchObject({ ok: false, field: "password" });
+    expect(await endTrainingAction({ ...base, endedOn: "2026-08-01", password: TEST_PASSWORD })).toMatchObject({
+      ok: false,
+      status: 400,
+      field: "endedOn",
+    });
+    for (const who of [s.as.instructor, s.as.student, s.as.sponsor]) {
+      actAs(who);
+      expect(await endTrainingAction({ ...base, password: TEST_PASSWORD })).toMatchObject({ ok: false, status: 403 });
+    }
+    expect((await enrolment(st)).status).toBe("active");
+  });
+
+  it("terminates with a date and reason, certified and audited, once", async () => {
+    const st = s.people.students[2]!.id;
+    actAs(s.as.chief);
+    const input = { studentId: st, kind: "terminated", endedOn: today(), reason: "moved abroad", statement, password: TEST_PASSWORD };
+    const r = await endTrainingAction(input);
+    expect(r.ok).toBe(true);
+    expect(await enrolment(st)).toEqual({ status: "withdrawn", ended_on: today(), end_kind: "terminated" });
+    const id = r.ok ? r.data.certificationId : "";
+    expect(await auditCount(s.school.id, "record.certified", id)).toBe(1);
+    await expect(
+      sequelize.query(`UPDATE record_certifications SET statement = 'changed afterwards!!!' WHERE id = :id`, { replacements: { id } }),
+    ).rejects.toThrow(/permission denied|append-only/);
+    expect(await endTrainingAction(input)).toMatchObject({ ok: false, status: 409, field: "studentId" });
+  });
+
+  it("graduates a student who completed the course; the certificate and the record are theirs to download", async () => {
+    const st = s.people.students[0]!.id;
+    await completeCourse(st);
+    actAs(s.as.chief);
+    const r = await endTrainingAction({
+      studentId: st,
+      kind: "graduated",
+      endedOn: today(),
+      reason: "all stages passed",
+      statement,
+      password: TEST_PASSWORD,
+    });
+    expect(r).toMatchObject({ ok: true, data: { status: "completed" } });
+    expect((await enrolment(st)).end_kind).toBe("graduated");
+
+    // the graduate themself, after the enrolment ended
+    actAs(s.as.student);
+    const cert = await certificateRoute(...req(st, "certificate"));
+    expect(cert.status).toBe(200);
+    const text = await pdfText(cert);
+    const course = `${s.course.code} Test ground course`;
+    for (const needed of [
+      s.school.name,
+      "KSC-4471",
+      "Graduation certificate",
+      "Student 1",
+      course,
+      formatDay(today()),
+      completionStatement("Student 1", course),
+      statement,
+      `Certified by Chief, chief instructor, certificate number GI-${s.people.chief.id.slice(0, 6)}`,
+    ])
+      expect(text).toContain(needed);
+
+    const record = await trainingRecordRoute(...req(st, "training-record"));
+    expect(record.status).toBe(200);
+    const recordText = await pdfText(record);
+    expect(recordText).toContain(`Certified on: ${formatDay(today())}`);
+    expect(recordText).toContain("Training ended on");
+  });
+
+  it("refuses the certificate to sponsors, to other students and for a student who did not graduate", async () => {
+    const graduate = s.people.students[0]!.id;
+    actAs(s.as.sponsor);
+    expect((await certificateRoute(...req(graduate, "certificate"))).status).toBe(404);
+    actAs(s.as.otherStudent);
+    expect((await certificateRoute(...req(graduate, "certificate"))).status).toBe(404);
+    actAs(s.as.chief);
+    expect((await certificateRoute(...req(s.people.students[2]!.id, "certificate"))).status).toBe(404);
+  });
+});
