@@ -96,6 +96,10 @@ export const PERMISSIONS = {
   },
   "mail.letters": { roles: ["chief"], description: "Preview any sponsor's next Weekly letter and send it now" },
   "settings.edit": { roles: ["chief"], description: "Change school settings: mail sender, reminder lead time, letter day, limits" },
+  "people.manage": {
+    roles: ["chief"],
+    description: "Deactivate and reactivate accounts (their sessions end at once) and link sponsors to students",
+  },
   "cohorts.manage": {
     roles: ["chief"],
     description: "Create, rename and close cohorts; add students to a cohort and move them between cohorts from a date",

@@ -48,3 +48,19 @@ export const qualificationSchema = z
 
 export type QualificationFormInput = z.input<typeof qualificationSchema>;
 export type QualificationInput = z.output<typeof qualificationSchema>;
+
+// The chief's account changes (people.manage): deactivate or reactivate an account, link a sponsor to a student.
+export const setAccountActiveSchema = z.object({ personId: z.string().uuid("choose a person"), active: z.boolean("yes or no") });
+export type SetAccountActiveInput = z.output<typeof setAccountActiveSchema>;
+
+export const linkSponsorSchema = z.object({
+  sponsorId: z.string().uuid("choose a sponsor"),
+  studentId: z.string().uuid("choose a student"),
+  relationship: z
+    .string()
+    .transform((s) => s.replace(/\s+/g, " ").trim())
+    .pipe(z.string().min(1, "required").max(60, "at most 60 characters"))
+    .optional()
+    .default("sponsor"),
+});
+export type LinkSponsorInput = z.output<typeof linkSponsorSchema>;

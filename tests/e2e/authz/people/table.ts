@@ -38,4 +38,31 @@ export const PEOPLE_TABLE: AuthzTable = {
     },
     mutates: true,
   },
+
+  "action app/(app)/people/actions.ts#setAccountActiveAction": {
+    // the chief reactivates an account that is already active: its sessions end (version bump), nothing else changes
+    request: (fx) => ({ args: [{ personId: fx.lockedPerson2, active: true }] }),
+    expect: {
+      signedOut: 401,
+      chief: { status: 200, check: (res, fx) => expect(result(res).data).toEqual({ id: fx.lockedPerson2, active: true }) },
+      instructor: 403,
+      student: 403,
+      sponsor: 403,
+    },
+    mutates: true,
+    secrets: (fx) => [fx.lockedPerson2],
+  },
+
+  "action app/(app)/people/actions.ts#linkSponsorAction": {
+    // the demo sponsor is already linked to the demo student: the chief's call is a 409 naming studentId, nothing written
+    request: (fx) => ({ args: [{ sponsorId: fx.sponsor, studentId: fx.student, idempotencyKey: "harness-link-sponsor" }] }),
+    expect: {
+      signedOut: 401,
+      chief: { status: 409, check: (res) => expect(result(res)).toMatchObject({ ok: false, field: "studentId" }) },
+      instructor: 403,
+      student: 403,
+      sponsor: 403,
+    },
+    secrets: (fx) => [fx.student],
+  },
 };
