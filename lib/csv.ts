@@ -15,6 +15,16 @@ export function toCsv(header: readonly string[], rows: readonly (readonly unknow
   return stringify([header.map(neutraliseCell), ...rows.map((r) => r.map(neutraliseCell))], { record_delimiter: "\r\n" });
 }
 
+/** Rows without a header, as `toCsv` writes them: a streamed export writes its header once, then batches. */
+export function toCsvRows(rows: readonly (readonly unknown[])[]): string {
+  return rows.length
+    ? stringify(
+        rows.map((r) => r.map(neutraliseCell)),
+        { record_delimiter: "\r\n" },
+      )
+    : "";
+}
+
 export interface ParsedCsv {
   header: string[];
   rows: Record<string, string>[];

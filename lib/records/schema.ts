@@ -239,6 +239,10 @@ export const registerQuerySchema = z
     stage: z.preprocess(emptyToUndefined, z.string().uuid("must be a stage id").optional()),
     from: z.preprocess(emptyToUndefined, calendarDate.optional()),
     to: z.preprocess(emptyToUndefined, calendarDate.optional()),
+    page: z.preprocess(
+      emptyToUndefined,
+      z.coerce.number().int("must be a whole number").min(1, "must be 1 or more").max(100_000, "must be 100000 or less").optional(),
+    ),
   })
   .strict()
   .refine((q) => !q.from || !q.to || q.from <= q.to, { path: ["to"], message: "must be on or after from" });

@@ -9,10 +9,10 @@ export const dynamic = "force-dynamic";
 
 export default async function ProgressIndexPage() {
   const user = await requirePagePermission("progress.view", "/progress");
-  const students = await progressStudentsFor(user);
-  // who sees no one but themself and whom they sponsor: straight to the one map
+  // who sees no one but themself: straight to the one map, decided before any student is read
   const staff = can(user, "students.all") || can(user, "students.taught");
   if (can(user, "students.own") && !staff && !can(user, "students.sponsored")) redirect(`/progress/${user.id}`);
+  const students = await progressStudentsFor(user);
   if (students.length === 1 && !staff) redirect(`/progress/${students[0]!.id}`);
   return (
     <div className="space-y-6">

@@ -1,13 +1,13 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission, can } from "@/lib/auth/guard";
-import { signOffRegister, registerFilterOptions } from "@/db/access/records/sign-off-register";
+import { signOffRegister, registerFilterOptions, WATCH_NOTE_WINDOW } from "@/db/access/records/sign-off-register";
 import { chainHead } from "@/db/access/records/audit-chain";
 import { registerQuerySchema, toFilter } from "@/lib/records/schema";
-import { ScrollArea } from "@/components/ui/scroll-area";
+import { WideTable } from "@/components/ui/wide-table";
 import { SIGN_OFF_STATE_WORDS, STAGE_RESULT_WORDS } from "@/lib/labels";
 import { getSchool } from "@/db/access/shared/school";
-import { formatInZone, formatDay } from "@/lib/time";
+import { formatDayTime, formatDay } from "@/lib/time";
 import { ReviewNote } from "./_components/review-note";
 
 export const metadata: Metadata = { title: "Sign-off register" };
@@ -20,14 +20,18 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
   const raw = Object.fromEntries(Object.entries(await searchParams).filter(([, v]) => typeof v === "string")) as Record<string, string>;
   const parsed = registerQuerySchema.safeParse(raw);
   const q = parsed.success ? parsed.data : {};
-  const [{ rows, notes }, options, head] = await Promise.all([
-    signOffRegister(user, toFilter(q)),
+  const [{ rows, notes, total, page, pageSize }, options, head] = await Promise.all([
+    signOffRegister(user, toFilter(q), { page: q.page ?? 1 }),
     registerFilterOptions(user.schoolId),
     chainHead(user.schoolId),
   ]);
   const school = await getSchool(user.schoolId);
   const mayReview = can(user, "register.review");
-  const qs = new URLSearchParams(Object.entries(q).filter(([, v]) => v) as [string, string][]).toString();
+  const filterEntries = Object.entries(q).filter(([k, v]) => v && k !== "page") as [string, string][];
+  const qs = new URLSearchParams(filterEntries).toString();
+  const pageHref = (p: number) => `/register?${new URLSearchParams([...filterEntries, ["page", String(p)]]).toString()}`;
+  const first = rows.length ? (page - 1) * (pageSize ?? 0) + 1 : 0;
+  const hasNext = pageSize !== null && page * pageSize < total;
   return (
     <div className="space-y-6">
       <header className="flex flex-wrap items-end justify-between gap-3">
@@ -119,6 +123,9 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
         <h2 id="notes-title">
           Watch notes <span className="text-caption font-normal text-ink-soft">({notes.length})</span>
         </h2>
+        <p className="text-caption text-ink-soft">
+          Raised by the latest {WATCH_NOTE_WINDOW} sign-offs, stage checks and oral checks; each row below shows its own.
+        </p>
         {notes.length === 0 ? (
           <p className="text-ink-soft">No watch notes.</p>
         ) : (
@@ -132,8 +139,8 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
                 {n.itemCode ? ` · ${n.itemCode}` : ""} · {n.detail}
                 {(n.reviews ?? []).map((r, k) => (
                   <p key={k} className="ml-4 text-caption" data-testid="watch-note-review">
-                    <span className="font-semibold">Reviewed</span> by {r.reviewerName} on{" "}
-                    {formatInZone(r.reviewedAt, school.timeZone, "d MMM yyyy HH:mm")}: {r.remark}
+                    <span className="font-semibold">Reviewed</span> by {r.reviewerName} on {formatDayTime(r.reviewedAt, school.timeZone)}:{" "}
+                    {r.remark}
                   </p>
                 ))}
                 {mayReview && (
@@ -149,53 +156,76 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
 
       <section className="card" aria-labelledby="rows-title">
         <h2 id="rows-title">
-          Sign-offs and stage checks <span className="text-caption font-normal text-ink-soft">({rows.length})</span>
+          Sign-offs and stage checks <span className="text-caption font-normal text-ink-soft">({total})</span>
         </h2>
-        <ScrollArea label="Sign-offs and stage checks" className="mt-2">
-          <table className="data-table text-caption" data-testid="register-table">
-            <thead>
-              <tr>
-                <th scope="col">Date</th>
-                <th scope="col">Student</th>
-                <th scope="col">Item or stage</th>
-                <th scope="col">Signer / examiner</th>
-                <th scope="col">Basis</th>
-                <th scope="col">State</th>
-                <th scope="col">Watch notes</th>
-              </tr>
-            </thead>
-            <tbody>
-              {rows.map((r) => (
-                <tr key={r.id} data-testid="register-row">
-                  <td className="num whitespace-nowrap">{formatDay(r.date)}</td>
-                  <td>
-                    <Link className="underline" href={`/records/${r.studentId}`}>
-                      {r.studentName}
-                    </Link>
-                    <br />
-                    <span className="text-ink-soft">{r.cohortName ?? ""}</span>
-                  </td>
-                  <td>
-                    {r.itemCode ? (
-                      <>
-                        <span className="num font-semibold">{r.itemCode}</span> {r.itemTitle}
-                      </>
-                    ) : (
-                      r.itemTitle
-                    )}
-                  </td>
-                  <td>{r.signerName}</td>
-                  <td>{r.basis}</td>
-                  <td>
-                    {STATE_LABEL[r.state]}
-                    {r.reason ? `: ${r.reason}` : ""}
-                  </td>
-                  <td>{r.notes.map((n) => n.label).join(", ") || "—"}</td>
+        <div className="mt-2">
+          <WideTable label="Sign-offs and stage checks, scrolls sideways" more={3}>
+            <table className="data-table text-caption" data-testid="register-table">
+              <thead>
+                <tr>
+                  <th scope="col">Date</th>
+                  <th scope="col">Student</th>
+                  <th scope="col">Item or stage</th>
+                  <th scope="col" data-more="">
+                    Signer / examiner
+                  </th>
+                  <th scope="col" data-more="">
+                    Basis
+                  </th>
+                  <th scope="col">State</th>
+                  <th scope="col" data-more="">
+                    Watch notes
+                  </th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
-        </ScrollArea>
+              </thead>
+              <tbody>
+                {rows.map((r) => (
+                  <tr key={r.id} data-testid="register-row">
+                    <td className="num whitespace-nowrap">{formatDay(r.date)}</td>
+                    <td>
+                      <Link className="underline" href={`/records/${r.studentId}`}>
+                        {r.studentName}
+                      </Link>
+                      <br />
+                      <span className="text-ink-soft">{r.cohortName ?? ""}</span>
+                    </td>
+                    <td>
+                      {r.itemCode ? (
+                        <>
+                          <span className="num font-semibold">{r.itemCode}</span> {r.itemTitle}
+                        </>
+                      ) : (
+                        r.itemTitle
+                      )}
+                    </td>
+                    <td data-more="">{r.signerName}</td>
+                    <td data-more="">{r.basis}</td>
+                    <td>
+                      {STATE_LABEL[r.state]}
+                      {r.reason ? `: ${r.reason}` : ""}
+                    </td>
+                    <td data-more="">{r.notes.map((n) => n.label).join(", ") || "—"}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </WideTable>
+        </div>
+        <nav className="mt-3 flex flex-wrap items-center gap-3 text-caption" aria-label="Register pages" data-testid="register-pages">
+          <span className="text-ink-soft">
+            {rows.length ? `Rows ${first} to ${first + rows.length - 1} of ${total}` : `No rows on page ${page}`}
+          </span>
+          {page > 1 && (
+            <Link className="btn-quiet" href={pageHref(page - 1)} rel="prev">
+              Previous page
+            </Link>
+          )}
+          {hasNext && (
+            <Link className="btn-quiet" href={pageHref(page + 1)} rel="next">
+              Next page
+            </Link>
+          )}
+        </nav>
       </section>
     </div>
   );

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { getSchool } from "@/db/access/shared/school";
 import { listSessions } from "@/db/access/timetable/list-sessions";
-import { schedulingChoices } from "@/db/access/timetable/scheduling-choices";
+import { timetableFilterChoices } from "@/db/access/timetable/filter-choices";
 import { calendarFeedCreatedAt } from "@/db/access/timetable/calendar-feed";
 import { weekQuerySchema } from "@/lib/timetable/schema";
 import { dateInZone, zonedInstant, formatDay, formatDayTime } from "@/lib/time";
@@ -38,7 +38,7 @@ export default async function TimetableWeekPage({
     fromInstant: zonedInstant(monday, "00:00", school.timeZone),
     toInstant: zonedInstant(addDaysIso(monday, 7), "00:00", school.timeZone),
   });
-  const choices = staff ? await schedulingChoices(user) : null;
+  const choices = staff ? await timetableFilterChoices(user) : null;
   const feedSince = await calendarFeedCreatedAt(user.id);
   const keep = new URLSearchParams(
     Object.entries({ instructor: q.instructor, cohort: q.cohort, room: q.room, mine: q.mine }).filter((e): e is [string, string] => !!e[1]),

@@ -21,7 +21,10 @@ export async function signerStandings(wants: Want[]): Promise<Map<string, Signer
   const people = [...new Set(wants.map((w) => w.signer_id))];
   if (people.length === 0) return out;
   const courses = await sequelize.query<{ person_id: string; course_id: string; valid_from: string; valid_to: string | null }>(
-    `SELECT person_id, course_id, valid_from, valid_to FROM instructor_courses WHERE person_id IN (:people)`,
+    // valid_from may be '-infinity' (courses given before their history was kept): compared as text
+    `SELECT person_id, course_id, CASE WHEN valid_from = '-infinity' THEN '0001-01-01' ELSE to_char(valid_from, 'YYYY-MM-DD') END AS valid_from,
+            to_char(valid_to, 'YYYY-MM-DD') AS valid_to
+       FROM instructor_courses WHERE person_id IN (:people)`,
     { replacements: { people }, type: QueryTypes.SELECT },
   );
   const quals = await sequelize.query<{

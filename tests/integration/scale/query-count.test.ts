@@ -1,7 +1,7 @@
 import { sequelize } from "@/db/index";
 import { generateScale } from "@/db/seed/scale";
 import { chiefRecordsSummary } from "@/db/access/records/chief-summary";
-import { signOffRegister } from "@/db/access/records/sign-off-register";
+import { signOffRegister, REGISTER_PAGE_SIZE } from "@/db/access/records/sign-off-register";
 import { progressFor } from "@/db/access/records/progress-map";
 import { progressStudentsFor, recordStudentsFor } from "@/db/access/records/student-list";
 import { schoolOverview } from "@/db/access/today/school-overview";
@@ -54,13 +54,42 @@ async function countAll(): Promise<Record<string, number>> {
   return out;
 }
 
+// The register's first page: its rows (and so its HTML) are bounded by the page size, whatever
+// the number of matching rows, which the page reports from one count.
+async function registerFirstPage() {
+  const r = await signOffRegister(s.as.chief);
+  return { rows: r.rows.length, total: r.total, size: JSON.stringify(r.rows).length, notes: r.notes.length };
+}
+
 it("reads every listing and summary page with the same number of queries at 20 and at 60 students", async () => {
   await generateScale(20, { schoolId: s.school.id });
   const small = await countAll();
+  const smallRegister = await registerFirstPage();
   await generateScale(40, { schoolId: s.school.id });
   const large = await countAll();
+  const largeRegister = await registerFirstPage();
   for (const name of Object.keys(PAGES)) expect(small[name]).toBeGreaterThan(0);
   expect(large).toEqual(small);
+  // 5 sign-offs per generated student: 100 rows match at 20 students, 300 at 60; one page shows 50
+  expect(smallRegister.total).toBeGreaterThanOrEqual(100);
+  expect(largeRegister.total).toBeGreaterThanOrEqual(smallRegister.total + 200);
+  expect(smallRegister.rows).toBe(REGISTER_PAGE_SIZE);
+  expect(largeRegister.rows).toBe(REGISTER_PAGE_SIZE);
+  expect(largeRegister.size).toBeLessThan(smallRegister.size * 1.2);
+});
+
+it("pages the register in SQL: the pages together hold every matching row once, in order, and a filter is applied before paging", async () => {
+  const first = await signOffRegister(s.as.chief);
+  const all = [];
+  for (let page = 1; (page - 1) * REGISTER_PAGE_SIZE < first.total; page++)
+    all.push(...(await signOffRegister(s.as.chief, {}, { page })).rows);
+  expect(all.length).toBe(first.total);
+  expect(new Set(all.map((r) => r.id)).size).toBe(first.total);
+  for (let i = 1; i < all.length; i++) expect(all[i - 1]!.date >= all[i]!.date).toBe(true);
+  const signer = all[all.length - 1]!.signerId;
+  const bySigner = await signOffRegister(s.as.chief, { instructorId: signer }, { pageSize: null });
+  expect(bySigner.rows.length).toBe(all.filter((r) => r.signerId === signer).length);
+  expect(bySigner.rows.every((r) => r.signerId === signer)).toBe(true);
 });
 
 it("the chain status on Today verifies from the checkpoint and catches up with new events", async () => {

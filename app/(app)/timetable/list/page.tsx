@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission, can } from "@/lib/auth/guard";
-import { schedulingChoices } from "@/db/access/timetable/scheduling-choices";
+import { timetableFilterChoices } from "@/db/access/timetable/filter-choices";
 import { getSchool } from "@/db/access/shared/school";
 import { SessionsTable } from "../_components/sessions-table";
 
@@ -16,7 +16,7 @@ export default async function TimetableListPage({
   const user = await requirePagePermission("timetable.view", "/timetable/list");
   const school = await getSchool(user.schoolId);
   const staff = can(user, "timetable.schedule");
-  const choices = staff ? await schedulingChoices(user) : { instructors: [], cohorts: [], rooms: [] };
+  const choices = staff ? await timetableFilterChoices(user) : { instructors: [], cohorts: [], rooms: [] };
   const raw = await searchParams;
   const initial = Object.fromEntries(Object.entries(raw).filter((e): e is [string, string] => typeof e[1] === "string"));
   return (
