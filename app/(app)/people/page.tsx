@@ -8,6 +8,7 @@ import { listCohorts, listCohortMembers } from "@/db/access/cohorts/list-cohorts
 import { ROLES, ROLE_LABELS } from "@/lib/auth/roles";
 import { WideTable } from "@/components/ui/wide-table";
 import { formatDay } from "@/lib/time";
+import { AccountControls } from "./_components/account-controls";
 
 export const metadata: Metadata = { title: "People" };
 export const dynamic = "force-dynamic";
@@ -21,6 +22,16 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
   const everyone = can(user, "people.all");
   const cohorts = await listCohorts(user.schoolId, everyone ? {} : { leadInstructorId: user.id });
   const people = everyone ? await listPeople(user.schoolId, filter) : [];
+  const manage = can(user, "people.manage");
+  const accounts = manage
+    ? (await listPeople(user.schoolId)).map((p) => ({
+        id: p.id,
+        name: p.name,
+        active: p.active,
+        sponsor: rolesAllow(p.roles, "students.sponsored"),
+        student: rolesAllow(p.roles, "students.own"),
+      }))
+    : [];
   const rosters = await Promise.all(cohorts.map(async (c) => ({ cohort: c, members: await listCohortMembers(c.id, true) })));
   return (
     <div className="space-y-6">
@@ -131,6 +142,7 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
           </div>
         </section>
       )}
+      {manage && <AccountControls people={accounts} />}
     </div>
   );
 }

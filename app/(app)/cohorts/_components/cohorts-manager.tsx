@@ -68,7 +68,7 @@ export function CohortsManager({
         )}
       </div>
       <ScrollArea label="Cohorts">
-        <table className="w-full" data-testid="cohorts-table">
+        <table className="data-table w-full" data-testid="cohorts-table">
           <thead>
             <tr>
               <th scope="col">Cohort</th>

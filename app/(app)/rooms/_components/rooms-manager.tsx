@@ -118,7 +118,7 @@ export function RoomsManager({ rooms }: { rooms: Room[] }) {
         <p className="text-ink-soft">No rooms yet: add the first one above.</p>
       ) : (
         <ScrollArea label="Rooms">
-          <table className="w-full" data-testid="rooms-table">
+          <table className="data-table w-full" data-testid="rooms-table">
             <thead>
               <tr>
                 <th scope="col">Room</th>
