@@ -5,6 +5,7 @@ import { seedBriefings } from "./briefings";
 import { seedRecords } from "./records";
 import { seedMail } from "./mail";
 import { seedStudentWeek } from "./student-week";
+import { seedCompletion } from "./completion";
 
 export interface SeedContext {
   t: Transaction;
@@ -33,6 +34,8 @@ const extensions: { name: string; run: (ctx: SeedContext) => Promise<void> }[] =
   { name: "records", run: seedRecords },
   // planned ends, the knowledge test date and the demo student's practice: after the demos and records
   { name: "student-week", run: seedStudentWeek },
+  // a graduate with every item signed and the chief's certification: after the records seed
+  { name: "completion", run: seedCompletion },
   // a note for the demo sponsor and the Weekly letters already sent, composed from everything above: keep it last
   { name: "mail", run: seedMail },
 ];

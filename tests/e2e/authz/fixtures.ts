@@ -11,6 +11,7 @@ import { TIMETABLE_LOOKUPS } from "./timetable-fixtures";
 import { BRIEFINGS_LOOKUPS } from "./briefings/fixtures";
 import { RECORDS_LOOKUPS } from "./records/fixtures";
 import { ROOMS_LOOKUPS } from "./rooms/fixtures";
+import { COMPLETION_LOOKUPS } from "./completion/fixtures";
 
 const person = (email: string) => ({ sql: `SELECT id FROM people WHERE lower(email) = lower($1)`, params: [email] });
 
@@ -46,6 +47,8 @@ export const LOOKUPS: Record<string, { sql: string; params?: unknown[] }> = {
   ...RECORDS_LOOKUPS,
   // ---- rooms ----
   ...ROOMS_LOOKUPS,
+  // ---- end of training ----
+  ...COMPLETION_LOOKUPS,
 };
 
 export async function loadFixtures(c: Client): Promise<Fixtures> {

@@ -31,6 +31,7 @@ import { PRACTICE_TABLE } from "./practice/table";
 import { SHARING_TABLE } from "./sharing/table";
 import { ROOMS_TABLE } from "./rooms/table";
 import { COHORTS_TABLE } from "./cohorts/table";
+import { COMPLETION_TABLE } from "./completion/table";
 
 function rowsOf(res: HarnessResponse): { id: string; primary: string }[] {
   const j = res.json as { rows?: { id: string; primary: string }[] } | undefined;
@@ -145,6 +146,7 @@ export const TABLE: AuthzTable = {
 
   // ---- cohorts (cohorts/table.ts) ----
   ...COHORTS_TABLE,
+  ...COMPLETION_TABLE,
 
   // ---- mail ----
   // Public by design (the signed token is the credential): a forged token is refused for everyone.

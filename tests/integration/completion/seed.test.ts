@@ -1,0 +1,53 @@
+import { NextRequest } from "next/server";
+import { QueryTypes } from "sequelize";
+import { sequelize } from "@/db/index";
+import { makeSchool, actAs, closeDb, TEST_PASSWORD } from "@/tests/helpers/factories";
+import { seedCompletion } from "@/db/seed/completion";
+import { GET as certificateRoute } from "@/app/api/records/[studentId]/certificate/route";
+import { verifyChain } from "@/db/access/records/audit-chain";
+import { dateInZone } from "@/lib/time";
+import { addDays, format } from "date-fns";
+
+afterAll(async () => {
+  actAs(null);
+  await closeDb();
+});
+
+test("the demo seed gives the school a graduate with a certified record and a certificate", async () => {
+  const s = await makeSchool("seedgrad");
+  const day = (n: number) => format(addDays(new Date(`${dateInZone(new Date(), "Europe/London")}T12:00:00Z`), n), "yyyy-MM-dd");
+  await sequelize.transaction((t) =>
+    seedCompletion(
+      {
+        t,
+        schoolId: s.school.id,
+        courseId: s.course.id,
+        revisionId: s.revision.id,
+        people: {
+          chief: s.people.chief.id,
+          instructor: s.people.instructor.id,
+          priya: s.people.instructor2.id,
+          rafael: s.people.instructor2.id,
+          sponsor: s.people.sponsor.id,
+        },
+        students: {},
+        cohorts: { a: s.cohorts.a.id, b: s.cohorts.b.id },
+        day,
+      },
+      TEST_PASSWORD,
+    ),
+  );
+  const [e] = await sequelize.query<{ id: string; status: string; end_kind: string; ended_on: string; certified: number }>(
+    `SELECT p.id, e.status, e.end_kind, e.ended_on,
+            (SELECT count(*)::int FROM record_certifications c WHERE c.enrolment_id = e.id AND c.purpose = 'graduation') AS certified
+       FROM people p JOIN enrolments e ON e.student_id = p.id WHERE p.school_id = :s AND p.name = 'Ines Varga'`,
+    { replacements: { s: s.school.id }, type: QueryTypes.SELECT },
+  );
+  expect(e).toMatchObject({ status: "completed", end_kind: "graduated", ended_on: day(-3), certified: 1 });
+  expect((await verifyChain(s.school.id)).ok).toBe(true);
+  actAs(s.as.chief);
+  const res = await certificateRoute(new NextRequest(`http://127.0.0.1/api/records/${e!.id}/certificate`), {
+    params: Promise.resolve({ studentId: e!.id }),
+  });
+  expect(res.status).toBe(200);
+});
