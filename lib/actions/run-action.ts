@@ -21,7 +21,7 @@ installUserWords();
  */
 export type ActionFailure = {
   ok: false;
-  status: 400 | 401 | 403 | 404 | 409 | 422;
+  status: 400 | 401 | 403 | 404 | 409 | 422 | 429;
   message: string;
   field?: string;
   fieldErrors?: Record<string, string[]>;

@@ -9,6 +9,7 @@ import { enqueueMail } from "../mail/outbox";
 import { getSchool } from "../shared/school";
 import { composeMail } from "@/lib/mail/compose";
 import { schoolToday } from "./school-today";
+import { capCreates } from "../shared/create-cap";
 
 // Assignments: a briefing or a demo to review by a calendar date (the school's), for a cohort
 // (its current members) or one student. Creating them mails each student in the same transaction.
@@ -76,6 +77,7 @@ export async function createAssignments(
   const today = await schoolToday(caller.schoolId, t);
   if (input.dueOn < today) throw new HttpError(400, "dueOn: the due date is in the past", "dueOn");
 
+  await capCreates(t, caller, "assignments");
   const base = {
     schoolId: caller.schoolId,
     kind: input.kind,

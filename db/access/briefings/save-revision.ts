@@ -11,6 +11,7 @@ import {
 } from "../../models";
 import { HttpError } from "@/lib/http/errors";
 import type { CurrentUser } from "@/lib/auth/session";
+import { capCreates } from "../shared/create-cap";
 
 // Writing a briefing's next revision (or its first). Revisions are never changed: editing writes
 // the next one, and a delivered session keeps pointing at the revision it used.
@@ -144,6 +145,7 @@ export async function saveBriefingRevision(
       return { briefingId: found.id, revisionId: cur.id, number: cur.number, created: false };
     }
   } else {
+    await capCreates(t, caller, "briefings");
     briefing = await Briefing.create(
       { schoolId: caller.schoolId, courseId: input.courseId, ownerId: caller.id, currentRevisionId: null },
       { transaction: t },

@@ -7,6 +7,7 @@ import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { DemoSpec } from "@/lib/curve-lab/demo-spec";
 import { IN_USE_SQL, getDemo } from "./demos";
+import { capCreates } from "../shared/create-cap";
 
 /**
  * Saving demos. A demo that is in use (assigned, part of a briefing revision, or called by a
@@ -38,6 +39,7 @@ async function inUse(demoId: string, t: Transaction): Promise<boolean> {
 }
 
 export async function createDemo(user: CurrentUser, name: string, spec: DemoSpec, t: Transaction) {
+  await capCreates(t, user, "demos");
   const d = await Demo.create(
     { schoolId: user.schoolId, name, ownerId: user.id, currentRevisionId: null, deletedAt: null },
     { transaction: t },

@@ -1,7 +1,8 @@
 import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
-import { enqueueMail } from "../mail/outbox";
+import { enqueueMail, pendingNoticeFacts } from "../mail/outbox";
+import { sessionChangeKey } from "./reschedule-session";
 import { lockSessionForChange, assertNoAttendanceRecorded } from "./lock-session";
 import { attendeesToTell } from "./session-people";
 import { mailSchool } from "./mail-school";
@@ -30,10 +31,17 @@ export async function cancelSession(user: CurrentUser, input: CancelSessionOutpu
     },
   );
   const attendees = await attendeesToTell(s.id, t);
+  // an unsent move notice is replaced by this one, which names the time the attendee last heard of
+  const pending = await pendingNoticeFacts(
+    t,
+    attendees.map((a) => sessionChangeKey(s.id, a.id)),
+  );
   for (const a of attendees) {
+    const heard = pending.get(sessionChangeKey(s.id, a.id))?.heardStartsAt;
+    const heardStartsAt = typeof heard === "string" ? new Date(heard) : new Date(s.startsAt);
     const mail = composeMail(
       "session.cancelled",
-      { name: a.name, briefingTitle: s.title, startsAt: new Date(s.startsAt), room: s.room, reason: input.reason },
+      { name: a.name, briefingTitle: s.title, startsAt: heardStartsAt, room: s.room, reason: input.reason },
       school,
     );
     await enqueueMail(t, {
@@ -43,6 +51,8 @@ export async function cancelSession(user: CurrentUser, input: CancelSessionOutpu
       recipientId: a.id,
       to: a.email,
       ...mail,
+      // a cancellation is final: it goes at once, and replaces any move notice not yet sent
+      coalesce: { key: sessionChangeKey(s.id, a.id), settleMs: 0 },
     });
   }
   return { id: s.id, sequence, told: attendees.length };

@@ -1,7 +1,7 @@
 import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
-import { enqueueMail } from "../mail/outbox";
+import { enqueueMail, pendingNoticeFacts } from "../mail/outbox";
 import { guardOverlap } from "./overlap-guard";
 import { resolveRoom } from "../rooms/resolve-room";
 import { lockSessionForChange, assertNoAttendanceRecorded } from "./lock-session";
@@ -12,6 +12,11 @@ import { HttpError } from "@/lib/http/errors";
 import { zonedInstant } from "@/lib/time";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { RescheduleSessionOutput } from "@/lib/timetable/schema";
+
+/** The coalesce key of change notices about one session for one person (moves, then a cancellation). */
+export function sessionChangeKey(sessionId: string, personId: string): string {
+  return `session.changed:${sessionId}:${personId}`;
+}
 
 /**
  * Moves a session (time, length, room, instructor). Its sequence grows, and each attendee is told
@@ -48,13 +53,21 @@ export async function rescheduleSession(user: CurrentUser, input: RescheduleSess
     );
     return row!.sequence;
   });
+  // one notice per burst: an unsent notice about this session is replaced, and the new one says
+  // "was" with the time the attendee last heard of
+  const pending = await pendingNoticeFacts(
+    t,
+    attendees.map((a) => sessionChangeKey(s.id, a.id)),
+  );
   for (const a of attendees) {
+    const heard = pending.get(sessionChangeKey(s.id, a.id))?.heardStartsAt;
+    const heardStartsAt = typeof heard === "string" ? new Date(heard) : new Date(s.startsAt);
     const mail = composeMail(
       "session.rescheduled",
       {
         name: a.name,
         briefingTitle: s.title,
-        previousStartsAt: new Date(s.startsAt),
+        previousStartsAt: heardStartsAt,
         startsAt,
         endsAt,
         room: room.name,
@@ -69,6 +82,7 @@ export async function rescheduleSession(user: CurrentUser, input: RescheduleSess
       recipientId: a.id,
       to: a.email,
       ...mail,
+      coalesce: { key: sessionChangeKey(s.id, a.id), facts: { heardStartsAt: heardStartsAt.toISOString() } },
     });
   }
   return { id: s.id, sequence, startsAt, endsAt, told: attendees.length };

@@ -9,6 +9,7 @@ import { HttpError } from "@/lib/http/errors";
 import { zonedInstant } from "@/lib/time";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { ScheduleSessionOutput } from "@/lib/timetable/schema";
+import { capCreates } from "../shared/create-cap";
 
 export interface ScheduledSession {
   id: string;
@@ -44,6 +45,7 @@ export async function scheduleSession(user: CurrentUser, input: ScheduleSessionO
   const endsAt = new Date(startsAt.getTime() + input.durationMinutes * 60_000);
   const attendees = await attendeesFor(user.schoolId, input.cohortId, input.studentIds, input.date, t);
   if (attendees.size === 0) throw new HttpError(422, "cohortId: the cohort has no students on that date", "cohortId");
+  await capCreates(t, user, "sessions");
   const ctx = {
     schoolId: user.schoolId,
     sessionId: null,
