@@ -157,6 +157,14 @@ stop() {
   rm -f "$DATA/postmaster.pid"
 }
 
+# stop-immediate: a crash as PostgreSQL sees one (no checkpoint; the next start replays the WAL).
+# For fault tests on a throwaway cluster only.
+stop_immediate() {
+  BIN=$(find_bin)
+  [ -n "$BIN" ] && [ -f "$DATA/PG_VERSION" ] || { echo "[db] not running" >&2; return 0; }
+  as_pg "$BIN/pg_ctl" -D "$DATA" -m immediate -w -t 60 stop >/dev/null 2>&1 || echo "[db] not running" >&2
+}
+
 status() {
   BIN=$(find_bin)
   [ -n "$BIN" ] && [ -d "$SOCK" ] && as_pg "$BIN/pg_isready" -h "$SOCK" -p "$PGPORT"
@@ -173,10 +181,11 @@ cmd="${1:-}"; shift || true
 case "$cmd" in
   start) start ;;
   stop) stop ;;
+  stop-immediate) stop_immediate ;;
   status) status ;;
   where) echo "$PGDIR" ;;
   destroy) destroy ;;
   create-db) start; create_db "$@" ;;
   psql) ensure_installed; psql_su "$@" ;;
-  *) echo "usage: db/cluster.sh start|stop|status|where|destroy|create-db NAME [--fresh]|psql" >&2; exit 2 ;;
+  *) echo "usage: db/cluster.sh start|stop|stop-immediate|status|where|destroy|create-db NAME [--fresh]|psql" >&2; exit 2 ;;
 esac
