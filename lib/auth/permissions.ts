@@ -108,6 +108,21 @@ export const PERMISSIONS = {
     roles: ["chief"],
     description: "Add, rename and take out of use the school's rooms (the Timetable books from this list)",
   },
+  "endorsements.view": { roles: ["chief", "instructor"], description: "See the knowledge-test endorsement log (instructors: their own)" },
+  "endorsements.all": { roles: ["chief"], description: "See every instructor's knowledge-test endorsements, not only one's own" },
+  "endorsements.sign": {
+    roles: ["chief", "instructor"],
+    description: "Endorse a student for a knowledge test (password re-entry; refused while a precondition is unmet)",
+  },
+  "endorsements.results": {
+    roles: ["chief", "instructor"],
+    description: "Record knowledge-test results and the remedial training of missed areas",
+  },
+  "endorsements.settings": {
+    roles: ["chief"],
+    description: "Set the authority settings: endorsement wording, pass mark, validity of a result, attempt limit",
+  },
+  "reports.view": { roles: ["chief"], description: "See the school's reports (first-attempt pass rate per course)" },
 } as const satisfies Record<string, { roles: readonly Role[]; description: string }>;
 
 export type Permission = keyof typeof PERMISSIONS;

@@ -1,0 +1,231 @@
+"use client";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { completeRemedialAction, endorseAction, recordResultAction } from "../actions";
+
+interface Option {
+  id: string;
+  label: string;
+}
+type Errors = Record<string, string[]>;
+
+/** Endorse a student (password re-entry), record a test result, and mark remedial training done. */
+export function EndorsementForms(props: {
+  students: { id: string; name: string; courseCode: string }[];
+  awaiting: Option[];
+  remedials: Option[];
+  maySign: boolean;
+  mayRecord: boolean;
+}) {
+  const router = useRouter();
+  const [keys, setKeys] = useState(() => ({ endorse: crypto.randomUUID(), result: crypto.randomUUID() }));
+  const [errors, setErrors] = useState<Errors>({});
+  const [message, setMessage] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+
+  async function submit(
+    e: React.FormEvent<HTMLFormElement>,
+    run: (f: FormData) => Promise<{ ok: boolean; message?: string; fieldErrors?: Errors }>,
+    done: string,
+  ) {
+    e.preventDefault();
+    const form = e.currentTarget;
+    setBusy(true);
+    const res = await run(new FormData(form));
+    setBusy(false);
+    if (res.ok) {
+      setErrors({});
+      setMessage(done);
+      setKeys({ endorse: crypto.randomUUID(), result: crypto.randomUUID() });
+      form.reset();
+      router.refresh();
+    } else {
+      setErrors(res.fieldErrors ?? {});
+      setMessage(res.message ?? "Not saved");
+    }
+  }
+  const err = (name: string) =>
+    errors[name] ? (
+      <p id={`${name}-error`} className="field-error">
+        {errors[name][0]}
+      </p>
+    ) : null;
+  const described = (name: string) => (errors[name] ? { "aria-invalid": true, "aria-describedby": `${name}-error` } : {});
+  const str = (f: FormData, k: string) => String(f.get(k) ?? "");
+
+  return (
+    <div className="space-y-4">
+      {props.maySign && (
+        <form
+          className="card grid gap-3 sm:grid-cols-4 sm:items-end"
+          aria-label="Endorse a student"
+          noValidate
+          onSubmit={(e) =>
+            submit(
+              e,
+              (f) =>
+                endorseAction({
+                  studentId: str(f, "studentId"),
+                  endorsedOn: str(f, "endorsedOn"),
+                  password: str(f, "password"),
+                  idempotencyKey: keys.endorse,
+                }),
+              "Endorsement signed.",
+            )
+          }
+        >
+          <div>
+            <label htmlFor="studentId" className="field-label">
+              Student
+            </label>
+            <select id="studentId" name="studentId" className="field-input" {...described("studentId")}>
+              {props.students.map((s) => (
+                <option key={s.id} value={s.id}>
+                  {s.name} ({s.courseCode})
+                </option>
+              ))}
+            </select>
+            {err("studentId")}
+          </div>
+          <div>
+            <label htmlFor="endorsedOn" className="field-label">
+              Endorsed on (empty: today)
+            </label>
+            <input id="endorsedOn" name="endorsedOn" type="date" className="field-input" {...described("endorsedOn")} />
+            {err("endorsedOn")}
+          </div>
+          <div>
+            <label htmlFor="endorse-password" className="field-label">
+              Your password (to sign)
+            </label>
+            <input
+              id="endorse-password"
+              name="password"
+              type="password"
+              autoComplete="current-password"
+              className="field-input"
+              {...described("password")}
+            />
+            {err("password")}
+          </div>
+          <button type="submit" className="btn-primary" disabled={busy || props.students.length === 0}>
+            Sign the endorsement
+          </button>
+        </form>
+      )}
+      {props.mayRecord && props.awaiting.length > 0 && (
+        <form
+          className="card grid gap-3 sm:grid-cols-5 sm:items-end"
+          aria-label="Record a test result"
+          noValidate
+          onSubmit={(e) =>
+            submit(
+              e,
+              (f) =>
+                recordResultAction({
+                  endorsementId: str(f, "endorsementId"),
+                  takenOn: str(f, "takenOn"),
+                  scorePercent: str(f, "scorePercent"),
+                  areasMissed: str(f, "areasMissed"),
+                  idempotencyKey: keys.result,
+                }),
+              "Result recorded.",
+            )
+          }
+        >
+          <div>
+            <label htmlFor="endorsementId" className="field-label">
+              Endorsement
+            </label>
+            <select id="endorsementId" name="endorsementId" className="field-input" {...described("endorsementId")}>
+              {props.awaiting.map((a) => (
+                <option key={a.id} value={a.id}>
+                  {a.label}
+                </option>
+              ))}
+            </select>
+            {err("endorsementId")}
+          </div>
+          <div>
+            <label htmlFor="takenOn" className="field-label">
+              Test taken on
+            </label>
+            <input id="takenOn" name="takenOn" type="date" className="field-input" {...described("takenOn")} />
+            {err("takenOn")}
+          </div>
+          <div>
+            <label htmlFor="scorePercent" className="field-label">
+              Score (%)
+            </label>
+            <input
+              id="scorePercent"
+              name="scorePercent"
+              type="number"
+              min={0}
+              max={100}
+              inputMode="numeric"
+              className="field-input num"
+              {...described("scorePercent")}
+            />
+            {err("scorePercent")}
+          </div>
+          <div>
+            <label htmlFor="areasMissed" className="field-label">
+              Knowledge areas missed (one a line)
+            </label>
+            <textarea id="areasMissed" name="areasMissed" rows={2} className="field-input" {...described("areasMissed")} />
+            {err("areasMissed")}
+          </div>
+          <button type="submit" className="btn-primary" disabled={busy}>
+            Record the result
+          </button>
+        </form>
+      )}
+      {props.mayRecord && props.remedials.length > 0 && (
+        <form
+          className="card grid gap-3 sm:grid-cols-3 sm:items-end"
+          aria-label="Remedial training done"
+          noValidate
+          onSubmit={(e) =>
+            submit(
+              e,
+              (f) => completeRemedialAction({ remedialId: str(f, "remedialId"), note: str(f, "note") }),
+              "Remedial training recorded.",
+            )
+          }
+        >
+          <div>
+            <label htmlFor="remedialId" className="field-label">
+              Open remedial item
+            </label>
+            <select id="remedialId" name="remedialId" className="field-input" {...described("remedialId")}>
+              {props.remedials.map((m) => (
+                <option key={m.id} value={m.id}>
+                  {m.label}
+                </option>
+              ))}
+            </select>
+            {err("remedialId")}
+          </div>
+          <div>
+            <label htmlFor="note" className="field-label">
+              Training given
+            </label>
+            <input id="note" name="note" className="field-input" maxLength={2000} {...described("note")} />
+            {err("note")}
+          </div>
+          <button type="submit" className="btn-primary" disabled={busy}>
+            Mark done
+          </button>
+        </form>
+      )}
+      <div aria-live="polite">
+        {message && (
+          <p className="text-ink-soft" data-testid="endorsement-message">
+            {message}
+          </p>
+        )}
+      </div>
+    </div>
+  );
+}

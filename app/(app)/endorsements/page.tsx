@@ -1,0 +1,81 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { can, requirePagePermission } from "@/lib/auth/guard";
+import { endorsableStudents, endorsementLog, openRemedials } from "@/db/access/endorsements/log";
+import { formatDay } from "@/lib/time";
+import { ScrollArea } from "@/components/ui/scroll-area";
+import { EndorsementForms } from "./_components/endorsement-forms";
+
+export const metadata: Metadata = { title: "Endorsements" };
+export const dynamic = "force-dynamic";
+
+export default async function EndorsementsPage() {
+  const user = await requirePagePermission("endorsements.view", "/endorsements");
+  const [log, students, remedials] = await Promise.all([endorsementLog(user), endorsableStudents(user), openRemedials(user)]);
+  const awaiting = log.filter((r) => r.takenOn === null).map((r) => ({ id: r.id, label: `${r.studentName} (${formatDay(r.endorsedOn)})` }));
+  return (
+    <div className="max-w-5xl space-y-6">
+      <div>
+        <h1 className="text-display">Knowledge-test endorsements</h1>
+        <p className="text-ink-soft">
+          {can(user, "endorsements.all") ? "Every endorsement of the school" : "The endorsements you signed"}, with the result once known.
+          Records are kept and never deleted (at least 3 years, 14 CFR 61.189).{" "}
+          {can(user, "reports.view") && <Link href="/endorsements/pass-rate">First-attempt pass rate</Link>}
+          {can(user, "endorsements.settings") && (
+            <>
+              {" · "}
+              <Link href="/endorsements/settings">Authority settings</Link>
+            </>
+          )}
+        </p>
+      </div>
+      <EndorsementForms
+        students={students}
+        awaiting={awaiting}
+        remedials={remedials.map((m) => ({ id: m.id, label: `${m.studentName}: ${m.area} (test of ${formatDay(m.takenOn)})` }))}
+        maySign={can(user, "endorsements.sign")}
+        mayRecord={can(user, "endorsements.results")}
+      />
+      {log.length === 0 ? (
+        <p className="text-ink-soft" data-testid="endorsement-log-empty">
+          No endorsements yet.
+        </p>
+      ) : (
+        <ScrollArea label="Endorsement log">
+          <table className="data-table" data-testid="endorsement-log">
+            <thead>
+              <tr>
+                <th scope="col">Student</th>
+                <th scope="col">Test</th>
+                <th scope="col">Endorsed</th>
+                <th scope="col">Instructor</th>
+                <th scope="col">Attempt</th>
+                <th scope="col">Result</th>
+                <th scope="col">Areas missed</th>
+              </tr>
+            </thead>
+            <tbody>
+              {log.map((r) => (
+                <tr key={r.id}>
+                  <td>{r.studentName}</td>
+                  <td>
+                    {r.authorityName} knowledge test, {r.courseCode}
+                  </td>
+                  <td>{formatDay(r.endorsedOn)}</td>
+                  <td>{r.instructorName}</td>
+                  <td className="num">{r.attempt}</td>
+                  <td>
+                    {r.takenOn === null
+                      ? "Awaiting result"
+                      : `${r.scorePercent} % on ${formatDay(r.takenOn)}: ${r.passed ? `passed (counts until ${formatDay(r.validUntil!)})` : "not passed"}`}
+                  </td>
+                  <td>{r.areasMissed.join(", ") || "None"}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </ScrollArea>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,64 @@
+import "server-only";
+import { QueryTypes } from "sequelize";
+import { sequelize } from "../../index";
+import type { CurrentUser } from "@/lib/auth/session";
+import { can } from "@/lib/auth/can";
+import { studentScopeSql } from "../shared/student-scope";
+
+// The endorsement log (kept at least 3 years, 14 CFR 61.189; rows are never deleted): instructors
+// see their own endorsements, the chief every endorsement of the school; both within the
+// records scope. Also the students one may endorse and the open remedial items.
+
+export interface EndorsementLogRow {
+  id: string;
+  studentId: string;
+  studentName: string;
+  courseCode: string;
+  instructorName: string;
+  authorityName: string;
+  endorsedOn: string;
+  attempt: number;
+  takenOn: string | null;
+  scorePercent: number | null;
+  passed: boolean | null;
+  validUntil: string | null;
+  areasMissed: string[];
+}
+
+export async function endorsementLog(user: CurrentUser): Promise<EndorsementLogRow[]> {
+  const scope = studentScopeSql(user, "records", "e.student_id");
+  const own = can(user, "endorsements.all") ? "TRUE" : "e.instructor_id = :uid";
+  return sequelize.query<EndorsementLogRow>(
+    `SELECT e.id, e.student_id AS "studentId", s.name AS "studentName", c.code AS "courseCode", i.name AS "instructorName",
+            e.authority_name AS "authorityName", e.endorsed_on AS "endorsedOn", e.attempt,
+            r.taken_on AS "takenOn", r.score_percent AS "scorePercent", r.passed, r.valid_until AS "validUntil",
+            COALESCE(r.areas_missed, '{}') AS "areasMissed"
+       FROM knowledge_test_endorsements e
+       JOIN people s ON s.id = e.student_id JOIN people i ON i.id = e.instructor_id JOIN courses c ON c.id = e.course_id
+       LEFT JOIN knowledge_test_results r ON r.endorsement_id = e.id
+      WHERE e.school_id = :school AND ${own} AND ${scope.sql}
+      ORDER BY e.endorsed_on DESC, e.created_at DESC`,
+    { replacements: { school: user.schoolId, uid: user.id, ...scope.replacements }, type: QueryTypes.SELECT },
+  );
+}
+
+/** Students on a course whom the caller may endorse (records scope), by name. */
+export async function endorsableStudents(user: CurrentUser): Promise<{ id: string; name: string; courseCode: string }[]> {
+  const scope = studentScopeSql(user, "records", "a.student_id");
+  return sequelize.query(
+    `SELECT p.id, p.name, c.code AS "courseCode" FROM active_enrolments a JOIN people p ON p.id = a.student_id JOIN courses c ON c.id = a.course_id
+      WHERE p.school_id = :school AND ${scope.sql} ORDER BY p.name`,
+    { replacements: { school: user.schoolId, ...scope.replacements }, type: QueryTypes.SELECT },
+  );
+}
+
+/** Open remedial items of the students in the caller's records scope. */
+export async function openRemedials(user: CurrentUser): Promise<{ id: string; studentName: string; area: string; takenOn: string }[]> {
+  const scope = studentScopeSql(user, "records", "m.student_id");
+  return sequelize.query(
+    `SELECT m.id, p.name AS "studentName", m.area, r.taken_on AS "takenOn"
+       FROM knowledge_test_remedials m JOIN people p ON p.id = m.student_id JOIN knowledge_test_results r ON r.id = m.result_id
+      WHERE m.school_id = :school AND m.state = 'open' AND ${scope.sql} ORDER BY p.name, m.area`,
+    { replacements: { school: user.schoolId, ...scope.replacements }, type: QueryTypes.SELECT },
+  );
+}
