@@ -28,6 +28,8 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/records", label: "Records", permission: "checks.record", group: "Records" },
   { href: "/progress", label: "Progress map", permission: "progress.view", group: "Records" },
   { href: "/register", label: "Sign-off register", permission: "register.view", group: "Records" },
+  { href: "/endorsements", label: "Endorsements", permission: "endorsements.view", group: "Records" },
+  { href: "/endorsements/pass-rate", label: "Pass rate", permission: "reports.view", group: "Records" },
   // school
   { href: "/people", label: "People", permission: "people.view", group: "School" },
   { href: "/roster", label: "Roster", permission: "roster.manage", group: "School" },

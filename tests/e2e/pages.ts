@@ -167,6 +167,13 @@ export const PAGES: CrawlPage[] = [
   // ---- cohorts ----
   { name: "cohorts", path: "/cohorts", roles: ["chief"], waitFor: "[data-testid=cohorts-table] tbody tr" },
   { name: "cohorts-forbidden", path: "/cohorts", roles: ["instructor"], waitFor: "h1", status: 403 },
+  // ---- knowledge-test endorsements ----
+  { name: "endorsements", path: "/endorsements", roles: ["chief", "instructor"], waitFor: "main h1" },
+  { name: "endorsements-forbidden", path: "/endorsements", roles: ["student"], waitFor: "h1", status: 403 },
+  { name: "endorsements-pass-rate", path: "/endorsements/pass-rate", roles: ["chief"], waitFor: "[data-testid=pass-rate-table] tbody tr" },
+  { name: "endorsements-pass-rate-forbidden", path: "/endorsements/pass-rate", roles: ["instructor"], waitFor: "h1", status: 403 },
+  { name: "endorsements-settings", path: "/endorsements/settings", roles: ["chief"], waitFor: "main h1" },
+  { name: "endorsements-settings-forbidden", path: "/endorsements/settings", roles: ["instructor"], waitFor: "h1", status: 403 },
   { name: "set-password-invalid", path: "/set-password/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },
   { name: "unsubscribe-invalid", path: "/unsubscribe/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },
 ];

@@ -31,6 +31,7 @@ import { PRACTICE_TABLE } from "./practice/table";
 import { SHARING_TABLE } from "./sharing/table";
 import { ROOMS_TABLE } from "./rooms/table";
 import { COHORTS_TABLE } from "./cohorts/table";
+import { ENDORSEMENTS_TABLE } from "./endorsements/table";
 import { COMPLETION_TABLE } from "./completion/table";
 
 function rowsOf(res: HarnessResponse): { id: string; primary: string }[] {
@@ -146,6 +147,9 @@ export const TABLE: AuthzTable = {
 
   // ---- cohorts (cohorts/table.ts) ----
   ...COHORTS_TABLE,
+
+  // ---- knowledge-test endorsements (endorsements/table.ts) ----
+  ...ENDORSEMENTS_TABLE,
   ...COMPLETION_TABLE,
 
   // ---- mail ----
