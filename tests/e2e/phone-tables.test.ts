@@ -88,3 +88,61 @@ describe.each(["student", "chief"] as const)("the %s's Timetable list", (who) =>
     await screenshot(page, `tables-${who}-timetable-list-1280`);
   });
 });
+
+// headers without sort arrows or the screen-reader "sorted" note
+const plainHeaders = async (p: Page, table: string) =>
+  (await headers(p, table)).map((t) =>
+    t
+      .replace(/[▲▼]/g, "")
+      .replace(/, sorted (ascending|descending)$/, "")
+      .trim(),
+  );
+
+test("the chief's Sign-off register at 390 px: date, student and item first; signer, basis, state and watch notes on demand", async () => {
+  await actAs("chief");
+  await page.setViewportSize({ width: 390, height: 844 });
+  await page.goto("/register");
+  await page.waitForSelector("[data-testid=register-table] tbody tr", { timeout: 15_000 });
+  expect(await headers(page, "[data-testid=register-table]")).toEqual(["Date", "Student", "Item or stage"]);
+  const item = await page.locator("[data-testid=register-table] thead th", { hasText: "Item or stage" }).boundingBox();
+  expect(item!.x + item!.width).toBeLessThanOrEqual(390);
+  expect(await noSidewaysScroll(page)).toBe(true);
+  await screenshot(page, "tables-chief-register-390");
+  const wide = page.locator(".wide-table", { has: page.locator("[data-testid=register-table]") });
+  await wide.locator("button[aria-controls]", { hasText: "More columns (4)" }).click();
+  expect(await wide.locator("button[aria-controls]").getAttribute("aria-expanded")).toBe("true");
+  expect(await headers(page, "[data-testid=register-table]")).toEqual([
+    "Date",
+    "Student",
+    "Item or stage",
+    "Signer / examiner",
+    "Basis",
+    "State",
+    "Watch notes",
+  ]);
+  await screenshot(page, "tables-chief-register-390-more");
+});
+
+test("the student's Briefings list at 390 px: briefing and minutes first, the rest on demand, no reviser's name", async () => {
+  await actAs("student");
+  await page.setViewportSize({ width: 390, height: 844 });
+  await page.goto("/briefings");
+  await page.waitForSelector("[data-testid=briefings-table] tbody tr", { timeout: 15_000 });
+  expect(await plainHeaders(page, "[data-testid=briefings-table]")).toEqual(["Briefing", "Minutes"]);
+  expect(await noSidewaysScroll(page)).toBe(true);
+  await screenshot(page, "tables-student-briefings-390");
+  await page.locator("button[aria-controls]", { hasText: "More columns (4)" }).click();
+  expect(await plainHeaders(page, "[data-testid=briefings-table]")).toEqual([
+    "Briefing",
+    "Minutes",
+    "Revision",
+    "Last revised",
+    "Syllabus items",
+    "Handouts · demos",
+  ]);
+  // who revised a briefing is staff information: the student's "Last revised" cells hold a date only
+  const revised = await page.locator("[data-testid=briefings-table] tbody tr td:nth-child(4)").allTextContents();
+  expect(revised.length).toBeGreaterThan(0);
+  for (const cell of revised) expect(cell.trim()).toMatch(/^[A-Z][a-z]{2} \d{1,2} [A-Z][a-z]{2} \d{4}$/);
+  await screenshot(page, "tables-student-briefings-390-more");
+});

@@ -159,7 +159,7 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
           Sign-offs and stage checks <span className="text-caption font-normal text-ink-soft">({total})</span>
         </h2>
         <div className="mt-2">
-          <WideTable label="Sign-offs and stage checks, scrolls sideways" more={3}>
+          <WideTable label="Sign-offs and stage checks, scrolls sideways" more={4}>
             <table className="data-table text-caption" data-testid="register-table">
               <thead>
                 <tr>
@@ -172,7 +172,9 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
                   <th scope="col" data-more="">
                     Basis
                   </th>
-                  <th scope="col">State</th>
+                  <th scope="col" data-more="">
+                    State
+                  </th>
                   <th scope="col" data-more="">
                     Watch notes
                   </th>
@@ -200,7 +202,7 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
                     </td>
                     <td data-more="">{r.signerName}</td>
                     <td data-more="">{r.basis}</td>
-                    <td>
+                    <td data-more="">
                       {STATE_LABEL[r.state]}
                       {r.reason ? `: ${r.reason}` : ""}
                     </td>
