@@ -4,7 +4,6 @@ import { sequelize } from "../../index";
 import { getSchool } from "../shared/school";
 import { studentScopeSql } from "../shared/student-scope";
 import { formatInZone, dateInZone } from "@/lib/time";
-import { now } from "@/lib/clock";
 import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { SessionsQuery } from "@/lib/timetable/schema";
@@ -133,15 +132,4 @@ export async function listSessions(
     };
   });
   return { rows, total: count?.n ?? 0 };
-}
-
-/** Sessions that ended more than 24 h ago with nobody's attendance recorded, that the instructor teaches. */
-export async function sessionsAwaitingAttendance(user: CurrentUser): Promise<SessionRow[]> {
-  const cutoff = new Date(now().getTime() - 24 * 3600_000);
-  const { rows } = await listSessions(
-    user,
-    { status: "scheduled", toInstant: cutoff, instructor: user.id },
-    { sort: "starts_at", dir: "desc", pageSize: 50 },
-  );
-  return rows.filter((r) => new Date(r.endsAt).getTime() <= cutoff.getTime() && r.recordedCount === 0 && r.attendeeCount > 0);
 }

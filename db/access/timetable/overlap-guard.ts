@@ -2,7 +2,7 @@ import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { HttpError } from "@/lib/http/errors";
-import { formatInZone } from "@/lib/time";
+import { formatDayTime, formatInZone } from "@/lib/time";
 
 // The database refuses double-booking (exclusion constraints); this turns a refusal into a 409 that names what is busy.
 
@@ -28,7 +28,7 @@ async function conflictError(
   timeZone: string,
 ): Promise<HttpError> {
   const when = (r: { startsAt: Date; endsAt: Date; title: string }) =>
-    `"${r.title}" ${formatInZone(new Date(r.startsAt), timeZone, "EEE d MMM HH:mm")}–${formatInZone(new Date(r.endsAt), timeZone, "HH:mm")}`;
+    `"${r.title}" ${formatDayTime(new Date(r.startsAt), timeZone)}–${formatInZone(new Date(r.endsAt), timeZone, "HH:mm")}`;
   const base = `SELECT s.starts_at AS "startsAt", s.ends_at AS "endsAt", br.title FROM training_sessions s
                   JOIN briefing_revisions br ON br.id = s.briefing_revision_id
                  WHERE s.status = 'scheduled' AND tstzrange(s.starts_at, s.ends_at, '[)') && tstzrange(:a, :b, '[)')
