@@ -16,14 +16,16 @@ import { AcknowledgeButton } from "../_components/acknowledge-button";
 export const metadata: Metadata = { title: "Progress map" };
 export const dynamic = "force-dynamic";
 
+// Item status has marks of its own (squares and a star, blue-grey), so it never reads as an
+// outcome (Solid / Shaky / Not yet: circles in green, amber and red) on the same card.
 const STATUS_STYLE: Record<ItemStatus, string> = {
   not_started: "border-paper-edge bg-white",
   taught: "border-paper-edge bg-paper-deep",
-  checked: "border-shaky-600 bg-shaky-100",
-  signed: "border-solid-600 bg-solid-100",
-  stage_passed: "border-wing-600 bg-wing-100",
+  checked: "border-wing-500 border-dashed bg-wing-50",
+  signed: "border-wing-600 bg-wing-100",
+  stage_passed: "border-wing-800 bg-wing-100",
 };
-const STATUS_MARK: Record<ItemStatus, string> = { not_started: "○", taught: "◌", checked: "◐", signed: "●", stage_passed: "★" };
+const STATUS_MARK: Record<ItemStatus, string> = { not_started: "□", taught: "◇", checked: "◈", signed: "■", stage_passed: "★" };
 
 export default async function ProgressPage({ params }: { params: Promise<{ studentId: string }> }) {
   const { studentId } = await params;
