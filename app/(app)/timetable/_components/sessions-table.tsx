@@ -196,7 +196,10 @@ export function SessionsTable({
                 <td>{s.room}</td>
                 <td data-more="">{s.instructorName}</td>
                 <td data-more="">{s.cohortName ?? "Individual students"}</td>
-                <td data-more="">{s.status === "cancelled" ? "Cancelled" : s.recordedCount > 0 ? "Attendance recorded" : "Scheduled"}</td>
+                <td data-more="">
+                  {/* whether attendance was recorded is staff business: a student sees only scheduled or cancelled */}
+                  {s.status === "cancelled" ? "Cancelled" : staff && s.recordedCount > 0 ? "Attendance recorded" : "Scheduled"}
+                </td>
               </tr>
             ))}
             {data && data.rows.length === 0 && (
