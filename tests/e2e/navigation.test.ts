@@ -21,10 +21,15 @@ const LINKS: Record<Who, string[]> = {
     "Records",
     "Progress map",
     "Sign-off register",
+    "Endorsements",
+    "Pass rate",
     "People",
     "Roster",
+    "Rooms",
+    "Cohorts",
     "Mail tray",
     "Notes for sponsors",
+    "Weekly letters",
     "Settings",
   ],
   instructor: [
@@ -37,12 +42,13 @@ const LINKS: Record<Who, string[]> = {
     "Ground log",
     "Records",
     "Progress map",
+    "Endorsements",
     "People",
     "Roster",
     "Notes for sponsors",
   ],
-  student: ["Today", "Syllabus", "Curve Lab", "Briefings", "Assignments", "Timetable", "Practice", "Ground log", "Progress map"],
-  sponsor: ["Today", "Ground log", "Progress map"],
+  student: ["Today", "Syllabus", "Curve Lab", "Briefings", "Assignments", "Timetable", "Practice", "Ground log", "Progress map", "Sharing"],
+  sponsor: ["Today", "Ground log", "Progress map", "Weekly letters"],
 };
 
 let browser: Browser;
