@@ -57,7 +57,9 @@ export async function launchSharedBrowser(): Promise<SharedBrowser> {
   };
 }
 
+/** Signs in afresh: a session already in the page's context is dropped first (a signed-in visitor is sent on from /sign-in). */
 export async function signIn(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
+  await page.context().clearCookies();
   await page.goto("/sign-in");
   await page.fill("#email", email);
   await page.fill("#password", password);

@@ -18,6 +18,8 @@ export const FINGERPRINT_EXCLUDE: Record<string, string> = {
   "public.schema_migrations": "written only by migrations",
   "public.mail_deliveries": "written by the mail worker in the background (delivery receipts of outbox rows)",
   "public.mail_jobs": "written by the mail worker in the background (queue bookkeeping of outbox rows)",
+  "public.audit_checkpoints":
+    "the verified position of the audit chain, moved forward when the chief's Today checks new events (a cache of the verification, not a record)",
 };
 /**
  * Tables fingerprinted by an expression over the row (alias x) instead of the whole row, where
