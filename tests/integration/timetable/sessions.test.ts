@@ -70,7 +70,7 @@ describe("the database refuses double-booking", () => {
     expect(err).toBeInstanceOf(HttpError);
     expect(err.status).toBe(409);
     expect(err.field).toBe("instructorId");
-    expect(err.message).toMatch(/Instructor One already teaches "Drag and the minimum-drag speed" Tue 3 Nov 1[01]:[03]0–1[01]:[03]0/);
+    expect(err.message).toMatch(/Instructor One already teaches "Drag and the minimum-drag speed" Tue 3 Nov 2026, 1[01]:[03]0–1[01]:[03]0/);
     expect(
       await count(`SELECT count(*)::int AS n FROM training_sessions WHERE school_id = :s AND starts_at::date = '2026-11-03'`, {
         s: s.school.id,
@@ -93,7 +93,7 @@ describe("the database refuses double-booking", () => {
     const err = refused[0]!.reason as HttpError;
     expect(err.status).toBe(409);
     expect(err.field).toBe("room");
-    expect(err.message).toMatch(/is already booked for "Drag and the minimum-drag speed" Wed 4 Nov 10:(00|15)/);
+    expect(err.message).toMatch(/is already booked for "Drag and the minimum-drag speed" Wed 4 Nov 2026, 10:(00|15)/);
   });
 
   it("two concurrent sessions for one student (different instructor and room): exactly one is created, the 409 names the student", async () => {
@@ -112,7 +112,7 @@ describe("the database refuses double-booking", () => {
     const err = refused[0]!.reason as HttpError;
     expect(err.status).toBe(409);
     expect(err.field).toBe("studentIds");
-    expect(err.message).toContain(`${student.name} is already in "Drag and the minimum-drag speed" Thu 5 Nov 14:`);
+    expect(err.message).toContain(`${student.name} is already in "Drag and the minimum-drag speed" Thu 5 Nov 2026, 14:`);
     expect(
       await count(`SELECT count(*)::int AS n FROM session_attendees WHERE student_id = :st AND starts_at::date = '2026-11-05'`, {
         st: student.id,
