@@ -42,6 +42,9 @@ test("the chief records a change to an instructor's qualification and both versi
   const history = page.locator("[data-testid=qualification-history] tbody tr");
   const before = await history.count();
   expect(before).toBeGreaterThan(0);
+  // versions of this qualification already on file (the authorisation harness may have recorded one)
+  const versionsBefore = (await history.allTextContents()).filter((r) => r.includes("LHV-GI-0188")).length;
+  expect(versionsBefore).toBeGreaterThan(0);
   expect(await seriousFindings(page)).toEqual([]);
 
   await page.getByText("Record a change to LHV-GI-0188").click();
@@ -53,10 +56,12 @@ test("the chief records a change to an instructor's qualification and both versi
   await form.getByLabel("What changed and why").fill("Human performance rating added");
   await form.getByRole("button", { name: "Record the change" }).click();
   await form.locator("[data-testid=form-done]").waitFor();
-  expect(await form.locator("[data-testid=form-done]").textContent()).toMatch(/^Saved as version 2, in force from \d{4}-\d{2}-\d{2}\.$/);
+  expect(await form.locator("[data-testid=form-done]").textContent()).toMatch(
+    new RegExp(`^Saved as version ${versionsBefore + 1}, in force from \\d{4}-\\d{2}-\\d{2}\\.$`),
+  );
   await page.waitForFunction((n) => document.querySelectorAll("[data-testid=qualification-history] tbody tr").length === n + 1, before);
   const rows = await history.allTextContents();
-  expect(rows.filter((r) => r.includes("LHV-GI-0188"))).toHaveLength(2);
+  expect(rows.filter((r) => r.includes("LHV-GI-0188"))).toHaveLength(versionsBefore + 1);
   expect(rows.some((r) => r.includes("Human performance rating added"))).toBe(true);
   await screenshot(page, "instructor-file-chief");
 });
