@@ -58,7 +58,7 @@ export async function SponsorToday({ user }: { user: CurrentUser }) {
             {s.assessment && (
               <p data-testid="standing">
                 {s.assessment.headline}
-                {s.assessment.reasons.length > 0 && ` ${s.assessment.reasons.join("; ")}.`}
+                {s.assessment.reasons.length > 0 && ` ${sentence(s.assessment.reasons.join("; "))}.`}
               </p>
             )}
             {s.milestones && (
@@ -83,4 +83,9 @@ export async function SponsorToday({ user }: { user: CurrentUser }) {
       </ul>
     </section>
   );
+}
+
+/** A reason list read as a sentence: its first letter capital. */
+function sentence(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
 }
