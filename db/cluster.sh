@@ -80,10 +80,12 @@ make_dirs() {
 
 # explain_start_failure: why the server did not start, in one sentence, from its log.
 explain_start_failure() {
-  if grep -qiE "could not bind|address already in use" "$LOG" 2>/dev/null; then
+  # only this start's lines of the log count
+  local recent; recent=$(tail -c "+${LOG_FROM:-1}" "$LOG" 2>/dev/null || true)
+  if grep -qiE "could not bind|address already in use" <<<"$recent"; then
     fail "PostgreSQL could not listen on 127.0.0.1:$PGPORT because another program (perhaps another checkout's database) uses that port: stop it (npm run stop in that checkout) or set CHALKWING_PG_PORT to a free port, then try again."
   fi
-  if grep -qiE "permission denied" "$LOG" 2>/dev/null; then
+  if grep -qiE "permission denied" <<<"$recent"; then
     fail "PostgreSQL was refused access to its folder $PGDIR: make sure the '$PG_OS_USER' user may enter it, or set CHALKWING_PG_DIR to another folder, then try again (log: $LOG)."
   fi
   echo "[db] PostgreSQL did not start; the last lines of its log ($LOG):" >&2
@@ -111,6 +113,12 @@ max_connections = 200
 CONF
     if [ "${CHALKWING_PG_FAST:-0}" = "1" ]; then echo "fsync = off" >> "$DATA/postgresql.conf"; fi
   fi
+  # a port chosen after the cluster was made (CHALKWING_PG_PORT) applies from the next start: the last line wins
+  if [ "$(grep -E '^port = ' "$DATA/postgresql.conf" | tail -n 1 | awk '{print $3}')" != "$PGPORT" ] &&
+    ! as_pg "$BIN/pg_ctl" -D "$DATA" status >/dev/null 2>&1; then
+    echo "port = $PGPORT" >> "$DATA/postgresql.conf"
+  fi
+  LOG_FROM=$(($(stat -c %s "$LOG" 2>/dev/null || echo 0) + 1))
   local tries=0
   # Ready means: our own cluster runs and answers on its own socket (a server of someone else's
   # on the same TCP port must not pass for ours).
