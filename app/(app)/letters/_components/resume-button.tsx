@@ -25,7 +25,8 @@ export function ResumeLetterButton({ studentId, studentName }: { studentId: stri
       >
         Receive the Weekly letter about {studentName} again
       </button>
-      <span role="status" aria-live="polite" className="text-caption">
+      {/* inside the sponsor's letter line, which is itself the live region */}
+      <span className="text-caption">
         {status}
       </span>
     </span>

@@ -8,11 +8,21 @@ import { ResumeLetterButton } from "../../letters/_components/resume-button";
 // The sponsor's Today: one entry per student they sponsor, in plain words, each part only when
 // the student shares it; whether the Weekly letter is on, and how to turn it back on.
 
+// The line sits in one live region that outlives the refresh after "Receive … again", so the new
+// state ("… is on.") is what the sponsor sees and hears as the confirmation.
 function LetterLine({ s }: { s: SponsoredOverview }) {
+  return (
+    <div data-testid="letter-status" role="status" aria-live="polite" className="space-y-1">
+      <LetterWords s={s} />
+    </div>
+  );
+}
+
+function LetterWords({ s }: { s: SponsoredOverview }) {
   const first = s.name.split(/\s+/)[0] ?? s.name;
   if (s.letter === "on")
     return (
-      <p data-testid="letter-status">
+      <p>
         The Weekly letter about {first} is on.{" "}
         <Link href="/letters" className="underline">
           Letters sent to you
@@ -21,15 +31,15 @@ function LetterLine({ s }: { s: SponsoredOverview }) {
     );
   if (s.letter === "stopped-by-you")
     return (
-      <div data-testid="letter-status" className="space-y-1">
+      <>
         <p>
           <strong>The Weekly letter about {first} is off:</strong> you stopped it. To turn it back on:
         </p>
         <ResumeLetterButton studentId={s.studentId} studentName={first} />
-      </div>
+      </>
     );
   return (
-    <p data-testid="letter-status">
+    <p>
       <strong>The Weekly letter about {first} is off:</strong> {first} has not chosen to send it to you. {first} can turn it on in Chalkwing
       under Sharing.
     </p>
