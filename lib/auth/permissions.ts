@@ -73,6 +73,10 @@ export const PERMISSIONS = {
   "stagechecks.designate": { roles: ["chief"], description: "Designate check instructors and override examiner rules" },
   "register.view": { roles: ["chief"], description: "See the Sign-off register and watch notes" },
   "records.certify": { roles: ["chief"], description: "Certify printed training records as the chief instructor" },
+  "records.inspect": {
+    roles: ["chief"],
+    description: "Produce a student's inspection pack (record, instructor files, audit chain check, pass rate) as one PDF",
+  },
   "register.review": { roles: ["chief"], description: "Mark watch notes of the Sign-off register reviewed, with a remark" },
   "audit.verify": { roles: ["chief"], description: "Verify the audit trail's hash chain" },
   "progress.view": { roles: ["chief", "instructor", "student", "sponsor"], description: "See a Progress map (scoped to the caller)" },
