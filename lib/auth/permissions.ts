@@ -127,6 +127,14 @@ export const PERMISSIONS = {
     description: "Set the authority settings: endorsement wording, pass mark, validity of a result, attempt limit",
   },
   "reports.view": { roles: ["chief"], description: "See the school's reports (first-attempt pass rate per course)" },
+  "transfers.manage": {
+    roles: ["chief"],
+    description: "Record credit from a student's earlier school (ground time, items, evidence, this school's test) and read it",
+  },
+  "retention.manage": {
+    roles: ["chief"],
+    description: "Choose the retention rules, set and lift legal holds, and mark records past their retention date archived",
+  },
 } as const satisfies Record<string, { roles: readonly Role[]; description: string }>;
 
 export type Permission = keyof typeof PERMISSIONS;
