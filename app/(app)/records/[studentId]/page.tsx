@@ -88,6 +88,24 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
           <a className="underline" href={`/api/records/${student.id}/training-record`}>
             Training record (PDF)
           </a>
+          {can(user, "sharing.students") && (
+            <>
+              {" "}
+              ·{" "}
+              <Link className="underline" href={`/sharing/${student.id}`}>
+                Sponsors and sharing
+              </Link>
+            </>
+          )}
+          {can(user, "records.certify") && (
+            <>
+              {" "}
+              ·{" "}
+              <Link className="underline" href={`/completion/${student.id}`}>
+                End training
+              </Link>
+            </>
+          )}
         </p>
       </header>
       <Caution />
