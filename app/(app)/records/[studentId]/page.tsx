@@ -97,15 +97,6 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
               </Link>
             </>
           )}
-          {can(user, "records.certify") && (
-            <>
-              {" "}
-              ·{" "}
-              <Link className="underline" href={`/completion/${student.id}`}>
-                End training
-              </Link>
-            </>
-          )}
         </p>
       </header>
       <Caution />
