@@ -49,6 +49,21 @@ ensure_poppler() { # pdftotext, which the training-record test reads the printed
   fi
 }
 
+ensure_topology_packages() { # nginx (the reverse proxy) and PgBouncer, for the two-server topology (lib/ops/topology.sh)
+  local have_nginx=0 have_pgbouncer=0
+  { command -v nginx || [ -x /usr/sbin/nginx ]; } >/dev/null 2>&1 && have_nginx=1
+  { command -v pgbouncer || [ -x /usr/sbin/pgbouncer ]; } >/dev/null 2>&1 && have_pgbouncer=1
+  if [ "$have_nginx" = 0 ] || [ "$have_pgbouncer" = 0 ]; then
+    echo "[setup] installing nginx-light and pgbouncer from Debian's packages"
+    export DEBIAN_FRONTEND=noninteractive
+    local sudo=()
+    [ "$(id -u)" = 0 ] || sudo=(sudo -n)
+    # Debian may start the packages' own services (nginx on port 80, PgBouncer on 6432); the
+    # topology uses neither: it starts its own nginx and PgBouncer with their own configuration
+    "${sudo[@]}" apt-get update -qq && "${sudo[@]}" apt-get install -y -qq nginx-light pgbouncer >/dev/null
+  fi
+}
+
 tsx_run() { # server-only modules need the react-server condition outside Next
   (cd "$ROOT" && NODE_OPTIONS="--conditions=react-server ${NODE_OPTIONS:-}" node_modules/.bin/tsx "$@")
 }

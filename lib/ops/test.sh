@@ -42,6 +42,7 @@ T_ALL=$(date +%s)
 phase_start "setup (npm packages, Chromium, PostgreSQL)"
 ensure_node_modules || { echo "npm ci failed"; echo "tests: 0 passed, 1 failed"; exit 1; }
 want e2e && ensure_chromium
+want e2e && ensure_topology_packages
 want integration && ensure_poppler
 ensure_secret
 export CHALKWING_PG_FAST=1
