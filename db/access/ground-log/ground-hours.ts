@@ -3,14 +3,20 @@ import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
 
 /**
- * Credited ground minutes of a student on a course: the sum over the effective Ground log entry
- * of each session (amendments replace what they amend; absences count zero).
+ * The one sum of a student's credited ground minutes on a course: the effective Ground log entry
+ * of each session (amendments replace what they amend; absences count zero) plus the minutes
+ * credited by transfer from an earlier school (transfer_credits, capped by 14 CFR 141.77(c)).
+ * Every total of ground hours in the product reads this (`creditedMinutesFor`, `groundHoursFor`).
  */
+const TOTAL_SQL = `SELECT (COALESCE((SELECT sum(credited_minutes) FROM ground_log_current WHERE student_id = :s AND course_id = :c), 0)
+        + COALESCE((SELECT sum(credited_minutes) FROM transfer_credits WHERE student_id = :s AND course_id = :c), 0))::int AS minutes,
+       COALESCE((SELECT sum(credited_minutes) FROM transfer_credits WHERE student_id = :s AND course_id = :c), 0)::int AS transfer`;
+
 export async function creditedMinutesFor(studentId: string, courseId: string): Promise<number> {
-  const [row] = await sequelize.query<{ minutes: number }>(
-    `SELECT COALESCE(sum(credited_minutes), 0)::int AS minutes FROM ground_log_current WHERE student_id = :studentId AND course_id = :courseId`,
-    { replacements: { studentId, courseId }, type: QueryTypes.SELECT },
-  );
+  const [row] = await sequelize.query<{ minutes: number }>(TOTAL_SQL, {
+    replacements: { s: studentId, c: courseId },
+    type: QueryTypes.SELECT,
+  });
   return row?.minutes ?? 0;
 }
 
@@ -26,12 +32,15 @@ export interface GroundHours {
   courseTitle: string;
   minimumMinutes: number;
   creditedMinutes: number;
+  /** of which credited by transfer from an earlier school (also a row of byStage) */
+  transferMinutes: number;
   byStage: StageHours[];
 }
 
 /**
  * Credited minutes per stage and for the course. An entry whose syllabus items fall in several
- * stages is shared equally among them; one with no items counts under "Not tied to a stage".
+ * stages is shared equally among them; one with no items counts under "Not tied to a stage";
+ * minutes credited by transfer count on a row of their own, so the rows add up to the total.
  */
 export async function groundHoursFor(studentId: string, courseId: string): Promise<GroundHours | null> {
   const [course] = await sequelize.query<{ code: string; title: string; min: number }>(
@@ -49,16 +58,21 @@ export async function groundHoursFor(studentId: string, courseId: string): Promi
        FROM shared GROUP BY code, title ORDER BY min(pos) NULLS LAST, code`,
     { replacements: { s: studentId, c: courseId }, type: QueryTypes.SELECT },
   );
-  const [total] = await sequelize.query<{ minutes: number }>(
-    `SELECT COALESCE(sum(credited_minutes), 0)::int AS minutes FROM ground_log_current WHERE student_id = :s AND course_id = :c`,
-    { replacements: { s: studentId, c: courseId }, type: QueryTypes.SELECT },
-  );
+  const [total] = await sequelize.query<{ minutes: number; transfer: number }>(TOTAL_SQL, {
+    replacements: { s: studentId, c: courseId },
+    type: QueryTypes.SELECT,
+  });
+  const transfer = total?.transfer ?? 0;
   return {
     courseId,
     courseCode: course.code,
     courseTitle: course.title,
     minimumMinutes: course.min,
     creditedMinutes: total?.minutes ?? 0,
-    byStage: stages.map((r) => ({ stageCode: r.stageCode, stageTitle: r.stageTitle ?? "Not tied to a stage", minutes: r.minutes })),
+    transferMinutes: transfer,
+    byStage: [
+      ...stages.map((r) => ({ stageCode: r.stageCode, stageTitle: r.stageTitle ?? "Not tied to a stage", minutes: r.minutes })),
+      ...(transfer > 0 ? [{ stageCode: null, stageTitle: "Credited by transfer", minutes: transfer }] : []),
+    ],
   };
 }

@@ -8,6 +8,7 @@ import { itemStatus, outcomesByDate, type ItemStatus } from "@/lib/records/progr
 import { requireStudentFor, type ViewerAccess } from "../shared/student-scope";
 import { getSchool } from "../shared/school";
 import { creditedMinutesFor } from "../ground-log/ground-hours";
+import { transferCreditedItems } from "../transfers/credits";
 import { itemsOfRevision } from "./items";
 import { stageReadiness, type StageReadiness } from "./stage-readiness";
 import { currentSignOffs } from "./sign-offs";
@@ -31,6 +32,8 @@ export interface ProgressMap {
       signerName: string | null;
       /** the passing stage check of the item's stage: its examiner and date */
       stagePassed: { examinerName: string; on: string } | null;
+      /** credited by transfer from an earlier school (the school's name and the day of this school's test) */
+      transferCredit: { sourceSchool: string; on: string } | null;
     }[];
   })[];
   ground: { minutes: number; minimumMinutes: number } | null;
@@ -79,6 +82,7 @@ export async function progressFor(viewer: CurrentUser, studentId: string, opts: 
     }),
   );
   const passed = new Set(stages.filter((s) => s.passed).map((s) => s.stageId));
+  const transferred = await transferCreditedItems(student.id, student.courseId);
   const checkedItems = new Set(inForce.flatMap((c) => c.itemCodes));
   let ground: ProgressMap["ground"] = {
     minutes: await creditedMinutesFor(student.id, student.courseId),
@@ -124,6 +128,7 @@ export async function progressFor(viewer: CurrentUser, studentId: string, opts: 
             signedOn: so?.signedOn ?? null,
             signerName: so?.signerName ?? null,
             stagePassed: passed.has(i.stageId) ? (passedBy.get(i.stageId) ?? null) : null,
+            transferCredit: transferred.get(i.id) ?? null,
           };
         }),
     })),

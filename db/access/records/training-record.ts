@@ -9,6 +9,7 @@ import { recordStudentFor } from "../completion/record-student";
 import type { RecordStudent } from "../completion/record-student";
 import { getSchool } from "../shared/school";
 import { creditedMinutesFor } from "../ground-log/ground-hours";
+import { transferCreditsOf } from "../transfers/credits";
 import { listChecksOfStudent, type CheckSummary } from "./check-history";
 import { signOffRegister } from "./sign-off-register";
 import { chainHead } from "./audit-chain";
@@ -74,6 +75,16 @@ export async function trainingRecordFor(viewer: CurrentUser, studentId: string):
     status: r.status,
     minutes: r.credited_minutes,
   }));
+  // ground time credited by transfer (14 CFR 141.77(c)) is a line of the log, so the lines add up to groundMinutes
+  const transfers = await transferCreditsOf(student.id, student.courseId);
+  for (const c of transfers)
+    groundLog.push({
+      date: c.testTakenOn,
+      title: `Credited by transfer from ${c.sourceSchool}${c.sourceApproved ? " (approved course)" : ""}`,
+      status: "credited_by_transfer",
+      minutes: c.creditedMinutes,
+    });
+  const transferredItems = new Map(transfers.flatMap((c) => c.items.map((i) => [i.id, c.sourceSchool] as const)));
   // the caller's access to this student was checked above: the register is read for them alone
   const { rows } = await signOffRegister(viewer, {}, { studentId: student.id });
   const numbers = new Map<string, string | null>();
@@ -117,7 +128,11 @@ export async function trainingRecordFor(viewer: CurrentUser, studentId: string):
     stageChecks,
     notYetDone: (await itemsOfRevision(student.revisionId))
       .filter((i) => !signed.has(i.code))
-      .map((i) => ({ code: i.code, title: i.title, stageCode: i.stageCode })),
+      .map((i) => ({
+        code: i.code,
+        title: transferredItems.has(i.id) ? `${i.title} (credited by transfer from ${transferredItems.get(i.id)})` : i.title,
+        stageCode: i.stageCode,
+      })),
     certifier: await certifyingInstructor(viewer.schoolId, viewer.id, today),
     certification:
       (await certificationsOf(viewer.schoolId, student.id)).filter((c) => c.enrolmentId === student.enrolmentId).at(-1) ?? null,

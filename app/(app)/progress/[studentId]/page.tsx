@@ -129,6 +129,11 @@ export default async function ProgressPage({ params }: { params: Promise<{ stude
                         ? ` ${formatDay(i.signedOn)} (${i.signerName})`
                         : ""}
                   </p>
+                  {i.transferCredit && (
+                    <p className="text-caption" data-testid={`transfer-${i.code}`}>
+                      Credited by transfer from {i.transferCredit.sourceSchool} (tested {formatDay(i.transferCredit.on)})
+                    </p>
+                  )}
                   <p className="text-caption text-ink-soft">
                     Requires {LEVEL_LABEL[i.requiredLevel].toLowerCase()}
                     {i.lastOutcome && (
