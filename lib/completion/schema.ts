@@ -34,3 +34,11 @@ export const transferCreditSchema = z.object({
   evidenceId: uuid.optional(),
 });
 export type TransferCreditInput = z.output<typeof transferCreditSchema>;
+
+/** Withdrawing a student from their cohort on a date, with a reason (the enrolment on the course goes on). */
+export const withdrawFromCohortSchema = z.object({
+  studentId: uuid,
+  leftOn: calendarDate({ required: "choose the date the student leaves the cohort" }),
+  reason: z.string("give a reason").trim().min(3, "give a reason of at least 3 characters").max(2000, "at most 2000 characters"),
+});
+export type WithdrawFromCohortInput = z.output<typeof withdrawFromCohortSchema>;

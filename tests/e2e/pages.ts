@@ -174,6 +174,16 @@ export const PAGES: CrawlPage[] = [
   { name: "endorsements-pass-rate-forbidden", path: "/endorsements/pass-rate", roles: ["instructor"], waitFor: "h1", status: 403 },
   { name: "endorsements-settings", path: "/endorsements/settings", roles: ["chief"], waitFor: "main h1" },
   { name: "endorsements-settings-forbidden", path: "/endorsements/settings", roles: ["instructor"], waitFor: "h1", status: 403 },
+  // ---- end of training ----
+  { name: "completion", path: "/completion", roles: ["chief"], waitFor: "[data-testid=in-training] tbody tr" },
+  { name: "completion-forbidden", path: "/completion", roles: ["instructor", "student"], waitFor: "h1", status: 403 },
+  {
+    name: "completion-student",
+    path: (fx) => `/completion/${fx.student}`,
+    roles: ["chief"],
+    waitFor: "form[aria-label^='End the training']",
+  },
+  { name: "completion-graduate", path: (fx) => `/completion/${fx.graduate}`, roles: ["chief"], waitFor: "[data-testid=certificate-link]" },
   { name: "set-password-invalid", path: "/set-password/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },
   { name: "unsubscribe-invalid", path: "/unsubscribe/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },
 ];

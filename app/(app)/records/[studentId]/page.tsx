@@ -97,6 +97,15 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
               </Link>
             </>
           )}
+          {can(user, "records.certify") && (
+            <>
+              {" "}
+              ·{" "}
+              <Link className="underline" href={`/completion/${student.id}`}>
+                End training
+              </Link>
+            </>
+          )}
         </p>
       </header>
       <Caution />
