@@ -1,4 +1,5 @@
 import { addMonths, format, parseISO, startOfMonth } from "date-fns";
+import { formatDay } from "@/lib/time";
 
 // Pure rules of knowledge-test endorsements: defaults of the authority settings, the statement the
 // instructor signs, the pass decision and the reporting window.
@@ -30,7 +31,7 @@ export function endorsementStatement(p: { instructorName: string; wording: strin
   return (
     `I, ${p.instructorName}, endorse as follows for the ${p.authorityName} knowledge test: "${p.wording}" ` +
     `I certify that every syllabus item and stage check of the course is complete, no make-up training is open, ` +
-    `the credited ground hours meet the course minimum and I am qualified and current on ${p.endorsedOn}.`
+    `the credited ground hours meet the course minimum and I am qualified and current on ${formatDay(p.endorsedOn)}.`
   );
 }
 

@@ -1,5 +1,5 @@
 import { differenceInCalendarDays } from "date-fns";
-import { dateInZone } from "@/lib/time";
+import { dateInZone, formatDay } from "@/lib/time";
 
 // The watch-note rules of the Sign-off register (pure): which notes a sign-off, a stage check
 // or an oral check raises, and their labels. The data layer reads the facts; this decides.
@@ -140,13 +140,17 @@ export function watchNotes(f: WatchNoteFacts): WatchNote[] {
     };
     const checkDate = dateInZone(s.check_at, f.timeZone);
     if (s.signed_on < checkDate)
-      note({ ...base, kind: "signed_before_check", detail: `signed for ${s.signed_on}, its check is of ${checkDate}` });
+      note({
+        ...base,
+        kind: "signed_before_check",
+        detail: `signed for ${formatDay(s.signed_on)}, its check is of ${formatDay(checkDate)}`,
+      });
     const st = f.standingOf(s);
     if (!st.qualified || !st.current)
       note({
         ...base,
         kind: "signer_not_current",
-        detail: `${s.signer_name} was ${!st.qualified ? "not qualified for the course" : "not current"} on ${s.signed_on}`,
+        detail: `${s.signer_name} was ${!st.qualified ? "not qualified for the course" : "not current"} on ${formatDay(s.signed_on)}`,
       });
     if (f.missedSessions.has(`${s.student_id}:${s.item_id}`))
       note({

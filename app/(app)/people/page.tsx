@@ -46,7 +46,7 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
           <h2 id={`c-${cohort.id}`}>
             {cohort.name}{" "}
             <span className="text-caption font-normal text-ink-soft">
-              · lead {cohort.leadInstructorName} · from {cohort.startsOn}
+              · lead {cohort.leadInstructorName} · from {formatDay(cohort.startsOn)}
             </span>
           </h2>
           <div className="mt-2">

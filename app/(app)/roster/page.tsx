@@ -38,7 +38,7 @@ export default async function RosterPage() {
             <h2 id={`c-${c.id}`}>
               {c.name}{" "}
               <span className="text-caption font-normal text-ink-soft">
-                · {c.courseCode} · lead instructor {c.leadInstructorName} · from {c.startsOn} ·{" "}
+                · {c.courseCode} · lead instructor {c.leadInstructorName} · from {formatDay(c.startsOn)} ·{" "}
                 <span className="num">{members.length}</span> students
               </span>
             </h2>

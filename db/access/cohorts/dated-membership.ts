@@ -3,6 +3,7 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { requireCohortManager } from "./manage-cohorts";
 import { HttpError } from "@/lib/http/errors";
+import { formatDay } from "@/lib/time";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { AddMemberOutput, MoveMemberOutput } from "@/lib/cohorts/schema";
 
@@ -15,7 +16,7 @@ async function openCohort(user: CurrentUser, cohortId: string, field: string, on
     { replacements: { id: cohortId, s: user.schoolId }, type: QueryTypes.SELECT, transaction: t },
   );
   if (!c) throw new HttpError(404, `${field}: no such cohort at this school`, field);
-  if (c.closedOn && onDate >= c.closedOn) throw new HttpError(409, `${field}: ${c.name} is closed from ${c.closedOn}`, field);
+  if (c.closedOn && onDate >= c.closedOn) throw new HttpError(409, `${field}: ${c.name} is closed from ${formatDay(c.closedOn)}`, field);
   return c;
 }
 
@@ -48,7 +49,8 @@ async function insertMembership(cohortId: string, studentId: string, fromDate: s
 export async function addMember(user: CurrentUser, input: AddMemberOutput, t: Transaction) {
   requireCohortManager(user);
   const c = await openCohort(user, input.cohortId, "cohortId", input.fromDate, t);
-  if (input.fromDate < c.startsOn) throw new HttpError(400, `fromDate: must not be before the cohort starts (${c.startsOn})`, "fromDate");
+  if (input.fromDate < c.startsOn)
+    throw new HttpError(400, `fromDate: must not be before the cohort starts (${formatDay(c.startsOn)})`, "fromDate");
   await requireStudent(user, input.studentId, t);
   return insertMembership(c.id, input.studentId, input.fromDate, "fromDate", t);
 }
@@ -63,7 +65,7 @@ export async function moveMember(user: CurrentUser, input: MoveMemberOutput, t: 
   await requireStudent(user, input.studentId, t);
   const target = await openCohort(user, input.toCohortId, "toCohortId", input.onDate, t);
   if (input.onDate < target.startsOn)
-    throw new HttpError(400, `onDate: must not be before ${target.name} starts (${target.startsOn})`, "onDate");
+    throw new HttpError(400, `onDate: must not be before ${target.name} starts (${formatDay(target.startsOn)})`, "onDate");
   const [current] = await sequelize.query<{ id: string; cohortId: string; fromDate: string }>(
     `SELECT m.id, m.cohort_id AS "cohortId", m.from_date::text AS "fromDate" FROM cohort_memberships m JOIN cohorts c ON c.id = m.cohort_id
       WHERE m.student_id = :p AND c.school_id = :s AND m.from_date <= :d AND (m.to_date IS NULL OR m.to_date > :d) FOR UPDATE OF m`,
@@ -72,7 +74,7 @@ export async function moveMember(user: CurrentUser, input: MoveMemberOutput, t: 
   if (current?.cohortId === input.toCohortId)
     throw new HttpError(409, "toCohortId: the student is already in this cohort then", "toCohortId");
   if (current && current.fromDate === input.onDate)
-    throw new HttpError(400, `onDate: must be after the current membership began (${current.fromDate})`, "onDate");
+    throw new HttpError(400, `onDate: must be after the current membership began (${formatDay(current.fromDate)})`, "onDate");
   return sequelize.transaction({ transaction: t }, async (sp) => {
     if (current) {
       await sequelize.query(`UPDATE cohort_memberships SET to_date = :d WHERE id = :id`, {

@@ -2,6 +2,7 @@ import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { HttpError } from "@/lib/http/errors";
+import { formatDay } from "@/lib/time";
 import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { CloseCohortOutput, CreateCohortOutput, RenameCohortOutput } from "@/lib/cohorts/schema";
@@ -78,8 +79,9 @@ export async function closeCohort(user: CurrentUser, input: CloseCohortOutput, t
     { replacements: { id: input.cohortId, s: user.schoolId }, type: QueryTypes.SELECT, transaction: t },
   );
   if (!c) throw new HttpError(404, "cohortId: no such cohort at this school", "cohortId");
-  if (c.closedOn) throw new HttpError(409, `closedOn: the cohort is already closed from ${c.closedOn}`, "closedOn");
-  if (input.closedOn < c.startsOn) throw new HttpError(400, `closedOn: must not be before the cohort starts (${c.startsOn})`, "closedOn");
+  if (c.closedOn) throw new HttpError(409, `closedOn: the cohort is already closed from ${formatDay(c.closedOn)}`, "closedOn");
+  if (input.closedOn < c.startsOn)
+    throw new HttpError(400, `closedOn: must not be before the cohort starts (${formatDay(c.startsOn)})`, "closedOn");
   const [left] = await sequelize.query<{ n: number }>(
     `SELECT count(*)::int AS n FROM cohort_memberships WHERE cohort_id = :id AND (to_date IS NULL OR to_date > :d)`,
     { replacements: { id: c.id, d: input.closedOn }, type: QueryTypes.SELECT, transaction: t },

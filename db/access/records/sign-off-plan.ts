@@ -135,7 +135,7 @@ export async function planSignOff(user: CurrentUser, input: Omit<SignOffInput, "
   if (checkDate < oldest) {
     throw new RecordRefusal(
       "check_expired",
-      `basisCheckId: the check of ${checkDate} is older than the school's limit of ${school.settings.checkValidityDays} days`,
+      `basisCheckId: the check of ${formatDay(checkDate)} is older than the school's limit of ${school.settings.checkValidityDays} days`,
       "basisCheckId",
     );
   }

@@ -1,6 +1,6 @@
 import "server-only";
 import type { CurrentUser } from "@/lib/auth/session";
-import { dateInZone } from "@/lib/time";
+import { dateInZone, formatDay } from "@/lib/time";
 import { standingKey, watchNoteKey, watchNotes, type WatchNote } from "@/lib/records/watch-notes";
 import { OUTCOME_LABEL } from "@/lib/records/outcome";
 import { watchNoteReviews } from "./watch-note-reviews";
@@ -59,7 +59,7 @@ function signOffBasis(s: RegisterFacts["signOffs"][number], tz: string): string 
   const outcomes = s.item_question_outcomes ?? [];
   const meets = s.item_meets ?? (outcomes.length > 0 && outcomes.every((o) => o === "solid"));
   const asked = outcomes.length ? ` (${outcomes.map((o) => OUTCOME_LABEL[o]).join(", ")})` : "";
-  return `Oral check of ${dateInZone(s.check_at, tz)}, ${s.item_code}: ${meets ? "meets the standard" : "Not yet"}${asked}, level ${s.check_level}`;
+  return `Oral check of ${formatDay(s.check_at, tz)}, ${s.item_code}: ${meets ? "meets the standard" : "Not yet"}${asked}, level ${s.check_level}`;
 }
 
 type Facts = Omit<RegisterFacts, "oralChecks"> & { oralChecks?: RegisterFacts["oralChecks"] };

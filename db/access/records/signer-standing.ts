@@ -1,6 +1,7 @@
 import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { addMonths, format, parseISO } from "date-fns";
+import { formatDay } from "@/lib/time";
 import { sequelize } from "../../index";
 import { RecordRefusal } from "./refusals";
 
@@ -51,13 +52,13 @@ export async function refuseUnlessStanding(
   if (!standing.qualified)
     throw new RecordRefusal(
       "signer_not_qualified",
-      `signer: you are not qualified to ${act} of ${student.courseCode} on ${onDate}`,
+      `signer: you are not qualified to ${act} of ${student.courseCode} on ${formatDay(onDate)}`,
       "signer",
     );
   if (!standing.current)
     throw new RecordRefusal(
       "signer_not_current",
-      `signer: your instructor recency is not current on ${onDate}${standing.currentUntil ? ` (it ran until ${standing.currentUntil})` : ""}; ` +
+      `signer: your instructor recency is not current on ${formatDay(onDate)}${standing.currentUntil ? ` (it ran until ${formatDay(standing.currentUntil)})` : ""}; ` +
         `you may ${act} again once the chief instructor records its renewal in your instructor file`,
       "signer",
     );

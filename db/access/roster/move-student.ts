@@ -3,6 +3,7 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { moveStudentToCohort } from "../cohorts/memberships";
 import { HttpError } from "@/lib/http/errors";
+import { formatDay } from "@/lib/time";
 import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { MoveStudentInput } from "@/lib/roster/schema";
@@ -28,7 +29,7 @@ export async function moveStudent(user: CurrentUser, input: MoveStudentInput, t:
   }
   if (current.cohortId === input.toCohortId) throw new HttpError(409, "toCohortId: the student is already in this cohort", "toCohortId");
   if (input.onDate <= current.fromDate)
-    throw new HttpError(400, `onDate: must be after the current membership began (${current.fromDate})`, "onDate");
+    throw new HttpError(400, `onDate: must be after the current membership began (${formatDay(current.fromDate)})`, "onDate");
   return moveStudentToCohort(
     { schoolId: user.schoolId, studentId: input.studentId, toCohortId: input.toCohortId, onDate: input.onDate },
     t,

@@ -6,7 +6,7 @@ import { rolesAllow } from "@/lib/auth/permissions";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import { uuidParam } from "@/lib/http/api";
 import { now } from "@/lib/clock";
-import { dateInZone } from "@/lib/time";
+import { dateInZone, formatDay } from "@/lib/time";
 import { getPersonInSchool } from "@/db/access/people/list-people";
 import { qualificationHistory, schoolCourses } from "@/db/access/people/qualification-reads";
 import { getSchool } from "@/db/access/shared/school";
@@ -47,12 +47,12 @@ export default async function InstructorFilePage({ params }: { params: Promise<{
           <div key={q.id} className="mt-3 border-t border-rule pt-3" data-testid="qualification-current">
             <p>
               <strong>{q.certificateKind}</strong> <span className="num">{q.certificateNumber}</span> · version {q.version} since{" "}
-              <span className="num">{q.validFrom}</span>
+              <span className="num">{formatDay(q.validFrom)}</span>
               {q.checkInstructor ? " · designated check instructor" : ""}
             </p>
             <p className="text-caption">
-              Ratings: {q.ratings.length ? q.ratings.join(", ") : "none"} · issued {q.issuedOn} · last recency activity {q.recencyOn},
-              lasting {q.recencyMonths} months
+              Ratings: {q.ratings.length ? q.ratings.join(", ") : "none"} · issued {formatDay(q.issuedOn)} · last recency activity{" "}
+              {formatDay(q.recencyOn)}, lasting {q.recencyMonths} months
             </p>
             {manage && (
               <details className="mt-2">
@@ -129,11 +129,11 @@ export default async function InstructorFilePage({ params }: { params: Promise<{
                   </td>
                   <td className="num">{v.version}</td>
                   <td className="num">
-                    {v.validFrom} to {v.validTo ?? "now"}
+                    {formatDay(v.validFrom)} to {v.validTo ? formatDay(v.validTo) : "now"}
                   </td>
                   <td>{v.ratings.join(", ") || "none"}</td>
                   <td className="num">
-                    {v.recencyOn} + {v.recencyMonths} months
+                    {formatDay(v.recencyOn)} + {v.recencyMonths} months
                   </td>
                   <td>{v.checkInstructor ? "Yes" : "No"}</td>
                   <td>{v.recordedByName ?? "—"}</td>
@@ -158,8 +158,8 @@ export default async function InstructorFilePage({ params }: { params: Promise<{
               {grants.map((g) => (
                 <tr key={`${g.courseId}-${g.validFrom ?? "start"}`}>
                   <td>{g.code}</td>
-                  <td className="num">{g.validFrom ?? "first record"}</td>
-                  <td className="num">{g.validTo ?? "now"}</td>
+                  <td className="num">{g.validFrom ? formatDay(g.validFrom) : "first record"}</td>
+                  <td className="num">{g.validTo ? formatDay(g.validTo) : "now"}</td>
                   <td>{g.recordedByName ?? "—"}</td>
                 </tr>
               ))}

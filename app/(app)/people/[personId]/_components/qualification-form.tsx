@@ -5,6 +5,7 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
 import { qualificationSchema } from "@/lib/people/schema";
+import { formatDay } from "@/lib/time";
 import { saveQualificationAction } from "../../actions";
 
 type In = z.input<typeof qualificationSchema>;
@@ -68,7 +69,7 @@ export function QualificationForm({
     setDone(null);
     const r = await saveQualificationAction({ ...data, idempotencyKey: key });
     if (r.ok) {
-      setDone(`Saved as version ${r.data.version}, in force from ${data.effectiveFrom}.`);
+      setDone(`Saved as version ${r.data.version}, in force from ${formatDay(data.effectiveFrom)}.`);
       setKey(`qual-${crypto.randomUUID()}`);
       router.refresh();
       return;
