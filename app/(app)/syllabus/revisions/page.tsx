@@ -9,7 +9,7 @@ import { getSchool } from "@/db/access/shared/school";
 import { formatDay } from "@/lib/time";
 import { uuidParam } from "@/lib/http/api";
 import { MoveEnrolment } from "../_components/move-enrolment";
-import { ScrollArea } from "@/components/ui/scroll-area";
+import { WideTable } from "@/components/ui/wide-table";
 
 export const metadata: Metadata = { title: "Syllabus revisions" };
 export const dynamic = "force-dynamic";
@@ -61,73 +61,97 @@ export default async function SyllabusRevisionsPage({
       )}
       <section className="card" aria-labelledby="h-revs">
         <h2 id="h-revs">Revisions</h2>
-        <ScrollArea label="Revisions table (scrolls sideways on small screens)" className="mt-2">
-          <table className="data-table" data-testid="syllabus-revisions">
-            <thead>
-              <tr>
-                <th scope="col">Revision</th>
-                <th scope="col">Approved</th>
-                <th scope="col">Effective from</th>
-                <th scope="col">Items</th>
-                <th scope="col">Active enrolments</th>
-                <th scope="col">Briefing revisions</th>
-                <th scope="col">What changed</th>
-              </tr>
-            </thead>
-            <tbody>
-              {revisions.map((r) => (
-                <tr key={r.id}>
-                  <td className="num font-semibold">
-                    {r.number}
-                    {r.latest ? " (latest)" : ""}
-                  </td>
-                  <td className="num">{r.approvedOn ?? "—"}</td>
-                  <td className="num">{r.effectiveFrom ?? "—"}</td>
-                  <td className="num">{r.items}</td>
-                  <td className="num">{r.activeEnrolments}</td>
-                  <td className="num">{r.briefingRevisions}</td>
-                  <td>
-                    {r.changeNote || "—"}{" "}
-                    <span className="text-caption text-ink-soft">· made {formatDay(new Date(r.createdAt), school.timeZone)}</span>
-                  </td>
+        <div className="mt-2">
+          <WideTable label="Revisions table, scrolls sideways" more={4}>
+            <table className="data-table" data-testid="syllabus-revisions">
+              <thead>
+                <tr>
+                  <th scope="col">Revision</th>
+                  <th scope="col">Effective from</th>
+                  <th scope="col">What changed</th>
+                  <th scope="col" data-more="">
+                    Approved
+                  </th>
+                  <th scope="col" data-more="">
+                    Items
+                  </th>
+                  <th scope="col" data-more="">
+                    Active enrolments
+                  </th>
+                  <th scope="col" data-more="">
+                    Briefing revisions
+                  </th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
-        </ScrollArea>
+              </thead>
+              <tbody>
+                {revisions.map((r) => (
+                  <tr key={r.id}>
+                    <td className="num font-semibold">
+                      {r.number}
+                      {r.latest ? " (latest)" : ""}
+                    </td>
+                    <td className="num">{r.effectiveFrom ? formatDay(r.effectiveFrom) : "—"}</td>
+                    <td>
+                      {r.changeNote || "—"}{" "}
+                      <span className="text-caption text-ink-soft">· made {formatDay(new Date(r.createdAt), school.timeZone)}</span>
+                    </td>
+                    <td className="num" data-more="">
+                      {r.approvedOn ? formatDay(r.approvedOn) : "—"}
+                    </td>
+                    <td className="num" data-more="">
+                      {r.items}
+                    </td>
+                    <td className="num" data-more="">
+                      {r.activeEnrolments}
+                    </td>
+                    <td className="num" data-more="">
+                      {r.briefingRevisions}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </WideTable>
+        </div>
       </section>
       <section className="card" aria-labelledby="h-enrol">
         <h2 id="h-enrol">Enrolments and their revision</h2>
         <p className="text-caption text-ink-soft">Each student stays on their revision until you move them.</p>
-        <ScrollArea label="Enrolments table (scrolls sideways on small screens)" className="mt-2">
-          <table className="data-table">
-            <thead>
-              <tr>
-                <th scope="col">Student</th>
-                <th scope="col">Enrolled</th>
-                <th scope="col">On revision</th>
-                <th scope="col">Move to</th>
-              </tr>
-            </thead>
-            <tbody>
-              {enrolments.map((e) => (
-                <tr key={e.enrolmentId}>
-                  <td>{e.studentName}</td>
-                  <td className="num">{formatDay(e.enrolledOn)}</td>
-                  <td className="num">{e.revisionNumber}</td>
-                  <td>
-                    <MoveEnrolment
-                      enrolmentId={e.enrolmentId}
-                      studentName={e.studentName}
-                      currentRevisionId={e.revisionId}
-                      revisions={choices}
-                    />
-                  </td>
+        <div className="mt-2">
+          <WideTable label="Enrolments table, scrolls sideways" more={1}>
+            <table className="data-table">
+              <thead>
+                <tr>
+                  <th scope="col">Student</th>
+                  <th scope="col">On revision</th>
+                  <th scope="col">Move to</th>
+                  <th scope="col" data-more="">
+                    Enrolled
+                  </th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
-        </ScrollArea>
+              </thead>
+              <tbody>
+                {enrolments.map((e) => (
+                  <tr key={e.enrolmentId}>
+                    <td>{e.studentName}</td>
+                    <td className="num">{e.revisionNumber}</td>
+                    <td>
+                      <MoveEnrolment
+                        enrolmentId={e.enrolmentId}
+                        studentName={e.studentName}
+                        currentRevisionId={e.revisionId}
+                        revisions={choices}
+                      />
+                    </td>
+                    <td className="num" data-more="">
+                      {formatDay(e.enrolledOn)}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </WideTable>
+        </div>
       </section>
     </div>
   );

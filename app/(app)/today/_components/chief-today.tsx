@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { ScrollArea } from "@/components/ui/scroll-area";
 import { schoolOverview, RECENCY_WARNING_DAYS } from "@/db/access/today/school-overview";
 import type { CurrentUser } from "@/lib/auth/session";
 import { UnlockButton } from "./unlock-button";
@@ -42,29 +43,31 @@ export async function ChiefToday({ user }: { user: CurrentUser }) {
       <div className="grid gap-4 md:grid-cols-2">
         <section className="card" aria-labelledby="currency-title">
           <h2 id="currency-title">Instructor currency</h2>
-          <table className="data-table mt-2">
-            <thead>
-              <tr>
-                <th scope="col">Instructor</th>
-                <th scope="col">Certificate</th>
-                <th scope="col">Recency due</th>
-              </tr>
-            </thead>
-            <tbody>
-              {currency.map((c) => (
-                <tr key={c.certificateNumber}>
-                  <td>{c.name}</td>
-                  <td className="num">{c.certificateNumber}</td>
-                  <td className="num">
-                    {formatDay(c.dueOn)}{" "}
-                    {c.overdue && (
-                      <span className="ml-1 rounded bg-notyet-100 px-1.5 text-caption font-semibold text-notyet-800">lapsed</span>
-                    )}
-                  </td>
+          <ScrollArea label="Instructor currency, scrolls sideways" className="mt-2">
+            <table className="data-table">
+              <thead>
+                <tr>
+                  <th scope="col">Instructor</th>
+                  <th scope="col">Certificate</th>
+                  <th scope="col">Recency due</th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody>
+                {currency.map((c) => (
+                  <tr key={c.certificateNumber}>
+                    <td>{c.name}</td>
+                    <td className="num">{c.certificateNumber}</td>
+                    <td className="num">
+                      {formatDay(c.dueOn)}{" "}
+                      {c.overdue && (
+                        <span className="ml-1 rounded bg-notyet-100 px-1.5 text-caption font-semibold text-notyet-800">lapsed</span>
+                      )}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </ScrollArea>
         </section>
         <section className="card" aria-labelledby="locks-title">
           <h2 id="locks-title">Locked sign-ins</h2>

@@ -5,6 +5,7 @@ import { notFound } from "next/navigation";
 import { z } from "zod";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { Caution } from "@/components/caution";
+import { ScrollArea } from "@/components/ui/scroll-area";
 import { getAirframe } from "@/db/access/curve-lab/airframes";
 import { snapshotOf } from "@/lib/curve-lab/demo-spec";
 import { CONFIGURATION_KEYS, CONFIGURATION_LABELS, formatSpeed } from "@/lib/curve-lab/demo-spec";
@@ -87,27 +88,29 @@ export default async function AirframePage({
             <dt>CD0 clean</dt>
             <dd>{fmt(a.zeroLiftDragCoefficient, 4)}</dd>
           </dl>
-          <table className="data-table">
-            <thead>
-              <tr>
-                <th scope="col">Configuration</th>
-                <th scope="col">CD0 increment</th>
-                <th scope="col">CLmax</th>
-              </tr>
-            </thead>
-            <tbody>
-              {CONFIGURATION_KEYS.map((k) => {
-                const v = a.configurations[k];
-                return (
-                  <tr key={k}>
-                    <td>{CONFIGURATION_LABELS[k]}</td>
-                    <td className="num">{v ? fmt(v.cd0Increment, 4) : "—"}</td>
-                    <td className="num">{v ? fmt(v.maxLiftCoefficient, 2) : "not on this type"}</td>
-                  </tr>
-                );
-              })}
-            </tbody>
-          </table>
+          <ScrollArea label="Configurations, scrolls sideways">
+            <table className="data-table">
+              <thead>
+                <tr>
+                  <th scope="col">Configuration</th>
+                  <th scope="col">CD0 increment</th>
+                  <th scope="col">CLmax</th>
+                </tr>
+              </thead>
+              <tbody>
+                {CONFIGURATION_KEYS.map((k) => {
+                  const v = a.configurations[k];
+                  return (
+                    <tr key={k}>
+                      <td>{CONFIGURATION_LABELS[k]}</td>
+                      <td className="num">{v ? fmt(v.cd0Increment, 4) : "—"}</td>
+                      <td className="num">{v ? fmt(v.maxLiftCoefficient, 2) : "not on this type"}</td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+          </ScrollArea>
           {a.notes && <p className="whitespace-pre-wrap text-ink-soft">{a.notes}</p>}
         </section>
         <section className="card space-y-3" aria-labelledby="derived-h">
@@ -158,47 +161,49 @@ export default async function AirframePage({
           <p className="text-caption text-ink-soft">
             At {fmt(kgToLb(massKg))} lb ({fmt(massKg)} kg), {fmt(mToFt(altitudeM))} ft, ISA, clean. {AXIS_ASSUMPTION}
           </p>
-          <table className="data-table" data-testid="derived-figures">
-            <thead>
-              <tr>
-                <th scope="col">Figure</th>
-                <th scope="col">IAS/EAS</th>
-                <th scope="col">TAS</th>
-              </tr>
-            </thead>
-            <tbody>
-              <tr>
-                <td>Vmd</td>
-                <td className="num">{formatSpeed(eas.vmdMs, "kt")}</td>
-                <td className="num">{formatSpeed(tas.vmdMs, "kt")}</td>
-              </tr>
-              <tr>
-                <td>Vmp</td>
-                <td className="num">{formatSpeed(eas.vmpMs, "kt")}</td>
-                <td className="num">{formatSpeed(tas.vmpMs, "kt")}</td>
-              </tr>
-              <tr>
-                <td>Best glide</td>
-                <td className="num">{formatSpeed(eas.bestGlideMs, "kt")}</td>
-                <td className="num">{formatSpeed(tas.bestGlideMs, "kt")}</td>
-              </tr>
-              {stalls.map((s) => (
-                <tr key={s.configuration}>
-                  <td>Stall speed, {s.label.toLowerCase()}</td>
-                  <td className="num">{formatSpeed(s.ms, "kt")}</td>
-                  <td className="num">
-                    {formatSpeed(stallByConfiguration(snap, c, "true").find((x) => x.configuration === s.configuration)!.ms, "kt")}
+          <ScrollArea label="Derived figures, scrolls sideways">
+            <table className="data-table" data-testid="derived-figures">
+              <thead>
+                <tr>
+                  <th scope="col">Figure</th>
+                  <th scope="col">IAS/EAS</th>
+                  <th scope="col">TAS</th>
+                </tr>
+              </thead>
+              <tbody>
+                <tr>
+                  <td>Vmd</td>
+                  <td className="num">{formatSpeed(eas.vmdMs, "kt")}</td>
+                  <td className="num">{formatSpeed(tas.vmdMs, "kt")}</td>
+                </tr>
+                <tr>
+                  <td>Vmp</td>
+                  <td className="num">{formatSpeed(eas.vmpMs, "kt")}</td>
+                  <td className="num">{formatSpeed(tas.vmpMs, "kt")}</td>
+                </tr>
+                <tr>
+                  <td>Best glide</td>
+                  <td className="num">{formatSpeed(eas.bestGlideMs, "kt")}</td>
+                  <td className="num">{formatSpeed(tas.bestGlideMs, "kt")}</td>
+                </tr>
+                {stalls.map((s) => (
+                  <tr key={s.configuration}>
+                    <td>Stall speed, {s.label.toLowerCase()}</td>
+                    <td className="num">{formatSpeed(s.ms, "kt")}</td>
+                    <td className="num">
+                      {formatSpeed(stallByConfiguration(snap, c, "true").find((x) => x.configuration === s.configuration)!.ms, "kt")}
+                    </td>
+                  </tr>
+                ))}
+                <tr>
+                  <td>(L/D)max (= best glide ratio)</td>
+                  <td className="num" colSpan={2}>
+                    {fmt(eas.maxLiftToDrag, 1)}
                   </td>
                 </tr>
-              ))}
-              <tr>
-                <td>(L/D)max (= best glide ratio)</td>
-                <td className="num" colSpan={2}>
-                  {fmt(eas.maxLiftToDrag, 1)}
-                </td>
-              </tr>
-            </tbody>
-          </table>
+              </tbody>
+            </table>
+          </ScrollArea>
         </section>
       </div>
     </div>

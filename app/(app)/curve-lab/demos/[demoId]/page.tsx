@@ -11,7 +11,9 @@ import { listCallsForDemo } from "@/db/access/curve-lab/calls";
 import { ownCallOnRevision } from "@/db/access/curve-lab/call-once";
 import { DemoWorkbench } from "../../_components/demo-workbench";
 import { assignedRevisionFor } from "../../_lib/student-access";
-import { ScrollArea } from "@/components/ui/scroll-area";
+import { WideTable } from "@/components/ui/wide-table";
+import { getSchool } from "@/db/access/shared/school";
+import { formatDayTime } from "@/lib/time";
 
 export const metadata: Metadata = { title: "Demo · Curve Lab" };
 export const dynamic = "force-dynamic";
@@ -62,7 +64,7 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
   const demo = await getDemo(user.schoolId, demoId);
   if (!demo) notFound();
   const airframes = (await listAirframes(user.schoolId)).map(snapshotOf);
-  const calls = await listCallsForDemo(user, demoId);
+  const [calls, school] = await Promise.all([listCallsForDemo(user, demoId), getSchool(user.schoolId)]);
   const canChange = demo.ownerId === user.id || can(user, "demos.manage");
   const unit = demo.revision.spec.axis.unit;
   return (
@@ -93,17 +95,21 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
         {calls.length === 0 ? (
           <p className="text-ink-soft">No calls from your students yet.</p>
         ) : (
-          <ScrollArea label="Students' calls, scrolls sideways">
+          <WideTable label="Students' calls, scrolls sideways" more={2}>
             <table className="data-table" data-testid="calls-table">
               <thead>
                 <tr>
                   <th scope="col">Student</th>
                   <th scope="col">Call</th>
-                  <th scope="col">Revision</th>
                   <th scope="col">Their call</th>
                   <th scope="col">Answer</th>
                   <th scope="col">Error</th>
-                  <th scope="col">When</th>
+                  <th scope="col" data-more="">
+                    Revision
+                  </th>
+                  <th scope="col" data-more="">
+                    When
+                  </th>
                 </tr>
               </thead>
               <tbody>
@@ -111,7 +117,6 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
                   <tr key={c.id}>
                     <td>{c.studentName}</td>
                     <td>{KIND_LABEL[c.markerKind]}</td>
-                    <td className="num">{c.revisionNumber}</td>
                     <td className="num">
                       {formatSpeed(c.predictedMs, unit)} {c.speedAxis === "true" ? "TAS" : "EAS"}
                     </td>
@@ -120,12 +125,17 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
                       {c.errorMs >= 0 ? "+" : "−"}
                       {formatSpeed(Math.abs(c.errorMs), unit)}
                     </td>
-                    <td className="num">{new Date(c.createdAt).toISOString().slice(0, 16).replace("T", " ")} UTC</td>
+                    <td className="num" data-more="">
+                      {c.revisionNumber}
+                    </td>
+                    <td className="num" data-more="">
+                      {formatDayTime(new Date(c.createdAt), school.timeZone)}
+                    </td>
                   </tr>
                 ))}
               </tbody>
             </table>
-          </ScrollArea>
+          </WideTable>
         )}
       </section>
     </div>

@@ -1,6 +1,7 @@
 "use client";
 import { useState, useTransition } from "react";
 import { useRouter } from "next/navigation";
+import { ScrollArea } from "@/components/ui/scroll-area";
 import { conductStageCheckAction } from "../../actions";
 import { QUESTION_OUTCOMES, OUTCOME_LABEL, type QuestionOutcome } from "@/lib/records/outcome";
 import { STAGE_RESULT_WORDS, words } from "@/lib/labels";
@@ -82,47 +83,49 @@ export function StageCheckForm({
       }}
     >
       <h3 className="font-semibold">Conduct the {stageCode} stage check</h3>
-      <table className="data-table">
-        <thead>
-          <tr>
-            <th scope="col">Item</th>
-            <th scope="col">Oral outcome</th>
-          </tr>
-        </thead>
-        <tbody>
-          {items.map((i) => (
-            <tr key={i.id}>
-              <td>
-                <span className="num">{i.code}</span> {i.title}
-              </td>
-              <td>
-                <label className="sr-only" htmlFor={`sc-${i.id}`}>
-                  Oral outcome for {i.code}
-                </label>
-                <select
-                  id={`sc-${i.id}`}
-                  className="field-input"
-                  value={outcomes[i.id] ?? ""}
-                  aria-invalid={errors[`outcome-${i.id}`] ? true : undefined}
-                  onChange={(e) => setOutcomes({ ...outcomes, [i.id]: e.target.value as QuestionOutcome })}
-                >
-                  <option value="">Choose…</option>
-                  {QUESTION_OUTCOMES.map((o) => (
-                    <option key={o} value={o}>
-                      {OUTCOME_LABEL[o]}
-                    </option>
-                  ))}
-                </select>
-                {errors[`outcome-${i.id}`] && (
-                  <p className="field-error" role="alert">
-                    {errors[`outcome-${i.id}`]}
-                  </p>
-                )}
-              </td>
+      <ScrollArea label="Items of the stage check, scrolls sideways">
+        <table className="data-table">
+          <thead>
+            <tr>
+              <th scope="col">Item</th>
+              <th scope="col">Oral outcome</th>
             </tr>
-          ))}
-        </tbody>
-      </table>
+          </thead>
+          <tbody>
+            {items.map((i) => (
+              <tr key={i.id}>
+                <td>
+                  <span className="num">{i.code}</span> {i.title}
+                </td>
+                <td>
+                  <label className="sr-only" htmlFor={`sc-${i.id}`}>
+                    Oral outcome for {i.code}
+                  </label>
+                  <select
+                    id={`sc-${i.id}`}
+                    className="field-input"
+                    value={outcomes[i.id] ?? ""}
+                    aria-invalid={errors[`outcome-${i.id}`] ? true : undefined}
+                    onChange={(e) => setOutcomes({ ...outcomes, [i.id]: e.target.value as QuestionOutcome })}
+                  >
+                    <option value="">Choose…</option>
+                    {QUESTION_OUTCOMES.map((o) => (
+                      <option key={o} value={o}>
+                        {OUTCOME_LABEL[o]}
+                      </option>
+                    ))}
+                  </select>
+                  {errors[`outcome-${i.id}`] && (
+                    <p className="field-error" role="alert">
+                      {errors[`outcome-${i.id}`]}
+                    </p>
+                  )}
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </ScrollArea>
       <div className="grid gap-3 sm:grid-cols-2">
         <div>
           <label htmlFor={`written-${stageId}`} className="field-label">
