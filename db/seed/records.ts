@@ -162,7 +162,11 @@ export async function seedRecords(ctx: SeedContext): Promise<void> {
   const first = await sign(tomasz, kofi, "AER-03", 20);
   if (first) {
     await at(ago(4), () =>
-      withdrawSignOff(t, tomasz, { signOffId: first.id, reason: "Signed against a check of another student's session; re-checked below." }),
+      withdrawSignOff(t, tomasz, {
+        signOffId: first.id,
+        reason: "Signed against a check of another student's session; re-checked below.",
+        password: DEMO_PASSWORD,
+      }),
     );
     await check(tomasz, kofi, ["AER-03"], 3, [q("AER-03", "What does 15 % more mass do to Vmd?", "solid")], "application");
     await sign(tomasz, kofi, "AER-03", 3);

@@ -75,7 +75,8 @@ export type RecordCheckInput = z.input<typeof recordCheckSchema>;
 export const amendCheckSchema = recordCheckSchema.extend({ amends: z.object({ checkId: uuid, reason }), password });
 export type AmendCheckInput = z.input<typeof amendCheckSchema>;
 
-export const withdrawCheckSchema = z.object({ checkId: uuid, reason });
+/** Withdrawing an oral check: a correction of the record, signed as a sign-off is, with the password. */
+export const withdrawCheckSchema = z.object({ checkId: uuid, reason, password });
 export const acknowledgeCheckSchema = z.object({ checkId: uuid });
 
 // ---------------------------------------------------------------- the oral-check form (text fields)
@@ -186,7 +187,8 @@ export const signOffSchema = z.object({
   password,
 });
 
-export const withdrawSignOffSchema = z.object({ signOffId: uuid, reason });
+/** Withdrawing a sign-off: a correction of the record, signed with the password as the amendment is. */
+export const withdrawSignOffSchema = z.object({ signOffId: uuid, reason, password });
 
 export const amendSignOffSchema = z.object({
   signOffId: uuid,

@@ -42,8 +42,11 @@ export async function amendOralCheck(
   return recordOralCheck(t, user, input);
 }
 
-/** Withdraws an oral check (it stays visible, marked withdrawn, with the reason). */
-export async function withdrawOralCheck(t: Transaction, user: CurrentUser, input: { checkId: string; reason: string }) {
+/**
+ * Withdraws an oral check (it stays visible, marked withdrawn, with the reason). A correction of
+ * the record, signed as a sign-off is: the withdrawer re-enters their password.
+ */
+export async function withdrawOralCheck(t: Transaction, user: CurrentUser, input: { checkId: string; reason: string; password: string }) {
   const [c] = await sequelize.query<{ id: string; student_id: string; instructor_id: string }>(
     `SELECT id, student_id, instructor_id FROM oral_checks WHERE id = :id AND school_id = :schoolId`,
     { replacements: { id: input.checkId, schoolId: user.schoolId }, type: QueryTypes.SELECT, transaction: t },
@@ -52,6 +55,7 @@ export async function withdrawOralCheck(t: Transaction, user: CurrentUser, input
   await requireStudentFor(user, c.student_id, "records", t);
   if (!can(user, "records.manage") && c.instructor_id !== user.id)
     throw new HttpError(403, "checkId: only the instructor who recorded the check, or the chief instructor, may withdraw it", "checkId");
+  await confirmPassword(user, input.password, t);
   const at = now();
   const [row] = await sequelize.query<{ check_id: string }>(
     `INSERT INTO oral_check_withdrawals (check_id, withdrawn_by, reason, withdrawn_at) VALUES (:id, :by, :reason, :at)

@@ -160,9 +160,13 @@ async function ownSignOff(t: Transaction, user: CurrentUser, signOffId: string) 
   return s;
 }
 
-/** Withdraws a current sign-off with a reason; the item can then be signed again. */
-export async function withdrawSignOff(t: Transaction, user: CurrentUser, input: { signOffId: string; reason: string }) {
+/**
+ * Withdraws a current sign-off with a reason; the item can then be signed again. A correction of
+ * the record is signed as the sign-off was: the withdrawer re-enters their password.
+ */
+export async function withdrawSignOff(t: Transaction, user: CurrentUser, input: { signOffId: string; reason: string; password: string }) {
   const s = await ownSignOff(t, user, input.signOffId);
+  await confirmPassword(user, input.password, t);
   const at = now();
   const [row] = await sequelize.query<{ sign_off_id: string }>(
     `INSERT INTO sign_off_withdrawals (sign_off_id, withdrawn_by, reason, withdrawn_at) VALUES (:id, :by, :reason, :at) ON CONFLICT DO NOTHING RETURNING sign_off_id`,

@@ -1,6 +1,7 @@
 import "server-only";
 import { createHash } from "node:crypto";
 import { QueryTypes, type Transaction } from "sequelize";
+import { z } from "zod";
 import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
 import { can } from "@/lib/auth/can";
@@ -43,6 +44,27 @@ export async function listCheckInstructors(schoolId: string): Promise<{ id: stri
       WHERE p.school_id = :s AND 'instructor' = ANY(p.roles) AND p.active GROUP BY p.id, p.name ORDER BY p.name`,
     { replacements: { s: schoolId }, type: QueryTypes.SELECT },
   );
+}
+
+/**
+ * Every item of the stage has exactly one oral outcome, chosen by the examiner: an item left out
+ * (or given twice, or not in the stage) is refused before anything is written, one field per item
+ * ("oralOutcomes.<item id>.outcome", its message naming the item's code).
+ */
+function refuseIncompleteOutcomes(items: { id: string; code: string }[], given: StageCheckInput["oralOutcomes"]) {
+  const issues: z.core.$ZodIssue[] = [];
+  const issue = (path: (string | number)[], message: string) =>
+    issues.push({ code: "custom", path, message, input: undefined } as z.core.$ZodIssue);
+  const seen = new Set<string>();
+  given.forEach((o, i) => {
+    if (!items.some((it) => it.id === o.itemId)) issue(["oralOutcomes", i, "itemId"], "this item is not in the stage");
+    else if (seen.has(o.itemId))
+      issue(["oralOutcomes", i, "itemId"], `${items.find((it) => it.id === o.itemId)!.code} is given more than one oral outcome`);
+    seen.add(o.itemId);
+  });
+  for (const it of items)
+    if (!seen.has(it.id)) issue(["oralOutcomes", it.id, "outcome"], `choose the oral outcome of ${it.code}: Solid, Shaky or Not yet`);
+  if (issues.length > 0) throw new z.ZodError(issues);
 }
 
 export interface StageCheckInput {
@@ -98,9 +120,7 @@ export async function conductStageCheck(t: Transaction, user: CurrentUser, input
       "stageId",
     );
   const items = (await itemsOfRevision(student.revisionId, t)).filter((i) => i.stageId === stage.stageId);
-  for (const o of input.oralOutcomes) {
-    if (!items.some((i) => i.id === o.itemId)) throw new HttpError(400, "oralOutcomes: an item is not in this stage", "oralOutcomes");
-  }
+  refuseIncompleteOutcomes(items, input.oralOutcomes);
   const school = await getSchool(user.schoolId, t);
   const passMark = school.settings.stageCheckPassMarkPercent;
   const written = input.writtenScorePercent ?? null;

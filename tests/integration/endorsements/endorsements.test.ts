@@ -93,7 +93,9 @@ afterAll(async () => {
 describe("endorsement preconditions, each refused on its own and named", () => {
   it("refuses an item not signed off, naming it, and nothing else", async () => {
     const id = signOffIds.get(`${ready}:ATM-02`)!;
-    await sequelize.transaction((t) => withdrawSignOff(t, s.as.instructor, { signOffId: id, reason: "signed on the wrong check" }));
+    await sequelize.transaction((t) =>
+      withdrawSignOff(t, s.as.instructor, { signOffId: id, reason: "signed on the wrong check", password: TEST_PASSWORD }),
+    );
     const r = await reasonsOf(s.as.instructor, ready);
     expect(r.reasons).toEqual(["items_unsigned"]);
     expect(r.message).toMatch(/items not signed off: ATM-02/);

@@ -94,7 +94,9 @@ describe("the Progress map agrees with the record", () => {
     await check(s.as.instructor, st, [a3], { questions: [q(a3, "shaky"), q(a3, "solid")] });
     // a later check, withdrawn: it does not count
     const later = await check(s.as.instructor, st, [a3], { occurredAt: new Date(Date.now() - 30_000), questions: [q(a3, "not_yet")] });
-    await sequelize.transaction((t) => withdrawOralCheck(t, s.as.instructor, { checkId: later.id, reason: "Wrong student" }));
+    await sequelize.transaction((t) =>
+      withdrawOralCheck(t, s.as.instructor, { checkId: later.id, reason: "Wrong student", password: TEST_PASSWORD }),
+    );
     const map = await progressFor(s.as.chief, st);
     const item = map.stages.flatMap((x) => x.items).find((i) => i.code === "AER-03")!;
     expect(item.lastOutcome).toBe("shaky");

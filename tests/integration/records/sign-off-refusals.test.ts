@@ -1,7 +1,7 @@
 jest.setTimeout(120_000);
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
-import { makeSchool, closeDb } from "@/tests/helpers/factories";
+import { makeSchool, closeDb, TEST_PASSWORD } from "@/tests/helpers/factories";
 import { withdrawOralCheck } from "@/db/access/records/oral-check-corrections";
 import { signerStanding } from "@/db/access/records/sign-off-plan";
 import { withdrawSignOff, currentSignOffs } from "@/db/access/records/sign-offs";
@@ -50,14 +50,18 @@ describe("the server refuses a sign-off without its basis, saying why", () => {
     const item = await itemId(s, "AER-04");
     const c = await check(s.as.instructor, student, [item]);
     await sequelize.transaction((t) =>
-      withdrawOralCheck(t, s.as.instructor, { checkId: c.id, reason: "recorded against the wrong student" }),
+      withdrawOralCheck(t, s.as.instructor, { checkId: c.id, reason: "recorded against the wrong student", password: TEST_PASSWORD }),
     );
     expect(await refusal(sign(s.as.instructor, { studentId: student, itemId: item }))).toBe("check_withdrawn");
     await check(s.as.instructor, student, [item]);
     const first = await sign(s.as.instructor, { studentId: student, itemId: item });
     expect(await refusal(sign(s.as.instructor, { studentId: student, itemId: item }))).toBe("already_signed");
     await sequelize.transaction((t) =>
-      withdrawSignOff(t, s.as.instructor, { signOffId: first.id, reason: "signed before the debrief was complete" }),
+      withdrawSignOff(t, s.as.instructor, {
+        signOffId: first.id,
+        reason: "signed before the debrief was complete",
+        password: TEST_PASSWORD,
+      }),
     );
     expect((await currentSignOffs(student)).some((x) => x.itemId === item)).toBe(false);
     const second = await sign(s.as.instructor, { studentId: student, itemId: item });

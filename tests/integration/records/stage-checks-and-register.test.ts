@@ -30,19 +30,28 @@ async function signAllAer(s: School, studentId: string, user = s.as.instructor) 
   await check(user, studentId, ids);
   for (const id of ids) await sign(user, { studentId, itemId: id });
 }
-const conduct = (
+/** Every item of a stage with an oral outcome (the examiner chooses one for each). */
+async function outcomesOf(stage: string, outcome: "solid" | "shaky" | "not_yet" = "solid") {
+  const items = await sequelize.query<{ id: string }>(`SELECT id FROM syllabus_items WHERE stage_id = :stage ORDER BY position`, {
+    replacements: { stage },
+    type: QueryTypes.SELECT,
+  });
+  return items.map((i) => ({ itemId: i.id, outcome }));
+}
+const conduct = async (
   s: School,
   user: School["as"]["chief"],
   studentId: string,
   stage: string,
   over: Partial<Parameters<typeof conductStageCheck>[2]> = {},
-) =>
-  sequelize.transaction((t) =>
+) => {
+  const oralOutcomes = await outcomesOf(stage);
+  return sequelize.transaction((t) =>
     conductStageCheck(t, user, {
       studentId,
       stageId: stage,
       result: "pass",
-      oralOutcomes: [],
+      oralOutcomes,
       writtenScorePercent: 90,
       remarks: "",
       occurredAt: new Date(Date.now() - 60_000),
@@ -50,6 +59,7 @@ const conduct = (
       ...over,
     }),
   );
+};
 async function reason(p: Promise<unknown>) {
   try {
     await p;
@@ -85,10 +95,11 @@ describe("stage checks", () => {
   });
 
   it("a fail opens make-up items; a recheck waits for them; a pass unlocks the next stage", async () => {
+    const aer04 = await itemId(s, "AER-04");
     const failed = await conduct(s, s.as.chief, student, aer, {
       result: "fail",
       writtenScorePercent: 60,
-      oralOutcomes: [{ itemId: await itemId(s, "AER-04"), outcome: "not_yet" }],
+      oralOutcomes: (await outcomesOf(aer)).map((o) => (o.itemId === aer04 ? { ...o, outcome: "not_yet" as const } : o)),
     });
     expect(failed.makeupItemsOpened).toBe(1);
     expect(await reason(conduct(s, s.as.chief, student, aer))).toBe("not_ready");
@@ -129,7 +140,9 @@ describe("the register's watch notes and filters", () => {
     const aer2 = await itemId(s, "AER-02");
     await check(s.as.instructor, a, [aer1]);
     const so = await sign(s.as.instructor, { studentId: a, itemId: aer1 });
-    await sequelize.transaction((t) => withdrawSignOff(t, s.as.instructor, { signOffId: so.id, reason: "Wrong student's check used" }));
+    await sequelize.transaction((t) =>
+      withdrawSignOff(t, s.as.instructor, { signOffId: so.id, reason: "Wrong student's check used", password: TEST_PASSWORD }),
+    );
     await check(s.as.instructor, a, [aer2], { question: { outcome: "not_yet" } });
     await check(s.as.instructor, a, [aer2], { question: { outcome: "not_yet" } });
     const late = await check(s.as.instructor2, b, [aer1], {

@@ -45,6 +45,8 @@ export const RECORDS_LOOKUPS: Record<string, { sql: string; params?: unknown[] }
   },
   recordsNoor: person("noor.brandt@chalkwing.test"),
   recordsItemAer02: item("AER-02"),
+  recordsItemAer04: item("AER-04"),
+  recordsItemAer05: item("AER-05"),
   /** Ada's first check: she acknowledges its debrief */
   recordsAdaCheck: firstCheck("student@chalkwing.test"),
 };

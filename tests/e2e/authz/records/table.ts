@@ -97,6 +97,7 @@ export const RECORDS_TABLE: AuthzTable = {
         {
           checkId: byCaller(caller, fx.recordsCheckToWithdrawByChief, fx.recordsCheckToWithdrawByLead, fx.recordsCheckToWithdrawByLead),
           reason: "harness withdrawal",
+          password: PASSWORD,
         },
       ],
     }),
@@ -136,6 +137,7 @@ export const RECORDS_TABLE: AuthzTable = {
             fx.recordsSignOffToWithdrawByLead,
           ),
           reason: "harness withdrawal",
+          password: PASSWORD,
         },
       ],
     }),
@@ -170,7 +172,10 @@ export const RECORDS_TABLE: AuthzTable = {
           studentId: fx.recordsReadyStudent,
           stageId: fx.recordsStageAer,
           result: "pass",
-          oralOutcomes: [],
+          // the examiner chooses an oral outcome for every item of the stage
+          oralOutcomes: [fx.recordsItemAer01, fx.recordsItemAer02, fx.recordsItemAer03, fx.recordsItemAer04, fx.recordsItemAer05].map(
+            (itemId) => ({ itemId, outcome: "solid" }),
+          ),
           writtenScorePercent: 88,
           remarks: "harness",
           occurredAt: at(),
