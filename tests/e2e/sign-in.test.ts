@@ -85,13 +85,31 @@ describe("the four demo accounts", () => {
     await expect(page.locator("[data-testid=whoami]").textContent()).resolves.toContain("Ada Quill");
   });
 
-  test("the sponsor signs in and sees only the student they sponsor", async () => {
+  test("the sponsor signs in and sees the students they sponsor in one list, and only theirs", async () => {
     await fresh();
     await signIn(page, DEMO_ACCOUNTS.sponsor);
     expect(new URL(page.url()).pathname).toBe("/today");
-    await page.waitForSelector("[data-testid=focus-list]");
+    // the students linked to this sponsor, from the database
+    const { rows } = await db.query<{ name: string }>(
+      `SELECT st.name FROM sponsor_links l JOIN people st ON st.id = l.student_id JOIN people sp ON sp.id = l.sponsor_id
+        WHERE sp.email = $1 ORDER BY st.name`,
+      [DEMO_ACCOUNTS.sponsor],
+    );
+    expect(rows.map((r) => r.name)).toContain("Ada Quill");
+    await page.waitForSelector("[data-testid=sponsored-student]");
+    // one list of the sponsored students (the panel); the older list of names is gone
+    await expect(page.locator("[aria-label='Students you sponsor']").count()).resolves.toBe(1);
+    await expect(page.locator("[data-testid=focus-list]").count()).resolves.toBe(0);
+    await expect(page.locator("main h2", { hasText: /students you sponsor/i }).count()).resolves.toBe(1);
+    const entries = page.locator("[data-testid=sponsored-student]");
+    const names = (await entries.locator("h3").allTextContents()).map((t) => t.split(" · ")[0]!.trim()).sort();
+    expect(names).toEqual(rows.map((r) => r.name));
+    // each entry says whether the Weekly letter about the student is on (what the old list showed)
+    for (let i = 0; i < rows.length; i++)
+      await expect(entries.nth(i).locator("[data-testid=letter-status]").textContent()).resolves.toMatch(
+        /The Weekly letter about \S+ is (on|off)/,
+      );
     const text = await page.locator("main").textContent();
-    expect(text).toContain("Ada Quill");
     expect(text).not.toContain("Noor Brandt"); // another sponsor's student, same cohort
   });
 });

@@ -9,6 +9,7 @@ import { SponsorToday } from "./_components/sponsor-today";
 import { AttendanceDue } from "./_components/attendance-due";
 import { NextSessions } from "./_components/next-sessions";
 import { getSchool } from "@/db/access/shared/school";
+import { todayFocusKind } from "@/db/access/today/focus-list";
 import { formatDay } from "@/lib/time";
 import { now } from "@/lib/clock";
 
@@ -32,7 +33,8 @@ export default async function TodayPage() {
       {can(user, "today.learning") && <StudentToday user={user} />}
       {can(user, "today.learning") && <NextSessions user={user} />}
       {can(user, "today.sponsoring") && <SponsorToday user={user} />}
-      <FocusList />
+      {/* a sponsor's students are listed once, in the panel above */}
+      {todayFocusKind(user) !== "sponsoring" && <FocusList />}
     </div>
   );
 }

@@ -14,11 +14,24 @@ export interface TodayFocusRow {
   href?: string;
 }
 
+export type TodayFocusKind = "school" | "teaching" | "learning" | "sponsoring" | "none";
+
+/** Which list the caller's first Today panel gives (the order below). */
+export function todayFocusKind(user: Pick<CurrentUser, "roles">): TodayFocusKind {
+  if (can(user, "today.school")) return "school";
+  if (can(user, "today.teaching")) return "teaching";
+  if (can(user, "today.learning")) return "learning";
+  if (can(user, "today.sponsoring")) return "sponsoring";
+  return "none";
+}
+
 /**
  * The list on the Today page that the browser fetches through /api/today, by the caller's first
  * Today panel: the school's (today.school) → every cohort; teaching (today.teaching) → the
  * students of cohorts they lead; learning (today.learning) → the items of their current syllabus
- * stage; sponsoring (today.sponsoring) → their linked students.
+ * stage; sponsoring (today.sponsoring) → their linked students. The Today page shows the
+ * sponsor's students in one list only, the richer panel (SponsorToday), so it does not show this
+ * list to a caller whose first panel is sponsoring; /api/today still answers with it.
  */
 export async function todayFocusList(user: CurrentUser): Promise<{ title: string; rows: TodayFocusRow[] }> {
   if (can(user, "today.school")) {
