@@ -1,14 +1,15 @@
 import "server-only";
 import { listSessions, type SessionRow } from "../timetable/list-sessions";
 import { stagesWaiting, type StageWaiting } from "../records/stages-waiting";
+import { oralChecksDue, type OralCheckDue } from "./oral-checks-due";
 import { getSchool } from "../shared/school";
 import { can } from "@/lib/auth/can";
 import { now } from "@/lib/clock";
 import { dateInZone, zonedInstant } from "@/lib/time";
 import type { CurrentUser } from "@/lib/auth/session";
 
-// The instructor's Today: their own sessions today and this week, the stage checks waiting among the
-// students they teach, and the sessions that have ended with no attendance recorded yet.
+// The instructor's Today: their own sessions today and this week, the checks due among the students
+// they teach (stages ready for their stage check, items taught and not yet checked orally), and the sessions that have ended with no attendance recorded yet.
 
 export interface TeachingWeek {
   /** the school's date today (YYYY-MM-DD) */
@@ -21,6 +22,8 @@ export interface TeachingWeek {
   /** the week's other sessions, Monday to Sunday, today's left out */
   weekSessions: SessionRow[];
   checksDue: StageWaiting[];
+  /** items taught in an attended session with no satisfactory oral check yet, per student */
+  oralChecksDue: OralCheckDue[];
 }
 
 function addDays(date: string, days: number): string {
@@ -44,7 +47,7 @@ export async function teachingWeek(user: CurrentUser): Promise<TeachingWeek> {
     },
     { sort: "starts_at", dir: "asc", pageSize: 200 },
   );
-  const checksDue = can(user, "today.teaching") ? await stagesWaiting(user) : [];
+  const [checksDue, oralDue] = can(user, "today.teaching") ? await Promise.all([stagesWaiting(user), oralChecksDue(user)]) : [[], []];
   return {
     today,
     timeZone,
@@ -53,6 +56,7 @@ export async function teachingWeek(user: CurrentUser): Promise<TeachingWeek> {
     todaySessions: rows.filter((r) => r.date === today),
     weekSessions: rows.filter((r) => r.date !== today),
     checksDue,
+    oralChecksDue: oralDue,
   };
 }
 

@@ -47,9 +47,37 @@ export async function InstructorToday({ user }: { user: CurrentUser }) {
         )}
       </section>
       <section className="card" aria-labelledby="checks-due-title">
-        <h2 id="checks-due-title">Stage checks due</h2>
+        <h2 id="checks-due-title">Checks due</h2>
+        <h3 className="mt-2 font-semibold">Oral checks</h3>
+        {week.oralChecksDue.length === 0 ? (
+          <p className="mt-1 text-ink-soft">Every item taught to your students has a satisfactory oral check.</p>
+        ) : (
+          <>
+            <p className="mt-1 text-caption text-ink-soft">
+              Items taught in a session the student attended, with no oral check meeting the standard yet.
+            </p>
+            <ul className="mt-1 divide-y divide-paper-edge" data-testid="oral-checks-due">
+              {week.oralChecksDue.map((d) => (
+                <li key={d.studentId} className="flex min-h-touch flex-wrap items-center justify-between gap-x-4 gap-y-1 py-1">
+                  <span className="min-w-0 [overflow-wrap:anywhere]">
+                    <Link href={`/records/${d.studentId}`} className="font-medium underline">
+                      {d.studentName}
+                    </Link>{" "}
+                    <span className="text-caption text-ink-soft">
+                      · {d.items.map((i) => `${i.code} ${i.title}`).join(", ")} · last taught {formatDay(d.lastTaughtAt, week.timeZone)}
+                    </span>
+                  </span>
+                  <Link href={`/records/${d.studentId}#new-check`} className="btn-quiet">
+                    Record the check<span className="sr-only"> of {d.studentName}</span>
+                  </Link>
+                </li>
+              ))}
+            </ul>
+          </>
+        )}
+        <h3 className="mt-4 font-semibold">Stage checks</h3>
         {week.checksDue.length === 0 ? (
-          <p className="mt-2 text-ink-soft">No student you teach has a stage ready for its check.</p>
+          <p className="mt-1 text-ink-soft">No student you teach has a stage ready for its check.</p>
         ) : (
           <ul className="mt-2 divide-y divide-paper-edge" data-testid="checks-due">
             {week.checksDue.map((c) => (
@@ -75,7 +103,7 @@ export async function InstructorToday({ user }: { user: CurrentUser }) {
               <li key={c.id}>
                 <span className="font-semibold">{c.name}</span>{" "}
                 <span className="text-ink-soft">
-                  · {c.courseCode} · started {c.startsOn} · <span className="num">{c.memberCount}</span> students
+                  · {c.courseCode} · started {formatDay(c.startsOn)} · <span className="num">{c.memberCount}</span> students
                 </span>
               </li>
             ))}
