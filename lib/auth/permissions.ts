@@ -94,6 +94,10 @@ export const PERMISSIONS = {
     roles: ["chief", "instructor"],
     description: "See the sponsors of the students whose records one keeps, and manage those of a student under 18",
   },
+  "sharing.birthdate": {
+    roles: ["chief"],
+    description: "Record a student's date of birth (under 18, the school manages the student's sponsor links)",
+  },
   "letters.received": {
     roles: ["sponsor"],
     description: "Read the Weekly letters one was sent, and turn the letter back on after stopping it",

@@ -77,3 +77,26 @@ export function consentManager(birthDate: string | null, today: string): Consent
 export function mayChangeConsent(manager: ConsentManager, caller: { isTheStudent: boolean; staff: boolean }): boolean {
   return manager === "student" ? caller.isTheStudent : caller.staff;
 }
+
+/**
+ * The ages a date of birth on file may give: a ground-school student younger than this or older
+ * than that is almost surely a typing slip in the year (common practice: sanity bounds, not a rule
+ * of any authority).
+ */
+export const PLAUSIBLE_AGE = { min: 10, max: 100 } as const;
+
+/** Whole years from `birthDate` to `today` (both yyyy-MM-dd). */
+export function ageOn(birthDate: string, today: string): number {
+  const [by, bm, bd] = birthDate.split("-").map(Number) as [number, number, number];
+  const [ty, tm, td] = today.split("-").map(Number) as [number, number, number];
+  return ty - by - (tm < bm || (tm === bm && td < bd) ? 1 : 0);
+}
+
+/** What is wrong with a date of birth (a real yyyy-MM-dd date) recorded on `today`, in words, or null. */
+export function birthDateProblem(birthDate: string, today: string): string | null {
+  if (birthDate > today) return "must not be in the future";
+  const age = ageOn(birthDate, today);
+  if (age < PLAUSIBLE_AGE.min) return `gives an age of ${age}, under ${PLAUSIBLE_AGE.min}: check the year`;
+  if (age > PLAUSIBLE_AGE.max) return `gives an age of ${age}, over ${PLAUSIBLE_AGE.max}: check the year`;
+  return null;
+}

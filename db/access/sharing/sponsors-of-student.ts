@@ -25,6 +25,8 @@ export interface SponsorConsent {
 export interface StudentSharing {
   student: { id: string; name: string };
   manager: ConsentManager;
+  /** the date of birth on file (yyyy-MM-dd), or null: it decides the manager */
+  birthDate: string | null;
   /** whether this caller may change the links */
   mayChange: boolean;
   sponsors: SponsorConsent[];
@@ -35,7 +37,7 @@ export async function sharingRights(
   caller: Pick<CurrentUser, "id" | "schoolId" | "roles">,
   studentId: string,
   t?: Transaction,
-): Promise<{ student: { id: string; name: string }; manager: ConsentManager; mayChange: boolean }> {
+): Promise<{ student: { id: string; name: string }; manager: ConsentManager; birthDate: string | null; mayChange: boolean }> {
   const notFound = new HttpError(404, "studentId: no such student", "studentId");
   const isTheStudent = caller.id === studentId;
   const staff = !isTheStudent && (await accessTo(caller, studentId, "records", t)) === "staff";
@@ -48,7 +50,12 @@ export async function sharingRights(
   if (!row) throw notFound;
   const school = await getSchool(caller.schoolId, t);
   const manager = consentManager(row.birth_date, dateInZone(now(), school.timeZone));
-  return { student: { id: row.id, name: row.name }, manager, mayChange: mayChangeConsent(manager, { isTheStudent, staff }) };
+  return {
+    student: { id: row.id, name: row.name },
+    manager,
+    birthDate: row.birth_date,
+    mayChange: mayChangeConsent(manager, { isTheStudent, staff }),
+  };
 }
 
 export async function studentSharing(caller: Pick<CurrentUser, "id" | "schoolId" | "roles">, studentId: string): Promise<StudentSharing> {

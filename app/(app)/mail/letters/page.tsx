@@ -64,6 +64,13 @@ export default async function WeeklyLettersPage({
           <pre className="whitespace-pre-wrap break-words font-sans" data-testid="letter-preview">
             {preview.text}
           </pre>
+          {can(user, "sharing.students") && (
+            <p className="text-caption">
+              <Link href={`/sharing/${preview.link.studentId}`} className="underline">
+                What {preview.link.studentName} shares with their sponsors
+              </Link>
+            </p>
+          )}
           {preview.link.agreed && !preview.link.stopped ? (
             <SendLetterButton sponsorId={preview.link.sponsorId} studentId={preview.link.studentId} />
           ) : (
@@ -88,6 +95,15 @@ export default async function WeeklyLettersPage({
                   <p className="text-caption text-ink-soft">
                     {status(l)} · last sent{" "}
                     <span className="num">{l.lastSentAt ? formatDayTime(new Date(l.lastSentAt), school.timeZone) : "never"}</span>
+                    {can(user, "sharing.students") && (
+                      <>
+                        {" "}
+                        ·{" "}
+                        <Link href={`/sharing/${l.studentId}`} className="underline">
+                          what {l.studentName} shares
+                        </Link>
+                      </>
+                    )}
                   </p>
                 </div>
                 <Link href={`/mail/letters?sponsor=${l.sponsorId}&student=${l.studentId}`} className="btn-quiet">

@@ -21,6 +21,18 @@ export const SHARING_TABLE: AuthzTable = {
     request: (fx) => ({ args: [{ studentId: fx.student, sponsorId: fx.sponsor, ...everything, hours: false }] }),
     expect: { signedOut: 401, chief: 403, instructor: 403, student: 403, sponsor: 403 },
   },
+  "action app/(app)/sharing/actions.ts#setBirthDateAction": {
+    // the demo student has no date of birth on file: the chief's clearing call changes nothing (and
+    // keeps the student an adult, who decides their own sharing, as the rows above rely on)
+    request: (fx) => ({ args: [{ studentId: fx.student, birthDate: "" }] }),
+    expect: {
+      signedOut: 401,
+      chief: { status: 200, check: (res) => expect(res.json).toMatchObject({ ok: true, data: { birthDate: null, changed: false } }) },
+      instructor: 403,
+      student: 403,
+      sponsor: 403,
+    },
+  },
   "action app/(app)/letters/actions.ts#resumeLetterAction": {
     request: (fx) => ({ args: [{ studentId: fx.student }] }),
     expect: {
