@@ -434,6 +434,17 @@ export function toleranceText(q: GeneratedQuestion): string {
 }
 
 /**
+ * The instructor's answer mode of a stored question with its tolerance, as the record, the student's
+ * pages and the printed record show it: "Rule of thumb accepted (…): accepted … kt" or "Exact answer
+ * asked: accepted within 3 %, …". A question stored before the choice existed was asked exactly.
+ */
+export function answerModeText(q: GeneratedQuestion): string {
+  const text = toleranceText(q);
+  if (!text) return `${ANSWER_MODE_LABEL.exact} (a choice, no tolerance)`;
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
+
+/**
  * Reference aircraft of our own for questions when no airframe is chosen. Numbers invented
  * for teaching, of the size of a two- to four-seat trainer.
  */

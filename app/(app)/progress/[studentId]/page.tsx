@@ -7,6 +7,7 @@ import { progressFor } from "@/db/access/records/progress-map";
 import { getSchool } from "@/db/access/shared/school";
 import { ITEM_STATUS_LABEL, type ItemStatus } from "@/lib/records/progress";
 import { LEVEL_LABEL, CHECK_OUTCOME_LABEL } from "@/lib/records/outcome";
+import { answerModeText } from "@/lib/records/questions";
 import { hoursLabel, formatDay } from "@/lib/time";
 import { Caution } from "@/components/caution";
 import { OutcomeBadge } from "../_components/outcome-badge";
@@ -171,7 +172,15 @@ export default async function ProgressPage({ params }: { params: Promise<{ stude
                   {c.questions.map((q) => (
                     <li key={q.position}>
                       {q.text} <OutcomeBadge outcome={q.outcome} />
-                      {q.generated && <> · answer {q.generated.answer.display}</>}
+                      {q.generated && (
+                        <>
+                          {" "}
+                          · answer {q.generated.answer.display}
+                          <span className="block text-ink-soft" data-testid="answer-mode">
+                            {answerModeText(q.generated)}
+                          </span>
+                        </>
+                      )}
                     </li>
                   ))}
                 </ol>

@@ -22,6 +22,7 @@ import { AmendButton } from "./_components/amend-button";
 import { StageCheckForm } from "./_components/stage-check-form";
 import { AmendCheck } from "./_components/amend-check";
 import { stageCheckStatement } from "@/lib/records/statements";
+import { answerModeText } from "@/lib/records/questions";
 import { dateInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
 import { OutcomeBadge } from "@/app/(app)/progress/_components/outcome-badge";
@@ -309,6 +310,9 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
                       <span className="block text-caption text-ink-soft">
                         Computed answer: {q.generated.answer.display} (lib/aero {q.generated.libraryVersion}
                         {q.studentFigure !== null ? `; student said ${q.studentFigure}` : ""})
+                        <span className="block" data-testid="answer-mode">
+                          {answerModeText(q.generated)}
+                        </span>
                       </span>
                     )}
                   </li>

@@ -4,6 +4,7 @@ import { HttpError } from "@/lib/http/errors";
 import { trainingRecordFor } from "@/db/access/records/training-record";
 import { certificationStatement, trainingRecordPdf } from "@/lib/records/training-record-pdf";
 import { LEVEL_LABEL, OUTCOME_LABEL, CHECK_OUTCOME_LABEL } from "@/lib/records/outcome";
+import { answerModeText } from "@/lib/records/questions";
 import { hoursLabel, formatDay, formatDayTime } from "@/lib/time";
 import { ATTENDANCE_WORDS, SIGN_OFF_STATE_WORDS, STAGE_RESULT_WORDS, words } from "@/lib/labels";
 
@@ -46,7 +47,10 @@ export const GET = route<{ studentId: string }>("progress.view", async ({ user, 
       heading: `${formatDayTime(c.occurredAt, tz)} · ${c.itemCodes.join(", ")} · ${CHECK_OUTCOME_LABEL[c.outcome]} · level of learning shown: ${LEVEL_LABEL[c.levelShown]} · ${c.instructorName}${c.withdrawn ? ` · WITHDRAWN: ${c.withdrawn.reason}` : ""}`,
       lines: c.questions.map(
         (q) =>
-          `${q.position}. [${q.itemCode}] ${q.text} - ${OUTCOME_LABEL[q.outcome]}${q.prompted ? ", prompted" : ""}${q.generated ? ` (computed answer ${q.generated.answer.display})` : ""}`,
+          `${q.position}. [${q.itemCode}] ${q.text} - ${OUTCOME_LABEL[q.outcome]}${q.prompted ? ", prompted" : ""}` +
+          (q.generated
+            ? ` (computed answer ${q.generated.answer.display}${q.studentFigure !== null ? `; student said ${q.studentFigure}` : ""}). ${answerModeText(q.generated)}`
+            : ""),
       ),
     })),
     notYetDone: r.notYetDone.map((i) => [i.code, i.stageCode, i.title]),
