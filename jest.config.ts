@@ -10,6 +10,17 @@ const shared = {
   testPathIgnorePatterns: ["/node_modules/", "/.next/"],
 };
 
+// The test command runs the e2e layer in two lanes side by side (lib/ops/test.sh), each against its
+// own server and database: "harness" takes the files that must see every table unchanged by
+// others (the authorisation harness) and the long accessibility crawl; "rest" takes the others.
+// Any other value (or none) runs every file.
+const HARNESS_LANE = ["/tests/e2e/authz/", "/tests/e2e/a11y\\.test\\.ts$", "/tests/e2e/security\\.test\\.ts$"];
+function laneIgnores(lane: string | undefined): string[] {
+  if (lane === "harness") return ["/tests/e2e/(?!authz/|a11y\\.test\\.ts$|security\\.test\\.ts$)"];
+  if (lane === "rest") return HARNESS_LANE;
+  return [];
+}
+
 export default async function config(): Promise<Config> {
   const unit = await createJestConfig({
     ...shared,
@@ -32,6 +43,7 @@ export default async function config(): Promise<Config> {
     testEnvironment: "node",
     setupFilesAfterEnv: ["<rootDir>/tests/setup/e2e.ts"],
     testMatch: ["<rootDir>/tests/e2e/**/*.test.ts"],
+    testPathIgnorePatterns: [...shared.testPathIgnorePatterns, ...laneIgnores(process.env.CHALKWING_E2E_LANE)],
   })();
   return { projects: [unit, integration, e2e] as Config["projects"] };
 }

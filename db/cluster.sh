@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # Project-local PostgreSQL cluster on 127.0.0.1 (Debian's postgresql package).
-# Usage: db/cluster.sh start|stop|status|where|destroy|create-db NAME [--fresh]|psql [args]
+# Usage: db/cluster.sh start|stop|status|where|destroy|create-db NAME [--fresh]|copy-db NAME FROM|psql [args]
 # Idempotent: start on a running cluster is a no-op; stop on a stopped one is not an error.
 #
 # Where the cluster lives (data, socket, log):
@@ -153,6 +153,19 @@ GRANT CONNECT ON DATABASE "$name" TO "$APP_ROLE";
 SQL
 }
 
+# copy-db NAME FROM: NAME becomes a fresh copy of database FROM (schema, data and privileges), made
+# from it as a template, which is much faster than migrating again. Nothing may be connected to FROM.
+copy_db() {
+  local name="$1" from="$2"
+  ensure_installed
+  psql_su -c "DROP DATABASE IF EXISTS \"$name\" WITH (FORCE)"
+  psql_su -c "CREATE DATABASE \"$name\" TEMPLATE \"$from\" OWNER \"$OWNER_ROLE\""
+  psql_su <<SQL
+REVOKE ALL ON DATABASE "$name" FROM PUBLIC;
+GRANT CONNECT ON DATABASE "$name" TO "$APP_ROLE";
+SQL
+}
+
 stop() {
   BIN=$(find_bin)
   [ -n "$BIN" ] && [ -f "$DATA/PG_VERSION" ] || { echo "[db] not running" >&2; return 0; }
@@ -194,6 +207,7 @@ case "$cmd" in
   where) echo "$PGDIR" ;;
   destroy) destroy ;;
   create-db) start; create_db "$@" ;;
+  copy-db) start; copy_db "$@" ;;
   psql) ensure_installed; psql_su "$@" ;;
-  *) echo "usage: db/cluster.sh start|stop|stop-immediate|status|where|destroy|create-db NAME [--fresh]|psql" >&2; exit 2 ;;
+  *) echo "usage: db/cluster.sh start|stop|stop-immediate|status|where|destroy|create-db NAME [--fresh]|copy-db NAME FROM|psql" >&2; exit 2 ;;
 esac

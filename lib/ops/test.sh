@@ -18,6 +18,8 @@ export CHALKWING_DIST_DIR="${CHALKWING_DIST_DIR:-.next-test-$NAME}"
 E2E_PORT="${E2E_PORT:-3100}"
 export E2E_BASE_URL="http://127.0.0.1:$E2E_PORT"
 SMTP_TEST_PORT="${SMTP_TEST_PORT:-2625}"
+# jest workers for the integration layer (each on its own database copy); 1 runs the files one by one
+INT_WORKERS="${CHALKWING_INT_WORKERS:-2}"
 FAILED_PHASES=()
 NON_JEST=0 # failures outside jest (type check, lint, build, server start): one each
 fail_phase() { FAILED_PHASES+=("$1"); NON_JEST=$((NON_JEST + 1)); }
@@ -32,7 +34,10 @@ summary() {
 }
 PG_WAS_RUNNING=0
 cleanup() {
-  stop_pidfile "e2e-web-$NAME"; stop_test_services 2>/dev/null || true
+  for lane in harness rest all; do
+    stop_pidfile "e2e-web-$NAME-$lane"
+    stop_pidfile "e2e-mail-$NAME-$lane-worker"; stop_pidfile "e2e-mail-$NAME-$lane-sink"
+  done
   # leave the database as we found it: stop it when this run started it
   [ "$PG_WAS_RUNNING" = 1 ] || bash "$ROOT/db/cluster.sh" stop >/dev/null 2>&1 || true
 }
@@ -57,9 +62,13 @@ run_jest() { # run_jest PROJECT [jest args]
 
 if want static; then
   phase_start "static checks (TypeScript, ESLint, Prettier)"
-  node node_modules/typescript/bin/tsc --noEmit -p tsconfig.json || fail_phase typescript
+  # the type check runs beside ESLint and Prettier (one CPU each); its output is shown after them
+  node node_modules/typescript/bin/tsc --noEmit -p tsconfig.json > "$RESULTS/tsc.log" 2>&1 &
+  TSC_PID=$!
   node node_modules/eslint/bin/eslint.js . || fail_phase eslint
   node node_modules/prettier/bin/prettier.cjs --check --log-level warn . || { echo "formatting differs: run npm run format"; fail_phase prettier; }
+  wait "$TSC_PID" || fail_phase typescript
+  cat "$RESULTS/tsc.log"
   phase_end
 fi
 
@@ -71,32 +80,80 @@ fi
 
 if want integration; then
   phase_start "integration tests (real PostgreSQL, real SMTP on loopback)"
-  bash db/cluster.sh create-db "chalkwing_${NAME}_int" --fresh >/dev/null
-  db_urls "chalkwing_${NAME}_int"
+  # migrated once, then copied (as a template) for each jest worker: tests/setup/integration.ts
+  # points worker N at "<database>_wN", so no two files write to one database at once
+  INT_DB="chalkwing_${NAME}_int"
+  bash db/cluster.sh create-db "$INT_DB" --fresh >/dev/null
+  db_urls "$INT_DB"
   export NEXTAUTH_SECRET NEXTAUTH_URL="http://127.0.0.1:$E2E_PORT"
-  if tsx_run db/cli.ts migrate; then run_jest integration --runInBand; else fail_phase migrate; fi
+  if tsx_run db/cli.ts migrate; then
+    if [ "$INT_WORKERS" -gt 1 ]; then
+      for i in $(seq 1 "$INT_WORKERS"); do bash db/cluster.sh copy-db "${INT_DB}_w$i" "$INT_DB" >/dev/null || fail_phase copy-db; done
+      CHALKWING_INT_DB_COPIES="$INT_WORKERS" run_jest integration --maxWorkers="$INT_WORKERS"
+    else
+      run_jest integration --runInBand
+    fi
+  else fail_phase migrate; fi
   phase_end
 fi
 
+# e2e_lane LANE PORT DATABASE: one lane of the end-to-end layer with its own database, mail sink,
+# mail worker and `next start` on PORT (all from the one production build), running jest in band.
+# CHALKWING_E2E_LANE tells jest.config.ts which files are the lane's. Exit 0 passed, 1 tests
+# failed (results written), 2 the lane could not run.
+e2e_lane() {
+  local lane="$1" port="$2" db="$3" dir="$RESULTS/lane-$1"
+  mkdir -p "$dir"
+  (
+    export E2E_PORT="$port" E2E_BASE_URL="http://127.0.0.1:$port" NEXTAUTH_URL="http://127.0.0.1:$port"
+    export CHALKWING_TEST_NAME="$NAME-$lane" SMTP_TEST_PORT=$((port + 20000)) CHALKWING_E2E_LANE="$lane"
+    db_urls "$db"
+    . "$ROOT/lib/ops/services.sh"
+    start_test_services "$dir" || exit 2
+    NODE_ENV=production node node_modules/next/dist/bin/next start -p "$port" -H 127.0.0.1 > "$dir/web.log" 2>&1 &
+    echo $! > "$RUN_DIR/e2e-web-$NAME-$lane.pid"
+    rc=0
+    if wait_http "$E2E_BASE_URL/api/health" 90; then
+      node node_modules/jest/bin/jest.js --selectProjects e2e --runInBand --passWithNoTests --json --outputFile="$RESULTS/e2e-$lane.json" \
+        "${JEST_EXTRA[@]}" || rc=1
+      [ -f "$RESULTS/e2e-$lane.json" ] || rc=2
+    else
+      tail -n 30 "$dir/web.log"; rc=2
+    fi
+    stop_pidfile "e2e-web-$NAME-$lane"; stop_test_services
+    exit "$rc"
+  )
+}
+
 if want e2e; then
   phase_start "production build"
-  bash db/cluster.sh create-db "chalkwing_${NAME}_e2e" --fresh >/dev/null
-  db_urls "chalkwing_${NAME}_e2e"
+  E2E_DB="chalkwing_${NAME}_e2e"
+  bash db/cluster.sh create-db "$E2E_DB" --fresh >/dev/null
+  db_urls "$E2E_DB"
   export NEXTAUTH_URL="$E2E_BASE_URL" CHALKWING_MAIL_TRAY=on
   tsx_run db/cli.ts migrate && tsx_run db/cli.ts seed || fail_phase seed
   if node node_modules/next/dist/bin/next build > "$RESULTS/build.log" 2>&1; then
     phase_end
     phase_start "end-to-end tests (headless Chromium against the production build)"
-    . "$ROOT/lib/ops/services.sh"
-    start_test_services "$RESULTS"
-    NODE_ENV=production node node_modules/next/dist/bin/next start -p "$E2E_PORT" -H 127.0.0.1 > "$RESULTS/web.log" 2>&1 &
-    echo $! > "$RUN_DIR/e2e-web-$NAME.pid"
-    if wait_http "$E2E_BASE_URL/api/health" 60; then
-      run_jest e2e --runInBand
+    # A whole run splits the layer in two lanes side by side, each with a copy of the seeded
+    # demo database: "harness" (the authorisation harness, which fingerprints every table, and
+    # the accessibility crawl) and "rest". A run with jest arguments (one file, a pattern) is one lane.
+    if [ ${#JEST_EXTRA[@]} -eq 0 ] && [ "${CHALKWING_E2E_LANES:-2}" -gt 1 ]; then
+      bash db/cluster.sh copy-db "${E2E_DB}_rest" "$E2E_DB" >/dev/null || fail_phase copy-db
+      e2e_lane harness "$E2E_PORT" "$E2E_DB" > "$RESULTS/lane-harness.log" 2>&1 &
+      LANE_A=$!
+      e2e_lane rest $((E2E_PORT + 1)) "${E2E_DB}_rest" > "$RESULTS/lane-rest.log" 2>&1 &
+      LANE_B=$!
+      wait "$LANE_A"; RC_A=$?
+      wait "$LANE_B"; RC_B=$?
+      for lane in harness rest; do echo "--- lane $lane"; cat "$RESULTS/lane-$lane.log"; done
+      RCS=("$RC_A" "$RC_B")
     else
-      tail -n 30 "$RESULTS/web.log"; fail_phase e2e-server
+      e2e_lane all "$E2E_PORT" "$E2E_DB"; RCS=("$?")
     fi
-    stop_pidfile "e2e-web-$NAME"
+    for rc in "${RCS[@]}"; do
+      case "$rc" in 0) ;; 1) FAILED_PHASES+=(e2e) ;; *) fail_phase e2e-lane ;; esac
+    done
     phase_end
   else
     tail -n 40 "$RESULTS/build.log"; fail_phase build; phase_end
