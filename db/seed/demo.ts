@@ -9,6 +9,7 @@ import { createCohort, addToCohort } from "../access/cohorts/memberships";
 import { enrol } from "../access/cohorts/enrol";
 import { linkSponsor } from "../access/cohorts/sponsor-links";
 import { now } from "@/lib/clock";
+import { hashPassword } from "@/lib/auth/password";
 import { DEMO_PASSWORD, DEMO_SCHOOL, DEMO_STAGES, COHORT_A_STUDENTS, COHORT_B_STUDENTS } from "./scenario";
 import { runSeedExtensions } from "./extensions";
 
@@ -46,8 +47,10 @@ export async function seedDemo(): Promise<void> {
       },
       t,
     );
+    // one real hash of the demo password for every demo account (a hash each cost seconds in all)
+    const passwordHash = await hashPassword(DEMO_PASSWORD);
     const mk = (name: string, email: string, roles: ("chief" | "instructor" | "student" | "sponsor")[]) =>
-      createPerson({ schoolId: school.id, name, email, roles, password: DEMO_PASSWORD }, t);
+      createPerson({ schoolId: school.id, name, email, roles, passwordHash }, t);
 
     const chief = await mk("Imogen Farrant", "chief@chalkwing.test", ["chief", "instructor"]);
     const tomasz = await mk("Tomasz Varga", "instructor@chalkwing.test", ["instructor"]);

@@ -18,16 +18,18 @@ export async function hashPassword(password: string): Promise<string> {
 }
 
 // A real hash of a random string, compared against when the account is unknown or locked,
-// so the response time does not tell whether an e-mail exists.
-const DUMMY_HASH = bcrypt.hashSync("chalkwing-timing-equaliser-" + Math.random(), BCRYPT_COST);
+// so the response time does not tell whether an e-mail exists. Made on first use, not when the
+// module loads (every process that imports this file would otherwise pay for one hash).
+let dummyHash: Promise<string> | undefined;
+const dummy = () => (dummyHash ??= bcrypt.hash("chalkwing-timing-equaliser-" + Math.random(), BCRYPT_COST));
 
 export async function verifyPassword(password: string, hash: string | null | undefined): Promise<boolean> {
   if (Buffer.byteLength(password, "utf8") > MAX_PASSWORD_BYTES) {
-    await bcrypt.compare("x", DUMMY_HASH);
+    await bcrypt.compare("x", await dummy());
     return false;
   }
   if (!hash) {
-    await bcrypt.compare(password, DUMMY_HASH);
+    await bcrypt.compare(password, await dummy());
     return false;
   }
   return bcrypt.compare(password, hash);

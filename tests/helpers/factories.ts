@@ -10,6 +10,7 @@ import { linkSponsor } from "@/db/access/cohorts/sponsor-links";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { Role } from "@/lib/auth/roles";
 import { DEMO_STAGES } from "@/db/seed/scenario";
+import { hashPassword } from "@/lib/auth/password";
 
 /** Runs in-process code (actions, data access) as this person; null = signed out. */
 export function actAs(user: CurrentUser | null): void {
@@ -17,6 +18,10 @@ export function actAs(user: CurrentUser | null): void {
 }
 
 export const TEST_PASSWORD = "test-password-123";
+// One real bcrypt hash of TEST_PASSWORD per test file, shared by every person the factories make
+// (hashing it for each person cost a quarter of a second apiece).
+let testHash: Promise<string> | undefined;
+export const testPasswordHash = () => (testHash ??= hashPassword(TEST_PASSWORD));
 
 /**
  * A fresh, isolated school for one test file: a chief, two instructors, a course with the
@@ -32,14 +37,14 @@ export async function makeSchool(label = "t") {
       { courseId: course.id, approvedOn: "2026-01-01", effectiveFrom: "2026-01-01", changeNote: "test", stages: DEMO_STAGES },
       t,
     );
-    const person = (name: string, roles: Role[]) =>
+    const person = async (name: string, roles: Role[]) =>
       createPerson(
         {
           schoolId: school.id,
           name,
           email: `${name.toLowerCase().replace(/\W+/g, ".")}.${tag}@chalkwing.test`,
           roles,
-          password: TEST_PASSWORD,
+          passwordHash: await testPasswordHash(),
         },
         t,
       );

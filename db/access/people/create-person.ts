@@ -10,7 +10,15 @@ import { summary, type PersonSummary } from "./person-summary";
 // Creating people (invitations, roster imports, seeds) and recording an instructor's qualification.
 
 export async function createPerson(
-  input: { schoolId: string; name: string; email: string; roles: Role[]; password?: string | null },
+  input: {
+    schoolId: string;
+    name: string;
+    email: string;
+    roles: Role[];
+    password?: string | null;
+    /** a bcrypt hash made earlier (seeds and test factories make one hash for many people) */
+    passwordHash?: string;
+  },
   t?: Transaction,
 ): Promise<PersonSummary> {
   const taken = await Person.findOne({
@@ -24,7 +32,7 @@ export async function createPerson(
       name: input.name.trim(),
       email: input.email.trim().toLowerCase(),
       roles: [...new Set(input.roles)],
-      passwordHash: input.password ? await hashPassword(input.password) : null,
+      passwordHash: input.passwordHash ?? (input.password ? await hashPassword(input.password) : null),
     },
     { transaction: t },
   );
