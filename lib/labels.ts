@@ -30,6 +30,16 @@ export const CHECK_OUTCOME_WORDS: Record<CheckOutcomeCode, string> = { meets: "M
 export type MakeupStateCode = "open" | "scheduled" | "done" | "waived";
 export const MAKEUP_STATE_WORDS: Record<MakeupStateCode, string> = { open: "Open", scheduled: "Scheduled", done: "Done", waived: "Waived" };
 
+/** A record's standing under the retention rules (lib/retention/rules.ts). */
+export type RetentionStateCode = "in_training" | "kept" | "held" | "due" | "archived";
+export const RETENTION_STATE_WORDS: Record<RetentionStateCode, string> = {
+  in_training: "In training",
+  kept: "Kept",
+  held: "On legal hold",
+  due: "Ready to archive",
+  archived: "Archived",
+};
+
 /** A sign-off's standing in the register. */
 export type SignOffStateCode = "current" | "withdrawn" | "amended";
 export const SIGN_OFF_STATE_WORDS: Record<SignOffStateCode, string> = { current: "Current", withdrawn: "Withdrawn", amended: "Amended" };
