@@ -30,6 +30,8 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/register", label: "Sign-off register", permission: "register.view", group: "Records" },
   { href: "/endorsements", label: "Endorsements", permission: "endorsements.view", group: "Records" },
   { href: "/endorsements/pass-rate", label: "Pass rate", permission: "reports.view", group: "Records" },
+  { href: "/transfers", label: "Transfers in", permission: "transfers.manage", group: "Records" },
+  { href: "/retention", label: "Retention", permission: "retention.manage", group: "Records" },
   // school
   { href: "/people", label: "People", permission: "people.view", group: "School" },
   { href: "/roster", label: "Roster", permission: "roster.manage", group: "School" },

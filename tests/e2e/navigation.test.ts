@@ -23,6 +23,8 @@ const LINKS: Record<Who, string[]> = {
     "Sign-off register",
     "Endorsements",
     "Pass rate",
+    "Transfers in",
+    "Retention",
     "People",
     "Roster",
     "Rooms",

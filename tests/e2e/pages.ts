@@ -184,6 +184,11 @@ export const PAGES: CrawlPage[] = [
     waitFor: "form[aria-label^='End the training']",
   },
   { name: "completion-graduate", path: (fx) => `/completion/${fx.graduate}`, roles: ["chief"], waitFor: "[data-testid=certificate-link]" },
+  // ---- transfers in and retention ----
+  { name: "transfers", path: "/transfers", roles: ["chief"], waitFor: "[data-testid=transfer-credit]" },
+  { name: "transfers-forbidden", path: "/transfers", roles: ["instructor", "student", "sponsor"], waitFor: "h1", status: 403 },
+  { name: "retention", path: "/retention", roles: ["chief"], waitFor: "li[data-state=due]" },
+  { name: "retention-forbidden", path: "/retention", roles: ["instructor", "student", "sponsor"], waitFor: "h1", status: 403 },
   { name: "set-password-invalid", path: "/set-password/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },
   { name: "unsubscribe-invalid", path: "/unsubscribe/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },
 ];
