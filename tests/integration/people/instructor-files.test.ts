@@ -18,6 +18,9 @@ import { conductStageCheck } from "@/db/access/records/stage-checks";
 import { RecordRefusal } from "@/db/access/records/refusals";
 import { schoolOverview } from "@/db/access/today/school-overview";
 import { CAUTION_TEXT } from "@/lib/caution";
+import { listChecksOfStudent } from "@/db/access/records/check-history";
+import { answerModeText } from "@/lib/records/questions";
+import { printable } from "@/lib/records/training-record-pdf";
 import { fixedClock, resetClock } from "@/lib/clock";
 import { check, sign, itemId, auditCount, type School } from "../records/helpers";
 
@@ -320,6 +323,45 @@ describe("the printable training record", () => {
       expect(all).toContain(`Certificate number: GI-${s.people.chief.id.slice(0, 6)}`);
       expect(all).toMatch(/Date: _+/);
       expect(all).toMatch(/Signature: _+/);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it("prints each computed question's answer mode with its tolerance, as the student's record page shows it", async () => {
+    const s = await makeSchool("printedmode");
+    const st = s.people.students[1]!.id;
+    const item = await itemId(s, "AER-03");
+    const lt2 = { kind: "reference" as const, id: "lt-2" };
+    const generated = (answerMode: "exact" | "rule_of_thumb") => ({
+      syllabusItemId: item,
+      answerSummary: "",
+      outcome: "solid" as const,
+      required: true,
+      prompted: false,
+      correctiveGiven: false,
+      generated: { kind: "vmd" as const, aircraft: lt2, inputs: { massKg: 1000, altitudeFt: 6000 }, answerMode },
+      studentFigure: 80,
+    });
+    await check(s.as.instructor, st, [item], { questions: [generated("rule_of_thumb"), generated("exact")] });
+    const stored = (await listChecksOfStudent(s.school.id, st, { withRemarks: false }))[0]!.questions.map((q) => q.generated!);
+    expect(stored.map((g) => g.answerMode)).toEqual(["rule_of_thumb", "exact"]);
+    actAs(s.as.chief);
+    const res = await trainingRecordRoute(new NextRequest(`http://127.0.0.1/api/records/${st}/training-record`), {
+      params: Promise.resolve({ studentId: st }),
+    });
+    expect(res.status).toBe(200);
+    const dir = mkdtempSync(path.join(tmpdir(), "qf-mode-"));
+    try {
+      const file = path.join(dir, "record.pdf");
+      writeFileSync(file, Buffer.from(await res.arrayBuffer()));
+      const all = execFileSync("pdftotext", ["-enc", "UTF-8", file, "-"], { encoding: "utf8" }).replace(/\s+/g, " ");
+      // TAS from IAS at 2 % per 1,000 ft: common practice (lib/records/questions.ts RULE_OF_THUMB)
+      expect(all).toContain("Rule of thumb accepted (TAS = IAS + 2 % per 1,000 ft: ");
+      expect(all).toContain("Exact answer asked: accepted within 3 %, ");
+      // the whole line each question's page shows, with its accepted range
+      for (const g of stored) expect(all).toContain(printable(answerModeText(g)));
+      expect(all).toContain("student said 80");
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
