@@ -3,6 +3,8 @@
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)"
 RUN_DIR="$ROOT/.data/run"
 mkdir -p "$RUN_DIR"
+# Next.js would otherwise ask to send usage data home from every build and server start
+export NEXT_TELEMETRY_DISABLED=1
 export CHALKWING_PG_PORT="${CHALKWING_PG_PORT:-54329}"
 PG_HOST_PORT="127.0.0.1:$CHALKWING_PG_PORT"
 export DATABASE_APP_ROLE="${DATABASE_APP_ROLE:-chalkwing_app}"
