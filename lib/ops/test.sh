@@ -137,8 +137,10 @@ if want e2e; then
     phase_start "end-to-end tests (headless Chromium against the production build)"
     # A whole run splits the layer in two lanes side by side, each with a copy of the seeded
     # demo database: "harness" (the authorisation harness, which fingerprints every table, and
-    # the accessibility crawl) and "rest". A run with jest arguments (one file, a pattern) is one lane.
-    if [ ${#JEST_EXTRA[@]} -eq 0 ] && [ "${CHALKWING_E2E_LANES:-2}" -gt 1 ]; then
+    # the accessibility crawl) and "rest". A run with jest arguments (one file, a pattern) is one
+    # lane unless CHALKWING_E2E_LANES says otherwise.
+    LANES="${CHALKWING_E2E_LANES:-$([ ${#JEST_EXTRA[@]} -eq 0 ] && echo 2 || echo 1)}"
+    if [ "$LANES" -gt 1 ]; then
       bash db/cluster.sh copy-db "${E2E_DB}_rest" "$E2E_DB" >/dev/null || fail_phase copy-db
       e2e_lane harness "$E2E_PORT" "$E2E_DB" > "$RESULTS/lane-harness.log" 2>&1 &
       LANE_A=$!
