@@ -1,0 +1,166 @@
+import { createHash } from "node:crypto";
+import { packDocument, recordHash, passRateWords, type PackInput } from "@/lib/inspection/content";
+
+// The inspection pack's content (pure): what each section says, the record hash's basis, and a
+// section another area adds. The PDF's extracted text is checked in tests/integration/inspection.
+
+const HEAD = "cd".repeat(32);
+
+function input(over: Partial<PackInput> = {}): PackInput {
+  return {
+    school: { name: "Larkhollow Flying School", timeZone: "Europe/London", certificateNumber: null },
+    student: {
+      name: "Zofia Wróbel",
+      email: "zofia.wrobel@chalkwing.test",
+      courseCode: "PPL-GS",
+      courseTitle: "Private pilot ground school",
+      minGroundMinutes: 35 * 60,
+      enrolledOn: "2026-08-30",
+      cohortName: "Kestrel",
+      leadInstructorName: "Tomasz Varga",
+      ended: null,
+    },
+    syllabus: { number: 3, approvedOn: "2026-06-01", effectiveFrom: "2026-07-01", changeNote: "Stage AER split in two" },
+    groundMinutes: 90,
+    groundLog: [{ date: "2026-11-20", title: "Drag and Vmd", status: "late", minutes: 75, instructorName: "Tomasz Varga" }],
+    checks: [],
+    signOffs: [],
+    stageChecks: [],
+    endorsements: [],
+    certification: null,
+    chain: { ok: true, checked: 12, headHash: HEAD, headPosition: 12, lastGoodHash: HEAD, broken: null },
+    instructors: [],
+    passRate: {
+      window: { from: "2024-12-01", to: "2026-11-30" },
+      rows: [{ courseCode: "PPL-GS", courseTitle: "Private pilot ground school", firstAttempts: 5, passed: 3, ratePercent: 60 }],
+    },
+    transferCredits: [],
+    retention: { endedOn: null, keepUntil: null, governing: [], state: "in_training", hold: null, archived: null },
+    ...over,
+  };
+}
+
+const allText = (p: PackInput) =>
+  packDocument(p)
+    .sections.flatMap((s) => [s.heading, ...s.blocks.flatMap((b) => (b.kind === "text" ? [b.text] : [b.header, ...b.rows].flat()))])
+    .join("\n");
+
+describe("the inspection pack's content", () => {
+  it("words the enrolment, the syllabus revision, the ground log and an active enrolment", () => {
+    const text = allText(input());
+    expect(text).toContain("Enrolled on Sun 30 Aug 2026; cohort Kestrel; lead instructor Tomasz Varga");
+    expect(text).toContain("Training in progress (enrolment active)");
+    expect(text).toContain("Revision 3 of PPL-GS: approved Mon 1 Jun 2026, effective from Wed 1 Jul 2026");
+    expect(text).toContain("Change note: Stage AER split in two");
+    // 90 min = 1.5 h of the 35 h minimum; the late entry credits 75 min = 1.3 h (one decimal)
+    expect(text).toContain("Credited ground time: 1.5 of 35 h");
+    expect(text).toContain("1.3 h");
+    expect(text).toContain("Late");
+    expect(text).toContain("Not certified");
+  });
+
+  it("says plainly when the audit chain does not verify, with the newest row and the last good link", () => {
+    const text = allText(
+      input({
+        chain: {
+          ok: false,
+          checked: 7,
+          headHash: HEAD,
+          headPosition: 12,
+          lastGoodHash: "ef".repeat(32),
+          broken: { position: 8, problem: "hash mismatch" },
+        },
+      }),
+    );
+    expect(text).toContain("NOT VERIFIED: the chain breaks at position 8 (hash mismatch); 7 events before it link up.");
+    expect(text).toContain(`Head hash ${HEAD}`);
+    expect(text).toContain(`Last link that verifies ${"ef".repeat(32)}`);
+  });
+
+  it("marks a pass rate below 80 % (14 CFR 141.5(d)) and a course without tests", () => {
+    expect(passRateWords(60)).toBe("60 % (below 80 %)");
+    expect(passRateWords(80)).toBe("80 %");
+    expect(passRateWords(null)).toBe("No tests");
+    expect(allText(input())).toContain("60 % (below 80 %)");
+  });
+
+  it("prints transfer-in credit with its cap, items, test, evidence hash and audit event, before the ground log", () => {
+    const withCredit = input({
+      transferCredits: [
+        {
+          sourceSchool: "Eastmere Aero Club (fictional)",
+          sourceApproved: false,
+          creditedMinutes: 300,
+          capMinutes: 525,
+          testKind: "knowledge",
+          testTakenOn: "2026-09-02",
+          testResult: "84 %",
+          itemCodes: ["AER-01", "AER-02"],
+          evidenceFileName: "eastmere-record.pdf",
+          evidenceSha256: "ab".repeat(32),
+          recordedByName: "Mira Okonjo",
+          recordedOn: "2026-09-03",
+          auditHash: HEAD,
+        },
+      ],
+    });
+    const doc = packDocument(withCredit);
+    const headings = doc.sections.map((s) => s.heading);
+    expect(headings.indexOf("Transfer-in credit")).toBe(headings.indexOf("Ground log") - 1);
+    expect(allText(input())).toContain("None: no credit from an earlier school.");
+    const credit = doc.sections
+      .find((s) => s.heading === "Transfer-in credit")!
+      .blocks.map((b) => (b.kind === "text" ? b.text : ""))
+      .join("\n");
+    // 525 min = 25 % of the 35 h course (14 CFR 141.77(c), course not approved)
+    expect(credit).toContain("Eastmere Aero Club (fictional) (course not approved): 5 h credited of a cap of 8.8 h (14 CFR 141.77(c))");
+    expect(credit).toContain("Items credited: AER-01, AER-02");
+    expect(credit).toContain("Test given by this school: Knowledge, taken on Wed 2 Sep 2026: 84 %");
+    expect(credit).toContain(`Evidence SHA-256 ${"ab".repeat(32)}`);
+    expect(allText(withCredit)).toContain("Credited ground time: 1.5 of 35 h (including transfer-in credit)");
+  });
+
+  it("gives the retention date with the rules that set it, a legal hold, and an unended training", () => {
+    expect(allText(input())).toContain("Training has not ended: the retention date is counted from the end of training.");
+    const text = allText(
+      input({
+        retention: {
+          endedOn: "2026-12-01",
+          keepUntil: "2029-12-01",
+          governing: ["instructor_records", "easa_ato"],
+          state: "held",
+          hold: { reason: "Inspection by the authority", setOn: "2026-12-02", setByName: "Mira Okonjo" },
+          archived: null,
+        },
+      }),
+    );
+    // 3 years after the end of training (14 CFR 61.189(c); EASA ORA.ATO.120), the longest rule
+    expect(text).toContain(
+      "Kept until Sat 1 Dec 2029: Tue 1 Dec 2026, the end of training, plus the longest rule that applies (14 CFR 61.189(c), 3 years; EASA ORA.ATO.120, 3 years)",
+    );
+    expect(text).toContain("Legal hold since Wed 2 Dec 2026 (Mira Okonjo): Inspection by the authority");
+    const due = allText(
+      input({
+        retention: {
+          endedOn: "2024-01-10",
+          keepUntil: "2025-01-10",
+          governing: ["school_records"],
+          state: "due",
+          hold: null,
+          archived: null,
+        },
+      }),
+    );
+    expect(due).toContain("(14 CFR 141.101(d), 1 year)");
+    expect(due).toContain("Past its retention date: listed for the chief instructor to archive; nothing is deleted.");
+  });
+
+  it("hashes the content as printed with SHA-256: same content, same hash; any changed line, another hash", () => {
+    const doc = packDocument(input());
+    expect(recordHash(doc)).toBe(createHash("sha256").update(JSON.stringify(doc)).digest("hex"));
+    expect(recordHash(packDocument(input()))).toBe(recordHash(doc));
+    expect(recordHash(packDocument(input({ groundMinutes: 120 })))).not.toBe(recordHash(doc));
+    // the hash covers what is printed: 91 minutes print as 1.5 h, like 90
+    expect(recordHash(packDocument(input({ groundMinutes: 91 })))).toBe(recordHash(doc));
+  });
+});
