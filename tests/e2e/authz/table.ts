@@ -33,6 +33,7 @@ import { ROOMS_TABLE } from "./rooms/table";
 import { COHORTS_TABLE } from "./cohorts/table";
 import { ENDORSEMENTS_TABLE } from "./endorsements/table";
 import { COMPLETION_TABLE } from "./completion/table";
+import { INSPECTION_TABLE } from "./inspection/table";
 
 function rowsOf(res: HarnessResponse): { id: string; primary: string }[] {
   const j = res.json as { rows?: { id: string; primary: string }[] } | undefined;
@@ -151,6 +152,9 @@ export const TABLE: AuthzTable = {
   // ---- knowledge-test endorsements (endorsements/table.ts) ----
   ...ENDORSEMENTS_TABLE,
   ...COMPLETION_TABLE,
+
+  // ---- the inspection pack (inspection/table.ts) ----
+  ...INSPECTION_TABLE,
 
   // ---- mail ----
   // Public by design (the signed token is the credential): a forged token is refused for everyone.
