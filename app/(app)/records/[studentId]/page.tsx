@@ -89,6 +89,15 @@ export default async function StudentRecordPage({ params }: { params: Promise<{ 
           <a className="underline" href={`/api/records/${student.id}/training-record`}>
             Training record (PDF)
           </a>
+          {can(user, "records.inspect") && (
+            <>
+              {" "}
+              ·{" "}
+              <a className="underline" href={`/api/records/${student.id}/inspection-pack`}>
+                Inspection pack (PDF)
+              </a>
+            </>
+          )}
           {can(user, "sharing.students") && (
             <>
               {" "}
