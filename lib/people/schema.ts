@@ -1,5 +1,7 @@
 import { z } from "zod";
 import { calendarDate } from "@/lib/validation/dates";
+import type { Role } from "@/lib/auth/roles";
+import { ASSIGNABLE_ROLES } from "./roles";
 
 // The People area's schemas, shared by the forms and the server actions.
 
@@ -64,3 +66,24 @@ export const linkSponsorSchema = z.object({
     .default("sponsor"),
 });
 export type LinkSponsorInput = z.output<typeof linkSponsorSchema>;
+
+// Inviting staff and sponsors, and changing a person's roles (people.manage). Students join through the Roster.
+const roleList = z.preprocess(
+  (v) => (typeof v === "string" ? [v] : v),
+  z
+    .array(z.string("choose instructor, chief instructor or sponsor"), "choose at least one role")
+    .min(1, "choose at least one role")
+    .max(ASSIGNABLE_ROLES.length)
+    .refine((rs) => rs.every((r) => (ASSIGNABLE_ROLES as readonly string[]).includes(r)), "choose instructor, chief instructor or sponsor")
+    .transform((rs) => [...new Set(rs)] as Role[]),
+);
+
+export const invitePersonSchema = z.object({
+  name: z.string("enter the person's name").trim().min(1, "enter the person's name").max(200, "at most 200 characters"),
+  email: z.string("enter an e-mail address").trim().toLowerCase().email("not a valid e-mail address").max(254),
+  roles: roleList,
+});
+export type InvitePersonInput = z.output<typeof invitePersonSchema>;
+
+export const changeRolesSchema = z.object({ personId: z.string("choose a person").uuid("choose a person"), roles: roleList });
+export type ChangeRolesInput = z.output<typeof changeRolesSchema>;

@@ -189,6 +189,9 @@ export const PAGES: CrawlPage[] = [
   { name: "transfers-forbidden", path: "/transfers", roles: ["instructor", "student", "sponsor"], waitFor: "h1", status: 403 },
   { name: "retention", path: "/retention", roles: ["chief"], waitFor: "li[data-state=due]" },
   { name: "retention-forbidden", path: "/retention", roles: ["instructor", "student", "sponsor"], waitFor: "h1", status: 403 },
+  // ---- people: invitations and roles ----
+  { name: "people-accounts", path: "/people/accounts", roles: ["chief"], waitFor: "[data-testid=accounts-table] tbody tr" },
+  { name: "people-accounts-forbidden", path: "/people/accounts", roles: ["instructor", "sponsor"], waitFor: "h1", status: 403 },
   { name: "set-password-invalid", path: "/set-password/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },
   { name: "unsubscribe-invalid", path: "/unsubscribe/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },
 ];

@@ -36,6 +36,13 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
   return (
     <div className="space-y-6">
       <h1 className="text-display">People</h1>
+      {manage && (
+        <p>
+          <Link className="underline" href="/people/accounts">
+            Invite people and change roles
+          </Link>
+        </p>
+      )}
       {!parsed.success && (
         <p role="alert" className="field-error">
           Filter ignored: {parsed.error.issues[0]?.path.join(".")} is not valid.

@@ -1,4 +1,5 @@
-// The People area's rows of the authorisation table: instructor files (qualifications with history).
+// The People area's rows of the authorisation table: instructor files (qualifications with history),
+// account changes, invitations and roles.
 import type { AuthzTable, HarnessResponse } from "../types";
 
 const result = (res: HarnessResponse) => res.json as { ok: boolean; status?: number; data?: Record<string, unknown> };
@@ -64,5 +65,38 @@ export const PEOPLE_TABLE: AuthzTable = {
       sponsor: 403,
     },
     secrets: (fx) => [fx.student],
+  },
+  "action app/(app)/people/accounts/actions.ts#invitePersonAction": {
+    // an e-mail that already has an account: the chief's call is a 409 naming email, no account or mail is written
+    request: (fx, caller) => ({
+      args: [
+        { name: "Harness Invitee", email: "instructor@chalkwing.test", roles: ["instructor"], idempotencyKey: `harness-invite-${caller}` },
+      ],
+    }),
+    expect: {
+      signedOut: 401,
+      chief: { status: 409, check: (res) => expect(result(res)).toMatchObject({ ok: false, field: "email" }) },
+      instructor: 403,
+      student: 403,
+      sponsor: 403,
+    },
+  },
+
+  "action app/(app)/people/accounts/actions.ts#changeRolesAction": {
+    // the demo school's only chief instructor gives up her own chief role: refused (409 naming roles), nothing changes
+    request: (fx) => ({ args: [{ personId: fx.chief, roles: ["instructor"] }] }),
+    expect: {
+      signedOut: 401,
+      chief: {
+        status: 409,
+        check: (res) => {
+          expect(result(res)).toMatchObject({ ok: false, field: "roles" });
+          expect((res.json as { message: string }).message).toMatch(/last chief instructor/);
+        },
+      },
+      instructor: 403,
+      student: 403,
+      sponsor: 403,
+    },
   },
 };

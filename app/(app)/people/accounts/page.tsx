@@ -1,0 +1,73 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { requirePagePermission } from "@/lib/auth/guard";
+import { listPeople } from "@/db/access/people/list-people";
+import { ROLE_LABELS } from "@/lib/auth/roles";
+import { ASSIGNABLE_ROLES, STUDENT_ROLES } from "@/lib/people/roles";
+import { WideTable } from "@/components/ui/wide-table";
+import { InviteForm } from "./_components/invite-form";
+import { RolesForm } from "./_components/roles-form";
+
+export const metadata: Metadata = { title: "Accounts and roles" };
+export const dynamic = "force-dynamic";
+
+export default async function AccountsPage() {
+  const user = await requirePagePermission("people.manage", "/people/accounts");
+  const people = await listPeople(user.schoolId);
+  const staffAndSponsors = people.filter((p) => !p.roles.some((r) => STUDENT_ROLES.includes(r)));
+  const roles = ASSIGNABLE_ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
+  return (
+    <div className="max-w-4xl space-y-6">
+      <header>
+        <p className="text-caption">
+          <Link className="underline" href="/people">
+            People
+          </Link>{" "}
+          / Accounts and roles
+        </p>
+        <h1 className="text-display">Accounts and roles</h1>
+        <p className="text-ink-soft">
+          Invite instructors, chief instructors and sponsors; students join through the{" "}
+          <Link className="underline" href="/roster">
+            Roster
+          </Link>
+          . A change of roles ends the person&apos;s sessions at once.
+        </p>
+      </header>
+      <InviteForm roles={roles} />
+      <RolesForm roles={roles} people={staffAndSponsors.map((p) => ({ id: p.id, name: p.name, roles: p.roles, self: p.id === user.id }))} />
+      <section className="card" aria-labelledby="staff-title">
+        <h2 id="staff-title">Staff and sponsors</h2>
+        <div className="mt-2">
+          <WideTable label="Staff and sponsors, scrolls sideways" more={1}>
+            <table className="data-table" data-testid="accounts-table">
+              <thead>
+                <tr>
+                  <th scope="col">Name</th>
+                  <th scope="col">Roles</th>
+                  <th scope="col" data-more="">
+                    E-mail
+                  </th>
+                </tr>
+              </thead>
+              <tbody>
+                {staffAndSponsors.map((p) => (
+                  <tr key={p.id}>
+                    <td>
+                      {p.name}
+                      {!p.active && <span className="text-caption text-ink-soft"> (deactivated)</span>}
+                    </td>
+                    <td>{p.roles.map((r) => ROLE_LABELS[r]).join(", ")}</td>
+                    <td className="break-all" data-more="">
+                      {p.email}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </WideTable>
+        </div>
+      </section>
+    </div>
+  );
+}
