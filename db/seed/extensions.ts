@@ -6,6 +6,7 @@ import { seedRecords } from "./records";
 import { seedMail } from "./mail";
 import { seedStudentWeek } from "./student-week";
 import { seedCompletion } from "./completion";
+import { seedTransfers } from "./transfers";
 
 export interface SeedContext {
   t: Transaction;
@@ -36,6 +37,8 @@ const extensions: { name: string; run: (ctx: SeedContext) => Promise<void> }[] =
   { name: "student-week", run: seedStudentWeek },
   // a graduate with every item signed and the chief's certification: after the records seed
   { name: "completion", run: seedCompletion },
+  // a transfer-in endorsed with a result (sessions in Briefing room 2) and a record past retention: after the timetable and completion seeds
+  { name: "transfers", run: seedTransfers },
   // a note for the demo sponsor and the Weekly letters already sent, composed from everything above: keep it last
   { name: "mail", run: seedMail },
 ];

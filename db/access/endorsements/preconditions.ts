@@ -78,7 +78,7 @@ export async function unmetPreconditions(
   );
   if (makeups.length) unmet.push({ reason: "makeup_open", message: `open make-up items: ${makeups.map((m) => m.code).join(", ")}` });
 
-  const credited = await creditedMinutesFor(student.id, student.courseId);
+  const credited = await creditedMinutesFor(student.id, student.courseId, t);
   if (credited < student.minGroundMinutes)
     unmet.push({
       reason: "ground_hours_short",

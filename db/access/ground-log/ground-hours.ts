@@ -1,5 +1,5 @@
 import "server-only";
-import { QueryTypes } from "sequelize";
+import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 
 /**
@@ -12,10 +12,12 @@ const TOTAL_SQL = `SELECT (COALESCE((SELECT sum(credited_minutes) FROM ground_lo
         + COALESCE((SELECT sum(credited_minutes) FROM transfer_credits WHERE student_id = :s AND course_id = :c), 0))::int AS minutes,
        COALESCE((SELECT sum(credited_minutes) FROM transfer_credits WHERE student_id = :s AND course_id = :c), 0)::int AS transfer`;
 
-export async function creditedMinutesFor(studentId: string, courseId: string): Promise<number> {
+/** Pass the caller's transaction to count what it has written (e.g. an endorsement's precondition). */
+export async function creditedMinutesFor(studentId: string, courseId: string, t?: Transaction): Promise<number> {
   const [row] = await sequelize.query<{ minutes: number }>(TOTAL_SQL, {
     replacements: { s: studentId, c: courseId },
     type: QueryTypes.SELECT,
+    transaction: t,
   });
   return row?.minutes ?? 0;
 }

@@ -12,6 +12,7 @@ import { BRIEFINGS_LOOKUPS } from "./briefings/fixtures";
 import { RECORDS_LOOKUPS } from "./records/fixtures";
 import { ROOMS_LOOKUPS } from "./rooms/fixtures";
 import { COMPLETION_LOOKUPS } from "./completion/fixtures";
+import { TRANSFERS_LOOKUPS } from "./transfers/fixtures";
 
 const person = (email: string) => ({ sql: `SELECT id FROM people WHERE lower(email) = lower($1)`, params: [email] });
 
@@ -49,6 +50,8 @@ export const LOOKUPS: Record<string, { sql: string; params?: unknown[] }> = {
   ...ROOMS_LOOKUPS,
   // ---- end of training ----
   ...COMPLETION_LOOKUPS,
+  // ---- transfers in and retention ----
+  ...TRANSFERS_LOOKUPS,
 };
 
 export async function loadFixtures(c: Client): Promise<Fixtures> {

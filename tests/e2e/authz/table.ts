@@ -34,6 +34,8 @@ import { COHORTS_TABLE } from "./cohorts/table";
 import { ENDORSEMENTS_TABLE } from "./endorsements/table";
 import { COMPLETION_TABLE } from "./completion/table";
 import { INSPECTION_TABLE } from "./inspection/table";
+import { TRANSFERS_TABLE } from "./transfers/table";
+import { RETENTION_TABLE } from "./retention/table";
 
 function rowsOf(res: HarnessResponse): { id: string; primary: string }[] {
   const j = res.json as { rows?: { id: string; primary: string }[] } | undefined;
@@ -155,6 +157,9 @@ export const TABLE: AuthzTable = {
 
   // ---- the inspection pack (inspection/table.ts) ----
   ...INSPECTION_TABLE,
+  // ---- transfers in and retention ----
+  ...TRANSFERS_TABLE,
+  ...RETENTION_TABLE,
 
   // ---- mail ----
   // Public by design (the signed token is the credential): a forged token is refused for everyone.

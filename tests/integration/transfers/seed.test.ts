@@ -1,0 +1,76 @@
+import { QueryTypes } from "sequelize";
+import { addDays, format } from "date-fns";
+import { sequelize } from "@/db/index";
+import { makeSchool, actAs, closeDb, TEST_PASSWORD } from "@/tests/helpers/factories";
+import { seedTransfers } from "@/db/seed/transfers";
+import { createRoom } from "@/db/access/rooms/save-room";
+import { verifyChain } from "@/db/access/records/audit-chain";
+import { creditedMinutesFor } from "@/db/access/ground-log/ground-hours";
+import { transferCreditsOf } from "@/db/access/transfers/credits";
+import { retentionOf } from "@/db/access/retention/records";
+import { dateInZone } from "@/lib/time";
+import { makeBriefing } from "../timetable/helpers";
+
+// The demo's transfer-in (credit at exactly the 14 CFR 141.77(c)(1) cap of 50%), endorsed with a
+// passing knowledge-test result, and a record past retention (transferred out four years ago,
+// beyond the 3 years of 14 CFR 61.189(c)), written through the services so the chain verifies.
+
+afterAll(async () => {
+  actAs(null);
+  await closeDb();
+});
+
+test("the demo seed gives a transfer-in at the cap, endorsed with a result, and a record past retention", async () => {
+  const s = await makeSchool("seedxfer");
+  await makeBriefing(s, "Seed briefing", []);
+  await sequelize.transaction((t) => createRoom(s.as.chief, { name: "Briefing room 2", capacity: 10 }, t));
+  const day = (n: number) => format(addDays(new Date(`${dateInZone(new Date(), "Europe/London")}T12:00:00Z`), n), "yyyy-MM-dd");
+  await sequelize.transaction((t) =>
+    seedTransfers(
+      {
+        t,
+        schoolId: s.school.id,
+        courseId: s.course.id,
+        revisionId: s.revision.id,
+        people: {
+          chief: s.people.chief.id,
+          instructor: s.people.instructor.id,
+          priya: s.people.instructor2.id,
+          rafael: s.people.instructor2.id,
+          sponsor: s.people.sponsor.id,
+        },
+        students: {},
+        cohorts: { a: s.cohorts.a.id, b: s.cohorts.b.id },
+        day,
+      },
+      TEST_PASSWORD,
+    ),
+  );
+  const person = async (email: string) =>
+    (
+      await sequelize.query<{ id: string }>(`SELECT id FROM people WHERE email = :email AND school_id = :s`, {
+        replacements: { email, s: s.school.id },
+        type: QueryTypes.SELECT,
+      })
+    )[0]!.id;
+  const odile = await person("odile.ferreira@chalkwing.test");
+  const [credit] = await transferCreditsOf(odile, s.course.id);
+  // the test course's minimum is 35 h = 2100 min: the approved-course cap is 1050 min (141.77(c)(1))
+  expect(credit).toMatchObject({ sourceApproved: true, creditedMinutes: 1050, capMinutes: 1050 });
+  expect(credit!.items.length).toBeGreaterThan(0);
+  expect(await creditedMinutesFor(odile, s.course.id)).toBeGreaterThanOrEqual(2100);
+  const [kt] = await sequelize.query<{ passed: boolean; score: number }>(
+    `SELECT r.passed, r.score_percent AS score FROM knowledge_test_results r JOIN knowledge_test_endorsements e ON e.id = r.endorsement_id
+      WHERE r.student_id = :s`,
+    { replacements: { s: odile }, type: QueryTypes.SELECT },
+  );
+  expect(kt).toEqual({ passed: true, score: 86 });
+
+  const casimir = await person("casimir.wetherell@chalkwing.test");
+  expect(await retentionOf(s.school.id, casimir)).toMatchObject({
+    state: "due",
+    endedOn: day(-4 * 365),
+    governing: ["instructor_records"],
+  });
+  expect((await verifyChain(s.school.id)).ok).toBe(true);
+}, 120_000);
