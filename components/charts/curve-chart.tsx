@@ -327,7 +327,7 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
         rule(c.vmdMs, [], pal.chalk);
         labels.push({
           id: "vmd",
-          lines: [`Vmd ${fmt(speedInUnit(c.vmdMs, unit))} ${u}`],
+          lines: [`Vmd ${fmt(speedInUnit(c.vmdMs, unit))} ${u}`, ...(c.flags.vmd ? [`(${c.flags.vmd})`] : [])],
           colour: pal.chalk,
           weight: 600,
           place: topDown(px(c.vmdMs), "both"),
@@ -337,7 +337,7 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
         rule(c.vmpMs, [lw * 3, lw * 2], pal.dim);
         labels.push({
           id: "vmp",
-          lines: [`Vmp ${fmt(speedInUnit(c.vmpMs, unit))} ${u}`],
+          lines: [`Vmp ${fmt(speedInUnit(c.vmpMs, unit))} ${u}`, ...(c.flags.vmp ? [`(${c.flags.vmp})`] : [])],
           colour: pal.dim,
           weight: 600,
           place: topDown(px(c.vmpMs), "both"),
@@ -359,7 +359,7 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
       if (!hidden("stall") && inside(c.stallMs)) {
         labels.push({
           id: "stall",
-          lines: [`stall ${fmt(speedInUnit(c.stallMs, unit))}`],
+          lines: [`stall ${fmt(speedInUnit(c.stallMs, unit))}`, ...(c.flags.stall ? [`(${c.flags.stall})`] : [])],
           colour: pal.chalk,
           weight: 600,
           place: bottomUp(px(c.stallMs), "both"),
@@ -445,7 +445,7 @@ function boardPlugin(overlay: { current: Overlay }): Plugin<"line"> {
       if (!hidden("bestGlide") && inside(c.vmdMs)) {
         labels.push({
           id: "glide",
-          lines: [`best glide ≈ Vmd, ${fmt(c.maxLiftToDrag, 1)}:1`],
+          lines: [`best glide ≈ Vmd, ${fmt(c.maxLiftToDrag, 1)}:1`, ...(c.flags.vmd ? [`(at Vmd: ${c.flags.vmd})`] : [])],
           colour: pal.dim,
           weight: 400,
           place: bottomUp(px(c.vmdMs), "both"),

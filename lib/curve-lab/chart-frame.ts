@@ -1,5 +1,5 @@
-import { sampleCurves, massToWeightN, type CurveSet } from "@/lib/aero";
-import { CURVE_KEYS, SAMPLE_POINTS, curveCaseFor, speedInUnit, type CurveKey, type DemoSpec } from "./demo-spec";
+import { sampleCurves, massToWeightN, equivalentToTrue, validity, validityText, type CurveSet } from "@/lib/aero";
+import { CURVE_KEYS, SAMPLE_POINTS, aircraftFor, curveCaseFor, speedInUnit, type CurveKey, type DemoSpec } from "./demo-spec";
 
 /**
  * Turns a demo spec into chart data without allocating on the hot path: one preallocated array
@@ -26,6 +26,11 @@ export interface CaseOverlay {
   maxLiftToDrag: number;
   /** Total drag at the chosen speed, N (null when the chosen speed is off the axis). */
   chosenDragN: number | null;
+  /**
+   * lib/aero's validity words of each marked speed ("" when valid), shown beside the number on the
+   * chart as the readouts show them. The stall speed itself is valid (CL = CLmax) unless above Mach 0.3.
+   */
+  flags: { vmd: string; vmp: string; stall: string };
 }
 
 export interface Frame {
@@ -91,6 +96,16 @@ export function fillFrame(frame: Frame, spec: DemoSpec, cache: { set?: CurveSet<
       const f = pos - i;
       chosenDragN = cc.totalDragN[i]! * (1 - f) + cc.totalDragN[i + 1]! * f;
     }
+    const sc = spec.cases[c]!;
+    const flagAt = (axisMs: number, onlyMach = false) => {
+      const tasMs = spec.axis.speed === "true" ? axisMs : equivalentToTrue(axisMs, sc.altitudeM, sc.isaDeviationK);
+      const v = validity(aircraftFor(spec.airframe, sc), {
+        altitudeM: sc.altitudeM,
+        isaDeviationK: sc.isaDeviationK,
+        trueAirspeedMs: tasMs,
+      });
+      return validityText(onlyMach ? v.flags.filter((f) => f === "compressible") : v.flags);
+    };
     frame.cases.push({
       vmdMs: cc.markers.minimumDragSpeedMs,
       vmpMs: cc.markers.minimumPowerSpeedMs,
@@ -98,6 +113,11 @@ export function fillFrame(frame: Frame, spec: DemoSpec, cache: { set?: CurveSet<
       minDragN,
       maxLiftToDrag: cc.markers.maxLiftToDrag,
       chosenDragN,
+      flags: {
+        vmd: flagAt(cc.markers.minimumDragSpeedMs),
+        vmp: flagAt(cc.markers.minimumPowerSpeedMs),
+        stall: flagAt(cc.markers.stallSpeedMs, true),
+      },
     });
     // The drag axis is scaled for the airframe's maximum mass, so it stays put while a mass
     // slider moves and the curve is seen to move against it.

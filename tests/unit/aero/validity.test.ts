@@ -136,7 +136,7 @@ describe("Curve Lab readouts show the flag beside the number", () => {
       configurations: { ...airframe.configurations, clean: { cd0Increment: 0, maxLiftCoefficient: 1.5 } },
     };
     const f = caseFigures(trainer, c, "equivalent");
-    expect(f.flags).toEqual({ vmd: "", vmp: "", bestGlide: "" });
+    expect(f.flags).toEqual({ vmd: "", vmp: "", bestGlide: "", stall: "" });
     expect(flaggedSpeed(f.vmdMs, "kt", f.flags.vmd)).toMatch(/^\d+ kt$/);
   });
 

@@ -26,7 +26,16 @@ import {
   type DemoCase,
   type DemoSpec,
 } from "@/lib/curve-lab/demo-spec";
-import { caseFigures, flaggedSpeed, whatIf, GUST_ABOVE_VMD, GUST_BELOW_VMD, AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
+import {
+  callAnswerFlag,
+  caseFigures,
+  flaggedLiftToDrag,
+  flaggedSpeed,
+  whatIf,
+  GUST_ABOVE_VMD,
+  GUST_BELOW_VMD,
+  AXIS_ASSUMPTION,
+} from "@/lib/curve-lab/readouts";
 import { kgToLb, mToFt, ftToM } from "@/lib/aero";
 import { callGap } from "@/lib/curve-lab/call-gap";
 import { deleteDemoAction, duplicateDemoAction, makeCallAction, renameDemoAction, saveDemoAction } from "../actions";
@@ -100,7 +109,10 @@ export function DemoWorkbench(props: WorkbenchProps) {
   // Call it first (students): conceal the answer until the call is made.
   const callKind: CallKind | null = mode === "student" ? spec.callKind : null;
   const [guessMs, setGuessMs] = useState<number | null>(props.priorCall?.predictedMs ?? null);
-  const [answer, setAnswer] = useState<{ predictedMs: number; actualMs: number } | null>(props.priorCall ?? null);
+  // the answer carries its validity words, taken from the spec the call was made on (the sliders are locked while calling)
+  const [answer, setAnswer] = useState<{ predictedMs: number; actualMs: number; flag: string } | null>(() =>
+    props.priorCall && callKind ? { ...props.priorCall, flag: callAnswerFlag(spec, callKind) } : null,
+  );
   const calling = callKind !== null && answer === null;
   const conceal = useMemo<Concealment | null>(() => {
     if (!calling) return null;
@@ -225,7 +237,7 @@ export function DemoWorkbench(props: WorkbenchProps) {
     setCallKey(crypto.randomUUID());
     // a call already made on this revision (another tab) comes back unchanged: show that one
     setGuessMs(r.data.predictedMs);
-    setAnswer({ predictedMs: r.data.predictedMs, actualMs: r.data.actualMs });
+    setAnswer({ predictedMs: r.data.predictedMs, actualMs: r.data.actualMs, flag: callAnswerFlag(spec, callKind) });
   }
 
   function exportPng() {
@@ -418,7 +430,7 @@ export function DemoWorkbench(props: WorkbenchProps) {
             </button>
           </div>
           <div aria-live="polite" data-testid="call-result">
-            {answer && <CallResult predictedMs={answer.predictedMs} actualMs={answer.actualMs} unit={unit} />}
+            {answer && <CallResult predictedMs={answer.predictedMs} actualMs={answer.actualMs} flag={answer.flag} unit={unit} />}
           </div>
           {props.earlierCalls && props.earlierCalls.length > 0 && (
             <div>
@@ -498,10 +510,10 @@ export function DemoWorkbench(props: WorkbenchProps) {
                 <dd data-testid="readout-vmp">{flaggedSpeed(figures.vmpMs, unit, figures.flags.vmp)}</dd>
                 <dt>Stall</dt>
                 <dd data-testid="readout-stall">
-                  {formatSpeed(figures.stallMs, unit)} ({CONFIGURATION_LABELS[focused.configuration].toLowerCase()})
+                  {flaggedSpeed(figures.stallMs, unit, figures.flags.stall)} ({CONFIGURATION_LABELS[focused.configuration].toLowerCase()})
                 </dd>
                 <dt>(L/D)max</dt>
-                <dd>{fmt(figures.maxLiftToDrag, 1)}</dd>
+                <dd>{flaggedLiftToDrag(figures)}</dd>
                 <dt>Best glide</dt>
                 <dd>
                   {flaggedSpeed(figures.bestGlideMs, unit, figures.flags.bestGlide)}, {fmt(figures.glideRatio, 1)}:1
@@ -580,18 +592,23 @@ export function DemoWorkbench(props: WorkbenchProps) {
         mode={mode}
         locked={locked}
         setSpec={setSpec}
-        answerText={mode === "builder" && spec.callKind ? formatSpeed(callAnswer(spec, spec.callKind), unit) : null}
+        answerText={
+          mode === "builder" && spec.callKind
+            ? flaggedSpeed(callAnswer(spec, spec.callKind), unit, callAnswerFlag(spec, spec.callKind))
+            : null
+        }
       />
     </div>
   );
 }
 
 /** The reveal: the call, the answer and the gap between the two numbers as shown. */
-function CallResult({ predictedMs, actualMs, unit }: { predictedMs: number; actualMs: number; unit: "kt" | "ms" }) {
+function CallResult({ predictedMs, actualMs, flag, unit }: { predictedMs: number; actualMs: number; flag: string; unit: "kt" | "ms" }) {
   const g = callGap(predictedMs, actualMs, unit);
   return (
     <p className="text-lead">
-      Your call <span className="num font-semibold">{g.call}</span> · answer <span className="num font-semibold">{g.answer}</span> ·{" "}
+      Your call <span className="num font-semibold">{g.call}</span> · answer <span className="num font-semibold">{g.answer}</span>
+      {flag && <span data-testid="call-answer-flag"> ({flag})</span>} ·{" "}
       {g.direction === "on the answer" ? (
         <span className="font-semibold">right on the answer</span>
       ) : (

@@ -2,8 +2,8 @@
 import { useEffect, useMemo, useRef, useState, useSyncExternalStore } from "react";
 import { createPortal } from "react-dom";
 import { CurveChart, CASE_COLOURS } from "@/components/charts/curve-chart";
-import { CURVE_LABELS, formatSpeed, MARKER_KEYS, type CurveKey, type DemoSpec } from "@/lib/curve-lab/demo-spec";
-import { caseFigures, flaggedSpeed, AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
+import { CURVE_LABELS, MARKER_KEYS, type CurveKey, type DemoSpec } from "@/lib/curve-lab/demo-spec";
+import { caseFigures, flaggedLiftToDrag, flaggedSpeed, AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
 import { Caution } from "@/components/caution";
 
 const CURVE_SHORTCUTS: [string, CurveKey][] = [
@@ -144,8 +144,8 @@ export function ProjectorView({ name, spec: saved, backHref }: { name: string; s
           <span className="num" data-testid="projector-vmp">
             Vmp {flaggedSpeed(fig.vmpMs, unit, fig.flags.vmp)}
           </span>
-          <span className="num">stall {formatSpeed(fig.stallMs, unit)}</span>
-          <span className="num">(L/D)max {fig.maxLiftToDrag.toFixed(1)}</span>
+          <span className="num">stall {flaggedSpeed(fig.stallMs, unit, fig.flags.stall)}</span>
+          <span className="num">(L/D)max {flaggedLiftToDrag(fig)}</span>
         </p>
       </header>
       <div className="relative min-h-0 flex-1">

@@ -8,8 +8,8 @@ import { Caution } from "@/components/caution";
 import { ScrollArea } from "@/components/ui/scroll-area";
 import { getAirframe } from "@/db/access/curve-lab/airframes";
 import { snapshotOf } from "@/lib/curve-lab/demo-spec";
-import { CONFIGURATION_KEYS, CONFIGURATION_LABELS, formatSpeed } from "@/lib/curve-lab/demo-spec";
-import { caseFigures, stallByConfiguration, AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
+import { CONFIGURATION_KEYS, CONFIGURATION_LABELS } from "@/lib/curve-lab/demo-spec";
+import { caseFigures, flaggedLiftToDrag, flaggedSpeed, stallByConfiguration, AXIS_ASSUMPTION } from "@/lib/curve-lab/readouts";
 import { ftToM, kgToLb, lbToKg, mToFt, aspectRatio } from "@/lib/aero";
 import { AirframeButtons } from "../_components/airframe-actions";
 
@@ -59,6 +59,7 @@ export default async function AirframePage({
   const eas = caseFigures(snap, c, "equivalent");
   const tas = caseFigures(snap, c, "true");
   const stalls = stallByConfiguration(snap, c, "equivalent");
+  const stallsTas = stallByConfiguration(snap, c, "true");
   const editable = can(user, "airframes.edit");
   return (
     <div className="space-y-4">
@@ -171,34 +172,36 @@ export default async function AirframePage({
                 </tr>
               </thead>
               <tbody>
+                {/* each speed carries lib/aero's validity words beside it (below the stall, above Mach 0.3), as the demo readouts do */}
                 <tr>
                   <td>Vmd</td>
-                  <td className="num">{formatSpeed(eas.vmdMs, "kt")}</td>
-                  <td className="num">{formatSpeed(tas.vmdMs, "kt")}</td>
+                  <td className="num">{flaggedSpeed(eas.vmdMs, "kt", eas.flags.vmd)}</td>
+                  <td className="num">{flaggedSpeed(tas.vmdMs, "kt", tas.flags.vmd)}</td>
                 </tr>
                 <tr>
                   <td>Vmp</td>
-                  <td className="num">{formatSpeed(eas.vmpMs, "kt")}</td>
-                  <td className="num">{formatSpeed(tas.vmpMs, "kt")}</td>
+                  <td className="num">{flaggedSpeed(eas.vmpMs, "kt", eas.flags.vmp)}</td>
+                  <td className="num">{flaggedSpeed(tas.vmpMs, "kt", tas.flags.vmp)}</td>
                 </tr>
                 <tr>
                   <td>Best glide</td>
-                  <td className="num">{formatSpeed(eas.bestGlideMs, "kt")}</td>
-                  <td className="num">{formatSpeed(tas.bestGlideMs, "kt")}</td>
+                  <td className="num">{flaggedSpeed(eas.bestGlideMs, "kt", eas.flags.bestGlide)}</td>
+                  <td className="num">{flaggedSpeed(tas.bestGlideMs, "kt", tas.flags.bestGlide)}</td>
                 </tr>
-                {stalls.map((s) => (
-                  <tr key={s.configuration}>
-                    <td>Stall speed, {s.label.toLowerCase()}</td>
-                    <td className="num">{formatSpeed(s.ms, "kt")}</td>
-                    <td className="num">
-                      {formatSpeed(stallByConfiguration(snap, c, "true").find((x) => x.configuration === s.configuration)!.ms, "kt")}
-                    </td>
-                  </tr>
-                ))}
+                {stalls.map((s) => {
+                  const t = stallsTas.find((x) => x.configuration === s.configuration)!;
+                  return (
+                    <tr key={s.configuration}>
+                      <td>Stall speed, {s.label.toLowerCase()}</td>
+                      <td className="num">{flaggedSpeed(s.ms, "kt", s.flag)}</td>
+                      <td className="num">{flaggedSpeed(t.ms, "kt", t.flag)}</td>
+                    </tr>
+                  );
+                })}
                 <tr>
                   <td>(L/D)max (= best glide ratio)</td>
                   <td className="num" colSpan={2}>
-                    {fmt(eas.maxLiftToDrag, 1)}
+                    {flaggedLiftToDrag(eas)}
                   </td>
                 </tr>
               </tbody>
