@@ -419,7 +419,7 @@ function instructorBlocks(i: InstructorFile): PackSection["blocks"] {
       kind: "text",
       indent: true,
       text: i.recency.length
-        ? `Recency: ${i.recency.map((r) => `${r.certificateNumber} ${r.current ? "current until" : "lapsed on"} ${formatDay(r.dueOn)}`).join("; ")}`
+        ? `Recency: ${i.recency.map((r) => `${r.certificateNumber} ${r.current ? "current, recency runs out on" : "not current, recency ran out on"} ${formatDay(r.dueOn)}`).join("; ")}`
         : "Recency: no qualification in force today",
     },
     {

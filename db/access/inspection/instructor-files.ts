@@ -1,19 +1,14 @@
 import "server-only";
 import { QueryTypes } from "sequelize";
-import { addMonths, format, parseISO } from "date-fns";
 import { sequelize } from "../../index";
 import type { InstructorFile } from "@/lib/inspection/content";
+import { recencyDue, isCurrentOn } from "@/lib/inspection/recency";
 import { qualificationHistory } from "../people/qualification-reads";
 
 // The instructor files of the inspection pack: for each person who taught, checked or signed for
 // the inspected student, every version of their qualifications (the history kept by
 // people/qualification-history.ts), their course grants, recency as of today and the briefings
 // they have taught at the school (sessions held, not cancelled, up to now).
-
-/** Last day of recency: `months` calendar months after the recency activity (as signer-standing.ts counts it). */
-function recencyDue(recencyOn: string, months: number): string {
-  return format(addMonths(parseISO(recencyOn), months), "yyyy-MM-dd");
-}
 
 export async function instructorFiles(
   school: { id: string; timeZone: string },
@@ -66,7 +61,7 @@ export async function instructorFiles(
         .filter((v) => v.validFrom <= today && (v.validTo === null || today < v.validTo))
         .map((v) => {
           const dueOn = recencyDue(v.recencyOn, v.recencyMonths);
-          return { certificateNumber: v.certificateNumber, dueOn, current: today < dueOn };
+          return { certificateNumber: v.certificateNumber, dueOn, current: isCurrentOn(today, dueOn) };
         }),
       briefingsTaught: taught
         .filter((t) => t.personId === person.personId)

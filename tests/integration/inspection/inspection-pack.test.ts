@@ -223,8 +223,8 @@ describe("the inspection pack", () => {
       "Instructor One (checked, endorsed, signed, taught)",
       `GI-${s.people.instructor.id.slice(0, 6)}`,
       "changed by a test",
-      // recency renewed today for 24 months (the factory's period): current until then
-      `current until ${formatDay(format(addMonths(parseISO(today()), 24), "yyyy-MM-dd"))}`,
+      // recency renewed today for 24 months (the factory's period)
+      `current, recency runs out on ${formatDay(format(addMonths(parseISO(today()), 24), "yyyy-MM-dd"))}`,
       "Briefings taught: Drag curves and the minimum-drag speed (1 session",
       "Chief (certified, examined)",
       // the pass-rate report: one first attempt, passed

@@ -155,6 +155,52 @@ describe("the inspection pack's content", () => {
     expect(due).toContain("Past its retention date: listed for the chief instructor to archive; nothing is deleted.");
   });
 
+  it("gives each instructor file with what they did, every qualification version, recency and briefings taught", () => {
+    const version = {
+      certificateKind: "Ground instructor",
+      certificateNumber: "LHV-GI-0142",
+      ratings: [],
+      checkInstructor: false,
+      issuedOn: "2020-01-01",
+      recencyMonths: 24,
+      recordedByName: "Mira Okonjo",
+    };
+    const text = allText(
+      input({
+        instructors: [
+          {
+            name: "Tomasz Varga",
+            parts: ["checked", "signed", "taught"],
+            versions: [
+              { ...version, version: 2, recencyOn: "2026-10-01", validFrom: "2026-10-01", validTo: null, changeNote: "Recency renewed" },
+              { ...version, version: 1, recencyOn: "2024-09-01", validFrom: "2020-01-01", validTo: "2026-10-01", changeNote: "" },
+            ],
+            courses: [{ code: "PPL-GS", validFrom: null, validTo: null }],
+            recency: [{ certificateNumber: "LHV-GI-0142", dueOn: "2028-10-01", current: true }],
+            briefingsTaught: [{ title: "Drag curves", sessions: 4, firstOn: "2026-09-10", lastOn: "2026-11-20" }],
+          },
+          {
+            name: "Ada Quill",
+            parts: ["examined"],
+            versions: [],
+            courses: [],
+            recency: [{ certificateNumber: "LHV-GI-0007", dueOn: "2026-11-01", current: false }],
+            briefingsTaught: [],
+          },
+        ],
+      }),
+    );
+    expect(text).toContain("Tomasz Varga (checked, signed, taught)");
+    expect(text).toContain("Recency: LHV-GI-0142 current, recency runs out on Sun 1 Oct 2028");
+    expect(text).toContain("Thu 1 Oct 2026 to today");
+    expect(text).toContain("Wed 1 Jan 2020 to Thu 1 Oct 2026");
+    expect(text).toContain("Recency renewed (Mira Okonjo)");
+    expect(text).toContain("Courses: PPL-GS from the start");
+    expect(text).toContain("Briefings taught: Drag curves (4 sessions, Thu 10 Sep 2026 to Fri 20 Nov 2026)");
+    expect(text).toContain("Recency: LHV-GI-0007 not current, recency ran out on Sun 1 Nov 2026");
+    expect(text).toContain("Briefings taught: none");
+  });
+
   it("hashes the content as printed with SHA-256: same content, same hash; any changed line, another hash", () => {
     const doc = packDocument(input());
     expect(recordHash(doc)).toBe(createHash("sha256").update(JSON.stringify(doc)).digest("hex"));
