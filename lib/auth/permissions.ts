@@ -106,7 +106,8 @@ export const PERMISSIONS = {
   "settings.edit": { roles: ["chief"], description: "Change school settings: mail sender, reminder lead time, letter day, limits" },
   "people.manage": {
     roles: ["chief"],
-    description: "Deactivate and reactivate accounts (their sessions end at once) and link sponsors to students",
+    description:
+      "Invite staff and sponsors by e-mail, change a person's roles and deactivate or reactivate accounts (their sessions end at once), link sponsors to students",
   },
   "cohorts.manage": {
     roles: ["chief"],
