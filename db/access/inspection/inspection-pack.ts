@@ -64,8 +64,9 @@ export async function inspectionPackFor(user: CurrentUser, studentId: string): P
           prompted: q.prompted,
         })),
       })),
-    signOffs: record.signOffs,
-    stageChecks: record.stageChecks,
+    // oldest first, as the ground log and the checks (the register lists newest first)
+    signOffs: [...record.signOffs].sort((a, b) => a.signedOn.localeCompare(b.signedOn)),
+    stageChecks: [...record.stageChecks].sort((a, b) => a.date.localeCompare(b.date)),
     endorsements: f.endorsements,
     certification: record.certification,
     chain: {
