@@ -117,7 +117,10 @@ test("the sponsor finds the demo's letters, reads one, opens its unsubscribe pag
   await screenshot(sp, "sharing-sponsor-letter-off-390");
   await sp.getByRole("button", { name: /Receive the Weekly letter about .* again/ }).click();
   // the confirmation is the line itself turning to "is on" (the refresh replaces the button and its note)
-  await sp.locator("[data-testid=letter-status]", { hasText: /is on\./ }).first().waitFor();
+  await sp
+    .locator("[data-testid=letter-status]", { hasText: /is on\./ })
+    .first()
+    .waitFor();
   await sp.reload();
   await expect(sp.locator("[data-testid=letter-status]").first().innerText()).resolves.toMatch(/is on/);
 });

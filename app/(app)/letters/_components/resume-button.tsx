@@ -26,9 +26,7 @@ export function ResumeLetterButton({ studentId, studentName }: { studentId: stri
         Receive the Weekly letter about {studentName} again
       </button>
       {/* inside the sponsor's letter line, which is itself the live region */}
-      <span className="text-caption">
-        {status}
-      </span>
+      <span className="text-caption">{status}</span>
     </span>
   );
 }
