@@ -80,7 +80,13 @@ const roleList = z.preprocess(
 
 export const invitePersonSchema = z.object({
   name: z.string("enter the person's name").trim().min(1, "enter the person's name").max(200, "at most 200 characters"),
-  email: z.string("enter an e-mail address").trim().toLowerCase().email("not a valid e-mail address").max(254),
+  email: z
+    .string("enter an e-mail address")
+    .trim()
+    .toLowerCase()
+    .min(1, "enter an e-mail address")
+    .email("not a valid e-mail address")
+    .max(254),
   roles: roleList,
 });
 export type InvitePersonInput = z.output<typeof invitePersonSchema>;

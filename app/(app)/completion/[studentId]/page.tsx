@@ -69,7 +69,11 @@ export default async function StudentCompletionPage({ params }: { params: Promis
           </p>
           {graduated && (
             <p>
-              <a className="btn-primary inline-block" href={`/api/records/${student.id}/certificate`} data-testid="certificate-link">
+              <a
+                className="btn-primary inline-flex items-center"
+                href={`/api/records/${student.id}/certificate`}
+                data-testid="certificate-link"
+              >
                 Graduation certificate (PDF)
               </a>
             </p>

@@ -16,6 +16,13 @@ const KIND_CHOICES: { kind: EndKind; label: string; hint: string }[] = [
   { kind: "transferred", label: "Transferred to another school", hint: "the record goes with the student" },
 ];
 const FIELDS = ["kind", "endedOn", "reason", "statement", "password"] as const;
+const FIELD_WORDS: Record<(typeof FIELDS)[number], string> = {
+  kind: "How training ends",
+  endedOn: "the date",
+  reason: "Reason",
+  statement: "the certification statement",
+  password: "the password",
+};
 
 /** The chief ends a student's training: how, when and why, the certification statement, and the password re-entered to sign. */
 export function EndTrainingForm({
@@ -53,9 +60,10 @@ export function EndTrainingForm({
       router.refresh();
       return;
     }
-    setFailure(r.message);
-    for (const [f, m] of Object.entries(r.fieldErrors ?? {}))
-      if ((FIELDS as readonly string[]).includes(f)) setError(f as (typeof FIELDS)[number], { message: m[0] });
+    const beside = Object.entries(r.fieldErrors ?? {}).filter(([f]) => (FIELDS as readonly string[]).includes(f));
+    for (const [f, m] of beside) setError(f as (typeof FIELDS)[number], { message: m[0] });
+    // a refusal shown beside its field is not repeated here: this line says where to look
+    setFailure(beside.length ? `Not signed: see ${FIELD_WORDS[beside[0]![0] as (typeof FIELDS)[number]]} above.` : r.message);
   }
   const error = (name: (typeof FIELDS)[number]) =>
     errors[name] ? (

@@ -33,9 +33,9 @@ export function WithdrawCohortForm({ studentId, cohortName, today }: { studentId
       router.refresh();
       return;
     }
-    setMessage({ ok: false, text: r.message });
-    for (const [f, m] of Object.entries(r.fieldErrors ?? {}))
-      if ((FIELDS as readonly string[]).includes(f)) setError(f as (typeof FIELDS)[number], { message: m[0] });
+    const beside = Object.entries(r.fieldErrors ?? {}).filter(([f]) => (FIELDS as readonly string[]).includes(f));
+    for (const [f, m] of beside) setError(f as (typeof FIELDS)[number], { message: m[0] });
+    setMessage({ ok: false, text: beside.length ? "Not withdrawn: see the message above." : r.message });
   }
   return (
     <form onSubmit={handleSubmit(onSubmit)} className="space-y-3" aria-label={`Withdraw from ${cohortName}`} noValidate>

@@ -43,10 +43,11 @@ export function InviteForm({ roles }: { roles: Choice[] }) {
       router.refresh();
       return;
     }
-    setMessage({ ok: false, text: r.message });
     const next: Partial<Record<Field, string>> = {};
     for (const [f, m] of Object.entries(r.fieldErrors ?? {})) if ((FIELDS as readonly string[]).includes(f)) next[f as Field] = m[0];
     setErrors(next);
+    // a refusal shown beside its field is not repeated here
+    setMessage({ ok: false, text: Object.keys(next).length ? "Not invited: see the message above." : r.message });
   }
 
   const described = (f: Field) => ({ "aria-invalid": !!errors[f], "aria-describedby": errors[f] ? `inv-${f}-error` : undefined });

@@ -42,8 +42,10 @@ export function RolesForm({ roles, people }: { roles: Choice[]; people: Person[]
       router.refresh();
       return;
     }
-    setMessage({ ok: false, text: r.message });
-    setErrors({ personId: r.fieldErrors?.personId?.[0], roles: r.fieldErrors?.roles?.[0] });
+    const next = { personId: r.fieldErrors?.personId?.[0], roles: r.fieldErrors?.roles?.[0] };
+    setErrors(next);
+    // a refusal shown beside its field is not repeated here
+    setMessage({ ok: false, text: next.personId || next.roles ? "Not saved: see the message above." : r.message });
   }
 
   return (
