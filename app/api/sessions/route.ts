@@ -11,7 +11,9 @@ export const dynamic = "force-dynamic";
 
 export const GET = route("timetable.view", async ({ req, user }) => {
   for (const key of new URL(req.url).searchParams.keys()) {
-    if (!SESSIONS_QUERY_KEYS.includes(key)) throw new HttpError(400, `${key}: unknown parameter`, key);
+    // a parameter with no name ("?=x") is named "query", so the error still names a field
+    if (!SESSIONS_QUERY_KEYS.includes(key))
+      throw new HttpError(400, key ? `${key}: unknown parameter` : "query: a parameter without a name", key || "query");
   }
   const q = parseQuery(req, sessionsQuerySchema);
   if (q.from && q.to && q.to < q.from) throw new HttpError(400, "to: must not be before from", "to");
