@@ -82,7 +82,7 @@ describe("Curve Lab end to end", () => {
       .split("\r\n");
     expect(lines).toHaveLength(401); // a header and 400 sampled speeds
     expect(lines[0]).toMatch(/^EAS \(kt\),Max mass: zero-lift drag \(N\),/);
-    expect(lines[0]!.split(",")).toHaveLength(1 + 2 * 7);
+    expect(lines[0]!.split(",")).toHaveLength(1 + 2 * 8); // seven figures and the model validity words per case
 
     // What was saved is the spec the builder showed: two cases, the second with the gear down.
     const { rows } = await db.query<{ spec: unknown; number: number }>(

@@ -8,7 +8,10 @@ import { fillFrame, newFrame } from "@/lib/curve-lab/chart-frame";
 // validity words beside each computed speed, as the demo readouts do; so do the stall readout, the
 // (L/D)max ratio, the what-if lines, the Call it answer and the chart's marker labels.
 
-const profile = {
+/** What the page reads of a profile (db/access/curve-lab/airframes.ts, AirframeView). */
+type Profile = Omit<AirframeSnapshot, "id"> & { id: string; notes: string; retiredAt: string | null; updatedAt: string };
+
+const profile: Profile = {
   id: "00000000-0000-4000-8000-0000000000b1",
   name: "Test profile",
   emptyMassKg: 600,
@@ -28,7 +31,7 @@ const profile = {
   updatedAt: "2026-11-01T00:00:00.000Z",
 };
 // An invented airframe whose clean Vmd lies below its stall: very high CD0 with a low CLmax.
-const brick = {
+const brick: Profile = {
   ...profile,
   name: "Test brick",
   wingSpanM: 6,
@@ -37,7 +40,7 @@ const brick = {
   configurations: { ...profile.configurations, clean: { cd0Increment: 0, maxLiftCoefficient: 0.6 }, flaps1: null },
 };
 // Heavy with a small wing: Vmd TAS high up is above Mach 0.3 (the jet case of tests/unit/aero/validity.test.ts)
-const heavy = {
+const heavy: Profile = {
   ...profile,
   name: "Test heavy",
   emptyMassKg: 30000,
@@ -49,7 +52,7 @@ const heavy = {
   configurations: { ...profile.configurations, flaps1: null },
 };
 
-let current: typeof profile = profile;
+let current: Profile = profile;
 jest.mock("@/lib/auth/guard", () => ({
   requirePagePermission: jest.fn(async () => ({ id: "u", name: "Chief", roles: [], schoolId: "s" })),
   can: () => false,
@@ -66,7 +69,7 @@ const { default: AirframePage } =
   // eslint-disable-next-line @typescript-eslint/no-require-imports
   require("@/app/(app)/curve-lab/airframes/[airframeId]/page") as typeof import("@/app/(app)/curve-lab/airframes/[airframeId]/page");
 
-async function renderPage(a: typeof profile, query: Record<string, string> = {}) {
+async function renderPage(a: Profile, query: Record<string, string> = {}) {
   current = a;
   render(await AirframePage({ params: Promise.resolve({ airframeId: a.id }), searchParams: Promise.resolve(query) }));
   const table = screen.getByTestId("derived-figures");

@@ -58,8 +58,25 @@ describe("Call it first in the student's view", () => {
         initialSpec={spec}
         priorCall={{ predictedMs: ktToMs(65), actualMs: ktToMs(70) }}
         earlierCalls={[
-          { id: "c2", revisionNumber: 2, kind: "vmd", predictedMs: ktToMs(65), actualMs: ktToMs(70), createdAt: "2026-11-03T10:00:00Z" },
-          { id: "c1", revisionNumber: 1, kind: "vmd", predictedMs: ktToMs(80), actualMs: ktToMs(71), createdAt: "2026-10-01T10:00:00Z" },
+          {
+            id: "c2",
+            revisionNumber: 2,
+            kind: "vmd",
+            predictedMs: ktToMs(65),
+            actualMs: ktToMs(70),
+            answerFlag: "",
+            createdAt: "2026-11-03T10:00:00Z",
+          },
+          // an earlier revision whose answer lay below the stall: its validity words stay beside it
+          {
+            id: "c1",
+            revisionNumber: 1,
+            kind: "vmd",
+            predictedMs: ktToMs(80),
+            actualMs: ktToMs(71),
+            answerFlag: "below stall: model not valid",
+            createdAt: "2026-10-01T10:00:00Z",
+          },
         ]}
       />,
     );
@@ -68,7 +85,7 @@ describe("Call it first in the student's view", () => {
     expect(screen.queryByText("Readouts appear after your call.")).toBeNull();
     expect(screen.getByTestId("readout-vmd")).toBeInTheDocument();
     const own = screen.getByTestId("own-calls").textContent!;
-    expect(own).toContain("Revision 1, Vmd: your call 80 kt, answer 71 kt, 9 kt fast");
+    expect(own).toContain("Revision 1, Vmd: your call 80 kt, answer 71 kt (below stall: model not valid), 9 kt fast");
     expect(own).toContain("Revision 2, Vmd: your call 65 kt, answer 70 kt, 5 kt slow");
     expect(actions.makeCallAction).not.toHaveBeenCalled();
   });

@@ -64,6 +64,8 @@ export interface EarlierCall {
   kind: CallKind;
   predictedMs: number;
   actualMs: number;
+  /** the answer's validity words on its revision ("" when valid) */
+  answerFlag: string;
   createdAt: string;
 }
 
@@ -247,42 +249,9 @@ export function DemoWorkbench(props: WorkbenchProps) {
     downloadCanvas(canvas, `${name || "demo"}${paper ? " (paper)" : ""}.png`.replace(/[^\w .()-]+/g, "_"));
   }
   async function exportCsv() {
-    const [{ toCsv }, { sampleCurves }, { curveCaseFor }] = await Promise.all([
-      import("@/lib/csv"),
-      import("@/lib/aero"),
-      import("@/lib/curve-lab/demo-spec"),
-    ]);
-    const set = sampleCurves(
-      spec.cases.map((c) => curveCaseFor(spec.airframe, c)),
-      { minSpeedMs: spec.range.minSpeedMs, maxSpeedMs: spec.range.maxSpeedMs, points: 400, speedAxis: spec.axis.speed },
-      { arrays: "plain" },
-    );
-    const axis = spec.axis.speed === "true" ? "TAS" : "EAS";
-    const header = [`${axis} (${u})`];
-    for (const c of spec.cases)
-      header.push(
-        `${c.label}: zero-lift drag (N)`,
-        `${c.label}: lift-dependent drag (N)`,
-        `${c.label}: ideal induced drag (N)`,
-        `${c.label}: lift-dependent increment (N)`,
-        `${c.label}: total drag (N)`,
-        `${c.label}: power required (kW)`,
-        `${c.label}: L/D`,
-      );
-    const rows = set.speedsMs.map((v, i) => {
-      const row: (string | number)[] = [speedInUnit(v, unit).toFixed(2)];
-      for (const c of set.cases)
-        row.push(
-          c.zeroLiftDragN[i]!.toFixed(1),
-          c.liftDependentDragN[i]!.toFixed(1),
-          c.idealInducedDragN[i]!.toFixed(1),
-          c.liftDependentIncrementN[i]!.toFixed(1),
-          c.totalDragN[i]!.toFixed(1),
-          (c.powerRequiredW[i]! / 1000).toFixed(3),
-          c.liftToDrag[i]!.toFixed(3),
-        );
-      return row;
-    });
+    // each row carries the model's validity words per case (below the stall, above Mach 0.3)
+    const [{ toCsv }, { curvesTable }] = await Promise.all([import("@/lib/csv"), import("@/lib/curve-lab/curves-csv")]);
+    const { header, rows } = curvesTable(spec);
     const blob = new Blob([toCsv(header, rows)], { type: "text/csv;charset=utf-8" });
     const a = document.createElement("a");
     a.href = URL.createObjectURL(blob);
@@ -440,7 +409,8 @@ export function DemoWorkbench(props: WorkbenchProps) {
                   const g = callGap(c.predictedMs, c.actualMs, unit);
                   return (
                     <li key={c.id} className="num">
-                      Revision {c.revisionNumber}, {CALL_KIND_LABELS[c.kind]}: your call {g.call}, answer {g.answer},{" "}
+                      Revision {c.revisionNumber}, {CALL_KIND_LABELS[c.kind]}: your call {g.call}, answer {g.answer}
+                      {c.answerFlag ? ` (${c.answerFlag})` : ""},{" "}
                       {g.direction === "on the answer" ? "on the answer" : `${g.gap} ${g.direction}`} · {formatDay(new Date(c.createdAt))}
                     </li>
                   );

@@ -4,6 +4,7 @@ import { notFound } from "next/navigation";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { Caution } from "@/components/caution";
 import { formatSpeed } from "@/lib/curve-lab/demo-spec";
+import { flaggedSpeed } from "@/lib/curve-lab/readouts";
 import { listAirframes } from "@/db/access/curve-lab/airframes";
 import { snapshotOf } from "@/lib/curve-lab/demo-spec";
 import { getDemo, getDemoRevision } from "@/db/access/curve-lab/demos";
@@ -54,6 +55,7 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
               kind: c.markerKind,
               predictedMs: c.predictedMs,
               actualMs: c.actualMs,
+              answerFlag: c.answerFlag,
               createdAt: c.createdAt,
             }))}
         />
@@ -120,7 +122,7 @@ export default async function DemoPage({ params }: { params: Promise<{ demoId: s
                     <td className="num">
                       {formatSpeed(c.predictedMs, unit)} {c.speedAxis === "true" ? "TAS" : "EAS"}
                     </td>
-                    <td className="num">{formatSpeed(c.actualMs, unit)}</td>
+                    <td className="num">{flaggedSpeed(c.actualMs, unit, c.answerFlag)}</td>
                     <td className="num">
                       {c.errorMs >= 0 ? "+" : "−"}
                       {formatSpeed(Math.abs(c.errorMs), unit)}
