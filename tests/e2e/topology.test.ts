@@ -17,6 +17,7 @@ import { launchBrowser, DEMO_PASSWORD, screenshot, type Browser } from "./helper
 import { cookiesFrom, cookieHeader, actionResultFromRsc, SESSION_COOKIE } from "./helpers/http";
 import { DEMO_ACCOUNTS } from "./helpers/accounts";
 import { deriveActions } from "./authz/derive";
+import { letterWeek } from "@/lib/mail/letter-week";
 
 jest.setTimeout(180_000);
 
@@ -60,6 +61,8 @@ function startTopology(port: number): Promise<Topology> {
       TOPOLOGY_DROP_DB: "1",
       // the seeded outbox holds some eighty mails the worker sends first, one a poll
       CHALKWING_MAIL_TICK_SECONDS: "0.5",
+      // the worker writes no Weekly letters by the clock here: the two clicks below are the only writers of this week's letter
+      CHALKWING_MAIL_PRODUCERS: "off",
     },
     stdio: ["ignore", "pipe", "pipe"],
     detached: true, // its own process group, so afterAll can end everything it started even if its trap did not run
@@ -306,11 +309,20 @@ test("one idempotency key sent to both servers at once creates one room; both an
 
 test("'send now' of a Weekly letter clicked on both servers at once writes one letter, and the worker (through PgBouncer) delivers it once", async () => {
   const { cookie } = await signInVia(DEMO_ACCOUNTS.chief);
+  // a pair whose letter of this week (the key sendLetterNow writes under) is not written yet
+  const { rows: schools } = await db!.query<{ time_zone: string; day: number | null }>(
+    `SELECT time_zone, (settings->>'weeklyLetterDay')::int AS day FROM schools WHERE name = 'Larkhollow Flying School'`,
+  );
+  expect(schools[0]?.day).toEqual(expect.any(Number));
+  const { weekStart } = letterWeek(new Date(), schools[0]!.time_zone, schools[0]!.day!);
   const { rows: links } = await db!.query<{ sponsor_id: string; student_id: string }>(
     `SELECT l.sponsor_id, l.student_id FROM sponsor_links l
+       JOIN people sp ON sp.id = l.sponsor_id AND sp.active JOIN people st ON st.id = l.student_id AND st.active
       WHERE l.weekly_letter
         AND NOT EXISTS (SELECT 1 FROM mail_unsubscribes u WHERE u.sponsor_id = l.sponsor_id AND u.student_id = l.student_id AND u.kind = 'weekly.letter')
+        AND NOT EXISTS (SELECT 1 FROM outbox o WHERE o.idempotency_key = 'weekly.letter:' || l.sponsor_id || ':' || l.student_id || ':' || $1)
       ORDER BY l.created_at LIMIT 1`,
+    [weekStart],
   );
   expect(links.length).toBe(1);
   const pair = { sponsorId: links[0]!.sponsor_id, studentId: links[0]!.student_id };
