@@ -50,6 +50,10 @@ export async function seedTransfers(ctx: SeedContext, password = DEMO_PASSWORD):
     transaction: t,
   });
   const start = now();
+  // calendar days fixed before the clock is moved (ctx.day counts from the clock's today)
+  const testOn = ctx.day(-118);
+  const endorsedOn = ctx.day(-9);
+  const takenOn = ctx.day(-4);
   const at = async <T>(daysAgo: number, minutes: number, fn: () => Promise<T>): Promise<T> => {
     setClock(() => new Date(start.getTime() - daysAgo * DAY + minutes * 60_000));
     try {
@@ -80,7 +84,7 @@ export async function seedTransfers(ctx: SeedContext, password = DEMO_PASSWORD):
         creditedMinutes: cap,
         itemIds: firstStage.map((i) => i.id),
         testKind: "knowledge",
-        testTakenOn: ctx.day(-118),
+        testTakenOn: testOn,
         testResult: "Passed, 84% on this school's stage 1 knowledge test",
         note: "Her logbook shows 21 h of ground school at Saltmarsh; credit is capped at half of our minimum.",
       },
@@ -155,10 +159,8 @@ export async function seedTransfers(ctx: SeedContext, password = DEMO_PASSWORD):
       }),
     );
   }
-  const endorsement = await at(9, 600, () => endorse(t, chief, { studentId: odile.id, endorsedOn: ctx.day(-9), password }));
-  await at(4, 900, () =>
-    recordResult(t, chief, { endorsementId: endorsement.endorsementId, takenOn: ctx.day(-4), scorePercent: 86, areasMissed: [] }),
-  );
+  const endorsement = await at(9, 600, () => endorse(t, chief, { studentId: odile.id, endorsedOn, password }));
+  await at(4, 900, () => recordResult(t, chief, { endorsementId: endorsement.endorsementId, takenOn, scorePercent: 86, areasMissed: [] }));
 
   // ---- Casimir Wetherell: transferred out four years ago, past retention ----
   const casimir = await createPerson(

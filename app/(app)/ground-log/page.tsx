@@ -117,7 +117,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
                       </thead>
                       <tbody>
                         {hours.byStage.map((st) => (
-                          <tr key={st.stageCode ?? "none"}>
+                          <tr key={`${st.stageCode ?? "none"}:${st.stageTitle}`}>
                             <td>
                               {st.stageCode ? `${st.stageCode} · ` : ""}
                               {st.stageTitle}

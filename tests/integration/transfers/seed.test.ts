@@ -8,7 +8,7 @@ import { verifyChain } from "@/db/access/records/audit-chain";
 import { creditedMinutesFor } from "@/db/access/ground-log/ground-hours";
 import { transferCreditsOf } from "@/db/access/transfers/credits";
 import { retentionOf } from "@/db/access/retention/records";
-import { dateInZone } from "@/lib/time";
+import { now } from "@/lib/clock";
 import { makeBriefing } from "../timetable/helpers";
 
 // The demo's transfer-in (credit at exactly the 14 CFR 141.77(c)(1) cap of 50%), endorsed with a
@@ -24,7 +24,8 @@ test("the demo seed gives a transfer-in at the cap, endorsed with a result, and 
   const s = await makeSchool("seedxfer");
   await makeBriefing(s, "Seed briefing", []);
   await sequelize.transaction((t) => createRoom(s.as.chief, { name: "Briefing room 2", capacity: 10 }, t));
-  const day = (n: number) => format(addDays(new Date(`${dateInZone(new Date(), "Europe/London")}T12:00:00Z`), n), "yyyy-MM-dd");
+  // as the demo counts days (db/seed/demo.ts): from the injectable clock, which the seed moves while it writes
+  const day = (n: number) => format(addDays(now(), n), "yyyy-MM-dd");
   await sequelize.transaction((t) =>
     seedTransfers(
       {
@@ -58,13 +59,16 @@ test("the demo seed gives a transfer-in at the cap, endorsed with a result, and 
   // the test course's minimum is 35 h = 2100 min: the approved-course cap is 1050 min (141.77(c)(1))
   expect(credit).toMatchObject({ sourceApproved: true, creditedMinutes: 1050, capMinutes: 1050 });
   expect(credit!.items.length).toBeGreaterThan(0);
+  // this school's test on the day the credit was given, 118 days ago (not shifted by the seed's clock)
+  expect(credit!.testTakenOn).toBe(day(-118));
   expect(await creditedMinutesFor(odile, s.course.id)).toBeGreaterThanOrEqual(2100);
-  const [kt] = await sequelize.query<{ passed: boolean; score: number }>(
-    `SELECT r.passed, r.score_percent AS score FROM knowledge_test_results r JOIN knowledge_test_endorsements e ON e.id = r.endorsement_id
+  const [kt] = await sequelize.query<{ passed: boolean; score: number; endorsedOn: string; takenOn: string }>(
+    `SELECT r.passed, r.score_percent AS score, to_char(e.endorsed_on, 'YYYY-MM-DD') AS "endorsedOn", to_char(r.taken_on, 'YYYY-MM-DD') AS "takenOn"
+       FROM knowledge_test_results r JOIN knowledge_test_endorsements e ON e.id = r.endorsement_id
       WHERE r.student_id = :s`,
     { replacements: { s: odile }, type: QueryTypes.SELECT },
   );
-  expect(kt).toEqual({ passed: true, score: 86 });
+  expect(kt).toEqual({ passed: true, score: 86, endorsedOn: day(-9), takenOn: day(-4) });
 
   const casimir = await person("casimir.wetherell@chalkwing.test");
   expect(await retentionOf(s.school.id, casimir)).toMatchObject({
