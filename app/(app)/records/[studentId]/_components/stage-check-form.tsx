@@ -78,7 +78,15 @@ export function StageCheckForm({
           if (r.ok) {
             setPassword("");
             router.refresh();
-          } else if (r.field) setErrors({ [r.field]: r.message });
+          } else {
+            // the server names each item left without an oral outcome: show it on that item's row
+            const onRows: Record<string, string> = {};
+            for (const [field, msgs] of Object.entries(r.fieldErrors ?? {})) {
+              const item = /^oralOutcomes\.([0-9a-f-]{36})\.outcome$/.exec(field)?.[1];
+              if (item && msgs[0]) onRows[`outcome-${item}`] = msgs[0];
+            }
+            setErrors(r.field && !/^oralOutcomes\./.test(r.field) ? { ...onRows, [r.field]: r.message } : onRows);
+          }
         });
       }}
     >
