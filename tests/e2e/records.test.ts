@@ -57,6 +57,8 @@ describe("Records end to end", () => {
     await page.selectOption("[id='questions.0.aircraft']", { label: "Larkhollow LT-2 trainer (reference)" });
     await page.fill("[id='questions.0.massKg']", "1000");
     await page.fill("[id='questions.0.altitudeFt']", "4000");
+    // the instructor accepts the trade's rule of thumb (TAS from IAS at 2 % per 1,000 ft: common practice)
+    await page.selectOption("[id='questions.0.answerMode']", "rule_of_thumb");
     const preview = await page.textContent("[data-testid=generated-preview]");
     expect(preview).toContain("1,000 kg, 4,000 ft");
     expect(preview).toMatch(/Answer: \d+\.\d kt TAS/);
@@ -70,6 +72,14 @@ describe("Records end to end", () => {
     await screenshot(page, "records-e2e-check-form");
     await page.click("button[type=submit]:has-text('Record the check')");
     await page.waitForSelector("[data-testid=check-message]:has-text('Check recorded: Meets the standard')", { timeout: 20_000 });
+    // the record shows the instructor's answer mode with its tolerance beside the computed answer
+    // (the seeded check on AER-03 asked the exact answer)
+    const mode = "[data-testid=check-history] [data-testid=answer-mode]";
+    await page.waitForSelector(`${mode}:has-text('Rule of thumb accepted')`, { timeout: 20_000 });
+    expect(await page.textContent(`${mode}:has-text('Rule of thumb accepted')`)).toMatch(
+      /^Rule of thumb accepted \(TAS = IAS \+ 2 % per 1,000 ft: \d+\.\d kt\): accepted \d+\.\d to \d+\.\d kt/,
+    );
+    expect(await page.textContent(`${mode}:has-text('Exact answer asked')`)).toMatch(/^Exact answer asked: accepted within 3 %, /);
 
     // the stored question keeps the library's answer, inputs, aircraft snapshot and version
     const { rows: stored } = await db.query<{
@@ -130,6 +140,10 @@ describe("Records end to end", () => {
     expect(await student.getAttribute("[data-testid=item-AER-03]", "data-status")).toBe("signed");
     expect(await student.textContent("[data-testid=item-AER-03]")).toContain("Tomasz Varga");
     expect(await student.textContent("main")).not.toContain("Remarks (internal)");
+    const studentModes = await student.locator("[data-testid=progress-check] [data-testid=answer-mode]").allTextContents();
+    expect(studentModes).toEqual(
+      expect.arrayContaining([expect.stringMatching(/^Rule of thumb accepted \(TAS = IAS \+ 2 % per 1,000 ft/)]),
+    );
     await screenshot(student, "records-e2e-progress-student");
     const width = await student.evaluate(() => document.documentElement.scrollWidth);
     expect(width).toBeLessThanOrEqual(390);
