@@ -21,8 +21,8 @@
 # LISTEN/NOTIFY and no named prepared statements. The app (Sequelize, node-postgres) likewise:
 # unnamed statements only, advisory locks only as pg_advisory_xact_lock inside transactions. The
 # SETs Sequelize sends when it connects are session state: TimeZone is one of the parameters
-# PgBouncer tracks per client and re-applies; client_min_messages is not, which only changes
-# which notices are shown. Migrations and the seed run against PostgreSQL directly (owner role).
+# PgBouncer tracks per client and re-applies (the test checks it against a database whose default
+# zone is not UTC); client_min_messages is not, which only changes which notices are shown. Migrations and the seed run against PostgreSQL directly (owner role).
 set -uo pipefail
 . "$(dirname "${BASH_SOURCE[0]}")/common.sh"
 cd "$ROOT"
@@ -106,6 +106,11 @@ set -a; . "$KEYS"; set +a
 bash db/cluster.sh status >/dev/null 2>&1 || { bash db/cluster.sh start || fail "PostgreSQL did not start"; PG_STARTED=1; }
 bash db/cluster.sh create-db "$DB" --fresh >/dev/null || fail "could not create the database $DB"
 DB_MADE=1
+# The database's default time zone is deliberately far from UTC (Chatham Islands, +12:45/+13:45), as a
+# managed PostgreSQL's may be: nothing may depend on it. Sequelize sets the session's zone when it
+# connects, and PgBouncer carries that setting to whichever server connection runs each transaction.
+bash db/cluster.sh psql -d "$DB" -c "ALTER DATABASE \"$DB\" SET timezone TO 'Pacific/Chatham'" >/dev/null ||
+  fail "could not set the default time zone of $DB"
 db_urls "$DB"
 DIRECT_URL="$DATABASE_URL"
 OWNER_URL="$DATABASE_OWNER_URL"

@@ -12,6 +12,7 @@ import net from "node:net";
 import path from "node:path";
 import { Client } from "pg";
 import { PDFDocument, StandardFonts } from "pdf-lib";
+import { QueryTypes, type Transaction } from "sequelize";
 import type { Response as PwResponse } from "playwright-core";
 import { launchBrowser, DEMO_PASSWORD, screenshot, type Browser } from "./helpers/browser";
 import { cookiesFrom, cookieHeader, actionResultFromRsc, SESSION_COOKIE } from "./helpers/http";
@@ -29,6 +30,8 @@ interface Topology {
   pgbouncer: number;
   mailSinkDir: string;
   database: string;
+  directUrl: string;
+  pooledUrl: string;
   ownerUrl: string;
   dir: string;
 }
@@ -214,6 +217,41 @@ test("the topology is what it claims: two servers behind nginx, every database c
     expect(appClients.length).toBeGreaterThanOrEqual(3);
   } finally {
     await console_.end();
+  }
+});
+
+test("through PgBouncer, the app's database module keeps its session time zone on every statement, though the database's default zone is not UTC", async () => {
+  // what a connection without Sequelize's SET sees (lib/ops/topology.sh gives the database a zone far from UTC) ...
+  const direct = new Client({ connectionString: topo.directUrl });
+  await direct.connect();
+  const dbDefault = (await direct.query<{ TimeZone: string }>(`SHOW TimeZone`)).rows[0]!.TimeZone;
+  // ... and what the SET Sequelize sends when it connects gives (node_modules/sequelize/lib/dialects/postgres/connection-manager.js)
+  await direct.query(`SET TIME ZONE INTERVAL '+00:00' HOUR TO MINUTE`);
+  const sequelizeZone = (await direct.query<{ TimeZone: string }>(`SHOW TimeZone`)).rows[0]!.TimeZone;
+  await direct.end();
+  expect(dbDefault).toBe("Pacific/Chatham");
+  expect(sequelizeZone).not.toBe(dbDefault);
+
+  // db/index.ts as the servers run it, pointed at PgBouncer; many statements at once, so PgBouncer
+  // runs them on server connections other than the ones the SETs ran on
+  // (a fresh copy of the module and of lib/env, whose settings are read once: the helpers' imports
+  // made one already, for the e2e database)
+  const g = globalThis as { __chalkwingSequelize?: unknown };
+  const [saved, savedInstance] = [process.env.DATABASE_URL, g.__chalkwingSequelize];
+  process.env.DATABASE_URL = topo.pooledUrl;
+  g.__chalkwingSequelize = undefined;
+  jest.resetModules();
+  const { sequelize } = await import("@/db/index");
+  try {
+    expect(String(sequelize.config.port)).toBe(String(topo.pgbouncer));
+    const show = (t?: Transaction) =>
+      sequelize.query<{ TimeZone: string }>(`SHOW TimeZone`, { type: QueryTypes.SELECT, plain: true, transaction: t });
+    const zones = await Promise.all(Array.from({ length: 40 }, (_, i) => (i % 2 ? show() : sequelize.transaction((t) => show(t)))));
+    expect(new Set(zones.map((z) => z?.TimeZone))).toEqual(new Set([sequelizeZone]));
+  } finally {
+    await sequelize.close();
+    process.env.DATABASE_URL = saved;
+    g.__chalkwingSequelize = savedInstance;
   }
 });
 
