@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { listCohorts } from "@/db/access/cohorts/list-cohorts";
 import { teachingWeek } from "@/db/access/today/teaching-week";
+import type { OralCheckDue } from "@/db/access/today/oral-checks-due";
 import type { SessionRow } from "@/db/access/timetable/list-sessions";
 import type { CurrentUser } from "@/lib/auth/session";
 import { formatDay } from "@/lib/time";
@@ -20,6 +21,27 @@ function SessionList({ rows, withDay, testId }: { rows: SessionRow[]; withDay: b
         </li>
       ))}
     </ul>
+  );
+}
+
+/** Students shown before the rest fold away: the list is a reminder, not the register. */
+const ORAL_CHECKS_SHOWN = 5;
+
+function OralCheckDueRow({ d, timeZone }: { d: OralCheckDue; timeZone: string }) {
+  return (
+    <li className="flex min-h-touch flex-wrap items-center justify-between gap-x-4 gap-y-1 py-1">
+      <span className="min-w-0 [overflow-wrap:anywhere]">
+        <Link href={`/records/${d.studentId}`} className="font-medium underline">
+          {d.studentName}
+        </Link>{" "}
+        <span className="text-caption text-ink-soft">
+          · {d.items.map((i) => `${i.code} ${i.title}`).join(", ")} · last taught {formatDay(d.lastTaughtAt, timeZone)}
+        </span>
+      </span>
+      <Link href={`/records/${d.studentId}#new-check`} className="btn-quiet">
+        Record the check<span className="sr-only"> of {d.studentName}</span>
+      </Link>
+    </li>
   );
 }
 
@@ -57,22 +79,23 @@ export async function InstructorToday({ user }: { user: CurrentUser }) {
               Items taught in a session the student attended, with no oral check meeting the standard yet.
             </p>
             <ul className="mt-1 divide-y divide-paper-edge" data-testid="oral-checks-due">
-              {week.oralChecksDue.map((d) => (
-                <li key={d.studentId} className="flex min-h-touch flex-wrap items-center justify-between gap-x-4 gap-y-1 py-1">
-                  <span className="min-w-0 [overflow-wrap:anywhere]">
-                    <Link href={`/records/${d.studentId}`} className="font-medium underline">
-                      {d.studentName}
-                    </Link>{" "}
-                    <span className="text-caption text-ink-soft">
-                      · {d.items.map((i) => `${i.code} ${i.title}`).join(", ")} · last taught {formatDay(d.lastTaughtAt, week.timeZone)}
-                    </span>
-                  </span>
-                  <Link href={`/records/${d.studentId}#new-check`} className="btn-quiet">
-                    Record the check<span className="sr-only"> of {d.studentName}</span>
-                  </Link>
-                </li>
+              {week.oralChecksDue.slice(0, ORAL_CHECKS_SHOWN).map((d) => (
+                <OralCheckDueRow key={d.studentId} d={d} timeZone={week.timeZone} />
               ))}
             </ul>
+            {week.oralChecksDue.length > ORAL_CHECKS_SHOWN && (
+              <details className="mt-1">
+                <summary className="min-h-touch cursor-pointer py-2 underline">
+                  {week.oralChecksDue.length - ORAL_CHECKS_SHOWN} more student
+                  {week.oralChecksDue.length - ORAL_CHECKS_SHOWN === 1 ? "" : "s"} with items ready for an oral check
+                </summary>
+                <ul className="divide-y divide-paper-edge" data-testid="oral-checks-due-more">
+                  {week.oralChecksDue.slice(ORAL_CHECKS_SHOWN).map((d) => (
+                    <OralCheckDueRow key={d.studentId} d={d} timeZone={week.timeZone} />
+                  ))}
+                </ul>
+              </details>
+            )}
           </>
         )}
         <h3 className="mt-4 font-semibold">Stage checks</h3>
