@@ -124,6 +124,9 @@ export default async function MailTrayPage({ searchParams }: { searchParams: Pro
                 <pre
                   className="max-h-[30rem] overflow-auto whitespace-pre-wrap break-words rounded-md bg-paper-deep p-3 font-mono text-caption"
                   data-testid="tray-text"
+                  // a long mail scrolls inside the box: it takes keyboard focus so it can be scrolled without a mouse
+                  tabIndex={0}
+                  aria-label="The mail as plain text"
                 >
                   {mail.text}
                 </pre>
