@@ -1,5 +1,6 @@
 import { PDFDocument, StandardFonts, rgb } from "pdf-lib";
 import { printable } from "@/lib/records/training-record-pdf";
+import { formatDay } from "@/lib/time";
 
 // The graduation certificate (14 CFR 141.95(b)): one landscape page from pdf-lib (pure JS). It
 // carries the school's name and certificate number, the graduate, the course, the date, the
@@ -54,14 +55,14 @@ export async function graduationCertificatePdf(input: CertificatePdfInput): Prom
   y -= 6;
   centre("This certifies that", 13);
   centre(input.graduateName, 26, bold);
-  centre(`graduated from the course ${input.course} on ${input.graduatedOn}.`, 13);
+  centre(`graduated from the course ${input.course} on ${formatDay(input.graduatedOn)}.`, 13);
   y -= 6;
   para(input.completionStatement, 12);
   y -= 10;
   para(input.certification.statement, 10.5);
   y -= 8;
   centre(
-    `Certified by ${input.certification.name}, chief instructor, certificate number ${input.certification.certificateNumber ?? "none recorded"}, on ${input.certification.certifiedOn}.`,
+    `Certified by ${input.certification.name}, chief instructor, certificate number ${input.certification.certificateNumber ?? "none recorded"}, on ${formatDay(input.certification.certifiedOn)}.`,
     11,
     bold,
   );

@@ -6,7 +6,7 @@ import type { CurrentUser } from "@/lib/auth/session";
 import { can } from "@/lib/auth/can";
 import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";
-import { dateInZone } from "@/lib/time";
+import { dateInZone, formatDay } from "@/lib/time";
 import type { EndTrainingInput } from "@/lib/completion/schema";
 import { CERTIFICATION_PURPOSE } from "@/lib/completion/statements";
 import { requireStudentFor } from "../shared/student-scope";
@@ -38,7 +38,7 @@ export async function endTraining(t: Transaction, user: CurrentUser, input: EndT
   const today = dateInZone(now(), school.timeZone);
   if (input.endedOn > today) throw new HttpError(400, "endedOn: cannot be later than today", "endedOn");
   if (input.endedOn < student.enrolledOn)
-    throw new HttpError(400, `endedOn: cannot be before the enrolment (${student.enrolledOn})`, "endedOn");
+    throw new HttpError(400, `endedOn: cannot be before the enrolment (${formatDay(student.enrolledOn)})`, "endedOn");
   await confirmPassword(user, input.password, t);
 
   if (input.kind === "graduated") {

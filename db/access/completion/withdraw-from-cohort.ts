@@ -5,7 +5,7 @@ import type { CurrentUser } from "@/lib/auth/session";
 import { can } from "@/lib/auth/can";
 import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";
-import { dateInZone } from "@/lib/time";
+import { dateInZone, formatDay } from "@/lib/time";
 import type { WithdrawFromCohortInput } from "@/lib/completion/schema";
 import { getSchool } from "../shared/school";
 import { writeAudit } from "../records/audit-chain";
@@ -39,7 +39,8 @@ export async function withdrawFromCohort(
     { replacements: { p: input.studentId, s: user.schoolId, d: input.leftOn }, type: QueryTypes.SELECT, transaction: t },
   );
   if (!m) throw new HttpError(409, "leftOn: the student belongs to no cohort on that date", "leftOn");
-  if (m.fromDate === input.leftOn) throw new HttpError(400, `leftOn: must be after the membership began (${m.fromDate})`, "leftOn");
+  if (m.fromDate === input.leftOn)
+    throw new HttpError(400, `leftOn: must be after the membership began (${formatDay(m.fromDate)})`, "leftOn");
   await sequelize.query(`UPDATE cohort_memberships SET to_date = :d, end_reason = :r WHERE id = :id`, {
     replacements: { d: input.leftOn, r: input.reason, id: m.id },
     transaction: t,

@@ -5,7 +5,7 @@ import type { CurrentUser } from "@/lib/auth/session";
 import { rolesWith } from "@/lib/auth/permissions";
 import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";
-import { dateInZone } from "@/lib/time";
+import { dateInZone, formatDay } from "@/lib/time";
 import type { QualificationInput } from "@/lib/people/schema";
 import { getSchool } from "../shared/school";
 import { writeAudit } from "../records/audit-chain";
@@ -82,7 +82,11 @@ export async function appendQualificationVersion(
 ): Promise<{ id: string; qualificationId: string; version: number }> {
   if (p.open) {
     if (p.effectiveFrom < p.open.valid_from)
-      throw new HttpError(400, `effectiveFrom: must be on or after ${p.open.valid_from}, when the version in force began`, "effectiveFrom");
+      throw new HttpError(
+        400,
+        `effectiveFrom: must be on or after ${formatDay(p.open.valid_from)}, when the version in force began`,
+        "effectiveFrom",
+      );
     await sequelize.query(`UPDATE instructor_qualifications SET valid_to = :d WHERE id = :id AND valid_to IS NULL`, {
       replacements: { d: p.effectiveFrom, id: p.open.id },
       transaction: t,

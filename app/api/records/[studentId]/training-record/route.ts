@@ -6,7 +6,7 @@ import { certificationStatement, trainingRecordPdf } from "@/lib/records/trainin
 import { LEVEL_LABEL, OUTCOME_LABEL, CHECK_OUTCOME_LABEL } from "@/lib/records/outcome";
 import { answerModeText } from "@/lib/records/questions";
 import { hoursLabel, formatDay, formatDayTime } from "@/lib/time";
-import { ATTENDANCE_WORDS, SIGN_OFF_STATE_WORDS, STAGE_RESULT_WORDS, words } from "@/lib/labels";
+import { ATTENDANCE_WORDS, SIGN_OFF_STATE_WORDS, STAGE_RESULT_WORDS, words, codeToWords } from "@/lib/labels";
 
 export const GET = route<{ studentId: string }>("progress.view", async ({ user, params }) => {
   if (!uuidParam.safeParse(params.studentId).success) throw new HttpError(404, "studentId: no such student", "studentId");
@@ -19,10 +19,10 @@ export const GET = route<{ studentId: string }>("progress.view", async ({ user, 
       `Course: ${r.student.courseCode} ${r.student.courseTitle}`,
       ...(r.student.ended
         ? [
-            `Training ended on ${r.student.ended.on}: ${r.student.ended.kind ?? "ended"}${r.student.ended.reason ? ` (${r.student.ended.reason})` : ""}`,
+            `Training ended on ${formatDay(r.student.ended.on)}: ${r.student.ended.kind ? codeToWords(r.student.ended.kind) : "ended"}${r.student.ended.reason ? ` (${r.student.ended.reason})` : ""}`,
           ]
         : []),
-      `Enrolled on ${r.student.enrolledOn}; cohort ${r.student.cohortName ?? "none"}; lead instructor ${r.student.leadInstructorName ?? "none"}`,
+      `Enrolled on ${formatDay(r.student.enrolledOn)}; cohort ${r.student.cohortName ?? "none"}; lead instructor ${r.student.leadInstructorName ?? "none"}`,
       `E-mail: ${r.student.email}`,
     ],
     groundSummary: `Credited ground time: ${hoursLabel(r.groundMinutes, r.student.minGroundMinutes)}`,
