@@ -9,7 +9,8 @@ import { sequelize } from "@/db/index";
 import { enqueueMail } from "@/db/access/mail/outbox";
 import { composeMail } from "@/lib/mail/compose";
 import { closeDb, makeSchool } from "../../helpers/factories";
-import { freePort, spawnWorker, testSink, waitFor, type WorkerProcess } from "./helpers";
+import { spawn } from "node:child_process";
+import { freePort, testSink, waitFor, type WorkerProcess } from "./helpers";
 
 jest.setTimeout(240_000);
 
@@ -24,8 +25,46 @@ afterEach(async () => {
 });
 afterAll(closeDb);
 
-function worker(port: number) {
-  const w = spawnWorker(port);
+/**
+ * The real worker as ONE process (`node --import tsx`), so SIGKILL hits the worker itself: the
+ * tsx command line (helpers.ts spawnWorker) runs it as a child of its own, and killing that
+ * wrapper from outside would leave the worker running on.
+ */
+function worker(port: number): WorkerProcess {
+  let out = "";
+  const child = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "lib/mail/worker.ts"], {
+    cwd: process.cwd(),
+    env: {
+      ...process.env,
+      SMTP_HOST: "127.0.0.1",
+      SMTP_PORT: String(port),
+      CHALKWING_MAIL_TICK_SECONDS: "0.5",
+      CHALKWING_MAIL_RETRY_DELAY: "1",
+      CHALKWING_MAIL_RETRY_LIMIT: "10",
+      CHALKWING_MAIL_JOB_EXPIRE_SECONDS: "2",
+      CHALKWING_MAIL_MAINTENANCE_SECONDS: "1",
+      CHALKWING_MAIL_PRODUCERS: "off",
+    },
+    stdio: ["ignore", "pipe", "pipe"],
+  });
+  child.stdout?.on("data", (d: Buffer) => (out += d.toString()));
+  child.stderr?.on("data", (d: Buffer) => (out += d.toString()));
+  const exited = new Promise<{ code: number | null; signal: NodeJS.Signals | null }>((resolve) =>
+    child.once("exit", (code, signal) => resolve({ code, signal })),
+  );
+  const w: WorkerProcess = {
+    child,
+    output: () => out,
+    exited,
+    stop: async () => {
+      if (child.exitCode === null && child.signalCode === null) {
+        child.kill("SIGTERM");
+        const t = setTimeout(() => child.kill("SIGKILL"), 8000);
+        await exited;
+        clearTimeout(t);
+      }
+    },
+  };
   workers.push(w);
   return w;
 }
@@ -72,7 +111,9 @@ async function rowsOf(prefix: string): Promise<Row[]> {
 async function kill(w: WorkerProcess): Promise<void> {
   w.child.kill("SIGKILL");
   const exit = await w.exited;
-  expect(exit.signal === "SIGKILL" || exit.code === 137).toBe(true);
+  expect(exit.signal).toBe("SIGKILL");
+  // the worker process itself is gone (no child of a wrapper left running)
+  expect(() => process.kill(w.child.pid!, 0)).toThrow();
 }
 
 function copiesAtSink(sink: { received: { messageId: string }[] }, rows: Row[]): Map<string, number> {
