@@ -9,7 +9,10 @@ import { recordOralCheck } from "../access/records/record-oral-check";
 import { signOff } from "../access/records/sign-offs";
 import { conductStageCheck } from "../access/records/stage-checks";
 import { itemsOfRevision } from "../access/records/items";
+import { scheduleSession } from "../access/timetable/schedule-session";
+import { recordAttendance } from "../access/ground-log/record-attendance";
 import { endTraining } from "../access/completion/end-training";
+import { scheduleSessionSchema, recordAttendanceSchema } from "@/lib/timetable/schema";
 import { proposedStatement } from "@/lib/completion/statements";
 import { now, setClock, resetClock } from "@/lib/clock";
 import { DEMO_PASSWORD } from "./scenario";
@@ -17,9 +20,12 @@ import { DEMO_PASSWORD } from "./scenario";
 const DAY = 86_400_000;
 
 /**
- * End of training in the demo (all invented): Ines Varga completed every item and stage check of
- * the course, written through the Records services so the audit chain is real, and graduated
- * three days ago with the chief's certification; the school's certificate number is set.
+ * End of training in the demo (all invented): Ines Varga attended the course's minimum of ground
+ * training time in one-to-one afternoon sessions with Rafael (recorded through the Timetable and Ground log, as
+ * Odile Ferreira's in transfers.ts), completed every item and stage check of the course, written
+ * through the Records services so the audit chain is real, and graduated three days ago with the
+ * chief's certification (14 CFR 141.95(a): the course completed, its minimum ground time included);
+ * the school's certificate number is set.
  */
 export async function seedCompletion(ctx: SeedContext, password = DEMO_PASSWORD): Promise<void> {
   const { t } = ctx;
@@ -30,7 +36,7 @@ export async function seedCompletion(ctx: SeedContext, password = DEMO_PASSWORD)
   const staff = await sequelize.query<{ id: string; name: string; roles: Role[] }>(
     `SELECT id, name, roles FROM people WHERE id IN (:ids)`,
     {
-      replacements: { ids: [ctx.people.chief] },
+      replacements: { ids: [ctx.people.chief, ctx.people.rafael] },
       type: QueryTypes.SELECT,
       transaction: t,
     },
@@ -46,6 +52,40 @@ export async function seedCompletion(ctx: SeedContext, password = DEMO_PASSWORD)
     t,
   );
   await enrol({ studentId: ines.id, courseId: ctx.courseId, revisionId: ctx.revisionId, enrolledOn: ctx.day(-170) }, t);
+
+  // the course's minimum of ground training, taught one-to-one by Rafael (his own sessions, so he
+  // schedules them and records her attendance) in two-hour sessions in Briefing room 2
+  const rafael = as(ctx.people.rafael);
+  const [briefing] = await sequelize.query<{ id: string }>(
+    `SELECT id FROM briefings WHERE school_id = :s ORDER BY created_at, id LIMIT 1`,
+    { replacements: { s: ctx.schoolId }, type: QueryTypes.SELECT, transaction: t },
+  );
+  const [minimum] = await sequelize.query<{ min: number }>(`SELECT min_ground_minutes AS min FROM courses WHERE id = :id`, {
+    replacements: { id: ctx.courseId },
+    type: QueryTypes.SELECT,
+    transaction: t,
+  });
+  const sessionMinutes = 120;
+  for (let n = 0; n < Math.ceil(minimum!.min / sessionMinutes); n++) {
+    const s = await scheduleSession(
+      rafael,
+      scheduleSessionSchema.parse({
+        briefingId: briefing!.id,
+        date: ctx.day(-165 + n * 7),
+        time: "15:00",
+        durationMinutes: sessionMinutes,
+        room: "Briefing room 2",
+        instructorId: rafael.id,
+        studentIds: [ines.id],
+      }),
+      t,
+    );
+    await recordAttendance(
+      rafael,
+      recordAttendanceSchema.parse({ sessionId: s.id, lines: [{ studentId: ines.id, status: "attended" }] }),
+      t,
+    );
+  }
 
   const start = now();
   const at = async <T>(daysAgo: number, minutes: number, fn: () => Promise<T>): Promise<T> => {

@@ -1,8 +1,11 @@
 // End to end, on a phone (390x844) in headless Chromium against the production build: the chief
 // enrols one new student on the Roster, the student's items are checked and signed off (the first
 // sign-off on the student's record page, re-entering the password; the rest through the same server
-// actions over HTTP, as the pages call them), each stage check is passed, and the chief graduates
-// the student on the End of training screen (a missing reason is named beside its field first),
+// actions over HTTP, as the pages call them), each stage check is passed; the End of training screen
+// then lists what is still missing (the course's 35 h minimum of ground training, 14 CFR 141.95(a)),
+// the student attends ground sessions for it (scheduled and their attendance recorded through the
+// Timetable's server actions over HTTP), and the chief graduates the student on the End of training
+// screen (a missing reason is named beside its field first),
 // then downloads the graduation certificate and reads its text with pdftotext (Debian's
 // poppler-utils, installed by the test command when missing).
 import { execFileSync } from "node:child_process";
@@ -122,10 +125,51 @@ describe("from enrolment to graduation", () => {
       });
     }
 
+    // ---- items and stages done, but no ground training time yet: the End of training screen says so
+    await page.goto(`/completion/${studentId}`);
+    expect(await page.textContent("[data-testid=graduation-gaps]")).toContain("Credited ground time 0 h of the course's 35 h minimum");
+    await noSidewaysScroll();
+    await screenshot(page, "graduation-e2e-gaps-phone");
+
+    // ---- the course's minimum of ground training (35 h, 14 CFR 141.95(a)), attended in five 7-hour sessions on past days
+    // free in the demo timetable (db/seed/timetable.ts), attendance recorded after each as the Timetable records it
+    const { rows: setup } = await db.query<{ briefing: string; room: string; chief: string }>(
+      `SELECT (SELECT b.id FROM briefings b WHERE b.school_id = p.school_id ORDER BY b.created_at, b.id LIMIT 1) AS briefing,
+              (SELECT r.id FROM rooms r WHERE r.school_id = p.school_id AND r.name = 'Briefing room 2') AS room, p.id AS chief
+         FROM people p WHERE p.email = 'chief@chalkwing.test'`,
+    );
+    const londonDay = (daysAgo: number) =>
+      new Intl.DateTimeFormat("en-CA", { timeZone: "Europe/London" }).format(new Date(Date.now() - daysAgo * 86_400_000));
+    for (const daysAgo of [1, 4, 5, 8, 9]) {
+      const scheduled = await act(cookie, "app/(app)/timetable/actions.ts#scheduleSessionAction", "/timetable/new", {
+        briefingId: setup[0]!.briefing,
+        date: londonDay(daysAgo),
+        time: "08:00",
+        durationMinutes: 420,
+        roomId: setup[0]!.room,
+        instructorId: setup[0]!.chief,
+        studentIds: [studentId],
+        idempotencyKey: `grad-${tag}-session-${daysAgo}`,
+      });
+      const sessionId = scheduled.data!.id as string;
+      await act(cookie, "app/(app)/timetable/actions.ts#recordAttendanceAction", `/timetable/${sessionId}`, {
+        sessionId,
+        lines: [{ studentId, status: "attended" }],
+        idempotencyKey: `grad-${tag}-attendance-${daysAgo}`,
+      });
+    }
+    const { rows: credited } = await db.query<{ minutes: number }>(
+      `SELECT COALESCE(sum(credited_minutes), 0)::int AS minutes FROM ground_log_current WHERE student_id = $1`,
+      [studentId],
+    );
+    expect(credited[0]!.minutes).toBe(35 * 60);
+
     // ---- graduation on the End of training screen, reached from the student's record page
     await page.goto(record);
     await Promise.all([page.waitForURL(new RegExp(`/completion/${studentId}$`)), page.click("a:has-text('End training')")]);
     await page.waitForSelector("form[aria-label^='End the training']");
+    expect(await page.textContent("[data-testid=graduation-ready]")).toContain("Every condition of graduation is met");
+    expect(await page.locator("[data-testid=graduation-gaps]").count()).toBe(0);
     await noSidewaysScroll();
     expect(await page.isChecked("input[name=kind][value=graduated]")).toBe(true);
     expect(await page.inputValue("#et-statement")).toContain(`${name} completed every stage of the course`);

@@ -12,8 +12,8 @@ import { CERTIFICATION_PURPOSE } from "@/lib/completion/statements";
 import { requireStudentFor } from "../shared/student-scope";
 import { getSchool } from "../shared/school";
 import { writeAudit } from "../records/audit-chain";
-import { confirmPassword, currentSignOffs } from "../records/sign-offs";
-import { itemsOfRevision, passedStageIds } from "../records/items";
+import { confirmPassword } from "../records/sign-offs";
+import { graduationGaps } from "./graduation-gaps";
 import { certificateNumbersOn } from "../people/qualification-reads";
 
 // Ending a student's training (graduation, termination, transfer out): the enrolment gets its date,
@@ -42,15 +42,9 @@ export async function endTraining(t: Transaction, user: CurrentUser, input: EndT
   await confirmPassword(user, input.password, t);
 
   if (input.kind === "graduated") {
-    const items = await itemsOfRevision(student.revisionId, t);
-    const signed = new Set((await currentSignOffs(student.id, t)).map((s) => s.itemId));
-    const unsigned = items.filter((i) => !signed.has(i.id)).map((i) => i.code);
-    if (unsigned.length)
-      throw new HttpError(409, `kind: cannot graduate: items not signed off: ${unsigned.slice(0, 12).join(", ")}`, "kind");
-    const passed = await passedStageIds(student.id, student.enrolmentId, t);
-    const stages = [...new Map(items.map((i) => [i.stageId, i.stageCode])).entries()];
-    const notPassed = stages.filter(([id]) => !passed.has(id)).map(([, code]) => code);
-    if (notPassed.length) throw new HttpError(409, `kind: cannot graduate: stage checks not passed: ${notPassed.join(", ")}`, "kind");
+    // 14 CFR 141.95(a): only a student who completed the approved course graduates (graduation-gaps.ts)
+    const gaps = await graduationGaps(student, t);
+    if (gaps.length) throw new HttpError(409, `kind: cannot graduate: ${gaps.join("; ")}`, "kind");
   }
 
   const status = input.kind === "graduated" ? "completed" : "withdrawn";

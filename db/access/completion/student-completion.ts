@@ -7,10 +7,11 @@ import { HttpError } from "@/lib/http/errors";
 import { getSchool } from "../shared/school";
 import { recordStudentFor, type RecordStudent } from "./record-student";
 import { certificationsOf, type Certification } from "./certifications";
+import { graduationGaps } from "./graduation-gaps";
 
 // What the chief's End of training screen for one student shows: the student with their active
 // (or newest ended) enrolment, their cohort memberships with dates and reasons, and the
-// certifications of their record.
+// certifications of their record; while training goes on, what is still missing for graduation.
 
 export interface Membership {
   id: string;
@@ -25,6 +26,8 @@ export interface StudentCompletion {
   school: { name: string; timeZone: string };
   memberships: Membership[];
   certifications: Certification[];
+  /** unmet conditions of graduation (graduation-gaps.ts); [] once training ended */
+  graduationGaps: string[];
 }
 
 export async function studentCompletion(user: CurrentUser, studentId: string): Promise<StudentCompletion> {
@@ -39,5 +42,6 @@ export async function studentCompletion(user: CurrentUser, studentId: string): P
     { replacements: { p: student.id, s: user.schoolId }, type: QueryTypes.SELECT },
   );
   const certifications = await certificationsOf(user.schoolId, student.id);
-  return { student, school: { name: school.name, timeZone: school.timeZone }, memberships, certifications };
+  const gaps = student.ended ? [] : await graduationGaps(student);
+  return { student, school: { name: school.name, timeZone: school.timeZone }, memberships, certifications, graduationGaps: gaps };
 }

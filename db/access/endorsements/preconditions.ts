@@ -3,11 +3,9 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { HttpError } from "@/lib/http/errors";
 import type { StudentRef } from "../shared/enrolment";
-import { currentSignOffs } from "../records/sign-offs";
-import { itemsOfRevision, passedStageIds } from "../records/items";
 import { RecordRefusal } from "../records/refusals";
 import { refuseUnlessStanding } from "../records/signer-standing";
-import { creditedMinutesFor } from "../ground-log/ground-hours";
+import { courseGaps, groundTimeShort } from "../shared/course-completion";
 import { hoursLabel } from "@/lib/time";
 
 // What must hold before a knowledge-test endorsement: every failing precondition is named, not
@@ -61,28 +59,16 @@ export async function unmetPreconditions(
   t?: Transaction,
 ): Promise<{ unmet: Unmet[]; attempt: number }> {
   const unmet: Unmet[] = [];
-  const items = await itemsOfRevision(student.revisionId, t);
-  const signed = new Set((await currentSignOffs(student.id, t)).map((s) => s.itemId));
-  const unsigned = items.filter((i) => !signed.has(i.id)).map((i) => i.code);
-  if (unsigned.length) unmet.push({ reason: "items_unsigned", message: `items not signed off: ${unsigned.join(", ")}` });
-
-  const passed = await passedStageIds(student.id, student.enrolmentId, t);
-  const stages = [...new Map(items.map((i) => [i.stageId, i.stageCode])).entries()];
-  const notPassed = stages.filter(([id]) => !passed.has(id)).map(([, code]) => code);
-  if (notPassed.length) unmet.push({ reason: "stage_checks_not_passed", message: `stage checks not passed: ${notPassed.join(", ")}` });
-
-  const makeups = await sequelize.query<{ code: string }>(
-    `SELECT DISTINCT i.code FROM makeup_items m JOIN syllabus_items i ON i.id = m.syllabus_item_id
-      WHERE m.student_id = :studentId AND m.state IN ('open','scheduled') ORDER BY i.code`,
-    { replacements: { studentId: student.id }, type: QueryTypes.SELECT, transaction: t },
-  );
-  if (makeups.length) unmet.push({ reason: "makeup_open", message: `open make-up items: ${makeups.map((m) => m.code).join(", ")}` });
-
-  const credited = await creditedMinutesFor(student.id, student.courseId, t);
-  if (credited < student.minGroundMinutes)
+  const gaps = await courseGaps(student, t);
+  if (gaps.unsignedItems.length)
+    unmet.push({ reason: "items_unsigned", message: `items not signed off: ${gaps.unsignedItems.join(", ")}` });
+  if (gaps.stagesNotPassed.length)
+    unmet.push({ reason: "stage_checks_not_passed", message: `stage checks not passed: ${gaps.stagesNotPassed.join(", ")}` });
+  if (gaps.openMakeups.length) unmet.push({ reason: "makeup_open", message: `open make-up items: ${gaps.openMakeups.join(", ")}` });
+  if (groundTimeShort(gaps))
     unmet.push({
       reason: "ground_hours_short",
-      message: `credited ground hours ${hoursLabel(credited)} are below the course minimum of ${hoursLabel(student.minGroundMinutes)}`,
+      message: `credited ground hours ${hoursLabel(gaps.creditedMinutes)} are below the course minimum of ${hoursLabel(gaps.minimumMinutes)}`,
     });
 
   try {

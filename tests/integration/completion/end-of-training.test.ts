@@ -11,15 +11,25 @@ import { GET as certificateRoute } from "@/app/api/records/[studentId]/certifica
 import { GET as trainingRecordRoute } from "@/app/api/records/[studentId]/training-record/route";
 import { conductStageCheck } from "@/db/access/records/stage-checks";
 import { itemsOfRevision } from "@/db/access/records/items";
+import { scheduleSession } from "@/db/access/timetable/schedule-session";
+import { recordAttendance } from "@/db/access/ground-log/record-attendance";
+import { waiveMakeup } from "@/db/access/ground-log/change-makeup";
+import { creditedMinutesFor } from "@/db/access/ground-log/ground-hours";
+import { scheduleSessionSchema, recordAttendanceSchema } from "@/lib/timetable/schema";
 import { completionStatement } from "@/lib/completion/statements";
 import { dateInZone, formatDay } from "@/lib/time";
 import { check, sign, auditCount, type School } from "../records/helpers";
+import { makeBriefing, addRooms } from "../timetable/helpers";
 
-// End of training (issue 13): graduation refused until every item is signed and every stage check
-// passed, the chief's certification (141.101(c)) with password re-entry, append-only and audited;
+// End of training (issue 13): graduation refused until the course is complete (14 CFR 141.95(a)):
+// every item signed, every stage check passed, no make-up item open and the course's minimum ground
+// training time credited (141.55(c); the test course's minimum is 35 h); the chief's certification (141.101(c)) with password re-entry, append-only and audited;
 // the graduation certificate (141.95(b)) and the graduate's own record after the enrolment ended (141.101(e)).
 
 let s: School;
+let plain: string; // a briefing covering no syllabus item
+let aer03: string; // a briefing covering AER-03
+let daysBack = 1;
 const today = () => dateInZone(new Date(), "Europe/London");
 const statement = "I certify that this training record is true and complete as kept by the school.";
 
@@ -28,6 +38,9 @@ beforeAll(async () => {
   await sequelize.query(`UPDATE schools SET settings = settings || '{"schoolCertificateNumber":"KSC-4471"}'::jsonb WHERE id = :id`, {
     replacements: { id: s.school.id },
   });
+  await addRooms(s, ["Hangar classroom"]);
+  plain = (await makeBriefing(s, "Revision of the course", [])).id;
+  aer03 = (await makeBriefing(s, "Stalls and spins", ["AER-03"])).id;
 });
 afterAll(async () => {
   actAs(null);
@@ -64,6 +77,36 @@ async function completeCourse(studentId: string) {
       }),
     );
   }
+}
+
+/** A past ground session the student is booked on, with their attendance recorded as the Timetable records it. */
+async function attend(studentId: string, minutes: number, status: "attended" | "absent" = "attended", briefingId = plain) {
+  const session = await sequelize.transaction((t) =>
+    scheduleSession(
+      s.as.instructor,
+      scheduleSessionSchema.parse({
+        briefingId,
+        date: dateInZone(new Date(Date.now() - daysBack++ * 86_400_000), "Europe/London"),
+        time: "08:00",
+        durationMinutes: minutes,
+        room: "Hangar classroom",
+        instructorId: s.people.instructor.id,
+        studentIds: [studentId],
+      }),
+      t,
+    ),
+  );
+  await sequelize.transaction((t) =>
+    recordAttendance(s.as.instructor, recordAttendanceSchema.parse({ sessionId: session.id, lines: [{ studentId, status }] }), t),
+  );
+}
+
+async function certifications(studentId: string) {
+  const [r] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM record_certifications WHERE student_id = :studentId`, {
+    replacements: { studentId },
+    type: QueryTypes.SELECT,
+  });
+  return r!.n;
 }
 
 async function pdfText(res: Response): Promise<string> {
@@ -129,9 +172,55 @@ describe("ending training", () => {
     expect(await endTrainingAction(input)).toMatchObject({ ok: false, status: 409, field: "studentId" });
   });
 
-  it("graduates a student who completed the course; the certificate and the record are theirs to download", async () => {
+  it("refuses a graduation with credited ground time below the course minimum (141.95(a)), naming both, and changes nothing", async () => {
     const st = s.people.students[0]!.id;
     await completeCourse(st);
+    await attend(st, 420);
+    await attend(st, 330);
+    expect(await creditedMinutesFor(st, s.course.id)).toBe(750);
+    actAs(s.as.chief);
+    const r = await endTrainingAction({
+      studentId: st,
+      kind: "graduated",
+      endedOn: today(),
+      reason: "done",
+      statement,
+      password: TEST_PASSWORD,
+    });
+    expect(r).toMatchObject({ ok: false, status: 409, field: "kind" });
+    expect(!r.ok && r.message).toBe("Kind: cannot graduate: credited ground time 12.5 h of the course's 35 h minimum");
+    expect((await enrolment(st)).status).toBe("active");
+    expect(await certifications(st)).toBe(0);
+  });
+
+  it("refuses a graduation with an open make-up item (141.95(a): the course not complete), naming it, and changes nothing", async () => {
+    const st = s.people.students[0]!.id;
+    for (let n = 0; n < 3; n++) await attend(st, 450); // 750 + 1350 = 2100 min, the 35 h minimum
+    await attend(st, 60, "absent", aer03); // an absence opens a make-up item for AER-03
+    expect(await creditedMinutesFor(st, s.course.id)).toBe(2100);
+    actAs(s.as.chief);
+    const r = await endTrainingAction({
+      studentId: st,
+      kind: "graduated",
+      endedOn: today(),
+      reason: "done",
+      statement,
+      password: TEST_PASSWORD,
+    });
+    expect(r).toMatchObject({ ok: false, status: 409, field: "kind" });
+    expect(!r.ok && r.message).toBe("Kind: cannot graduate: open make-up items: AER-03");
+    expect((await enrolment(st)).status).toBe("active");
+    expect(await certifications(st)).toBe(0);
+  });
+
+  it("graduates a student who completed the course; the certificate and the record are theirs to download", async () => {
+    const st = s.people.students[0]!.id;
+    // the make-up item of the absence, waived by the chief: the course is now complete
+    const [m] = await sequelize.query<{ id: string }>(`SELECT id FROM makeup_items WHERE student_id = :st AND state = 'open'`, {
+      replacements: { st },
+      type: QueryTypes.SELECT,
+    });
+    await sequelize.transaction((t) => waiveMakeup(s.as.chief, { itemId: m!.id, reason: "covered in the stage check" }, t));
     actAs(s.as.chief);
     const r = await endTrainingAction({
       studentId: st,

@@ -5,8 +5,11 @@ import { makeSchool, actAs, closeDb, TEST_PASSWORD } from "@/tests/helpers/facto
 import { seedCompletion } from "@/db/seed/completion";
 import { GET as certificateRoute } from "@/app/api/records/[studentId]/certificate/route";
 import { verifyChain } from "@/db/access/records/audit-chain";
+import { creditedMinutesFor } from "@/db/access/ground-log/ground-hours";
+import { createRoom } from "@/db/access/rooms/save-room";
 import { dateInZone } from "@/lib/time";
 import { addDays, format } from "date-fns";
+import { makeBriefing } from "../timetable/helpers";
 
 afterAll(async () => {
   actAs(null);
@@ -15,6 +18,9 @@ afterAll(async () => {
 
 test("the demo seed gives the school a graduate with a certified record and a certificate", async () => {
   const s = await makeSchool("seedgrad");
+  // what the demo's timetable seed provides before this one: a briefing and Briefing room 2
+  await makeBriefing(s, "Seed briefing", []);
+  await sequelize.transaction((t) => createRoom(s.as.chief, { name: "Briefing room 2", capacity: 10 }, t));
   const day = (n: number) => format(addDays(new Date(`${dateInZone(new Date(), "Europe/London")}T12:00:00Z`), n), "yyyy-MM-dd");
   await sequelize.transaction((t) =>
     seedCompletion(
@@ -45,6 +51,14 @@ test("the demo seed gives the school a graduate with a certified record and a ce
   );
   expect(e).toMatchObject({ status: "completed", end_kind: "graduated", ended_on: day(-3), certified: 1 });
   expect((await verifyChain(s.school.id)).ok).toBe(true);
+  // graduated only with the course complete, its minimum ground training time included (14 CFR 141.95(a));
+  // the test course's minimum is 35 h = 2100 min, attended in two-hour sessions
+  const [course] = await sequelize.query<{ min: number }>(`SELECT min_ground_minutes AS min FROM courses WHERE id = :c`, {
+    replacements: { c: s.course.id },
+    type: QueryTypes.SELECT,
+  });
+  expect(course!.min).toBe(2100);
+  expect(await creditedMinutesFor(e!.id, s.course.id)).toBeGreaterThanOrEqual(course!.min);
   actAs(s.as.chief);
   const res = await certificateRoute(new NextRequest(`http://127.0.0.1/api/records/${e!.id}/certificate`), {
     params: Promise.resolve({ studentId: e!.id }),

@@ -28,7 +28,7 @@ export default async function StudentCompletionPage({ params }: { params: Promis
     if (e instanceof HttpError && e.status === 404) notFound();
     throw e;
   }
-  const { student, school, memberships, certifications } = data;
+  const { student, school, memberships, certifications, graduationGaps } = data;
   const today = dateInZone(now(), school.timeZone);
   const openMembership = memberships.find((m) => m.toDate === null);
   const graduated = certifications.some((c) => c.purpose === "graduation" && c.enrolmentId === student.enrolmentId);
@@ -92,6 +92,19 @@ export default async function StudentCompletionPage({ params }: { params: Promis
               The enrolment ends on the date given, the student leaves their cohort then, and your certification of the record is kept and
               cannot be changed afterwards.
             </p>
+            {graduationGaps.length > 0 ? (
+              <div className="space-y-1" data-testid="graduation-gaps">
+                <p className="font-semibold">Not ready to graduate yet: the course is not complete.</p>
+                <ul className="list-disc space-y-1 break-words pl-5">
+                  {graduationGaps.map((g) => (
+                    <li key={g}>{g[0]!.toUpperCase() + g.slice(1)}</li>
+                  ))}
+                </ul>
+                <p className="text-caption text-ink-soft">Ending training as terminated or transferred stays possible.</p>
+              </div>
+            ) : (
+              <p data-testid="graduation-ready">Every condition of graduation is met.</p>
+            )}
             <EndTrainingForm studentId={student.id} studentName={student.name} today={today} statements={statements} />
           </section>
           <section className="card space-y-3" aria-labelledby="leave-cohort">

@@ -11,7 +11,11 @@ type In = z.input<typeof endTrainingSchema>;
 type Out = z.output<typeof endTrainingSchema>;
 
 const KIND_CHOICES: { kind: EndKind; label: string; hint: string }[] = [
-  { kind: "graduated", label: "Graduated", hint: "every item signed off and every stage check passed" },
+  {
+    kind: "graduated",
+    label: "Graduated",
+    hint: "the course complete: every item signed off, every stage check passed, no make-up item open, the minimum ground time credited",
+  },
   { kind: "terminated", label: "Withdrawn from the course", hint: "training ends here, for the reason given" },
   { kind: "transferred", label: "Transferred to another school", hint: "the record goes with the student" },
 ];
