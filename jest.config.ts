@@ -14,10 +14,12 @@ const shared = {
 // own server and database: "harness" takes the files that must see every table unchanged by
 // others (the authorisation harness) and the long accessibility crawl; "rest" takes the others.
 // Any other value (or none) runs every file.
-const HARNESS_LANE = ["/tests/e2e/authz/", "/tests/e2e/a11y\\.test\\.ts$", "/tests/e2e/security\\.test\\.ts$"];
+// Two files that bring their own servers (the second-server topology, the longest-data phone walk)
+// ride in the harness lane too, so the two lanes take about the same time.
+const HARNESS_LANE_FILES = ["authz/", "a11y\\.test\\.ts$", "security\\.test\\.ts$", "topology\\.test\\.ts$", "phone-longest\\.test\\.ts$"];
 function laneIgnores(lane: string | undefined): string[] {
-  if (lane === "harness") return ["/tests/e2e/(?!authz/|a11y\\.test\\.ts$|security\\.test\\.ts$)"];
-  if (lane === "rest") return HARNESS_LANE;
+  if (lane === "harness") return [`/tests/e2e/(?!${HARNESS_LANE_FILES.join("|")})`];
+  if (lane === "rest") return HARNESS_LANE_FILES.map((f) => `/tests/e2e/${f}`);
   return [];
 }
 
