@@ -254,3 +254,19 @@ export type RegisterQuery = z.output<typeof registerQuerySchema>;
 export function toFilter(q: RegisterQuery) {
   return { instructorId: q.instructor, cohortId: q.cohort, stageId: q.stage, from: q.from, to: q.to };
 }
+
+// ---------------------------------------------------------------- the Records list's query string
+
+/** The Records list's filters and page, from a query string; a bad one is refused naming it. */
+export const recordsListQuerySchema = z
+  .object({
+    cohort: z.preprocess(emptyToUndefined, z.string().uuid("must be a cohort id").optional()),
+    name: z.preprocess(emptyToUndefined, z.string().trim().max(100, "must be 100 characters or fewer").optional()),
+    page: z.preprocess(
+      emptyToUndefined,
+      z.coerce.number().int("must be a whole number").min(1, "must be 1 or more").max(100_000, "must be 100000 or less").optional(),
+    ),
+  })
+  .strict();
+
+export type RecordsListQuery = z.output<typeof recordsListQuerySchema>;

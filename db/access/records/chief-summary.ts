@@ -2,22 +2,23 @@ import "server-only";
 import { differenceInCalendarDays } from "date-fns";
 import type { CurrentUser } from "@/lib/auth/session";
 import { now } from "@/lib/clock";
-import { stagesWaiting } from "./stages-waiting";
+import { stagesWaitingTop } from "./stages-waiting";
 import { recentWatchNotes } from "./sign-off-register";
 import { verifyChainSinceCheckpoint } from "./audit-chain";
 
+/** How many stage checks waiting the chief's Today names (those waiting longest); the rest are counted. */
+export const TODAY_WAITING_SHOWN = 10;
+
 /**
- * The chief's Today: stage checks waiting (and since when, one aggregate query), the recent watch
- * notes (a bounded read of the latest records, never the whole register), and
- * the chain's status verified from its checkpoint (only the events written since the last check).
+ * The chief's Today: how many stages wait for their check and the TODAY_WAITING_SHOWN waiting
+ * longest (one aggregate query, counted and limited in SQL, whatever the size of the school), the
+ * recent watch notes (a bounded read of the latest records, never the whole register), and the
+ * chain's status verified from its checkpoint (only the events written since the last check).
  */
 export async function chiefRecordsSummary(user: CurrentUser) {
-  const waiting = (await stagesWaiting(user)).map((w) => ({
-    ...w,
-    days: w.since ? differenceInCalendarDays(now(), w.since) : null,
-  }));
-  waiting.sort((a, b) => (b.days ?? 0) - (a.days ?? 0));
+  const { total: waitingTotal, top } = await stagesWaitingTop(user, TODAY_WAITING_SHOWN);
+  const waiting = top.map((w) => ({ ...w, days: w.since ? differenceInCalendarDays(now(), w.since) : null }));
   const notes = await recentWatchNotes(user);
   const chain = await verifyChainSinceCheckpoint(user.schoolId);
-  return { waiting, notes, chain };
+  return { waiting, waitingTotal, notes, chain };
 }

@@ -15,10 +15,14 @@ export interface StageWaiting {
   since: Date | null;
 }
 
-export async function stagesWaiting(caller: Caller): Promise<StageWaiting[]> {
+/**
+ * The query of the stages waiting (one row per student and stage, columns studentId, studentName,
+ * stageCode, since, cohortName, position), for callers that order, count or limit it in SQL.
+ */
+export function stagesWaitingSql(caller: Caller): { sql: string; replacements: Record<string, unknown> } {
   const scope = studentScopeSql(caller, "records", "p.id");
-  return sequelize.query<StageWaiting>(
-    `WITH st AS (
+  return {
+    sql: `WITH st AS (
        SELECT p.id, p.name, e.id AS enrolment_id, e.revision_id, c.name AS cohort_name
          FROM people p JOIN active_enrolments e ON e.student_id = p.id
          LEFT JOIN cohort_memberships m ON m.student_id = p.id AND m.to_date IS NULL LEFT JOIN cohorts c ON c.id = m.cohort_id
@@ -40,11 +44,36 @@ export async function stagesWaiting(caller: Caller): Promise<StageWaiting[]> {
          LEFT JOIN cur ON cur.student_id = st.id AND cur.syllabus_item_id = i.id
         GROUP BY st.id, st.name, st.cohort_name, st.enrolment_id, g.id, g.code, g.position
      )
-     SELECT ps.student_id AS "studentId", ps.name AS "studentName", ps.code AS "stageCode", ps.since
+     SELECT ps.student_id AS "studentId", ps.name AS "studentName", ps.code AS "stageCode", ps.since,
+            ps.cohort_name AS "cohortName", ps.position
        FROM per_stage ps
       WHERE NOT ps.passed AND ps.signed = ps.items AND ps.makeups = 0
-        AND NOT EXISTS (SELECT 1 FROM per_stage pv WHERE pv.student_id = ps.student_id AND pv.position = ps.position - 1 AND NOT pv.passed)
-      ORDER BY ps.cohort_name NULLS LAST, ps.name, ps.position`,
-    { replacements: { schoolId: caller.schoolId, ...scope.replacements }, type: QueryTypes.SELECT },
+        AND NOT EXISTS (SELECT 1 FROM per_stage pv WHERE pv.student_id = ps.student_id AND pv.position = ps.position - 1 AND NOT pv.passed)`,
+    replacements: { schoolId: caller.schoolId, ...scope.replacements },
+  };
+}
+
+export async function stagesWaiting(caller: Caller): Promise<StageWaiting[]> {
+  const q = stagesWaitingSql(caller);
+  return sequelize.query<StageWaiting>(
+    `SELECT w."studentId", w."studentName", w."stageCode", w.since FROM (${q.sql}) w
+      ORDER BY w."cohortName" NULLS LAST, w."studentName", w.position`,
+    { replacements: q.replacements, type: QueryTypes.SELECT },
   );
+}
+
+/**
+ * The chief's Today: how many stages are waiting for their check, and the `limit` that have waited
+ * longest (every item signed off longest ago first), counted and limited in SQL.
+ */
+export async function stagesWaitingTop(caller: Caller, limit: number): Promise<{ total: number; top: StageWaiting[] }> {
+  const q = stagesWaitingSql(caller);
+  const rows = await sequelize.query<StageWaiting & { total: number }>(
+    `SELECT w."studentId", w."studentName", w."stageCode", w.since, (count(*) OVER ())::int AS total FROM (${q.sql}) w
+      ORDER BY w.since ASC NULLS LAST, w."studentName", w.position
+      LIMIT :limit`,
+    { replacements: { ...q.replacements, limit }, type: QueryTypes.SELECT },
+  );
+  const top = rows.map((r) => ({ studentId: r.studentId, studentName: r.studentName, stageCode: r.stageCode, since: r.since }));
+  return { total: rows[0]?.total ?? 0, top };
 }

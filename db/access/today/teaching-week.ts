@@ -1,6 +1,6 @@
 import "server-only";
 import { listSessions, type SessionRow } from "../timetable/list-sessions";
-import { stagesWaiting, type StageWaiting } from "../records/stages-waiting";
+import { stagesWaitingTop, type StageWaiting } from "../records/stages-waiting";
 import { oralChecksDue, type OralCheckDue } from "./oral-checks-due";
 import { getSchool } from "../shared/school";
 import { can } from "@/lib/auth/can";
@@ -21,7 +21,10 @@ export interface TeachingWeek {
   todaySessions: SessionRow[];
   /** the week's other sessions, Monday to Sunday, today's left out */
   weekSessions: SessionRow[];
+  /** the CHECKS_DUE_SHOWN stages ready for their check that have waited longest */
   checksDue: StageWaiting[];
+  /** how many stages are ready for their check in all */
+  checksDueTotal: number;
   /** items taught in an attended session with no satisfactory oral check yet, per student */
   oralChecksDue: OralCheckDue[];
 }
@@ -31,6 +34,9 @@ function addDays(date: string, days: number): string {
   d.setUTCDate(d.getUTCDate() + days);
   return d.toISOString().slice(0, 10);
 }
+
+/** How many stages ready for their check the Today page names; the rest are counted (a caller who keeps the whole school's records may have thousands). */
+export const CHECKS_DUE_SHOWN = 10;
 
 export async function teachingWeek(user: CurrentUser): Promise<TeachingWeek> {
   const { timeZone } = await getSchool(user.schoolId);
@@ -47,7 +53,9 @@ export async function teachingWeek(user: CurrentUser): Promise<TeachingWeek> {
     },
     { sort: "starts_at", dir: "asc", pageSize: 200 },
   );
-  const [checksDue, oralDue] = can(user, "today.teaching") ? await Promise.all([stagesWaiting(user), oralChecksDue(user)]) : [[], []];
+  const [checksDue, oralDue] = can(user, "today.teaching")
+    ? await Promise.all([stagesWaitingTop(user, CHECKS_DUE_SHOWN), oralChecksDue(user)])
+    : [{ total: 0, top: [] }, []];
   return {
     today,
     timeZone,
@@ -55,7 +63,8 @@ export async function teachingWeek(user: CurrentUser): Promise<TeachingWeek> {
     weekTo: addDays(monday, 6),
     todaySessions: rows.filter((r) => r.date === today),
     weekSessions: rows.filter((r) => r.date !== today),
-    checksDue,
+    checksDue: checksDue.top,
+    checksDueTotal: checksDue.total,
     oralChecksDue: oralDue,
   };
 }

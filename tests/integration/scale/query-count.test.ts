@@ -1,11 +1,14 @@
 import { sequelize } from "@/db/index";
 import { generateScale } from "@/db/seed/scale";
-import { chiefRecordsSummary } from "@/db/access/records/chief-summary";
+import { chiefRecordsSummary, TODAY_WAITING_SHOWN } from "@/db/access/records/chief-summary";
+import { stagesWaiting } from "@/db/access/records/stages-waiting";
 import { signOffRegister, REGISTER_PAGE_SIZE } from "@/db/access/records/sign-off-register";
 import { progressFor } from "@/db/access/records/progress-map";
-import { progressStudentsFor, recordStudentsFor } from "@/db/access/records/student-list";
+import { progressStudentsFor } from "@/db/access/records/student-list";
+import { recordStudentsPage, RECORDS_PAGE_SIZE } from "@/db/access/records/record-students-page";
 import { schoolOverview } from "@/db/access/today/school-overview";
 import { todayFocusList } from "@/db/access/today/focus-list";
+import { teachingWeek, CHECKS_DUE_SHOWN } from "@/db/access/today/teaching-week";
 import { listSessions } from "@/db/access/timetable/list-sessions";
 import { schedulingChoices } from "@/db/access/timetable/scheduling-choices";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
@@ -38,10 +41,11 @@ async function countQueries(work: () => Promise<unknown>): Promise<number> {
 const PAGES: Record<string, () => Promise<unknown>> = {
   "chief's Today": () => Promise.all([chiefRecordsSummary(s.as.chief), schoolOverview(s.as.chief), todayFocusList(s.as.chief)]),
   "instructor's Today list": () => todayFocusList(s.as.instructor),
+  "instructor's Today, week and checks due": () => teachingWeek(s.as.instructor),
   "Sign-off register (first page)": () => signOffRegister(s.as.chief),
   "Progress map index": () => progressStudentsFor(s.as.chief),
   "one Progress map": () => progressFor(s.as.chief, s.people.students[0]!.id),
-  "chief's Records list": () => recordStudentsFor(s.as.chief),
+  "chief's Records list (first page)": () => recordStudentsPage(s.as.chief),
   "Timetable list": () => Promise.all([listSessions(s.as.instructor, {}), listSessions(s.as.chief, {}), schedulingChoices(s.as.chief)]),
 };
 
@@ -61,13 +65,30 @@ async function registerFirstPage() {
   return { rows: r.rows.length, total: r.total, size: JSON.stringify(r.rows).length, notes: r.notes.length };
 }
 
+// The chief's Today and the Records list name a bounded number of students, whatever the size of
+// the school, and count the rest.
+async function boundedLists() {
+  const today = await chiefRecordsSummary(s.as.chief);
+  const records = await recordStudentsPage(s.as.chief);
+  const week = await teachingWeek(s.as.instructor);
+  expect(week.checksDue.length).toBe(Math.min(week.checksDueTotal, CHECKS_DUE_SHOWN));
+  return {
+    waitingShown: today.waiting.length,
+    waitingTotal: today.waitingTotal,
+    recordsShown: records.rows.length,
+    recordsTotal: records.total,
+  };
+}
+
 it("reads every listing and summary page with the same number of queries at 20 and at 60 students", async () => {
   await generateScale(20, { schoolId: s.school.id });
   const small = await countAll();
   const smallRegister = await registerFirstPage();
+  const smallLists = await boundedLists();
   await generateScale(40, { schoolId: s.school.id });
   const large = await countAll();
   const largeRegister = await registerFirstPage();
+  const largeLists = await boundedLists();
   for (const name of Object.keys(PAGES)) expect(small[name]).toBeGreaterThan(0);
   expect(large).toEqual(small);
   // 5 sign-offs per generated student: 100 rows match at 20 students, 300 at 60; one page shows 50
@@ -76,6 +97,12 @@ it("reads every listing and summary page with the same number of queries at 20 a
   expect(smallRegister.rows).toBe(REGISTER_PAGE_SIZE);
   expect(largeRegister.rows).toBe(REGISTER_PAGE_SIZE);
   expect(largeRegister.size).toBeLessThan(smallRegister.size * 1.2);
+  // the Records list: every generated student counted, one page of RECORDS_PAGE_SIZE shown
+  expect(largeLists.recordsTotal).toBeGreaterThanOrEqual(smallLists.recordsTotal + 40);
+  expect(largeLists.recordsShown).toBe(RECORDS_PAGE_SIZE);
+  // Today: every stage waiting counted, at most TODAY_WAITING_SHOWN named, the longest waiting first
+  expect(largeLists.waitingTotal).toBeGreaterThanOrEqual(smallLists.waitingTotal);
+  expect(largeLists.waitingShown).toBe(Math.min(largeLists.waitingTotal, TODAY_WAITING_SHOWN));
 });
 
 it("pages the register in SQL: the pages together hold every matching row once, in order, and a filter is applied before paging", async () => {
@@ -99,4 +126,35 @@ it("the chain status on Today verifies from the checkpoint and catches up with n
   const added = await generateScale(4, { schoolId: s.school.id });
   const next = await chiefRecordsSummary(s.as.chief);
   expect(next.chain).toMatchObject({ ok: true, since: before, checked: before + added.auditEvents });
+});
+
+it("the chief's Today counts every stage waiting and names those waiting longest, as the full list would", async () => {
+  const all = await stagesWaiting(s.as.chief);
+  const today = await chiefRecordsSummary(s.as.chief);
+  expect(all.length).toBeGreaterThan(TODAY_WAITING_SHOWN); // generated students each have a stage ready
+  expect(today.waitingTotal).toBe(all.length);
+  const oldest = [...all].sort((a, b) => (a.since?.getTime() ?? Infinity) - (b.since?.getTime() ?? Infinity));
+  const cutoff = oldest[TODAY_WAITING_SHOWN - 1]!.since!.getTime();
+  expect(today.waiting).toHaveLength(TODAY_WAITING_SHOWN);
+  for (const w of today.waiting) expect(w.since!.getTime()).toBeLessThanOrEqual(cutoff);
+  for (let i = 1; i < today.waiting.length; i++)
+    expect(today.waiting[i - 1]!.since!.getTime()).toBeLessThanOrEqual(today.waiting[i]!.since!.getTime());
+});
+
+it("pages the Records list in SQL: the pages hold every student once, and the filters apply before paging", async () => {
+  const first = await recordStudentsPage(s.as.chief);
+  const seen: string[] = [];
+  for (let page = 1; (page - 1) * RECORDS_PAGE_SIZE < first.total; page++)
+    seen.push(...(await recordStudentsPage(s.as.chief, {}, { page })).rows.map((r) => r.id));
+  expect(seen.length).toBe(first.total);
+  expect(new Set(seen).size).toBe(first.total);
+  const cohort = first.cohorts[first.cohorts.length - 1]!;
+  const inCohort = await recordStudentsPage(s.as.chief, { cohortId: cohort.id }, { pageSize: 1000 });
+  expect(inCohort.total).toBeGreaterThan(0);
+  expect(inCohort.rows.every((r) => r.cohortName === cohort.name)).toBe(true);
+  const one = inCohort.rows[0]!;
+  const byName = await recordStudentsPage(s.as.chief, { name: one.name.slice(1).toUpperCase() });
+  expect(byName.rows.map((r) => r.id)).toContain(one.id);
+  expect(byName.rows.every((r) => r.name.toLowerCase().includes(one.name.slice(1).toLowerCase()))).toBe(true);
+  expect((await recordStudentsPage(s.as.chief, { name: "%" })).total).toBe(0); // LIKE's wildcards are taken literally
 });

@@ -99,21 +99,35 @@ export async function InstructorToday({ user }: { user: CurrentUser }) {
           </>
         )}
         <h3 className="mt-4 font-semibold">Stage checks</h3>
-        {week.checksDue.length === 0 ? (
+        {week.checksDueTotal === 0 ? (
           <p className="mt-1 text-ink-soft">No student you teach has a stage ready for its check.</p>
         ) : (
-          <ul className="mt-2 divide-y divide-paper-edge" data-testid="checks-due">
-            {week.checksDue.map((c) => (
-              <li key={`${c.studentId}-${c.stageCode}`} className="flex min-h-touch flex-wrap items-center justify-between gap-x-4 py-1">
-                <Link href={`/records/${c.studentId}`} className="font-medium underline">
-                  {c.studentName}
-                </Link>
-                <span className="text-caption text-ink-soft">
-                  stage {c.stageCode} ready for its check{c.since ? ` · every item signed off by ${formatDay(c.since, week.timeZone)}` : ""}
-                </span>
-              </li>
-            ))}
-          </ul>
+          <>
+            {week.checksDueTotal > week.checksDue.length && (
+              <p className="mt-1 text-caption text-ink-soft" data-testid="checks-due-count">
+                <span className="num">{week.checksDueTotal}</span> stages ready for their check; the {week.checksDue.length} waiting
+                longest:
+              </p>
+            )}
+            <ul className="mt-2 divide-y divide-paper-edge" data-testid="checks-due">
+              {week.checksDue.map((c) => (
+                <li key={`${c.studentId}-${c.stageCode}`} className="flex min-h-touch flex-wrap items-center justify-between gap-x-4 py-1">
+                  <Link href={`/records/${c.studentId}`} className="font-medium underline">
+                    {c.studentName}
+                  </Link>
+                  <span className="text-caption text-ink-soft">
+                    stage {c.stageCode} ready for its check
+                    {c.since ? ` · every item signed off by ${formatDay(c.since, week.timeZone)}` : ""}
+                  </span>
+                </li>
+              ))}
+            </ul>
+            {week.checksDueTotal > week.checksDue.length && (
+              <Link href="/records" className="mt-1 inline-block min-h-touch py-2 text-caption underline">
+                Every student in Records
+              </Link>
+            )}
+          </>
         )}
       </section>
       <section className="card" aria-labelledby="lead-title">

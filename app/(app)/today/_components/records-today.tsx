@@ -2,28 +2,39 @@ import Link from "next/link";
 import { chiefRecordsSummary } from "@/db/access/records/chief-summary";
 import type { CurrentUser } from "@/lib/auth/session";
 
-/** The chief's Records card on Today: stage checks waiting and for how long, watch notes, the chain's status. */
+/** The chief's Records card on Today: how many stage checks wait and the longest waiting, watch notes, the chain's status. */
 export async function RecordsToday({ user }: { user: CurrentUser }) {
-  const { waiting, notes, chain } = await chiefRecordsSummary(user);
+  const { waiting, waitingTotal, notes, chain } = await chiefRecordsSummary(user);
   return (
     <section className="card space-y-3" aria-labelledby="records-today-title" data-testid="records-today">
       <h2 id="records-today-title">Records</h2>
       <div className="grid gap-4 md:grid-cols-3">
-        <div>
+        <div data-testid="stages-waiting">
           <h3 className="font-semibold">Stage checks waiting</h3>
-          {waiting.length === 0 ? (
+          {waitingTotal === 0 ? (
             <p className="text-ink-soft">None waiting.</p>
           ) : (
-            <ul className="text-caption">
-              {waiting.slice(0, 6).map((w) => (
-                <li key={`${w.studentId}-${w.stageCode}`}>
-                  <Link className="underline" href={`/records/${w.studentId}`}>
-                    {w.studentName}
-                  </Link>{" "}
-                  · {w.stageCode} · {w.days === null ? "ready" : `waiting ${w.days} day${w.days === 1 ? "" : "s"}`}
-                </li>
-              ))}
-            </ul>
+            <>
+              <p className="text-caption text-ink-soft">
+                <span className="num">{waitingTotal}</span> stage{waitingTotal === 1 ? "" : "s"} ready for the check
+                {waitingTotal > waiting.length ? `; the ${waiting.length} waiting longest:` : ":"}
+              </p>
+              <ul className="text-caption">
+                {waiting.map((w) => (
+                  <li key={`${w.studentId}-${w.stageCode}`}>
+                    <Link className="underline" href={`/records/${w.studentId}`}>
+                      {w.studentName}
+                    </Link>{" "}
+                    · {w.stageCode} · {w.days === null ? "ready" : `waiting ${w.days} day${w.days === 1 ? "" : "s"}`}
+                  </li>
+                ))}
+              </ul>
+              {waitingTotal > waiting.length && (
+                <Link href="/records" className="text-caption underline">
+                  Every student in Records
+                </Link>
+              )}
+            </>
           )}
         </div>
         <div>
