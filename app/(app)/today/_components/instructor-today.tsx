@@ -105,8 +105,8 @@ export async function InstructorToday({ user }: { user: CurrentUser }) {
           <>
             {week.checksDueTotal > week.checksDue.length && (
               <p className="mt-1 text-caption text-ink-soft" data-testid="checks-due-count">
-                <span className="num">{week.checksDueTotal}</span> stages ready for their check; the {week.checksDue.length} waiting
-                longest:
+                <span className="num">{week.checksDueTotal.toLocaleString("en-GB")}</span> stages ready for their check; the{" "}
+                {week.checksDue.length} waiting longest:
               </p>
             )}
             <ul className="mt-2 divide-y divide-paper-edge" data-testid="checks-due">

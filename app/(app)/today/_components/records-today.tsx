@@ -16,7 +16,7 @@ export async function RecordsToday({ user }: { user: CurrentUser }) {
           ) : (
             <>
               <p className="text-caption text-ink-soft">
-                <span className="num">{waitingTotal}</span> stage{waitingTotal === 1 ? "" : "s"} ready for the check
+                <span className="num">{waitingTotal.toLocaleString("en-GB")}</span> stage{waitingTotal === 1 ? "" : "s"} ready for the check
                 {waitingTotal > waiting.length ? `; the ${waiting.length} waiting longest:` : ":"}
               </p>
               <ul className="text-caption">
