@@ -42,7 +42,8 @@ export async function changeRoles(
         : "roles: the school must keep one chief instructor",
       "roles",
     );
-  const same = next.length === target.roles.length && next.every((r) => target.roles.includes(r));
+  const had = new Set(target.roles);
+  const same = next.length === had.size && next.every((r) => had.has(r));
   if (same) return { personId: target.id, roles: target.roles, sessionsEnded: false };
   await sequelize.query(
     `UPDATE people SET roles = :roles::text[], session_version = session_version + 1, updated_at = now() WHERE id = :p AND school_id = :s`,
