@@ -8,7 +8,8 @@ ChartJS.register(BarController, BarElement, CategoryScale, LinearScale, Tooltip)
 export function PassRateChart({ rows, target }: { rows: { label: string; rate: number | null }[]; target: number }) {
   return (
     <figure className="card" data-testid="pass-rate-chart">
-      <div style={{ height: 260 }}>
+      {/* clips the canvas until chart.js has resized it to a narrower screen */}
+      <div className="relative min-w-0 overflow-hidden" style={{ height: 260 }}>
         <Bar
           aria-label={`Bar chart of the first-attempt pass rate per course; target ${target} %`}
           role="img"

@@ -10,7 +10,9 @@ ChartJS.register(BarElement, CategoryScale, LinearScale, Legend, Tooltip);
 export function OutcomeChart({ data }: { data: { date: string; solid: number; shaky: number; notYet: number }[] }) {
   return (
     <figure>
-      <div className="h-56">
+      {/* chart.js sizes the canvas to this box after a resize; until it does, the box clips the
+          canvas so a turn from a wide to a narrow screen never makes the page scroll sideways */}
+      <div className="relative h-56 min-w-0 overflow-hidden">
         <Bar
           aria-label="Question outcomes per check date"
           role="img"
