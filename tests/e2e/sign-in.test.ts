@@ -69,6 +69,9 @@ describe("the four demo accounts", () => {
     const list = await page.locator("[data-testid=focus-list]").textContent();
     expect(list).toContain("Ada Quill");
     expect(list).not.toContain("Lotte Lindqvist"); // Merlin cohort
+    // each student's name opens their record
+    const ada = page.locator("[data-testid=focus-list] a", { hasText: "Ada Quill" });
+    await expect(ada.getAttribute("href")).resolves.toMatch(/^\/records\/[0-9a-f-]{36}$/);
   });
 
   test("the student signs in and sees This week with their ground hours", async () => {

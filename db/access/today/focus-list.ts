@@ -54,7 +54,10 @@ export async function todayFocusList(user: CurrentUser): Promise<{ title: string
         ORDER BY c.starts_on, c.name, p.name`,
       { replacements: { school: user.schoolId, me: user.id }, type: QueryTypes.SELECT },
     );
-    return { title: "Your students", rows: members.map((m) => ({ id: m.id, primary: m.name, secondary: m.cohort })) };
+    return {
+      title: "Your students",
+      rows: members.map((m) => ({ id: m.id, primary: m.name, secondary: m.cohort, href: `/records/${m.id}` })),
+    };
   }
   if (can(user, "today.learning")) {
     const enrolment = await activeEnrolment(user.schoolId, user.id);

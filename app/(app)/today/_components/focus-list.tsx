@@ -1,4 +1,5 @@
 "use client";
+import Link from "next/link";
 import { useQuery } from "@tanstack/react-query";
 
 interface FocusList {
@@ -28,7 +29,13 @@ export function FocusList() {
         <ul className="mt-3 divide-y divide-paper-edge" data-testid="focus-list">
           {data.rows.map((r) => (
             <li key={r.id} className="flex flex-wrap items-baseline justify-between gap-x-4 py-2">
-              <span className="font-medium">{r.primary}</span>
+              {r.href ? (
+                <Link href={r.href} className="font-medium underline">
+                  {r.primary}
+                </Link>
+              ) : (
+                <span className="font-medium">{r.primary}</span>
+              )}
               <span className="text-caption text-ink-soft">{r.secondary}</span>
             </li>
           ))}
