@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { calendarDate } from "@/lib/validation/dates";
 import type { Role } from "@/lib/auth/roles";
-import { ASSIGNABLE_ROLES } from "./roles";
+import { ASSIGNABLE_ROLES } from "@/lib/auth/account-roles";
 
 // The People area's schemas, shared by the forms and the server actions.
 

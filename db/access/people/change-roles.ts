@@ -5,7 +5,7 @@ import { HttpError } from "@/lib/http/errors";
 import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { Role } from "@/lib/auth/roles";
-import { managesAccounts, roleChangeProblem } from "@/lib/people/roles";
+import { managesAccounts, roleChangeProblem } from "@/lib/auth/account-roles";
 import type { ChangeRolesInput } from "@/lib/people/schema";
 import { writeAudit } from "../records/audit-chain";
 

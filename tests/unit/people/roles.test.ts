@@ -1,4 +1,4 @@
-import { ASSIGNABLE_ROLES, STUDENT_ROLES, managesAccounts, roleChangeProblem } from "@/lib/people/roles";
+import { ASSIGNABLE_ROLES, STUDENT_ROLES, managesAccounts, roleChangeProblem } from "@/lib/auth/account-roles";
 import { changeRolesSchema, invitePersonSchema } from "@/lib/people/schema";
 
 // Which roles the chief gives and takes on Accounts and roles (issue 13): staff and sponsors, never

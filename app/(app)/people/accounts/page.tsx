@@ -3,7 +3,7 @@ import Link from "next/link";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { listPeople } from "@/db/access/people/list-people";
 import { ROLE_LABELS } from "@/lib/auth/roles";
-import { ASSIGNABLE_ROLES, STUDENT_ROLES } from "@/lib/people/roles";
+import { ASSIGNABLE_ROLES, isStudentAccount } from "@/lib/auth/account-roles";
 import { WideTable } from "@/components/ui/wide-table";
 import { InviteForm } from "./_components/invite-form";
 import { RolesForm } from "./_components/roles-form";
@@ -14,7 +14,7 @@ export const dynamic = "force-dynamic";
 export default async function AccountsPage() {
   const user = await requirePagePermission("people.manage", "/people/accounts");
   const people = await listPeople(user.schoolId);
-  const staffAndSponsors = people.filter((p) => !p.roles.some((r) => STUDENT_ROLES.includes(r)));
+  const staffAndSponsors = people.filter((p) => !isStudentAccount(p.roles));
   const roles = ASSIGNABLE_ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
   return (
     <div className="max-w-4xl space-y-6">

@@ -1,5 +1,5 @@
-import { ROLES, type Role } from "@/lib/auth/roles";
-import { rolesAllow } from "@/lib/auth/permissions";
+import { ROLES, type Role } from "./roles";
+import { rolesAllow } from "./permissions";
 
 // Which roles the chief gives on the People accounts page. Roles are told apart by what they
 // allow (lib/auth/permissions.ts), never by name: a student's role is the one that sees one's own
@@ -8,6 +8,11 @@ import { rolesAllow } from "@/lib/auth/permissions";
 
 /** Roles that make an account a student's. */
 export const STUDENT_ROLES: readonly Role[] = ROLES.filter((r) => rolesAllow([r], "students.own"));
+
+/** Whether an account is a student's (it holds a role that sees one's own progress). */
+export function isStudentAccount(roles: readonly Role[]): boolean {
+  return rolesAllow(roles, "students.own");
+}
 
 /** Roles the chief may invite people with and give or take away: staff and sponsors. */
 export const ASSIGNABLE_ROLES: readonly Role[] = ROLES.filter((r) => !STUDENT_ROLES.includes(r));
@@ -19,8 +24,7 @@ export function managesAccounts(roles: readonly Role[]): boolean {
 
 /** Why a change of roles is refused, or null: a student's account keeps its roles (the Roster and End of training change them). */
 export function roleChangeProblem(current: readonly Role[], next: readonly Role[]): string | null {
-  if (current.some((r) => STUDENT_ROLES.includes(r)))
-    return "a student's roles come with their enrolment: use the Roster and End of training";
-  if (next.some((r) => STUDENT_ROLES.includes(r))) return "students are added on the Roster, not given the role here";
+  if (isStudentAccount(current)) return "a student's roles come with their enrolment: use the Roster and End of training";
+  if (isStudentAccount(next)) return "students are added on the Roster, not given the role here";
   return null;
 }
