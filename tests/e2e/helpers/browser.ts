@@ -57,16 +57,19 @@ export async function launchSharedBrowser(): Promise<SharedBrowser> {
   };
 }
 
-/** Signs in afresh: a session already in the page's context is dropped first (a signed-in visitor is sent on from /sign-in). */
+/**
+ * Signs in afresh: a session already in the page's context is dropped first (a signed-in visitor is
+ * sent on from /sign-in). Returns once the browser has left the sign-in page or the form shows its
+ * refusal, whichever comes first; the caller checks which.
+ */
 export async function signIn(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
   await page.context().clearCookies();
   await page.goto("/sign-in");
   await page.fill("#email", email);
   await page.fill("#password", password);
-  await Promise.all([
-    page.waitForURL((u) => !u.pathname.startsWith("/sign-in"), { timeout: 15_000 }).catch(() => undefined),
-    page.click("button[type=submit]"),
-  ]);
+  const left = page.waitForURL((u) => !u.pathname.startsWith("/sign-in"), { timeout: 15_000 });
+  const refused = page.waitForSelector("[data-testid=sign-in-error]", { state: "visible", timeout: 15_000 });
+  await Promise.all([Promise.any([left, refused]).catch(() => undefined), page.click("button[type=submit]")]);
 }
 
 export async function screenshot(page: Page, name: string): Promise<string> {
