@@ -3,6 +3,7 @@ import { NextResponse } from "next/server";
 import { z } from "zod";
 import { route, parseQuery } from "@/lib/http/api";
 import { HttpError } from "@/lib/http/errors";
+import { readLimited } from "@/lib/http/body";
 import { previewRosterImport, importRosterFile } from "@/db/access/roster/import-roster";
 import { ROSTER_MAX_BYTES } from "@/lib/roster/csv";
 
@@ -10,25 +11,14 @@ export const dynamic = "force-dynamic";
 
 const query = z.object({ mode: z.enum(["preview", "commit"], "preview or commit") });
 
-/** Reads the body while counting bytes, so an oversized upload is refused without buffering it all. */
+/** The body, refused with a 413 when declared or sent larger than `max` (the stream is cancelled at once, nothing drained). */
 async function readCapped(req: Request, max: number): Promise<Buffer> {
+  const tooBig = () => new HttpError(413, `file: larger than ${Math.round(max / 1024)} KB`, "file");
   const declared = Number(req.headers.get("content-length") ?? "0");
-  if (declared > max) throw new HttpError(413, `file: larger than ${Math.round(max / 1024)} KB`, "file");
-  if (!req.body) return Buffer.alloc(0);
-  const reader = req.body.getReader();
-  const chunks: Uint8Array[] = [];
-  let size = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    size += value.byteLength;
-    if (size > max) {
-      await reader.cancel();
-      throw new HttpError(413, `file: larger than ${Math.round(max / 1024)} KB`, "file");
-    }
-    chunks.push(value);
-  }
-  return Buffer.concat(chunks);
+  if (declared > max) throw tooBig();
+  const { bytes, over } = await readLimited(req.body, max, max);
+  if (over) throw tooBig();
+  return bytes;
 }
 
 export const POST = route("roster.manage", async ({ req, user }) => {

@@ -3,49 +3,19 @@ import { NextResponse } from "next/server";
 import { z } from "zod";
 import { route, parseQuery, uuidParam } from "@/lib/http/api";
 import { HttpError } from "@/lib/http/errors";
+import { readUpload } from "@/lib/http/body";
 import { uploadHandout, HANDOUT_MAX_BYTES } from "@/db/access/briefings/handouts";
 import { EXTENSIONS, extensionOf, mediaType, sniffHandoutType } from "@/app/api/handouts/_lib/files";
 
 export const dynamic = "force-dynamic";
 
 const query = z.object({ name: z.string().trim().min(1, "give the file's name").max(255, "at most 255 characters") });
-/** Bytes read and thrown away after the limit, so the client sees the 413 rather than a broken connection. */
-const DRAIN_LIMIT = 4 * HANDOUT_MAX_BYTES;
-
-/** Reads the body, counting bytes as they arrive; stops keeping them once past `limit`. */
-async function readLimited(body: ReadableStream<Uint8Array> | null, limit: number): Promise<{ bytes: Buffer; over: boolean }> {
-  if (!body) return { bytes: Buffer.alloc(0), over: false };
-  const reader = body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > limit) {
-      if (total > DRAIN_LIMIT) {
-        await reader.cancel();
-        break;
-      }
-      continue;
-    }
-    chunks.push(value);
-  }
-  return total > limit ? { bytes: Buffer.alloc(0), over: true } : { bytes: Buffer.concat(chunks), over: false };
-}
-
 export const POST = route<{ briefingId: string }>("briefings.edit", async ({ req, user, params }) => {
   if (!uuidParam.safeParse(params.briefingId).success) throw new HttpError(400, "briefingId: not a valid id", "briefingId");
   const { name } = parseQuery(req, query);
   const declared = mediaType(req.headers.get("content-type"));
-  const length = Number(req.headers.get("content-length") ?? "NaN");
   const tooBig = () => new HttpError(413, `file: larger than the ${HANDOUT_MAX_BYTES / 1024 / 1024} MB limit`, "file");
-  if (Number.isFinite(length) && length > HANDOUT_MAX_BYTES) {
-    await readLimited(req.body, 0);
-    throw tooBig();
-  }
-  const { bytes, over } = await readLimited(req.body, HANDOUT_MAX_BYTES);
-  if (over) throw tooBig();
+  const bytes = await readUpload(req, HANDOUT_MAX_BYTES, tooBig);
   if (bytes.length === 0) throw new HttpError(400, "file: the file is empty", "file");
   const actual = sniffHandoutType(bytes.subarray(0, 16));
   if (!actual) throw new HttpError(415, "file: only PDF, PNG and JPEG files can be handouts", "file");

@@ -1,54 +1,26 @@
 import { HttpError } from "@/lib/http/errors";
 import { findUnsafeText } from "@/lib/validation/text";
 import { zodFieldError } from "@/lib/http/api";
+import { readUpload } from "@/lib/http/body";
 import { EVIDENCE_MAX_BYTES, transferCreditSchema, type TransferCreditInput } from "@/lib/transfers/schema";
 import type { EvidenceFile } from "@/db/access/transfers/record-credit";
 import { EXTENSIONS, baseName, extensionOf, sniffHandoutType } from "@/app/api/handouts/_lib/files";
 
 // The transfer credit upload: one multipart form (the fields and the evidence file), read with a
-// byte limit, every fault a 4xx naming its field. Files are recognised by their first bytes as
+// byte limit (lib/http/body.ts), every fault a 4xx naming its field. Files are recognised by their first bytes as
 // handouts are (app/api/handouts/_lib/files.ts): PDF, PNG or JPEG.
 
 /** Room for the form's text fields beside the largest file. */
 const FIELDS_ALLOWANCE = 64 * 1024;
 export const BODY_LIMIT = EVIDENCE_MAX_BYTES + FIELDS_ALLOWANCE;
-const DRAIN_LIMIT = 4 * BODY_LIMIT;
 
 const tooBig = () => new HttpError(413, `evidence: larger than the ${EVIDENCE_MAX_BYTES / 1024 / 1024} MB limit`, "evidence");
-
-async function readLimited(body: ReadableStream<Uint8Array> | null, limit: number): Promise<{ bytes: Buffer; over: boolean }> {
-  if (!body) return { bytes: Buffer.alloc(0), over: false };
-  const reader = body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > limit) {
-      // read on (up to a point) so the client sees the 413 rather than a broken connection
-      if (total > DRAIN_LIMIT) {
-        await reader.cancel();
-        break;
-      }
-      continue;
-    }
-    chunks.push(value);
-  }
-  return total > limit ? { bytes: Buffer.alloc(0), over: true } : { bytes: Buffer.concat(chunks), over: false };
-}
 
 /** The form's fields (validated) and its evidence file (size and type checked). */
 export async function readTransferForm(req: Request): Promise<{ input: TransferCreditInput; file: EvidenceFile }> {
   const type = req.headers.get("content-type") ?? "";
   if (!/^multipart\/form-data\s*;/i.test(type)) throw new HttpError(415, "body: send the form as multipart/form-data", "body");
-  const length = Number(req.headers.get("content-length") ?? "NaN");
-  if (Number.isFinite(length) && length > BODY_LIMIT) {
-    await readLimited(req.body, 0);
-    throw tooBig();
-  }
-  const { bytes, over } = await readLimited(req.body, BODY_LIMIT);
-  if (over) throw tooBig();
+  const bytes = await readUpload(req, BODY_LIMIT, tooBig);
   let form: FormData;
   try {
     form = await new Response(new Uint8Array(bytes), { headers: { "content-type": type } }).formData();
