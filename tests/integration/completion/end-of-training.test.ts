@@ -5,12 +5,9 @@ import path from "node:path";
 import { NextRequest } from "next/server";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
-import { makeSchool, closeDb, actAs, TEST_PASSWORD } from "@/tests/helpers/factories";
-import { endTrainingAction } from "@/app/(app)/completion/actions";
+import { makeSchool, closeDb, actAs } from "@/tests/helpers/factories";
 import { GET as certificateRoute } from "@/app/api/records/[studentId]/certificate/route";
 import { GET as trainingRecordRoute } from "@/app/api/records/[studentId]/training-record/route";
-import { conductStageCheck } from "@/db/access/records/stage-checks";
-import { itemsOfRevision } from "@/db/access/records/items";
 import { scheduleSession } from "@/db/access/timetable/schedule-session";
 import { recordAttendance } from "@/db/access/ground-log/record-attendance";
 import { waiveMakeup } from "@/db/access/ground-log/change-makeup";
@@ -18,8 +15,9 @@ import { creditedMinutesFor } from "@/db/access/ground-log/ground-hours";
 import { scheduleSessionSchema, recordAttendanceSchema } from "@/lib/timetable/schema";
 import { completionStatement } from "@/lib/completion/statements";
 import { dateInZone, formatDay } from "@/lib/time";
-import { check, sign, auditCount, type School } from "../records/helpers";
+import { auditCount, type School } from "../records/helpers";
 import { makeBriefing, addRooms } from "../timetable/helpers";
+import { completeCourse, endTrainingToday, enrolment, statement, today } from "./helpers";
 
 // End of training (issue 13): graduation refused until the course is complete (14 CFR 141.95(a)):
 // every item signed, every stage check passed, no make-up item open and the course's minimum ground
@@ -30,8 +28,6 @@ let s: School;
 let plain: string; // a briefing covering no syllabus item
 let aer03: string; // a briefing covering AER-03
 let daysBack = 1;
-const today = () => dateInZone(new Date(), "Europe/London");
-const statement = "I certify that this training record is true and complete as kept by the school.";
 
 beforeAll(async () => {
   s = await makeSchool("eot");
@@ -46,38 +42,6 @@ afterAll(async () => {
   actAs(null);
   await closeDb();
 });
-
-async function enrolment(studentId: string) {
-  const [r] = await sequelize.query<{ status: string; ended_on: string | null; end_kind: string | null }>(
-    `SELECT status, ended_on, end_kind FROM enrolments WHERE student_id = :studentId`,
-    { replacements: { studentId }, type: QueryTypes.SELECT },
-  );
-  return r!;
-}
-
-async function completeCourse(studentId: string) {
-  const items = await itemsOfRevision(s.revision.id);
-  const stages = [...new Set(items.map((i) => i.stageId))];
-  for (const stageId of stages) {
-    const own = items.filter((i) => i.stageId === stageId);
-    for (const i of own) {
-      await check(s.as.instructor, studentId, [i.id]);
-      await sign(s.as.instructor, { studentId, itemId: i.id });
-    }
-    await sequelize.transaction((t) =>
-      conductStageCheck(t, s.as.chief, {
-        studentId,
-        stageId,
-        result: "pass",
-        oralOutcomes: own.map((i) => ({ itemId: i.id, outcome: "solid" as const })),
-        writtenScorePercent: 92,
-        remarks: "",
-        occurredAt: new Date(Date.now() - 60_000),
-        password: TEST_PASSWORD,
-      }),
-    );
-  }
-}
 
 /** A past ground session the student is booked on, with their attendance recorded as the Timetable records it. */
 async function attend(studentId: string, minutes: number, status: "attended" | "absent" = "attended", briefingId = plain) {
@@ -109,6 +73,16 @@ async function certifications(studentId: string) {
   return r!.n;
 }
 
+/** A graduation today refused as the course is not complete (409 on the kind), with `message`; nothing is written. */
+async function expectGraduationRefused(st: string, message: string) {
+  actAs(s.as.chief);
+  const r = await endTrainingToday({ studentId: st, kind: "graduated", reason: "done" });
+  expect(r).toMatchObject({ ok: false, status: 409, field: "kind" });
+  expect(!r.ok && r.message).toBe(message);
+  expect((await enrolment(st)).status).toBe("active");
+  expect(await certifications(st)).toBe(0);
+}
+
 async function pdfText(res: Response): Promise<string> {
   const dir = mkdtempSync(path.join(tmpdir(), "eot-"));
   try {
@@ -127,14 +101,7 @@ describe("ending training", () => {
   it("refuses a graduation with items not signed off, naming them, and changes nothing", async () => {
     const st = s.people.students[1]!.id;
     actAs(s.as.chief);
-    const r = await endTrainingAction({
-      studentId: st,
-      kind: "graduated",
-      endedOn: today(),
-      reason: "course done",
-      statement,
-      password: TEST_PASSWORD,
-    });
+    const r = await endTrainingToday({ studentId: st, kind: "graduated", reason: "course done" });
     expect(r).toMatchObject({ ok: false, status: 409, field: "kind" });
     expect(!r.ok && r.message).toMatch(/items not signed off: AER-01/);
     expect((await enrolment(st)).status).toBe("active");
@@ -143,16 +110,16 @@ describe("ending training", () => {
   it("refuses a wrong password, a date before enrolment, and callers without records.certify", async () => {
     const st = s.people.students[1]!.id;
     actAs(s.as.chief);
-    const base = { studentId: st, kind: "terminated", endedOn: today(), reason: "left the area", statement };
-    expect(await endTrainingAction({ ...base, password: "wrong-one" })).toMatchObject({ ok: false, field: "password" });
-    expect(await endTrainingAction({ ...base, endedOn: "2026-08-01", password: TEST_PASSWORD })).toMatchObject({
+    const base = { studentId: st, kind: "terminated", reason: "left the area" };
+    expect(await endTrainingToday({ ...base, password: "wrong-one" })).toMatchObject({ ok: false, field: "password" });
+    expect(await endTrainingToday({ ...base, endedOn: "2026-08-01" })).toMatchObject({
       ok: false,
       status: 400,
       field: "endedOn",
     });
     for (const who of [s.as.instructor, s.as.student, s.as.sponsor]) {
       actAs(who);
-      expect(await endTrainingAction({ ...base, password: TEST_PASSWORD })).toMatchObject({ ok: false, status: 403 });
+      expect(await endTrainingToday(base)).toMatchObject({ ok: false, status: 403 });
     }
     expect((await enrolment(st)).status).toBe("active");
   });
@@ -160,37 +127,25 @@ describe("ending training", () => {
   it("terminates with a date and reason, certified and audited, once", async () => {
     const st = s.people.students[2]!.id;
     actAs(s.as.chief);
-    const input = { studentId: st, kind: "terminated", endedOn: today(), reason: "moved abroad", statement, password: TEST_PASSWORD };
-    const r = await endTrainingAction(input);
+    const input = { studentId: st, kind: "terminated", reason: "moved abroad" };
+    const r = await endTrainingToday(input);
     expect(r.ok).toBe(true);
-    expect(await enrolment(st)).toEqual({ status: "withdrawn", ended_on: today(), end_kind: "terminated" });
+    expect(await enrolment(st)).toEqual({ status: "withdrawn", ended_on: today(), end_reason: "moved abroad", end_kind: "terminated" });
     const id = r.ok ? r.data.certificationId : "";
     expect(await auditCount(s.school.id, "record.certified", id)).toBe(1);
     await expect(
       sequelize.query(`UPDATE record_certifications SET statement = 'changed afterwards!!!' WHERE id = :id`, { replacements: { id } }),
     ).rejects.toThrow(/permission denied|append-only/);
-    expect(await endTrainingAction(input)).toMatchObject({ ok: false, status: 409, field: "studentId" });
+    expect(await endTrainingToday(input)).toMatchObject({ ok: false, status: 409, field: "studentId" });
   });
 
   it("refuses a graduation with credited ground time below the course minimum (141.95(a)), naming both, and changes nothing", async () => {
     const st = s.people.students[0]!.id;
-    await completeCourse(st);
+    await completeCourse(s, st);
     await attend(st, 420);
     await attend(st, 330);
     expect(await creditedMinutesFor(st, s.course.id)).toBe(750);
-    actAs(s.as.chief);
-    const r = await endTrainingAction({
-      studentId: st,
-      kind: "graduated",
-      endedOn: today(),
-      reason: "done",
-      statement,
-      password: TEST_PASSWORD,
-    });
-    expect(r).toMatchObject({ ok: false, status: 409, field: "kind" });
-    expect(!r.ok && r.message).toBe("Kind: cannot graduate: credited ground time 12.5 h of the course's 35 h minimum");
-    expect((await enrolment(st)).status).toBe("active");
-    expect(await certifications(st)).toBe(0);
+    await expectGraduationRefused(st, "Kind: cannot graduate: credited ground time 12.5 h of the course's 35 h minimum");
   });
 
   it("refuses a graduation with an open make-up item (141.95(a): the course not complete), naming it, and changes nothing", async () => {
@@ -198,19 +153,7 @@ describe("ending training", () => {
     for (let n = 0; n < 3; n++) await attend(st, 450); // 750 + 1350 = 2100 min, the 35 h minimum
     await attend(st, 60, "absent", aer03); // an absence opens a make-up item for AER-03
     expect(await creditedMinutesFor(st, s.course.id)).toBe(2100);
-    actAs(s.as.chief);
-    const r = await endTrainingAction({
-      studentId: st,
-      kind: "graduated",
-      endedOn: today(),
-      reason: "done",
-      statement,
-      password: TEST_PASSWORD,
-    });
-    expect(r).toMatchObject({ ok: false, status: 409, field: "kind" });
-    expect(!r.ok && r.message).toBe("Kind: cannot graduate: open make-up items: AER-03");
-    expect((await enrolment(st)).status).toBe("active");
-    expect(await certifications(st)).toBe(0);
+    await expectGraduationRefused(st, "Kind: cannot graduate: open make-up items: AER-03");
   });
 
   it("graduates a student who completed the course; the certificate and the record are theirs to download", async () => {
@@ -222,14 +165,7 @@ describe("ending training", () => {
     });
     await sequelize.transaction((t) => waiveMakeup(s.as.chief, { itemId: m!.id, reason: "covered in the stage check" }, t));
     actAs(s.as.chief);
-    const r = await endTrainingAction({
-      studentId: st,
-      kind: "graduated",
-      endedOn: today(),
-      reason: "all stages passed",
-      statement,
-      password: TEST_PASSWORD,
-    });
+    const r = await endTrainingToday({ studentId: st, kind: "graduated", reason: "all stages passed" });
     expect(r).toMatchObject({ ok: true, data: { status: "completed" } });
     expect((await enrolment(st)).end_kind).toBe("graduated");
 

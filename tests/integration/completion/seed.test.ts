@@ -1,15 +1,12 @@
 import { NextRequest } from "next/server";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
-import { makeSchool, actAs, closeDb, TEST_PASSWORD } from "@/tests/helpers/factories";
+import { actAs, closeDb, TEST_PASSWORD } from "@/tests/helpers/factories";
 import { seedCompletion } from "@/db/seed/completion";
 import { GET as certificateRoute } from "@/app/api/records/[studentId]/certificate/route";
 import { verifyChain } from "@/db/access/records/audit-chain";
 import { creditedMinutesFor } from "@/db/access/ground-log/ground-hours";
-import { createRoom } from "@/db/access/rooms/save-room";
-import { dateInZone } from "@/lib/time";
-import { addDays, format } from "date-fns";
-import { makeBriefing } from "../timetable/helpers";
+import { schoolForSeed, seedContext, seedDay as day } from "../seed-helpers";
 
 afterAll(async () => {
   actAs(null);
@@ -17,32 +14,8 @@ afterAll(async () => {
 });
 
 test("the demo seed gives the school a graduate with a certified record and a certificate", async () => {
-  const s = await makeSchool("seedgrad");
-  // what the demo's timetable seed provides before this one: a briefing and Briefing room 2
-  await makeBriefing(s, "Seed briefing", []);
-  await sequelize.transaction((t) => createRoom(s.as.chief, { name: "Briefing room 2", capacity: 10 }, t));
-  const day = (n: number) => format(addDays(new Date(`${dateInZone(new Date(), "Europe/London")}T12:00:00Z`), n), "yyyy-MM-dd");
-  await sequelize.transaction((t) =>
-    seedCompletion(
-      {
-        t,
-        schoolId: s.school.id,
-        courseId: s.course.id,
-        revisionId: s.revision.id,
-        people: {
-          chief: s.people.chief.id,
-          instructor: s.people.instructor.id,
-          priya: s.people.instructor2.id,
-          rafael: s.people.instructor2.id,
-          sponsor: s.people.sponsor.id,
-        },
-        students: {},
-        cohorts: { a: s.cohorts.a.id, b: s.cohorts.b.id },
-        day,
-      },
-      TEST_PASSWORD,
-    ),
-  );
+  const s = await schoolForSeed("seedgrad");
+  await sequelize.transaction((t) => seedCompletion(seedContext(s, t), TEST_PASSWORD));
   const [e] = await sequelize.query<{ id: string; status: string; end_kind: string; ended_on: string; certified: number }>(
     `SELECT p.id, e.status, e.end_kind, e.ended_on,
             (SELECT count(*)::int FROM record_certifications c WHERE c.enrolment_id = e.id AND c.purpose = 'graduation') AS certified

@@ -1,17 +1,15 @@
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
-import { makeSchool, closeDb, actAs, TEST_PASSWORD } from "@/tests/helpers/factories";
-import { endTrainingAction, withdrawFromCohortAction } from "@/app/(app)/completion/actions";
-import { dateInZone } from "@/lib/time";
+import { makeSchool, closeDb, actAs } from "@/tests/helpers/factories";
+import { withdrawFromCohortAction } from "@/app/(app)/completion/actions";
 import { auditCount, type School } from "../records/helpers";
+import { endTrainingToday, enrolment, today } from "./helpers";
 
 // Withdrawing a student (issue 13): from the cohort with a date and a reason (the enrolment goes on),
 // or from the course, which is the end of training as terminated (the enrolment ends with its date and
 // reason, the record is certified, and the cohort membership ends on the same date).
 
 let s: School;
-const today = () => dateInZone(new Date(), "Europe/London");
-const statement = "I certify that this training record is true and complete as kept by the school.";
 
 beforeAll(async () => {
   s = await makeSchool("wdr");
@@ -26,13 +24,6 @@ async function memberships(studentId: string) {
     `SELECT from_date, to_date, end_reason FROM cohort_memberships WHERE student_id = :studentId ORDER BY from_date`,
     { replacements: { studentId }, type: QueryTypes.SELECT },
   );
-}
-async function enrolment(studentId: string) {
-  const [r] = await sequelize.query<{ status: string; ended_on: string | null; end_reason: string | null; end_kind: string | null }>(
-    `SELECT status, ended_on, end_reason, end_kind FROM enrolments WHERE student_id = :studentId`,
-    { replacements: { studentId }, type: QueryTypes.SELECT },
-  );
-  return r!;
 }
 
 describe("withdrawal from a cohort", () => {
@@ -108,14 +99,7 @@ describe("withdrawal from the course (end of training as terminated)", () => {
   it("is refused without a reason, naming the field", async () => {
     const st = s.people.students[2]!.id;
     actAs(s.as.chief);
-    const r = await endTrainingAction({
-      studentId: st,
-      kind: "terminated",
-      endedOn: today(),
-      reason: "",
-      statement,
-      password: TEST_PASSWORD,
-    });
+    const r = await endTrainingToday({ studentId: st, kind: "terminated", reason: "" });
     expect(r).toMatchObject({ ok: false, status: 400, field: "reason" });
     expect((await enrolment(st)).status).toBe("active");
     expect((await memberships(st))[0]!.to_date).toBeNull();
@@ -124,15 +108,7 @@ describe("withdrawal from the course (end of training as terminated)", () => {
   it("ends the enrolment and the cohort membership on the date with the reason", async () => {
     const st = s.people.students[2]!.id;
     actAs(s.as.chief);
-    const r = await endTrainingAction({
-      studentId: st,
-      kind: "terminated",
-      endedOn: today(),
-      reason: "left the area",
-      statement,
-      password: TEST_PASSWORD,
-      idempotencyKey: "wdr-course-1",
-    });
+    const r = await endTrainingToday({ studentId: st, kind: "terminated", reason: "left the area", idempotencyKey: "wdr-course-1" });
     expect(r).toMatchObject({ ok: true, data: { status: "withdrawn", leftCohorts: 1 } });
     expect(await enrolment(st)).toEqual({ status: "withdrawn", ended_on: today(), end_reason: "left the area", end_kind: "terminated" });
     expect(await memberships(st)).toEqual([{ from_date: "2026-09-01", to_date: today(), end_reason: "left the area" }]);

@@ -7,12 +7,12 @@ import { endorseAction, recordResultAction, completeRemedialAction, saveAuthorit
 import { endorse } from "@/db/access/endorsements/endorse";
 import { EndorsementRefusal, type EndorsementReason } from "@/db/access/endorsements/preconditions";
 import { passRateByCourse } from "@/db/access/endorsements/pass-rate";
-import { conductStageCheck } from "@/db/access/records/stage-checks";
 import { itemsOfRevision } from "@/db/access/records/items";
 import { withdrawSignOff } from "@/db/access/records/sign-offs";
 import { dateInZone } from "@/lib/time";
 import type { CurrentUser } from "@/lib/auth/session";
-import { check, sign, auditCount, type School } from "../records/helpers";
+import { sign, auditCount, type School } from "../records/helpers";
+import { completeCourse } from "../completion/helpers";
 
 // Knowledge-test endorsements (issue 13): each precondition refused on its own and named; the
 // endorsement signed with password re-entry, append-only and in the audit chain; a failed result
@@ -21,32 +21,6 @@ import { check, sign, auditCount, type School } from "../records/helpers";
 let s: School;
 const today = () => dateInZone(new Date(), "Europe/London");
 const signOffIds = new Map<string, string>();
-
-async function completeCourse(studentId: string, opts: { skipLastStageCheck?: boolean } = {}) {
-  const items = await itemsOfRevision(s.revision.id);
-  const stages = [...new Set(items.map((i) => i.stageId))];
-  for (const [n, stageId] of stages.entries()) {
-    const own = items.filter((i) => i.stageId === stageId);
-    for (const i of own) {
-      await check(s.as.instructor, studentId, [i.id]);
-      const so = await sign(s.as.instructor, { studentId, itemId: i.id });
-      signOffIds.set(`${studentId}:${i.code}`, so.id);
-    }
-    if (opts.skipLastStageCheck && n === stages.length - 1) continue;
-    await sequelize.transaction((t) =>
-      conductStageCheck(t, s.as.chief, {
-        studentId,
-        stageId,
-        result: "pass",
-        oralOutcomes: own.map((i) => ({ itemId: i.id, outcome: "solid" as const })),
-        writtenScorePercent: 92,
-        remarks: "",
-        occurredAt: new Date(Date.now() - 60_000),
-        password: TEST_PASSWORD,
-      }),
-    );
-  }
-}
 
 async function setMinimum(minutes: number) {
   await sequelize.query(`UPDATE courses SET min_ground_minutes = :m WHERE id = :c`, { replacements: { m: minutes, c: s.course.id } });
@@ -81,8 +55,9 @@ beforeAll(async () => {
   s = await makeSchool("ktest");
   ready = s.people.students[0]!.id;
   lastStageOpen = s.people.students[1]!.id;
-  await completeCourse(ready);
-  await completeCourse(lastStageOpen, { skipLastStageCheck: true });
+  const onSigned = (studentId: string) => (i: { code: string }, signOffId: string) => signOffIds.set(`${studentId}:${i.code}`, signOffId);
+  await completeCourse(s, ready, { onSigned: onSigned(ready) });
+  await completeCourse(s, lastStageOpen, { onSigned: onSigned(lastStageOpen), skipLastStageCheck: true });
   await setMinimum(0);
 }, 120_000);
 afterAll(async () => {

@@ -10,8 +10,6 @@ import { sequelize } from "@/db/index";
 import { makeSchool, closeDb, actAs, TEST_PASSWORD } from "@/tests/helpers/factories";
 import { changeQualification } from "@/tests/helpers/qualifications";
 import { GET as inspectionPackRoute } from "@/app/api/records/[studentId]/inspection-pack/route";
-import { endTrainingAction } from "@/app/(app)/completion/actions";
-import { conductStageCheck } from "@/db/access/records/stage-checks";
 import { itemsOfRevision } from "@/db/access/records/items";
 import { chainHead } from "@/db/access/records/audit-chain";
 import { scheduleSession } from "@/db/access/timetable/schedule-session";
@@ -27,8 +25,9 @@ import { scheduleSessionSchema, recordAttendanceSchema } from "@/lib/timetable/s
 import { CAUTION_TEXT } from "@/lib/caution";
 import { setClock, resetClock } from "@/lib/clock";
 import { dateInZone, formatDay, formatDayTime } from "@/lib/time";
-import { check, sign, type School } from "../records/helpers";
+import type { School } from "../records/helpers";
 import { makeBriefing, addRooms } from "../timetable/helpers";
+import { completeCourse, endTrainingToday, statement } from "../completion/helpers";
 
 // The inspection pack (issue 13): one PDF for a student an inspector chooses, made by the chief
 // instructor. Its text (pdftotext, Debian's poppler-utils, installed by ensure_poppler in
@@ -40,7 +39,6 @@ let graduate: string;
 const TZ = "Europe/London";
 const today = () => dateInZone(new Date(), TZ);
 const daysAgo = (n: number) => dateInZone(new Date(Date.now() - n * 86_400_000), TZ);
-const statement = "I certify that this training record is true and complete as kept by the school.";
 const QUESTION = "Why does induced drag fall as speed rises";
 const EVIDENCE = Buffer.from("%PDF-1.4\n% evidence of the earlier school's record\n%%EOF\n");
 
@@ -97,26 +95,7 @@ beforeAll(async () => {
   );
 
   // every item checked (Instructor One) and signed, every stage check passed (the chief examines)
-  const items = await itemsOfRevision(s.revision.id);
-  for (const stageId of [...new Set(items.map((i) => i.stageId))]) {
-    const own = items.filter((i) => i.stageId === stageId);
-    for (const i of own) {
-      await check(s.as.instructor, graduate, [i.id], i.code === "AER-01" ? { question: { questionText: QUESTION } } : {});
-      await sign(s.as.instructor, { studentId: graduate, itemId: i.id });
-    }
-    await sequelize.transaction((t) =>
-      conductStageCheck(t, s.as.chief, {
-        studentId: graduate,
-        stageId,
-        result: "pass",
-        oralOutcomes: own.map((i) => ({ itemId: i.id, outcome: "solid" as const })),
-        writtenScorePercent: 92,
-        remarks: "",
-        occurredAt: new Date(Date.now() - 60_000),
-        password: TEST_PASSWORD,
-      }),
-    );
-  }
+  await completeCourse(s, graduate, { checkOf: (i) => (i.code === "AER-01" ? { question: { questionText: QUESTION } } : {}) });
 
   // endorsed for the knowledge test by Instructor One, passed at 88 %
   const e = await sequelize.transaction((t) =>
@@ -131,14 +110,7 @@ beforeAll(async () => {
 
   // graduated, the record certified by the chief
   actAs(s.as.chief);
-  const r = await endTrainingAction({
-    studentId: graduate,
-    kind: "graduated",
-    endedOn: today(),
-    reason: "all stages passed",
-    statement,
-    password: TEST_PASSWORD,
-  });
+  const r = await endTrainingToday({ studentId: graduate, kind: "graduated", reason: "all stages passed" });
   if (!r.ok) throw new Error(r.message);
   await sequelize.transaction((t) => setLegalHold(t, s.as.chief, { studentId: graduate, reason: "Inspection by the authority" }));
 }, 180_000);

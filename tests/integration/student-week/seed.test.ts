@@ -1,5 +1,4 @@
 import { QueryTypes } from "sequelize";
-import { addDays, format } from "date-fns";
 import { sequelize } from "@/db/index";
 import { Assignment } from "@/db/models";
 import { makeSchool, actAs, closeDb } from "@/tests/helpers/factories";
@@ -10,7 +9,7 @@ import { getAirframe } from "@/db/access/curve-lab/airframes";
 import { defaultSpec, snapshotOf } from "@/lib/curve-lab/demo-spec";
 import { seedStudentWeek } from "@/db/seed/student-week";
 import { getSchool } from "@/db/access/shared/school";
-import { now } from "@/lib/clock";
+import { seedContext, seedDay as day } from "../seed-helpers";
 
 jest.mock("next/cache", () => ({ revalidatePath: jest.fn() }));
 afterAll(async () => {
@@ -51,24 +50,8 @@ test("the demo seed gives every enrolment a planned end, the school a knowledge 
     note: "",
     assignedBy: s.people.instructor.id,
   });
-  const day = (n: number) => format(addDays(now(), n), "yyyy-MM-dd");
   await sequelize.transaction((t) =>
-    seedStudentWeek({
-      t,
-      schoolId: s.school.id,
-      courseId: s.course.id,
-      revisionId: s.revision.id,
-      people: {
-        chief: s.people.chief.id,
-        instructor: s.people.instructor.id,
-        priya: s.people.instructor2.id,
-        rafael: s.people.chief.id,
-        sponsor: s.people.sponsor.id,
-      },
-      students: { "student@chalkwing.test": student },
-      cohorts: { a: s.cohorts.a.id, b: s.cohorts.b.id },
-      day,
-    }),
+    seedStudentWeek(seedContext(s, t, { people: { rafael: s.people.chief.id }, students: { "student@chalkwing.test": student } })),
   );
   const ends = await sequelize.query<{ student_id: string; planned_end_on: string }>(
     `SELECT e.student_id, e.planned_end_on FROM enrolments e JOIN people p ON p.id = e.student_id WHERE p.school_id = :s`,

@@ -1,15 +1,12 @@
 import { QueryTypes } from "sequelize";
-import { addDays, format } from "date-fns";
 import { sequelize } from "@/db/index";
-import { makeSchool, actAs, closeDb, TEST_PASSWORD } from "@/tests/helpers/factories";
+import { actAs, closeDb, TEST_PASSWORD } from "@/tests/helpers/factories";
 import { seedTransfers } from "@/db/seed/transfers";
-import { createRoom } from "@/db/access/rooms/save-room";
 import { verifyChain } from "@/db/access/records/audit-chain";
 import { creditedMinutesFor } from "@/db/access/ground-log/ground-hours";
 import { transferCreditsOf } from "@/db/access/transfers/credits";
 import { retentionOf } from "@/db/access/retention/records";
-import { now } from "@/lib/clock";
-import { makeBriefing } from "../timetable/helpers";
+import { schoolForSeed, seedContext, seedDay as day } from "../seed-helpers";
 
 // The demo's transfer-in (credit at exactly the 14 CFR 141.77(c)(1) cap of 50%), endorsed with a
 // passing knowledge-test result, and a record past retention (transferred out four years ago,
@@ -21,32 +18,8 @@ afterAll(async () => {
 });
 
 test("the demo seed gives a transfer-in at the cap, endorsed with a result, and a record past retention", async () => {
-  const s = await makeSchool("seedxfer");
-  await makeBriefing(s, "Seed briefing", []);
-  await sequelize.transaction((t) => createRoom(s.as.chief, { name: "Briefing room 2", capacity: 10 }, t));
-  // as the demo counts days (db/seed/demo.ts): from the injectable clock, which the seed moves while it writes
-  const day = (n: number) => format(addDays(now(), n), "yyyy-MM-dd");
-  await sequelize.transaction((t) =>
-    seedTransfers(
-      {
-        t,
-        schoolId: s.school.id,
-        courseId: s.course.id,
-        revisionId: s.revision.id,
-        people: {
-          chief: s.people.chief.id,
-          instructor: s.people.instructor.id,
-          priya: s.people.instructor2.id,
-          rafael: s.people.instructor2.id,
-          sponsor: s.people.sponsor.id,
-        },
-        students: {},
-        cohorts: { a: s.cohorts.a.id, b: s.cohorts.b.id },
-        day,
-      },
-      TEST_PASSWORD,
-    ),
-  );
+  const s = await schoolForSeed("seedxfer");
+  await sequelize.transaction((t) => seedTransfers(seedContext(s, t), TEST_PASSWORD));
   const person = async (email: string) =>
     (
       await sequelize.query<{ id: string }>(`SELECT id FROM people WHERE email = :email AND school_id = :s`, {
