@@ -255,10 +255,10 @@ export function toFilter(q: RegisterQuery) {
   return { instructorId: q.instructor, cohortId: q.cohort, stageId: q.stage, from: q.from, to: q.to };
 }
 
-// ---------------------------------------------------------------- the Records list's query string
+// ---------------------------------------------------------------- the paged student lists' query string
 
-/** The Records list's filters and page, from a query string; a bad one is refused naming it. */
-export const recordsListQuerySchema = z
+/** The filters and page of a paged student list (Records, Progress map, Ground log), from a query string; a bad one is refused naming it. */
+export const studentListQuerySchema = z
   .object({
     cohort: z.preprocess(emptyToUndefined, z.string().uuid("must be a cohort id").optional()),
     name: z.preprocess(emptyToUndefined, z.string().trim().max(100, "must be 100 characters or fewer").optional()),
@@ -269,4 +269,4 @@ export const recordsListQuerySchema = z
   })
   .strict();
 
-export type RecordsListQuery = z.output<typeof recordsListQuerySchema>;
+export type StudentListQuery = z.output<typeof studentListQuerySchema>;

@@ -4,7 +4,7 @@ import { uuidParam } from "@/lib/http/api";
 import { activeEnrolment } from "@/db/access/shared/enrolment";
 import { groundHoursFor } from "@/db/access/ground-log/ground-hours";
 import { logbookFor } from "@/db/access/ground-log/logbook";
-import { groundLogStudentsFor, mayViewGroundLog } from "@/db/access/ground-log/visible-students";
+import { groundLogStudentName, groundLogStudentsPage, mayViewGroundLog } from "@/db/access/ground-log/visible-students";
 import { listMakeupFor } from "@/db/access/ground-log/list-makeup";
 import { listSessions } from "@/db/access/timetable/list-sessions";
 import { getSchool } from "@/db/access/shared/school";
@@ -16,6 +16,9 @@ import { PrintButton } from "./_components/print-button";
 import { MAKEUP_STATE_WORDS } from "@/lib/labels";
 import { ScrollArea } from "@/components/ui/scroll-area";
 import { WideTable } from "@/components/ui/wide-table";
+import { StudentFilterForm, StudentPageNav, isFiltered, noStudentsWords } from "@/components/student-pages";
+import { studentListQuerySchema } from "@/lib/records/schema";
+import { fieldLabel } from "@/lib/validation/messages";
 
 export const metadata: Metadata = { title: "Ground log" };
 export const dynamic = "force-dynamic";
@@ -34,13 +37,38 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
   const sp = await searchParams;
   // a student (who records no attendance) sees only their own Ground log: no student picker
   const isStudent = can(user, "students.own") && !can(user, "attendance.record");
-  const choices = isStudent ? [] : await groundLogStudentsFor(user);
+  // the students to choose from, one page at a time (filtered by name and cohort) like Records
+  const listQuery = Object.fromEntries(Object.entries(sp).filter(([k, v]) => k !== "student" && typeof v === "string")) as Record<
+    string,
+    string
+  >;
+  const parsedList = studentListQuerySchema.safeParse(listQuery);
+  const q = parsedList.success ? parsedList.data : {};
+  const listProblem = isStudent || parsedList.success ? null : parsedList.error.issues[0];
+  const list = isStudent ? null : await groundLogStudentsPage(user, { cohortId: q.cohort, name: q.name }, { page: q.page ?? 1 });
+  const choices = list?.rows ?? [];
+  const paged = list !== null && (list.total > list.pageSize || list.page > 1 || isFiltered(q) || listProblem !== null);
+  const listPairs: [string, string][] = [
+    ...(q.name ? ([["name", q.name]] as [string, string][]) : []),
+    ...(q.cohort ? ([["cohort", q.cohort]] as [string, string][]) : []),
+    ...(q.page && q.page > 1 ? ([["page", String(q.page)]] as [string, string][]) : []),
+  ];
   const asked = typeof sp.student === "string" ? sp.student : undefined;
   const badParam = asked !== undefined && !uuidParam.safeParse(asked).success;
   const studentId = isStudent ? user.id : !badParam && asked ? asked : choices[0]?.id;
   const allowed = studentId ? await mayViewGroundLog(user, studentId) : false;
+  const listed = choices.find((c) => c.id === studentId);
+  const otherName = allowed && studentId && !isStudent && !listed ? await groundLogStudentName(user, studentId) : null;
   const student =
-    allowed && studentId ? (isStudent ? { id: user.id, name: user.name } : (choices.find((c) => c.id === studentId) ?? null)) : null;
+    allowed && studentId
+      ? isStudent
+        ? { id: user.id, name: user.name }
+        : listed
+          ? { id: listed.id, name: listed.name }
+          : otherName
+            ? { id: studentId, name: otherName }
+            : null
+      : null;
   const enrolment = student ? await activeEnrolment(user.schoolId, student.id) : null;
   const hours = student && enrolment ? await groundHoursFor(student.id, enrolment.courseId) : null;
   const log = student ? await logbookFor(user.schoolId, student.id) : [];
@@ -61,13 +89,34 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
           {student ? `${student.name}${enrolment ? ` · ${enrolment.courseTitle}` : ""}` : "Ground-training records"}
         </p>
       </header>
+      {list && paged && (
+        <div className="no-print">
+          <StudentFilterForm
+            basePath="/ground-log"
+            q={q}
+            cohorts={list.cohorts}
+            idPrefix="gl-find"
+            keep={student ? [["student", student.id]] : []}
+          />
+        </div>
+      )}
+      {listProblem && (
+        <p role="alert" className="field-error no-print">
+          {fieldLabel(listProblem.path)}: {listProblem.message}. Showing every student instead.
+        </p>
+      )}
+      {list && paged && choices.length === 0 && <p className="no-print text-ink-soft">{noStudentsWords(q, list.page)}</p>}
       {!isStudent && choices.length > 0 && (
         <form method="get" className="card no-print flex flex-wrap items-end gap-3" aria-label="Choose a student">
+          {listPairs.map(([k, v]) => (
+            <input key={k} type="hidden" name={k} value={v} />
+          ))}
           <div className="min-w-60 flex-1">
             <label htmlFor="gl-student" className="field-label">
               Student
             </label>
             <select id="gl-student" name="student" defaultValue={student?.id ?? ""} className="field-input">
+              {student && !listed && <option value={student.id}>{student.name}</option>}
               {choices.map((c) => (
                 <option key={c.id} value={c.id}>
                   {c.name}
@@ -79,6 +128,21 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
           <button type="submit" className="btn-quiet">
             Show
           </button>
+          {list && (
+            <div className="w-full">
+              <StudentPageNav
+                basePath="/ground-log"
+                q={q}
+                page={list.page}
+                pageSize={list.pageSize}
+                shown={choices.length}
+                total={list.total}
+                label="Student list pages"
+                testId="ground-log-student-pages"
+                keep={student ? [["student", student.id]] : []}
+              />
+            </div>
+          )}
         </form>
       )}
       {badParam && (
@@ -86,9 +150,9 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
           student: not a valid id.
         </p>
       )}
-      {!student && (
+      {!student && !(list && choices.length === 0 && (isFiltered(q) || list.page > 1)) && (
         <p className="card">
-          {choices.length === 0 && !isStudent
+          {list && list.total === 0 && !isFiltered(q) && !isStudent
             ? "No student's Ground log is shared with you."
             : "No such student, or not one whose Ground log you may see."}
         </p>

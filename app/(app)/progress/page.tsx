@@ -2,30 +2,57 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { redirect } from "next/navigation";
 import { requirePagePermission, can } from "@/lib/auth/guard";
-import { progressStudentsFor } from "@/db/access/records/student-list";
+import { progressStudentsPage } from "@/db/access/records/student-list";
+import { studentListQuerySchema } from "@/lib/records/schema";
+import { fieldLabel } from "@/lib/validation/messages";
+import { StudentFilterForm, StudentPageNav, isFiltered, noStudentsWords } from "@/components/student-pages";
 
 export const metadata: Metadata = { title: "Progress map" };
 export const dynamic = "force-dynamic";
 
-export default async function ProgressIndexPage() {
+export default async function ProgressIndexPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const user = await requirePagePermission("progress.view", "/progress");
   // who sees no one but themself: straight to the one map, decided before any student is read
   const staff = can(user, "students.all") || can(user, "students.taught");
   if (can(user, "students.own") && !staff && !can(user, "students.sponsored")) redirect(`/progress/${user.id}`);
-  const students = await progressStudentsFor(user);
-  if (students.length === 1 && !staff) redirect(`/progress/${students[0]!.id}`);
+  const raw = Object.fromEntries(Object.entries(await searchParams).filter(([, v]) => typeof v === "string")) as Record<string, string>;
+  const parsed = studentListQuerySchema.safeParse(raw);
+  const q = parsed.success ? parsed.data : {};
+  const problem = parsed.success ? null : parsed.error.issues[0];
+  const {
+    rows: students,
+    total,
+    page,
+    pageSize,
+    cohorts,
+  } = await progressStudentsPage(user, { cohortId: q.cohort, name: q.name }, { page: q.page ?? 1 });
+  // a sponsor with one shared student (and no filter asked for) goes straight to that map
+  if (total === 1 && students.length === 1 && !staff && !isFiltered(q)) redirect(`/progress/${students[0]!.id}`);
+  const none = (
+    <>No Progress map to show{can(user, "students.sponsored") ? ": the students you sponsor have not shared their progress." : "."}</>
+  );
   return (
     <div className="space-y-6">
       <h1 className="text-display">Progress map</h1>
-      {students.length === 0 ? (
-        <p className="text-ink-soft">
-          No Progress map to show{can(user, "students.sponsored") ? ": the students you sponsor have not shared their progress." : "."}
+      {(staff || total > pageSize || isFiltered(q) || page > 1 || problem) && (
+        <StudentFilterForm basePath="/progress" q={q} cohorts={cohorts} idPrefix="progress" />
+      )}
+      {problem && (
+        <p role="alert" className="text-notyet-800">
+          {fieldLabel(problem.path)}: {problem.message}. Showing every student instead.
         </p>
+      )}
+      {students.length === 0 ? (
+        <p className="text-ink-soft">{noStudentsWords(q, page, none)}</p>
       ) : (
-        <ul className="grid gap-2 sm:grid-cols-2 lg:grid-cols-3">
+        <ul className="grid gap-2 sm:grid-cols-2 lg:grid-cols-3" data-testid="progress-students">
           {students.map((s) => (
             <li key={s.id}>
-              <Link href={`/progress/${s.id}`} className="btn-quiet w-full justify-start">
+              <Link href={`/progress/${s.id}`} className="btn-quiet w-full flex-wrap justify-start [overflow-wrap:anywhere]">
                 {s.name}
                 {s.cohortName && <span className="text-caption font-normal text-ink-soft">{s.cohortName}</span>}
               </Link>
@@ -33,6 +60,16 @@ export default async function ProgressIndexPage() {
           ))}
         </ul>
       )}
+      <StudentPageNav
+        basePath="/progress"
+        q={q}
+        page={page}
+        pageSize={pageSize}
+        shown={students.length}
+        total={total}
+        label="Progress map pages"
+        testId="progress-pages"
+      />
     </div>
   );
 }

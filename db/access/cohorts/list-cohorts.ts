@@ -12,17 +12,33 @@ export interface CohortSummary {
   memberCount: number;
 }
 
+const COHORTS = `SELECT c.id, c.name, co.code AS "courseCode", c.lead_instructor_id AS "leadInstructorId", p.name AS "leadInstructorName",
+            c.starts_on AS "startsOn",
+            (SELECT count(*)::int FROM cohort_memberships m WHERE m.cohort_id = c.id AND m.to_date IS NULL) AS "memberCount"`;
+const FROM = `FROM cohorts c JOIN courses co ON co.id = c.course_id JOIN people p ON p.id = c.lead_instructor_id
+      WHERE c.school_id = :schoolId AND (:lead::uuid IS NULL OR c.lead_instructor_id = :lead::uuid)`;
+
 /** Cohorts the caller may see: all of the school's for `all`, else those the instructor leads. */
 export async function listCohorts(schoolId: string, scope: { leadInstructorId?: string } = {}): Promise<CohortSummary[]> {
-  return sequelize.query<CohortSummary>(
-    `SELECT c.id, c.name, co.code AS "courseCode", c.lead_instructor_id AS "leadInstructorId", p.name AS "leadInstructorName",
-            c.starts_on AS "startsOn",
-            (SELECT count(*)::int FROM cohort_memberships m WHERE m.cohort_id = c.id AND m.to_date IS NULL) AS "memberCount"
-       FROM cohorts c JOIN courses co ON co.id = c.course_id JOIN people p ON p.id = c.lead_instructor_id
-      WHERE c.school_id = :schoolId AND (:lead::uuid IS NULL OR c.lead_instructor_id = :lead::uuid)
-      ORDER BY c.starts_on, c.name`,
-    { replacements: { schoolId, lead: scope.leadInstructorId ?? null }, type: QueryTypes.SELECT },
+  return sequelize.query<CohortSummary>(`${COHORTS} ${FROM} ORDER BY c.starts_on, c.name`, {
+    replacements: { schoolId, lead: scope.leadInstructorId ?? null },
+    type: QueryTypes.SELECT,
+  });
+}
+
+/** The first `limit` of those cohorts (the same order) and how many there are in all, in one query. */
+export async function cohortsTop(
+  schoolId: string,
+  scope: { leadInstructorId?: string },
+  limit: number,
+): Promise<{ rows: CohortSummary[]; total: number }> {
+  const rows = await sequelize.query<CohortSummary & { total: number }>(
+    `${COHORTS}, count(*) OVER ()::int AS total ${FROM} ORDER BY c.starts_on, c.name, c.id LIMIT :limit`,
+    { replacements: { schoolId, lead: scope.leadInstructorId ?? null, limit }, type: QueryTypes.SELECT },
   );
+  const total = rows[0]?.total ?? 0;
+  for (const r of rows) delete (r as Partial<typeof r>).total;
+  return { rows, total };
 }
 
 export interface CohortMember {

@@ -1,7 +1,8 @@
 import "server-only";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
-import { accessTo, studentScopeSql } from "../shared/student-scope";
+import { accessTo } from "../shared/student-scope";
+import { studentsPage, type StudentsFilter, type StudentsPage } from "../shared/students-page";
 import type { CurrentUser } from "@/lib/auth/session";
 
 /** Whether the caller may see this student's Ground log (the "groundlog" scope: staff, self, a sponsor the student shares hours and attendance with). */
@@ -9,14 +10,24 @@ export async function mayViewGroundLog(user: CurrentUser, studentId: string): Pr
   return (await accessTo(user, studentId, "groundlog")) !== null;
 }
 
-/** Students whose Ground log the caller may open from the Ground log page; staff also see each one's current cohort. */
-export async function groundLogStudentsFor(user: CurrentUser): Promise<{ id: string; name: string; cohortName: string | null }[]> {
-  const f = studentScopeSql(user, "groundlog", "p.id");
-  return sequelize.query(
-    `SELECT p.id, p.name, CASE WHEN ${f.staffSql} THEN c.name END AS "cohortName" FROM people p
-       LEFT JOIN cohort_memberships m ON m.student_id = p.id AND m.to_date IS NULL LEFT JOIN cohorts c ON c.id = m.cohort_id
-      WHERE p.school_id = :school AND 'student' = ANY(p.roles) AND ${f.sql}
-      ORDER BY 3 NULLS LAST, p.name`,
-    { replacements: { school: user.schoolId, ...f.replacements }, type: QueryTypes.SELECT },
-  );
+/**
+ * One page of the students whose Ground log the caller may open from the Ground log page (every
+ * student account the scope allows, ended trainings too), filtered and paged in SQL by the shared
+ * student pager; staff also see each one's current cohort.
+ */
+export function groundLogStudentsPage(
+  user: CurrentUser,
+  filter: StudentsFilter = {},
+  opts: { page?: number; pageSize?: number } = {},
+): Promise<StudentsPage> {
+  return studentsPage(user, "groundlog", filter, { ...opts, who: "accounts", cohortToStaffOnly: true });
+}
+
+/** The name of a student of the caller's school (asked once the Ground log scope has allowed them). */
+export async function groundLogStudentName(user: CurrentUser, studentId: string): Promise<string | null> {
+  const [row] = await sequelize.query<{ name: string }>(`SELECT name FROM people WHERE id = :id AND school_id = :school`, {
+    replacements: { id: studentId, school: user.schoolId },
+    type: QueryTypes.SELECT,
+  });
+  return row?.name ?? null;
 }

@@ -19,7 +19,17 @@ export interface OralCheckDue {
   lastTaughtAt: Date;
 }
 
+/** The first `limit` students (by name) with items ready for an oral check. */
 export async function oralChecksDue(caller: Caller, limit = 40): Promise<OralCheckDue[]> {
+  return (await oralChecksDueTop(caller, limit)).students;
+}
+
+/**
+ * The first `limit` students (by name) with items ready for an oral check, and how many students
+ * have such items in all: one query, the students bounded in SQL (a rank over the students), so
+ * the rows read stay bounded whatever the number of students taught.
+ */
+export async function oralChecksDueTop(caller: Caller, limit: number): Promise<{ students: OralCheckDue[]; total: number }> {
   const scope = studentScopeSql(caller, "records", "g.student_id");
   const rows = await sequelize.query<{
     student_id: string;
@@ -28,6 +38,7 @@ export async function oralChecksDue(caller: Caller, limit = 40): Promise<OralChe
     code: string;
     title: string;
     last_taught: Date;
+    total: number;
   }>(
     `WITH taught AS (
        SELECT g.student_id, x.item_id, max(g.occurred_at) AS last_taught
@@ -39,7 +50,9 @@ export async function oralChecksDue(caller: Caller, limit = 40): Promise<OralChe
                  WHERE c.lead_instructor_id = :me AND c.school_id = :schoolId AND m.to_date IS NULL))
         GROUP BY g.student_id, x.item_id
      )
-     SELECT t.student_id, p.name AS student_name, i.id AS item_id, i.code, i.title, t.last_taught
+     , due AS (
+     SELECT t.student_id, p.name AS student_name, i.id AS item_id, i.code, i.title, t.last_taught,
+            st.position AS stage_position, i.position AS item_position
        FROM taught t
        JOIN people p ON p.id = t.student_id AND p.active
        JOIN active_enrolments e ON e.student_id = t.student_id
@@ -57,9 +70,17 @@ export async function oralChecksDue(caller: Caller, limit = 40): Promise<OralChe
                WHERE s.student_id = t.student_id AND s.syllabus_item_id = i.id
                  AND NOT EXISTS (SELECT 1 FROM sign_off_withdrawals w WHERE w.sign_off_id = s.id)
                  AND NOT EXISTS (SELECT 1 FROM sign_offs a WHERE a.amends_id = s.id))
-      ORDER BY p.name, t.student_id, st.position, i.position`,
+     ), ranked AS (
+       SELECT d.student_id, dense_rank() OVER (ORDER BY d.student_name, d.student_id) AS rk
+         FROM (SELECT DISTINCT student_id, student_name FROM due) d
+     )
+     SELECT d.student_id, d.student_name, d.item_id, d.code, d.title, d.last_taught,
+            (SELECT count(*) FROM ranked)::int AS total
+       FROM due d JOIN ranked r ON r.student_id = d.student_id
+      WHERE r.rk <= :limit
+      ORDER BY r.rk, d.stage_position, d.item_position`,
     {
-      replacements: { schoolId: caller.schoolId, me: caller.id, ...scope.replacements },
+      replacements: { schoolId: caller.schoolId, me: caller.id, limit, ...scope.replacements },
       type: QueryTypes.SELECT,
     },
   );
@@ -67,12 +88,11 @@ export async function oralChecksDue(caller: Caller, limit = 40): Promise<OralChe
   for (const r of rows) {
     let s = byStudent.get(r.student_id);
     if (!s) {
-      if (byStudent.size >= limit) break;
       s = { studentId: r.student_id, studentName: r.student_name, items: [], lastTaughtAt: r.last_taught };
       byStudent.set(r.student_id, s);
     }
     s.items.push({ id: r.item_id, code: r.code, title: r.title });
     if (r.last_taught > s.lastTaughtAt) s.lastTaughtAt = r.last_taught;
   }
-  return [...byStudent.values()];
+  return { students: [...byStudent.values()], total: rows[0]?.total ?? 0 };
 }

@@ -1,7 +1,7 @@
 import "server-only";
 import { listSessions, type SessionRow } from "../timetable/list-sessions";
 import { stagesWaitingTop, type StageWaiting } from "../records/stages-waiting";
-import { oralChecksDue, type OralCheckDue } from "./oral-checks-due";
+import { oralChecksDueTop, type OralCheckDue } from "./oral-checks-due";
 import { getSchool } from "../shared/school";
 import { can } from "@/lib/auth/can";
 import { now } from "@/lib/clock";
@@ -25,8 +25,10 @@ export interface TeachingWeek {
   checksDue: StageWaiting[];
   /** how many stages are ready for their check in all */
   checksDueTotal: number;
-  /** items taught in an attended session with no satisfactory oral check yet, per student */
+  /** items taught in an attended session with no satisfactory oral check yet, per student (the first ORAL_CHECKS_LISTED by name) */
   oralChecksDue: OralCheckDue[];
+  /** how many students have such items in all */
+  oralChecksDueTotal: number;
 }
 
 function addDays(date: string, days: number): string {
@@ -37,6 +39,8 @@ function addDays(date: string, days: number): string {
 
 /** How many stages ready for their check the Today page names; the rest are counted (a caller who keeps the whole school's records may have thousands). */
 export const CHECKS_DUE_SHOWN = 10;
+/** How many students with items ready for an oral check the Today page lists (5 shown, the rest folded); the others are counted. */
+export const ORAL_CHECKS_LISTED = 40;
 
 export async function teachingWeek(user: CurrentUser): Promise<TeachingWeek> {
   const { timeZone } = await getSchool(user.schoolId);
@@ -54,8 +58,11 @@ export async function teachingWeek(user: CurrentUser): Promise<TeachingWeek> {
     { sort: "starts_at", dir: "asc", pageSize: 200 },
   );
   const [checksDue, oralDue] = can(user, "today.teaching")
-    ? await Promise.all([stagesWaitingTop(user, CHECKS_DUE_SHOWN), oralChecksDue(user)])
-    : [{ total: 0, top: [] }, []];
+    ? await Promise.all([stagesWaitingTop(user, CHECKS_DUE_SHOWN), oralChecksDueTop(user, ORAL_CHECKS_LISTED)])
+    : [
+        { total: 0, top: [] },
+        { students: [], total: 0 },
+      ];
   return {
     today,
     timeZone,
@@ -65,7 +72,8 @@ export async function teachingWeek(user: CurrentUser): Promise<TeachingWeek> {
     weekSessions: rows.filter((r) => r.date !== today),
     checksDue: checksDue.top,
     checksDueTotal: checksDue.total,
-    oralChecksDue: oralDue,
+    oralChecksDue: oralDue.students,
+    oralChecksDueTotal: oralDue.total,
   };
 }
 

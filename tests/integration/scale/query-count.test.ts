@@ -4,7 +4,10 @@ import { chiefRecordsSummary, TODAY_WAITING_SHOWN } from "@/db/access/records/ch
 import { stagesWaiting } from "@/db/access/records/stages-waiting";
 import { signOffRegister, REGISTER_PAGE_SIZE } from "@/db/access/records/sign-off-register";
 import { progressFor } from "@/db/access/records/progress-map";
-import { progressStudentsFor } from "@/db/access/records/student-list";
+import { progressStudentsPage } from "@/db/access/records/student-list";
+import { groundLogStudentsPage } from "@/db/access/ground-log/visible-students";
+import { cohortsTop } from "@/db/access/cohorts/list-cohorts";
+import { FOCUS_SHOWN } from "@/db/access/today/focus-list";
 import { recordStudentsPage, RECORDS_PAGE_SIZE } from "@/db/access/records/record-students-page";
 import { schoolOverview } from "@/db/access/today/school-overview";
 import { todayFocusList } from "@/db/access/today/focus-list";
@@ -40,10 +43,12 @@ async function countQueries(work: () => Promise<unknown>): Promise<number> {
 
 const PAGES: Record<string, () => Promise<unknown>> = {
   "chief's Today": () => Promise.all([chiefRecordsSummary(s.as.chief), schoolOverview(s.as.chief), todayFocusList(s.as.chief)]),
-  "instructor's Today list": () => todayFocusList(s.as.instructor),
+  "instructor's Today list": () => Promise.all([todayFocusList(s.as.instructor), todayFocusList(s.as.instructor2)]),
+  "instructor's Today, cohorts led": () => cohortsTop(s.school.id, { leadInstructorId: s.people.instructor.id }, FOCUS_SHOWN),
   "instructor's Today, week and checks due": () => teachingWeek(s.as.instructor),
   "Sign-off register (first page)": () => signOffRegister(s.as.chief),
-  "Progress map index": () => progressStudentsFor(s.as.chief),
+  "Progress map list (first page)": () => Promise.all([progressStudentsPage(s.as.chief), progressStudentsPage(s.as.instructor)]),
+  "Ground log student list (first page)": () => Promise.all([groundLogStudentsPage(s.as.chief), groundLogStudentsPage(s.as.instructor)]),
   "one Progress map": () => progressFor(s.as.chief, s.people.students[0]!.id),
   "chief's Records list (first page)": () => recordStudentsPage(s.as.chief),
   "Timetable list": () => Promise.all([listSessions(s.as.instructor, {}), listSessions(s.as.chief, {}), schedulingChoices(s.as.chief)]),

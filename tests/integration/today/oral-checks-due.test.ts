@@ -10,7 +10,7 @@ import { scheduleSession } from "@/db/access/timetable/schedule-session";
 import { recordAttendance } from "@/db/access/ground-log/record-attendance";
 import { withdrawOralCheck } from "@/db/access/records/oral-check-corrections";
 import { scheduleSessionSchema, recordAttendanceSchema } from "@/lib/timetable/schema";
-import { oralChecksDue } from "@/db/access/today/oral-checks-due";
+import { oralChecksDue, oralChecksDueTop } from "@/db/access/today/oral-checks-due";
 import { teachingWeek } from "@/db/access/today/teaching-week";
 
 afterAll(closeDb);
@@ -69,6 +69,12 @@ describe("items ready for an oral check", () => {
     // on the instructor's Today with the rest of the checks due
     const week = await teachingWeek(s.as.instructor);
     expect(week.oralChecksDue.map((d) => d.studentId).sort()).toEqual([st0, st2].sort());
+    expect(week.oralChecksDueTotal).toBe(2);
+    // bounded in SQL: the first student by name with every one of their items, and the number of students in all
+    const top = await oralChecksDueTop(s.as.instructor, 1);
+    expect(top.total).toBe(2);
+    expect(top.students).toEqual(due.slice(0, 1));
+    expect(top.students[0]!.items.length).toBe(2);
   });
 
   it("an item leaves the list once a check in force meets the standard on it; Not yet or a withdrawn check keeps it", async () => {

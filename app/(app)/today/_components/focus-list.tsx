@@ -5,6 +5,8 @@ import { useQuery } from "@tanstack/react-query";
 interface FocusList {
   title: string;
   rows: { id: string; primary: string; secondary: string; href?: string }[];
+  total: number;
+  more?: { href: string; label: string };
 }
 
 export function FocusList() {
@@ -25,6 +27,11 @@ export function FocusList() {
         </p>
       )}
       {data && data.rows.length === 0 && <p className="mt-2 text-ink-soft">Nothing here yet.</p>}
+      {data && data.total > data.rows.length && (
+        <p className="mt-2 text-caption text-ink-soft" data-testid="focus-count">
+          The first <span className="num">{data.rows.length}</span> of <span className="num">{data.total.toLocaleString("en-GB")}</span>:
+        </p>
+      )}
       {data && data.rows.length > 0 && (
         <ul className="mt-3 divide-y divide-paper-edge" data-testid="focus-list">
           {data.rows.map((r) => (
@@ -40,6 +47,11 @@ export function FocusList() {
             </li>
           ))}
         </ul>
+      )}
+      {data?.more && data.total > data.rows.length && (
+        <Link href={data.more.href} className="mt-1 inline-block min-h-touch py-2 text-caption underline">
+          {data.more.label}
+        </Link>
       )}
     </section>
   );

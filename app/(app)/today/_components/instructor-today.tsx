@@ -1,5 +1,6 @@
 import Link from "next/link";
-import { listCohorts } from "@/db/access/cohorts/list-cohorts";
+import { cohortsTop } from "@/db/access/cohorts/list-cohorts";
+import { FOCUS_SHOWN } from "@/db/access/today/focus-list";
 import { teachingWeek } from "@/db/access/today/teaching-week";
 import type { OralCheckDue } from "@/db/access/today/oral-checks-due";
 import type { SessionRow } from "@/db/access/timetable/list-sessions";
@@ -46,7 +47,11 @@ function OralCheckDueRow({ d, timeZone }: { d: OralCheckDue; timeZone: string })
 }
 
 export async function InstructorToday({ user }: { user: CurrentUser }) {
-  const [cohorts, week] = await Promise.all([listCohorts(user.schoolId, { leadInstructorId: user.id }), teachingWeek(user)]);
+  const [{ rows: cohorts, total: cohortsTotal }, week] = await Promise.all([
+    cohortsTop(user.schoolId, { leadInstructorId: user.id }, FOCUS_SHOWN),
+    teachingWeek(user),
+  ]);
+  const oralFolded = week.oralChecksDue.length - ORAL_CHECKS_SHOWN;
   return (
     <>
       <section className="card" aria-labelledby="teaching-today-title">
@@ -86,8 +91,7 @@ export async function InstructorToday({ user }: { user: CurrentUser }) {
             {week.oralChecksDue.length > ORAL_CHECKS_SHOWN && (
               <details className="mt-1">
                 <summary className="min-h-touch cursor-pointer py-2 underline">
-                  {week.oralChecksDue.length - ORAL_CHECKS_SHOWN} more student
-                  {week.oralChecksDue.length - ORAL_CHECKS_SHOWN === 1 ? "" : "s"} with items ready for an oral check
+                  {oralFolded} more student{oralFolded === 1 ? "" : "s"} with items ready for an oral check
                 </summary>
                 <ul className="divide-y divide-paper-edge" data-testid="oral-checks-due-more">
                   {week.oralChecksDue.slice(ORAL_CHECKS_SHOWN).map((d) => (
@@ -95,6 +99,15 @@ export async function InstructorToday({ user }: { user: CurrentUser }) {
                   ))}
                 </ul>
               </details>
+            )}
+            {week.oralChecksDueTotal > week.oralChecksDue.length && (
+              <p className="mt-1 text-caption text-ink-soft" data-testid="oral-checks-due-count">
+                <span className="num">{week.oralChecksDueTotal.toLocaleString("en-GB")}</span> students have items ready in all; the first{" "}
+                <span className="num">{week.oralChecksDue.length}</span> by name are listed.{" "}
+                <Link href="/records" className="inline-block min-h-touch py-2 underline">
+                  Every student in Records
+                </Link>
+              </p>
             )}
           </>
         )}
@@ -145,6 +158,15 @@ export async function InstructorToday({ user }: { user: CurrentUser }) {
               </li>
             ))}
           </ul>
+        )}
+        {cohortsTotal > cohorts.length && (
+          <p className="mt-2 text-caption text-ink-soft" data-testid="lead-count">
+            The first <span className="num">{cohorts.length}</span> of <span className="num">{cohortsTotal.toLocaleString("en-GB")}</span>{" "}
+            cohorts you lead, by start date.{" "}
+            <Link href="/records" className="inline-block min-h-touch py-2 underline">
+              Their students in Records
+            </Link>
+          </p>
         )}
       </section>
     </>

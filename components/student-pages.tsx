@@ -1,0 +1,134 @@
+import Link from "next/link";
+import type { ReactNode } from "react";
+
+// The UI pieces of a paged student list (Records, Progress map, Ground log): the filter form
+// (a part of the name, a cohort), the line that names a bad query string, and the page links
+// (Previous / Next keep the filters, "Students x to y of N"). The lists themselves stay each page's own.
+
+export interface StudentListState {
+  cohort?: string | undefined;
+  name?: string | undefined;
+  page?: number | undefined;
+}
+
+/** The filters that are set, as query-string pairs (the page left out). */
+function filterPairs(q: StudentListState, keep: [string, string][] = []): [string, string][] {
+  const pairs: [string, string][] = [...keep];
+  if (q.name) pairs.push(["name", q.name]);
+  if (q.cohort) pairs.push(["cohort", q.cohort]);
+  return pairs;
+}
+
+/** The address of page `page` of the list at `basePath`, keeping its filters (and `keep`, e.g. the chosen student). */
+export function studentPageHref(basePath: string, q: StudentListState, page: number, keep: [string, string][] = []): string {
+  const pairs = filterPairs(q, keep);
+  if (page > 1) pairs.push(["page", String(page)]);
+  return pairs.length ? `${basePath}?${new URLSearchParams(pairs).toString()}` : basePath;
+}
+
+export function isFiltered(q: StudentListState): boolean {
+  return Boolean(q.name || q.cohort);
+}
+
+export function StudentFilterForm({
+  basePath,
+  q,
+  cohorts,
+  idPrefix = "sl",
+  keep = [],
+  label = "Find a student",
+}: {
+  basePath: string;
+  q: StudentListState;
+  cohorts: { id: string; name: string }[];
+  idPrefix?: string;
+  /** other query-string pairs the form carries on (hidden) */
+  keep?: [string, string][];
+  label?: string;
+}) {
+  return (
+    <form method="get" action={basePath} className="card grid gap-3 sm:grid-cols-3" aria-label={label}>
+      {keep.map(([k, v]) => (
+        <input key={k} type="hidden" name={k} value={v} />
+      ))}
+      <div>
+        <label htmlFor={`${idPrefix}-name`} className="field-label">
+          Name contains
+        </label>
+        <input id={`${idPrefix}-name`} name="name" type="search" maxLength={100} defaultValue={q.name ?? ""} className="field-input" />
+      </div>
+      <div>
+        <label htmlFor={`${idPrefix}-cohort`} className="field-label">
+          Cohort
+        </label>
+        <select id={`${idPrefix}-cohort`} name="cohort" defaultValue={q.cohort ?? ""} className="field-input">
+          <option value="">Any</option>
+          {cohorts.map((c) => (
+            <option key={c.id} value={c.id}>
+              {c.name}
+            </option>
+          ))}
+        </select>
+      </div>
+      <div className="flex items-end gap-2">
+        <button type="submit" className="btn-primary">
+          Show
+        </button>
+        {isFiltered(q) && (
+          <Link href={studentPageHref(basePath, {}, 1, keep)} className="btn-quiet">
+            Clear
+          </Link>
+        )}
+      </div>
+    </form>
+  );
+}
+
+/** What to say when a page of the list holds no student. */
+export function noStudentsWords(q: StudentListState, page: number, none: ReactNode = "No students to show."): ReactNode {
+  return page > 1 ? `No students on page ${page}.` : isFiltered(q) ? "No student matches." : none;
+}
+
+export function StudentPageNav({
+  basePath,
+  q,
+  page,
+  pageSize,
+  shown,
+  total,
+  label,
+  testId,
+  keep = [],
+}: {
+  basePath: string;
+  q: StudentListState;
+  page: number;
+  pageSize: number;
+  /** how many students this page shows */
+  shown: number;
+  total: number;
+  label: string;
+  testId: string;
+  keep?: [string, string][];
+}) {
+  if (total <= pageSize && page <= 1) return null;
+  const first = (page - 1) * pageSize + 1;
+  const n = (x: number) => x.toLocaleString("en-GB");
+  return (
+    <nav className="flex flex-wrap items-center gap-3 text-caption" aria-label={label} data-testid={testId}>
+      <span className="num text-ink-soft">
+        {shown ? `Students ${n(first)} to ${n(first + shown - 1)} of ${n(total)}` : `${n(total)} students`}
+      </span>
+      {page > 1 && (
+        <Link className="btn-quiet" href={studentPageHref(basePath, q, page - 1, keep)} rel="prev">
+          Previous page
+        </Link>
+      )}
+      {page * pageSize < total && (
+        <Link className="btn-quiet" href={studentPageHref(basePath, q, page + 1, keep)} rel="next">
+          Next page
+        </Link>
+      )}
+    </nav>
+  );
+}

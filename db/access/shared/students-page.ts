@@ -1,0 +1,90 @@
+import "server-only";
+import { QueryTypes } from "sequelize";
+import { sequelize } from "../../index";
+import { studentScopeSql, type Caller, type ScopePurpose } from "./student-scope";
+
+// Every list of students that grows with the school, one page at a time (Records, the Progress
+// map list, the Ground log's student list): the students the caller may see for a purpose
+// (active, with an active enrolment, unless asked for every student account), filtered by cohort
+// and by a part of the name, ordered by cohort then name, paged in SQL (LIMIT/OFFSET) with the
+// number that match from one count; the cohorts to filter by from one grouped query. Three
+// queries, whatever the size of the school.
+
+export const STUDENTS_PAGE_SIZE = 50;
+
+export interface ListedStudent {
+  id: string;
+  name: string;
+  cohortName: string | null;
+}
+
+export interface StudentsFilter {
+  cohortId?: string | undefined;
+  /** a part of the student's name, any case */
+  name?: string | undefined;
+}
+
+export interface StudentsPage {
+  rows: ListedStudent[];
+  /** how many students match the filter */
+  total: number;
+  page: number;
+  pageSize: number;
+  /** the cohorts of the students the caller may see (not only the filtered ones) */
+  cohorts: { id: string; name: string }[];
+}
+
+export interface StudentsPageOptions {
+  page?: number;
+  pageSize?: number;
+  /**
+   * "enrolled" (default): active people with an active enrolment. "accounts": every student account
+   * of the school the scope allows, enrolled or not (the Ground log keeps ended trainings).
+   */
+  who?: "enrolled" | "accounts";
+  /** name the cohort only to staff (a sponsor or the student sees no cohort names) */
+  cohortToStaffOnly?: boolean;
+}
+
+function likePattern(part: string): string {
+  return `%${part.replace(/[\\%_]/g, (ch) => `\\${ch}`)}%`;
+}
+
+export async function studentsPage(
+  caller: Caller,
+  purpose: ScopePurpose,
+  filter: StudentsFilter = {},
+  opts: StudentsPageOptions = {},
+): Promise<StudentsPage> {
+  const scope = studentScopeSql(caller, purpose, "p.id");
+  const pageSize = opts.pageSize ?? STUDENTS_PAGE_SIZE;
+  const page = Math.max(1, Math.floor(opts.page ?? 1));
+  const replacements = {
+    schoolId: caller.schoolId,
+    ...scope.replacements,
+    cohortId: filter.cohortId ?? null,
+    name: filter.name ? likePattern(filter.name) : null,
+  };
+  const enrolled = (opts.who ?? "enrolled") === "enrolled";
+  const from = `FROM people p
+       ${enrolled ? "JOIN active_enrolments e ON e.student_id = p.id" : ""}
+       LEFT JOIN cohort_memberships m ON m.student_id = p.id AND m.to_date IS NULL LEFT JOIN cohorts c ON c.id = m.cohort_id`;
+  const cohortShown = opts.cohortToStaffOnly ? `(${scope.staffSql})` : "TRUE";
+  const where = `WHERE p.school_id = :schoolId AND ${enrolled ? "p.active" : "'student' = ANY(p.roles)"} AND ${scope.sql}`;
+  const matching = `${where}
+        AND (CAST(:cohortId AS uuid) IS NULL OR (m.cohort_id = CAST(:cohortId AS uuid) AND ${cohortShown}))
+        AND (CAST(:name AS text) IS NULL OR p.name ILIKE CAST(:name AS text))`;
+  const [rows, [count], cohorts] = await Promise.all([
+    sequelize.query<ListedStudent>(
+      `SELECT p.id, p.name, CASE WHEN ${cohortShown} THEN c.name END AS "cohortName" ${from} ${matching}
+        ORDER BY 3 NULLS LAST, p.name, p.id LIMIT :limit OFFSET :offset`,
+      { replacements: { ...replacements, limit: pageSize, offset: (page - 1) * pageSize }, type: QueryTypes.SELECT },
+    ),
+    sequelize.query<{ n: number }>(`SELECT count(*)::int AS n ${from} ${matching}`, { replacements, type: QueryTypes.SELECT }),
+    sequelize.query<{ id: string; name: string }>(
+      `SELECT c.id, c.name ${from} ${where} AND c.id IS NOT NULL AND ${cohortShown} GROUP BY c.id, c.name ORDER BY c.name`,
+      { replacements, type: QueryTypes.SELECT },
+    ),
+  ]);
+  return { rows, total: count?.n ?? 0, page, pageSize, cohorts };
+}
