@@ -6,7 +6,6 @@ import { getSchool } from "@/db/access/shared/school";
 import { RETENTION_RULES } from "@/lib/retention/rules";
 import { RETENTION_STATE_WORDS, words } from "@/lib/labels";
 import { formatDay } from "@/lib/time";
-import { Caution } from "@/components/caution";
 import { ArchiveButton, LiftHoldForm, RetentionSettingsForm, SetHoldForm } from "./_components/retention-forms";
 
 export const metadata: Metadata = { title: "Retention" };
@@ -87,7 +86,6 @@ export default async function RetentionPage() {
           step you take. Today is {formatDay(today)}.{saved ? "" : " The rules below are the defaults until you save them."}
         </p>
       </div>
-      <Caution />
       <RetentionSettingsForm settings={settings} />
       <Section tz={tz} id="due" title="Ready to archive" rows={of("due")} empty="No record is past its retention date." />
       <Section tz={tz} id="held" title="On legal hold" rows={of("held")} empty="No record is on legal hold." />

@@ -4,7 +4,6 @@ import { listTransferCredits } from "@/db/access/transfers/credits";
 import { transferChoices } from "@/db/access/transfers/students";
 import { getSchool } from "@/db/access/shared/school";
 import { formatDay, hoursLabel } from "@/lib/time";
-import { Caution } from "@/components/caution";
 import { TransferForm } from "./_components/transfer-form";
 
 export const metadata: Metadata = { title: "Transfers in" };
@@ -29,7 +28,6 @@ export default async function TransfersPage() {
           once recorded.
         </p>
       </div>
-      <Caution />
       <section aria-labelledby="record-credit" className="space-y-2">
         <h2 id="record-credit">Record a credit</h2>
         <TransferForm students={students} />
