@@ -1,7 +1,8 @@
 import { z } from "zod";
 import { calendarDate } from "@/lib/validation/dates";
 
-// End of training and transfers: the zod schemas used by the forms and the server actions.
+// End of training and withdrawal: the zod schemas used by the forms and the server actions
+// (transfer credit's schema is lib/transfers/schema.ts).
 
 export const END_KINDS = ["graduated", "terminated", "transferred"] as const;
 export type EndKind = (typeof END_KINDS)[number];
@@ -19,21 +20,6 @@ export const endTrainingSchema = z.object({
   password,
 });
 export type EndTrainingInput = z.output<typeof endTrainingSchema>;
-
-export const transferCreditSchema = z.object({
-  studentId: uuid,
-  sourceSchool: z.string().trim().min(2, "name the earlier school").max(200),
-  sourceApproved: z.boolean("say whether the earlier course was approved"),
-  creditedMinutes: z.number("give the minutes credited").int("whole minutes").min(0).max(100_000),
-  itemIds: z.array(uuid).max(500),
-  /** the knowledge test the receiving school gave: date, score and what it covered */
-  testGivenOn: calendarDate(),
-  testScorePercent: z.number("give the test score").min(0).max(100),
-  testNote: z.string().trim().max(2000).default(""),
-  /** an uploaded evidence file's id (stored like handouts), optional */
-  evidenceId: uuid.optional(),
-});
-export type TransferCreditInput = z.output<typeof transferCreditSchema>;
 
 /** Withdrawing a student from their cohort on a date, with a reason (the enrolment on the course goes on). */
 export const withdrawFromCohortSchema = z.object({
