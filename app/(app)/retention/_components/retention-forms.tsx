@@ -74,24 +74,29 @@ export function RetentionSettingsForm({ settings }: { settings: RetentionSetting
   );
 }
 
-/** Set a legal hold (with a reason) on one student's record. */
-export function SetHoldForm({ studentId, name }: { studentId: string; name: string }) {
+/** A one-field form that sends a reason: setting and lifting a legal hold. */
+function HoldReasonForm(props: {
+  label: string;
+  fieldLabel: string;
+  submitLabel: string;
+  done: string;
+  send: (reason: string) => Promise<Result>;
+}) {
   const id = useId();
-  const [key] = useState(() => crypto.randomUUID());
   const { message, errors, busy, run } = useSubmit();
   return (
     <form
       className="mt-2 space-y-2"
-      aria-label={`Legal hold on the record of ${name}`}
+      aria-label={props.label}
       noValidate
       onSubmit={(e) => {
         e.preventDefault();
         const reason = String(new FormData(e.currentTarget).get("reason") ?? "");
-        void run(() => setLegalHoldAction({ studentId, reason, idempotencyKey: key }), "Legal hold set.");
+        void run(() => props.send(reason), props.done);
       }}
     >
       <label htmlFor={`${id}-reason`} className="field-label">
-        Reason for a legal hold
+        {props.fieldLabel}
       </label>
       <input
         id={`${id}-reason`}
@@ -106,48 +111,37 @@ export function SetHoldForm({ studentId, name }: { studentId: string; name: stri
         </p>
       )}
       <button type="submit" className="btn-quiet" disabled={busy}>
-        Set a legal hold
+        {props.submitLabel}
       </button>
       <div aria-live="polite">{message && <p className="text-caption text-ink-soft">{message}</p>}</div>
     </form>
   );
 }
 
+/** Set a legal hold (with a reason) on one student's record. */
+export function SetHoldForm({ studentId, name }: { studentId: string; name: string }) {
+  const [key] = useState(() => crypto.randomUUID());
+  return (
+    <HoldReasonForm
+      label={`Legal hold on the record of ${name}`}
+      fieldLabel="Reason for a legal hold"
+      submitLabel="Set a legal hold"
+      done="Legal hold set."
+      send={(reason) => setLegalHoldAction({ studentId, reason, idempotencyKey: key })}
+    />
+  );
+}
+
 /** Lift a legal hold, with a reason. */
 export function LiftHoldForm({ holdId, name }: { holdId: string; name: string }) {
-  const id = useId();
-  const { message, errors, busy, run } = useSubmit();
   return (
-    <form
-      className="mt-2 space-y-2"
-      aria-label={`Lift the legal hold on the record of ${name}`}
-      noValidate
-      onSubmit={(e) => {
-        e.preventDefault();
-        const reason = String(new FormData(e.currentTarget).get("reason") ?? "");
-        void run(() => liftLegalHoldAction({ holdId, reason }), "Legal hold lifted.");
-      }}
-    >
-      <label htmlFor={`${id}-reason`} className="field-label">
-        Reason for lifting the hold
-      </label>
-      <input
-        id={`${id}-reason`}
-        name="reason"
-        className="field-input"
-        maxLength={2000}
-        {...(errors.reason ? { "aria-invalid": true, "aria-describedby": `${id}-error` } : {})}
-      />
-      {errors.reason && (
-        <p id={`${id}-error`} className="field-error">
-          {errors.reason[0]}
-        </p>
-      )}
-      <button type="submit" className="btn-quiet" disabled={busy}>
-        Lift the hold
-      </button>
-      <div aria-live="polite">{message && <p className="text-caption text-ink-soft">{message}</p>}</div>
-    </form>
+    <HoldReasonForm
+      label={`Lift the legal hold on the record of ${name}`}
+      fieldLabel="Reason for lifting the hold"
+      submitLabel="Lift the hold"
+      done="Legal hold lifted."
+      send={(reason) => liftLegalHoldAction({ holdId, reason })}
+    />
   );
 }
 
