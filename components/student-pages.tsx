@@ -89,16 +89,61 @@ export function noStudentsWords(q: StudentListState, page: number, none: ReactNo
   return page > 1 ? `No students on page ${page}.` : isFiltered(q) ? "No student matches." : none;
 }
 
-export function StudentPageNav({
+/** Previous / Next page links of any paged list, keeping its query-string pairs, and "<noun> x to y of N". */
+export function ListPageNav({
   basePath,
-  q,
+  pairs,
   page,
   pageSize,
   shown,
   total,
   label,
   testId,
+  noun = "Students",
+}: {
+  basePath: string;
+  /** the list's filters (and anything else to keep), as query-string pairs, the page left out */
+  pairs: [string, string][];
+  page: number;
+  pageSize: number;
+  /** how many rows this page shows */
+  shown: number;
+  total: number;
+  label: string;
+  testId: string;
+  noun?: string;
+}) {
+  if (total <= pageSize && page <= 1) return null;
+  const first = (page - 1) * pageSize + 1;
+  const n = (x: number) => x.toLocaleString("en-GB");
+  const href = (p: number) => {
+    const all: [string, string][] = p > 1 ? [...pairs, ["page", String(p)]] : pairs;
+    return all.length ? `${basePath}?${new URLSearchParams(all).toString()}` : basePath;
+  };
+  return (
+    <nav className="flex flex-wrap items-center gap-3 text-caption" aria-label={label} data-testid={testId}>
+      <span className="num text-ink-soft">
+        {shown ? `${noun} ${n(first)} to ${n(first + shown - 1)} of ${n(total)}` : `${n(total)} in all`}
+      </span>
+      {page > 1 && (
+        <Link className="btn-quiet" href={href(page - 1)} rel="prev">
+          Previous page
+        </Link>
+      )}
+      {page * pageSize < total && (
+        <Link className="btn-quiet" href={href(page + 1)} rel="next">
+          Next page
+        </Link>
+      )}
+    </nav>
+  );
+}
+
+export function StudentPageNav({
+  basePath,
+  q,
   keep = [],
+  ...rest
 }: {
   basePath: string;
   q: StudentListState;
@@ -111,24 +156,5 @@ export function StudentPageNav({
   testId: string;
   keep?: [string, string][];
 }) {
-  if (total <= pageSize && page <= 1) return null;
-  const first = (page - 1) * pageSize + 1;
-  const n = (x: number) => x.toLocaleString("en-GB");
-  return (
-    <nav className="flex flex-wrap items-center gap-3 text-caption" aria-label={label} data-testid={testId}>
-      <span className="num text-ink-soft">
-        {shown ? `Students ${n(first)} to ${n(first + shown - 1)} of ${n(total)}` : `${n(total)} students`}
-      </span>
-      {page > 1 && (
-        <Link className="btn-quiet" href={studentPageHref(basePath, q, page - 1, keep)} rel="prev">
-          Previous page
-        </Link>
-      )}
-      {page * pageSize < total && (
-        <Link className="btn-quiet" href={studentPageHref(basePath, q, page + 1, keep)} rel="next">
-          Next page
-        </Link>
-      )}
-    </nav>
-  );
+  return <ListPageNav basePath={basePath} pairs={filterPairs(q, keep)} {...rest} />;
 }

@@ -4,7 +4,9 @@ import Link from "next/link";
 import { can, requirePagePermission } from "@/lib/auth/guard";
 import { rolesAllow } from "@/lib/auth/permissions";
 import { listPeople } from "@/db/access/people/list-people";
-import { listCohorts, listCohortMembers } from "@/db/access/cohorts/list-cohorts";
+import { peoplePage } from "@/db/access/people/people-page";
+import { cohortRosters, ROSTERS_SHOWN } from "@/db/access/people/cohort-rosters";
+import { ListPageNav } from "@/components/student-pages";
 import { ROLES, ROLE_LABELS } from "@/lib/auth/roles";
 import { WideTable } from "@/components/ui/wide-table";
 import { formatDay } from "@/lib/time";
@@ -13,15 +15,28 @@ import { AccountControls } from "./_components/account-controls";
 export const metadata: Metadata = { title: "People" };
 export const dynamic = "force-dynamic";
 
-const query = z.object({ role: z.enum(ROLES).optional(), q: z.string().max(100).optional() });
+const blank = (v: unknown) => (v === "" ? undefined : v);
+const query = z.object({
+  role: z.preprocess(blank, z.enum(ROLES).optional()),
+  q: z.preprocess(blank, z.string().trim().max(100).optional()),
+  page: z.preprocess(blank, z.coerce.number().int().min(1).max(100_000).optional()),
+});
 
 export default async function PeoplePage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requirePagePermission("people.view", "/people");
   const parsed = query.safeParse(await searchParams);
   const filter = parsed.success ? parsed.data : {};
   const everyone = can(user, "people.all");
-  const cohorts = await listCohorts(user.schoolId, everyone ? {} : { leadInstructorId: user.id });
-  const people = everyone ? await listPeople(user.schoolId, filter) : [];
+  // the first cohorts' rosters (one query for their members) and one page of everyone: bounded whatever the school's size
+  const { rosters, total: cohortsTotal } = await cohortRosters(user.schoolId, everyone ? {} : { leadInstructorId: user.id }, ROSTERS_SHOWN);
+  const everyonePage = everyone
+    ? await peoplePage(user.schoolId, { role: filter.role, q: filter.q }, { page: filter.page ?? 1 })
+    : { rows: [], total: 0, page: 1, pageSize: 1 };
+  const people = everyonePage.rows;
+  const everyonePairs: [string, string][] = [
+    ...(filter.q ? ([["q", filter.q]] as [string, string][]) : []),
+    ...(filter.role ? ([["role", filter.role]] as [string, string][]) : []),
+  ];
   const manage = can(user, "people.manage");
   const accounts = manage
     ? (await listPeople(user.schoolId)).map((p) => ({
@@ -32,7 +47,6 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
         student: rolesAllow(p.roles, "students.own"),
       }))
     : [];
-  const rosters = await Promise.all(cohorts.map(async (c) => ({ cohort: c, members: await listCohortMembers(c.id, true) })));
   return (
     <div className="space-y-6">
       <h1 className="text-display">People</h1>
@@ -90,6 +104,20 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
           </div>
         </section>
       ))}
+      {cohortsTotal > rosters.length && (
+        <p className="text-caption text-ink-soft" data-testid="rosters-count">
+          The rosters of the first <span className="num">{rosters.length}</span> of{" "}
+          <span className="num">{cohortsTotal.toLocaleString("en-GB")}</span> cohorts, by start date.
+          {can(user, "roster.manage") && (
+            <>
+              {" "}
+              <Link href="/roster" className="inline-block min-h-touch py-2 underline">
+                Every cohort on the Roster page
+              </Link>
+            </>
+          )}
+        </p>
+      )}
       {everyone && (
         <section className="card" aria-labelledby="everyone">
           <h2 id="everyone">Everyone at the school</h2>
@@ -143,9 +171,29 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
                       <td data-more="">{p.active ? "Active" : "Deactivated"}</td>
                     </tr>
                   ))}
+                  {people.length === 0 && (
+                    <tr>
+                      <td colSpan={4} className="text-ink-soft">
+                        {everyonePage.page > 1 ? `No one on page ${everyonePage.page}.` : "No one matches."}
+                      </td>
+                    </tr>
+                  )}
                 </tbody>
               </table>
             </WideTable>
+          </div>
+          <div className="mt-3">
+            <ListPageNav
+              basePath="/people"
+              pairs={everyonePairs}
+              page={everyonePage.page}
+              pageSize={everyonePage.pageSize}
+              shown={people.length}
+              total={everyonePage.total}
+              label="Everyone at the school, pages"
+              testId="people-pages"
+              noun="People"
+            />
           </div>
         </section>
       )}

@@ -7,7 +7,9 @@ import { groundLogStudentsPage } from "@/db/access/ground-log/visible-students";
 import { STUDENTS_PAGE_SIZE, type StudentsPage } from "@/db/access/shared/students-page";
 import { visibleStudentIds } from "@/db/access/shared/student-scope";
 import { todayFocusList, FOCUS_SHOWN } from "@/db/access/today/focus-list";
-import { cohortsTop, listCohorts } from "@/db/access/cohorts/list-cohorts";
+import { cohortsTop, listCohorts, listCohortMembers } from "@/db/access/cohorts/list-cohorts";
+import { peoplePage, PEOPLE_PAGE_SIZE } from "@/db/access/people/people-page";
+import { cohortRosters, ROSTERS_SHOWN } from "@/db/access/people/cohort-rosters";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
 
 // The lists that grow with the school (the Progress map list, the Ground log's student list, the
@@ -63,6 +65,13 @@ async function measure() {
     const r = await read();
     out[`Today list, ${who}`] = { queries, shown: r.rows.length, total: r.total };
   }
+  const people = () => peoplePage(s.school.id);
+  await people();
+  out["People, everyone"] = { queries: await countQueries(people), shown: (await people()).rows.length, total: (await people()).total };
+  const rosters = () => cohortRosters(s.school.id, {}, ROSTERS_SHOWN);
+  await rosters();
+  const r = await rosters();
+  out["People, cohort rosters"] = { queries: await countQueries(rosters), shown: r.rosters.length, total: r.total };
   return out;
 }
 
@@ -74,11 +83,17 @@ it("shows a bounded number of rows with the same number of queries at 20 and at 
   for (const name of Object.keys(large)) {
     expect(large[name]!.queries).toBe(small[name]!.queries);
     expect(large[name]!.queries).toBeGreaterThan(0);
-    const bound = name.startsWith("Today") ? FOCUS_SHOWN : STUDENTS_PAGE_SIZE;
+    const bound = name.startsWith("Today")
+      ? FOCUS_SHOWN
+      : name === "People, everyone"
+        ? PEOPLE_PAGE_SIZE
+        : name === "People, cohort rosters"
+          ? ROSTERS_SHOWN
+          : STUDENTS_PAGE_SIZE;
     for (const at of [small, large]) expect(at[name]!.shown).toBe(Math.min(at[name]!.total, bound));
   }
   // the chief's lists count every generated student and show one page of them
-  for (const name of ["Progress map list, chief", "Ground log students, chief"]) {
+  for (const name of ["Progress map list, chief", "Ground log students, chief", "People, everyone"]) {
     expect(large[name]!.total).toBeGreaterThanOrEqual(small[name]!.total + 40);
     expect(large[name]!.shown).toBe(STUDENTS_PAGE_SIZE);
   }
@@ -149,5 +164,37 @@ it("Today names the first cohorts and taught students and counts them all, as th
     );
     expect(list.total).toBe(members[0]!.n);
     if (list.total > FOCUS_SHOWN) expect(list.more?.href).toBe("/records");
+  }
+});
+
+it("pages the People page: everyone once across the pages, filters before paging, the rosters of the first cohorts in one read", async () => {
+  const first = await peoplePage(s.school.id);
+  const ids = first.rows.map((r) => r.id);
+  for (let page = 2; (page - 1) * PEOPLE_PAGE_SIZE < first.total; page++)
+    ids.push(...(await peoplePage(s.school.id, {}, { page })).rows.map((r) => r.id));
+  const everyone = await sequelize.query<{ id: string }>(`SELECT id FROM people WHERE school_id = :s`, {
+    replacements: { s: s.school.id },
+    type: QueryTypes.SELECT,
+  });
+  expect([...ids].sort()).toEqual(everyone.map((p) => p.id).sort());
+  const instructors = await peoplePage(s.school.id, { role: "instructor" });
+  const withRole = await sequelize.query<{ id: string }>(`SELECT id FROM people WHERE school_id = :s AND 'instructor' = ANY(roles)`, {
+    replacements: { s: s.school.id },
+    type: QueryTypes.SELECT,
+  });
+  expect(instructors.rows.map((p) => p.id)).toEqual(expect.arrayContaining([s.people.instructor.id, s.people.instructor2.id]));
+  expect(instructors.rows.map((p) => p.id).sort()).toEqual(withRole.map((p) => p.id).sort());
+  const byMail = await peoplePage(s.school.id, { q: s.people.sponsor.email.toUpperCase() });
+  expect(byMail.rows.map((p) => p.id)).toEqual([s.people.sponsor.id]);
+  expect((await peoplePage(s.school.id, { q: "_" })).total).toBe(0); // LIKE's wildcards are taken literally
+  const two = await cohortRosters(s.school.id, {}, 2);
+  const cohorts = await listCohorts(s.school.id);
+  expect(two.total).toBe(cohorts.length);
+  expect(two.rosters.map((r) => r.cohort)).toEqual(cohorts.slice(0, 2));
+  const key = (m: { studentId: string; fromDate: string }) => `${m.studentId} ${m.fromDate}`;
+  for (const { cohort, members } of two.rosters) {
+    const full = await listCohortMembers(cohort.id, true);
+    expect(members.length).toBeGreaterThan(0);
+    expect([...members].sort((a, b) => key(a).localeCompare(key(b)))).toEqual([...full].sort((a, b) => key(a).localeCompare(key(b))));
   }
 });
