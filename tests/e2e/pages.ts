@@ -17,6 +17,8 @@ export const PAGES: CrawlPage[] = [
   // ---- foundation ----
   { name: "today", path: "/today", roles: ["chief", "instructor", "student", "sponsor"], waitFor: "main h1" },
   { name: "people", path: "/people", roles: ["chief", "instructor"], waitFor: "main h1" },
+  // a later page of everyone, filtered (the page links keep the filter)
+  { name: "people-everyone-page-2", path: "/people?role=student&page=2", roles: ["chief"], waitFor: "[data-testid=people-pages]" },
   {
     name: "people-instructor-file",
     path: (fx) => `/people/${fx.instructor}`,
@@ -98,6 +100,8 @@ export const PAGES: CrawlPage[] = [
   { name: "timetable-forbidden", path: "/timetable", roles: ["sponsor"], waitFor: "h1", status: 403 },
   { name: "roster", path: "/roster", roles: ["chief", "instructor"], waitFor: "main h1" },
   { name: "ground-log", path: "/ground-log", roles: ["chief", "instructor", "student", "sponsor"], waitFor: "main h1" },
+  // the student picker filtered (part of the name), as a school too large for one list uses it
+  { name: "ground-log-find", path: "/ground-log?name=a", roles: ["chief", "instructor"], waitFor: "[aria-label='Find a student']" },
   // ---- briefings, assignments, syllabus revisions ----
   { name: "briefings", path: "/briefings", roles: ["chief", "instructor", "student"], waitFor: "[data-testid=briefings-table] tbody tr" },
   { name: "briefing", path: (fx) => `/briefings/${fx.briefingVmd}`, roles: ["chief", "instructor", "student"], waitFor: "#briefing-title" },
@@ -125,6 +129,13 @@ export const PAGES: CrawlPage[] = [
   },
   { name: "records-student-not-theirs", path: (fx) => `/records/${fx.otherStudent}`, roles: ["instructor"], waitFor: "h1", status: 404 },
   { name: "progress", path: "/progress", roles: ["chief", "instructor"], waitFor: "main h1" },
+  // the Progress map list filtered and on a later page (the page links keep the filter)
+  {
+    name: "progress-find-page-2",
+    path: "/progress?name=a&page=2",
+    roles: ["chief", "instructor"],
+    waitFor: "[data-testid=progress-pages]",
+  },
   {
     name: "progress-student",
     path: (fx) => `/progress/${fx.student}`,
