@@ -3,7 +3,7 @@ import Link from "next/link";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { completionOverview } from "@/db/access/completion/completion-overview";
 import { END_KIND_WORDS } from "@/lib/completion/statements";
-import { WideTable } from "@/components/ui/wide-table";
+import { DataTable } from "@/components/ui/data-table";
 import { formatDay } from "@/lib/time";
 
 export const metadata: Metadata = { title: "End of training" };
@@ -27,35 +27,26 @@ export default async function CompletionPage() {
           <p className="mt-2 text-ink-soft">Nobody is in training.</p>
         ) : (
           <div className="mt-2">
-            <WideTable label="Students in training, scrolls sideways" more={1}>
-              <table className="data-table" data-testid="in-training">
-                <thead>
-                  <tr>
-                    <th scope="col">Student</th>
-                    <th scope="col">Cohort</th>
-                    <th scope="col" data-more="">
-                      Enrolled
-                    </th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {inTraining.map((s) => (
-                    <tr key={s.studentId}>
-                      <td>
-                        <Link className="underline" href={`/completion/${s.studentId}`}>
-                          {s.name}
-                        </Link>{" "}
-                        <span className="text-caption text-ink-soft">{s.courseCode}</span>
-                      </td>
-                      <td>{s.cohortName ?? "no cohort"}</td>
-                      <td className="num" data-more="">
-                        {formatDay(s.enrolledOn)}
-                      </td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
-            </WideTable>
+            <DataTable
+              label="Students in training, scrolls sideways"
+              testId="in-training"
+              columns={[{ header: "Student" }, { header: "Cohort" }, { header: "Enrolled", more: true }]}
+            >
+              {inTraining.map((s) => (
+                <tr key={s.studentId}>
+                  <td>
+                    <Link className="underline" href={`/completion/${s.studentId}`}>
+                      {s.name}
+                    </Link>{" "}
+                    <span className="text-caption text-ink-soft">{s.courseCode}</span>
+                  </td>
+                  <td>{s.cohortName ?? "no cohort"}</td>
+                  <td className="num" data-more="">
+                    {formatDay(s.enrolledOn)}
+                  </td>
+                </tr>
+              ))}
+            </DataTable>
           </div>
         )}
       </section>
@@ -65,44 +56,35 @@ export default async function CompletionPage() {
           <p className="mt-2 text-ink-soft">No training has ended yet.</p>
         ) : (
           <div className="mt-2">
-            <WideTable label="Training ended, scrolls sideways" more={1}>
-              <table className="data-table" data-testid="ended">
-                <thead>
-                  <tr>
-                    <th scope="col">Student</th>
-                    <th scope="col">Ended</th>
-                    <th scope="col" data-more="">
-                      Reason
-                    </th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {ended.map((s) => (
-                    <tr key={`${s.studentId}-${s.endedOn}`}>
-                      <td>
-                        <Link className="underline" href={`/completion/${s.studentId}`}>
-                          {s.name}
-                        </Link>{" "}
-                        <span className="text-caption text-ink-soft">{s.courseCode}</span>
-                        {s.graduated && (
-                          <>
-                            <br />
-                            <a className="text-caption underline" href={`/api/records/${s.studentId}/certificate`}>
-                              Graduation certificate (PDF)
-                            </a>
-                          </>
-                        )}
-                      </td>
-                      <td>
-                        {s.endKind ? END_KIND_WORDS[s.endKind] : "Ended"}, <span className="num">{formatDay(s.endedOn)}</span>
-                        {!s.certified && <span className="block text-caption text-ink-soft">record not certified</span>}
-                      </td>
-                      <td data-more="">{s.reason ?? "—"}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
-            </WideTable>
+            <DataTable
+              label="Training ended, scrolls sideways"
+              testId="ended"
+              columns={[{ header: "Student" }, { header: "Ended" }, { header: "Reason", more: true }]}
+            >
+              {ended.map((s) => (
+                <tr key={`${s.studentId}-${s.endedOn}`}>
+                  <td>
+                    <Link className="underline" href={`/completion/${s.studentId}`}>
+                      {s.name}
+                    </Link>{" "}
+                    <span className="text-caption text-ink-soft">{s.courseCode}</span>
+                    {s.graduated && (
+                      <>
+                        <br />
+                        <a className="text-caption underline" href={`/api/records/${s.studentId}/certificate`}>
+                          Graduation certificate (PDF)
+                        </a>
+                      </>
+                    )}
+                  </td>
+                  <td>
+                    {s.endKind ? END_KIND_WORDS[s.endKind] : "Ended"}, <span className="num">{formatDay(s.endedOn)}</span>
+                    {!s.certified && <span className="block text-caption text-ink-soft">record not certified</span>}
+                  </td>
+                  <td data-more="">{s.reason ?? "—"}</td>
+                </tr>
+              ))}
+            </DataTable>
           </div>
         )}
       </section>

@@ -4,7 +4,7 @@ import { requirePagePermission } from "@/lib/auth/guard";
 import { listPeople } from "@/db/access/people/list-people";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import { ASSIGNABLE_ROLES, isStudentAccount } from "@/lib/auth/account-roles";
-import { WideTable } from "@/components/ui/wide-table";
+import { DataTable } from "@/components/ui/data-table";
 import { InviteForm } from "./_components/invite-form";
 import { RolesForm } from "./_components/roles-form";
 
@@ -39,33 +39,24 @@ export default async function AccountsPage() {
       <section className="card" aria-labelledby="staff-title">
         <h2 id="staff-title">Staff and sponsors</h2>
         <div className="mt-2">
-          <WideTable label="Staff and sponsors, scrolls sideways" more={1}>
-            <table className="data-table" data-testid="accounts-table">
-              <thead>
-                <tr>
-                  <th scope="col">Name</th>
-                  <th scope="col">Roles</th>
-                  <th scope="col" data-more="">
-                    E-mail
-                  </th>
-                </tr>
-              </thead>
-              <tbody>
-                {staffAndSponsors.map((p) => (
-                  <tr key={p.id}>
-                    <td>
-                      {p.name}
-                      {!p.active && <span className="text-caption text-ink-soft"> (deactivated)</span>}
-                    </td>
-                    <td>{p.roles.map((r) => ROLE_LABELS[r]).join(", ")}</td>
-                    <td className="break-all" data-more="">
-                      {p.email}
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </WideTable>
+          <DataTable
+            label="Staff and sponsors, scrolls sideways"
+            testId="accounts-table"
+            columns={[{ header: "Name" }, { header: "Roles" }, { header: "E-mail", more: true }]}
+          >
+            {staffAndSponsors.map((p) => (
+              <tr key={p.id}>
+                <td>
+                  {p.name}
+                  {!p.active && <span className="text-caption text-ink-soft"> (deactivated)</span>}
+                </td>
+                <td>{p.roles.map((r) => ROLE_LABELS[r]).join(", ")}</td>
+                <td className="break-all" data-more="">
+                  {p.email}
+                </td>
+              </tr>
+            ))}
+          </DataTable>
         </div>
       </section>
     </div>
