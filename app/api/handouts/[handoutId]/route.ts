@@ -2,7 +2,7 @@
 import { route, uuidParam } from "@/lib/http/api";
 import { HttpError } from "@/lib/http/errors";
 import { getHandoutFile } from "@/db/access/briefings/handouts";
-import { contentDisposition } from "../_lib/files";
+import { fileAttachment } from "../_lib/files";
 
 export const dynamic = "force-dynamic";
 
@@ -11,16 +11,5 @@ export const GET = route<{ handoutId: string }>("briefings.view", async ({ user,
   const file = await getHandoutFile(user, params.handoutId);
   // out of reach answers exactly as an unknown id does, so the answer does not tell that it exists
   if (file.status !== "ok") throw new HttpError(404, "handoutId: no such handout", "handoutId");
-  return new Response(new Uint8Array(file.content), {
-    status: 200,
-    headers: {
-      "Content-Type": file.contentType,
-      "Content-Length": String(file.content.length),
-      "Content-Disposition": contentDisposition(file.fileName, file.contentType),
-      "X-Content-Type-Options": "nosniff",
-      "Content-Security-Policy": "sandbox; default-src 'none'",
-      "Referrer-Policy": "no-referrer",
-      "Cache-Control": "private, no-store",
-    },
-  });
+  return fileAttachment(file);
 });

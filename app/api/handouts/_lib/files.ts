@@ -59,3 +59,22 @@ export function contentDisposition(storedName: string, type: HandoutContentType)
       .slice(-150) || `handout${EXTENSIONS[type][0]}`;
   return `attachment; filename="${ascii}"; filename*=UTF-8''${rfc5987(name)}`;
 }
+
+/**
+ * A stored upload (a handout, a transfer credit's evidence) sent back as an attachment: its own type
+ * and length, never sniffed or run by the browser (nosniff, a sandboxing CSP), not cached.
+ */
+export function fileAttachment(file: { content: Buffer; contentType: HandoutContentType; fileName: string }): Response {
+  return new Response(new Uint8Array(file.content), {
+    status: 200,
+    headers: {
+      "Content-Type": file.contentType,
+      "Content-Length": String(file.content.length),
+      "Content-Disposition": contentDisposition(file.fileName, file.contentType),
+      "X-Content-Type-Options": "nosniff",
+      "Content-Security-Policy": "sandbox; default-src 'none'",
+      "Referrer-Policy": "no-referrer",
+      "Cache-Control": "private, no-store",
+    },
+  });
+}

@@ -4,6 +4,7 @@ import { HttpError } from "@/lib/http/errors";
 import { logbookDownload } from "@/db/access/ground-log/logbook";
 import { toCsv } from "@/lib/csv";
 import { ATTENDANCE_LABELS } from "@/lib/timetable/schema";
+import { fileNamePart } from "@/lib/http/download";
 
 export const dynamic = "force-dynamic";
 
@@ -27,11 +28,7 @@ export const GET = route<{ studentId: string }>("groundlog.view", async ({ user,
       l.reason ?? "",
     ]),
   );
-  const safe =
-    studentName
-      .replace(/[^A-Za-z0-9]+/g, "-")
-      .replace(/^-|-$/g, "")
-      .toLowerCase() || "student";
+  const safe = fileNamePart(studentName);
   return new Response(`\uFEFF${csv}`, {
     headers: {
       "content-type": "text/csv; charset=utf-8",

@@ -5,6 +5,7 @@ import { inspectionPackFor } from "@/db/access/inspection/inspection-pack";
 import { packDocument, recordHash } from "@/lib/inspection/content";
 import { inspectionPackPdf } from "@/lib/inspection/pdf";
 import { formatDayTime } from "@/lib/time";
+import { fileNamePart } from "@/lib/http/download";
 
 export const GET = route<{ studentId: string }>("records.inspect", async ({ user, params }) => {
   if (!uuidParam.safeParse(params.studentId).success) throw new HttpError(400, "studentId: must be a student's id (a UUID)", "studentId");
@@ -18,11 +19,7 @@ export const GET = route<{ studentId: string }>("records.inspect", async ({ user
     timeZone: pack.school.timeZone,
     madeBy: user.name,
   });
-  const safe =
-    pack.student.name
-      .replace(/[^A-Za-z0-9]+/g, "-")
-      .replace(/^-|-$/g, "")
-      .toLowerCase() || "student";
+  const safe = fileNamePart(pack.student.name);
   return new Response(Buffer.from(pdf), {
     headers: {
       "Content-Type": "application/pdf",

@@ -7,6 +7,7 @@ import { LEVEL_LABEL, OUTCOME_LABEL, CHECK_OUTCOME_LABEL } from "@/lib/records/o
 import { answerModeText } from "@/lib/records/questions";
 import { hoursLabel, formatDay, formatDayTime } from "@/lib/time";
 import { ATTENDANCE_WORDS, SIGN_OFF_STATE_WORDS, STAGE_RESULT_WORDS, words, codeToWords } from "@/lib/labels";
+import { fileNamePart } from "@/lib/http/download";
 
 export const GET = route<{ studentId: string }>("progress.view", async ({ user, params }) => {
   if (!uuidParam.safeParse(params.studentId).success) throw new HttpError(404, "studentId: no such student", "studentId");
@@ -74,11 +75,7 @@ export const GET = route<{ studentId: string }>("progress.view", async ({ user, 
     headPosition: r.head.position,
     generatedAt: formatDayTime(r.generatedAt, tz),
   });
-  const safe =
-    r.student.name
-      .replace(/[^A-Za-z0-9]+/g, "-")
-      .replace(/^-|-$/g, "")
-      .toLowerCase() || "student";
+  const safe = fileNamePart(r.student.name);
   return new Response(Buffer.from(pdf), {
     headers: {
       "Content-Type": "application/pdf",
