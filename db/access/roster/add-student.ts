@@ -3,37 +3,16 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { createPerson } from "../people/create-person";
 import { getSchool } from "../shared/school";
-import { enqueueMail } from "../mail/outbox";
-import { createSetPasswordLink } from "../mail/set-password";
+import { queueInvitation } from "../people/invite-person";
 import { addToCohort } from "../cohorts/memberships";
 import { enrol } from "../cohorts/enrol";
 import { linkSponsor } from "../cohorts/sponsor-links";
 import { cohortsManagedBy } from "./managed-cohorts";
-import { composeMail } from "@/lib/mail/compose";
 import { dateInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
 import { HttpError } from "@/lib/http/errors";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { AddStudentInput } from "@/lib/roster/schema";
-
-/** The invitation to set a password, written to the outbox in the transaction that creates the account. */
-async function sendInvitation(
-  t: Transaction,
-  p: { schoolId: string; personId: string; name: string; email: string; invitedBy: string; role: "student" | "sponsor" },
-): Promise<void> {
-  const s = await getSchool(p.schoolId, t);
-  const school = { name: s.name, timeZone: s.timeZone, senderName: s.settings.mailSenderName ?? undefined };
-  const link = await createSetPasswordLink(t, p.personId);
-  const mail = composeMail("invitation", { name: p.name, setPasswordUrl: link.url, expiresAt: link.expiresAt }, school);
-  await enqueueMail(t, {
-    schoolId: p.schoolId,
-    kind: "invitation",
-    idempotencyKey: `invitation:${p.personId}:1`,
-    recipientId: p.personId,
-    to: p.email,
-    ...mail,
-  });
-}
 
 /**
  * Adds one student: the account (no password; an invitation to set one goes through the outbox),
@@ -66,14 +45,7 @@ export async function addStudentTx(
   );
   if (rev) await enrol({ studentId: student.id, courseId: cohort.courseId, revisionId: rev.id, enrolledOn: today }, t);
   let invitations = 0;
-  await sendInvitation(t, {
-    schoolId: user.schoolId,
-    personId: student.id,
-    name: student.name,
-    email: student.email,
-    invitedBy: user.name,
-    role: "student",
-  });
+  await queueInvitation(t, { schoolId: user.schoolId, personId: student.id, name: student.name, email: student.email });
   invitations++;
   let sponsorId: string | null = null;
   if (input.sponsorEmail) {
@@ -92,14 +64,7 @@ export async function addStudentTx(
         t,
       ).catch((e) => taken(e, "sponsorEmail"));
       sponsorId = sponsor.id;
-      await sendInvitation(t, {
-        schoolId: user.schoolId,
-        personId: sponsor.id,
-        name: sponsor.name,
-        email: sponsor.email,
-        invitedBy: user.name,
-        role: "sponsor",
-      });
+      await queueInvitation(t, { schoolId: user.schoolId, personId: sponsor.id, name: sponsor.name, email: sponsor.email });
       invitations++;
     }
     await linkSponsor({ sponsorId, studentId: student.id }, t);
