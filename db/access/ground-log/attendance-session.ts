@@ -2,7 +2,7 @@ import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { HttpError } from "@/lib/http/errors";
-import { can } from "@/lib/auth/can";
+import { runsSession } from "../timetable/lock-session";
 import type { CurrentUser } from "@/lib/auth/session";
 
 export interface SessionForRecord {
@@ -31,7 +31,7 @@ export async function sessionForRecord(user: CurrentUser, sessionId: string, t: 
     { replacements: { id: sessionId, school: user.schoolId }, type: QueryTypes.SELECT, transaction: t },
   );
   if (!s) throw new HttpError(404, "sessionId: no such session", "sessionId");
-  if (!can(user, "timetable.manage") && s.instructorId !== user.id && s.cohortLeadId !== user.id) {
+  if (!runsSession(user, s)) {
     throw new HttpError(
       403,
       "sessionId: only the session's instructor, the cohort's lead instructor or the chief instructor records its attendance",

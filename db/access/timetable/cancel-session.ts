@@ -1,8 +1,8 @@
 import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
-import { enqueueMail, pendingNoticeFacts } from "../mail/outbox";
-import { sessionChangeKey } from "./reschedule-session";
+import { enqueueMail } from "../mail/outbox";
+import { lastHeardStart, sessionChangeKey } from "./reschedule-session";
 import { lockSessionForChange, assertNoAttendanceRecorded } from "./lock-session";
 import { attendeesToTell } from "./session-people";
 import { mailSchool } from "./mail-school";
@@ -32,13 +32,14 @@ export async function cancelSession(user: CurrentUser, input: CancelSessionOutpu
   );
   const attendees = await attendeesToTell(s.id, t);
   // an unsent move notice is replaced by this one, which names the time the attendee last heard of
-  const pending = await pendingNoticeFacts(
+  const heard = await lastHeardStart(
     t,
-    attendees.map((a) => sessionChangeKey(s.id, a.id)),
+    s.id,
+    attendees.map((a) => a.id),
+    s.startsAt,
   );
   for (const a of attendees) {
-    const heard = pending.get(sessionChangeKey(s.id, a.id))?.heardStartsAt;
-    const heardStartsAt = typeof heard === "string" ? new Date(heard) : new Date(s.startsAt);
+    const heardStartsAt = heard(a.id);
     const mail = composeMail(
       "session.cancelled",
       { name: a.name, briefingTitle: s.title, startsAt: heardStartsAt, room: s.room, reason: input.reason },

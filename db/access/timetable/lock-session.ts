@@ -19,6 +19,11 @@ export interface LockedSession {
   instructorName: string;
 }
 
+/** Whether the caller runs the session: its instructor, its cohort's lead instructor, or a caller with `timetable.manage`. */
+export function runsSession(user: CurrentUser, s: { instructorId: string; cohortLeadId: string | null }): boolean {
+  return can(user, "timetable.manage") || s.instructorId === user.id || s.cohortLeadId === user.id;
+}
+
 /** Locks a session for a change; only its instructor, its cohort's lead instructor or a caller with `timetable.manage` may change it. */
 export async function lockSessionForChange(user: CurrentUser, sessionId: string, t: Transaction): Promise<LockedSession> {
   const [s] = await sequelize.query<LockedSession>(
@@ -30,7 +35,7 @@ export async function lockSessionForChange(user: CurrentUser, sessionId: string,
     { replacements: { id: sessionId, school: user.schoolId }, type: QueryTypes.SELECT, transaction: t },
   );
   if (!s) throw new HttpError(404, "sessionId: no such session", "sessionId");
-  if (!can(user, "timetable.manage") && s.instructorId !== user.id && s.cohortLeadId !== user.id) {
+  if (!runsSession(user, s)) {
     throw new HttpError(
       403,
       "sessionId: only the session's instructor, the cohort's lead instructor or the chief instructor may change it",

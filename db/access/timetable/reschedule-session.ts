@@ -19,6 +19,26 @@ export function sessionChangeKey(sessionId: string, personId: string): string {
 }
 
 /**
+ * When each person last heard the session starts: the "was" time of an unsent change notice about
+ * it (which the new notice replaces), else the start they were told of, `startsAt`.
+ */
+export async function lastHeardStart(
+  t: Transaction,
+  sessionId: string,
+  personIds: string[],
+  startsAt: Date | string,
+): Promise<(personId: string) => Date> {
+  const pending = await pendingNoticeFacts(
+    t,
+    personIds.map((id) => sessionChangeKey(sessionId, id)),
+  );
+  return (personId) => {
+    const heard = pending.get(sessionChangeKey(sessionId, personId))?.heardStartsAt;
+    return typeof heard === "string" ? new Date(heard) : new Date(startsAt);
+  };
+}
+
+/**
  * Moves a session (time, length, room, instructor). Its sequence grows, and each attendee is told
  * through the outbox in the same transaction; the mail's key carries the new sequence.
  */
@@ -55,13 +75,14 @@ export async function rescheduleSession(user: CurrentUser, input: RescheduleSess
   });
   // one notice per burst: an unsent notice about this session is replaced, and the new one says
   // "was" with the time the attendee last heard of
-  const pending = await pendingNoticeFacts(
+  const heard = await lastHeardStart(
     t,
-    attendees.map((a) => sessionChangeKey(s.id, a.id)),
+    s.id,
+    attendees.map((a) => a.id),
+    s.startsAt,
   );
   for (const a of attendees) {
-    const heard = pending.get(sessionChangeKey(s.id, a.id))?.heardStartsAt;
-    const heardStartsAt = typeof heard === "string" ? new Date(heard) : new Date(s.startsAt);
+    const heardStartsAt = heard(a.id);
     const mail = composeMail(
       "session.rescheduled",
       {
