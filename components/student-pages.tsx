@@ -37,6 +37,7 @@ export function StudentFilterForm({
   idPrefix = "sl",
   keep = [],
   label = "Find a student",
+  submitLabel = "Show",
 }: {
   basePath: string;
   q: StudentListState;
@@ -45,6 +46,7 @@ export function StudentFilterForm({
   /** other query-string pairs the form carries on (hidden) */
   keep?: [string, string][];
   label?: string;
+  submitLabel?: string;
 }) {
   return (
     <form method="get" action={basePath} className="card grid gap-3 sm:grid-cols-3" aria-label={label}>
@@ -72,7 +74,7 @@ export function StudentFilterForm({
       </div>
       <div className="flex items-end gap-2">
         <button type="submit" className="btn-primary">
-          Show
+          {submitLabel}
         </button>
         {isFiltered(q) && (
           <Link href={studentPageHref(basePath, {}, 1, keep)} className="btn-quiet">

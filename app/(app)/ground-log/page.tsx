@@ -96,6 +96,7 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
             q={q}
             cohorts={list.cohorts}
             idPrefix="gl-find"
+            submitLabel="Find"
             keep={student ? [["student", student.id]] : []}
           />
         </div>
