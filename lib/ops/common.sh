@@ -35,11 +35,11 @@ ensure_node_modules() { # npm ci when node_modules is missing or the lock file c
   fi
 }
 
-ensure_chromium() {
-  if [ ! -x /usr/bin/chromium ]; then
-    echo "[setup] installing Chromium from Debian's packages"
+ensure_chromium() { # the full browser (screenshots by hand, the Curve Lab bench) and its headless shell (the e2e layer)
+  if [ ! -x /usr/bin/chromium ] || [ ! -x /usr/bin/chromium-headless-shell ]; then
+    echo "[setup] installing Chromium and its headless shell from Debian's packages"
     export DEBIAN_FRONTEND=noninteractive
-    apt-get update -qq && apt-get install -y -qq chromium >/dev/null
+    apt-get update -qq && apt-get install -y -qq chromium chromium-headless-shell >/dev/null
   fi
 }
 

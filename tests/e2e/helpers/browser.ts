@@ -1,4 +1,4 @@
-import { mkdtempSync, rmSync, mkdirSync } from "node:fs";
+import { existsSync, mkdtempSync, rmSync, mkdirSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { chromium, type BrowserContext, type Page } from "playwright-core";
@@ -6,6 +6,14 @@ import { chromium, type BrowserContext, type Page } from "playwright-core";
 export const BASE_URL = process.env.E2E_BASE_URL ?? "http://127.0.0.1:3000";
 export const DEMO_PASSWORD = "chalkwing-demo";
 export const SCREENSHOT_DIR = path.join(process.cwd(), "tests", "artifacts", "screenshots");
+
+/**
+ * The browser: CHROMIUM_PATH, else Debian's chromium-headless-shell (the Chromium engine without
+ * the desktop browser around it, about a sixth less CPU per page than the full browser run
+ * headless, measured on the accessibility crawl), else Debian's full Chromium.
+ */
+export const CHROMIUM_PATH =
+  process.env.CHROMIUM_PATH ?? (existsSync("/usr/bin/chromium-headless-shell") ? "/usr/bin/chromium-headless-shell" : "/usr/bin/chromium");
 
 const FLAGS = [
   "--headless",
@@ -23,11 +31,11 @@ export interface Browser {
   close(): Promise<void>;
 }
 
-/** Debian's Chromium, driven by playwright-core, with a fresh profile each time. */
+/** Debian's Chromium (see CHROMIUM_PATH), driven by playwright-core, with a fresh profile each time. */
 export async function launchBrowser(viewport = { width: 1280, height: 800 }): Promise<Browser> {
   const dir = mkdtempSync(path.join(tmpdir(), "chalkwing-chromium-"));
   const context = await chromium.launchPersistentContext(dir, {
-    executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
+    executablePath: CHROMIUM_PATH,
     headless: true,
     args: FLAGS,
     viewport,
@@ -50,7 +58,7 @@ export interface SharedBrowser {
 
 /** One Debian Chromium for several isolated contexts at once (e.g. a crawl that visits pages in parallel). */
 export async function launchSharedBrowser(): Promise<SharedBrowser> {
-  const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium", headless: true, args: FLAGS });
+  const browser = await chromium.launch({ executablePath: CHROMIUM_PATH, headless: true, args: FLAGS });
   return {
     newContext: (viewport = { width: 1280, height: 800 }) => browser.newContext({ viewport, baseURL: BASE_URL }),
     close: () => browser.close(),
