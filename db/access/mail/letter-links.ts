@@ -26,11 +26,35 @@ const SELECT = `SELECT l.sponsor_id AS "sponsorId", sp.name AS "sponsorName", sp
     FROM sponsor_links l JOIN people sp ON sp.id = l.sponsor_id JOIN people st ON st.id = l.student_id
    WHERE sp.school_id = :school AND st.school_id = :school AND sp.active AND st.active`;
 
-export async function letterLinks(schoolId: string): Promise<LetterLink[]> {
-  return sequelize.query<LetterLink>(`${SELECT} ORDER BY sp.name, st.name`, {
-    replacements: { school: schoolId },
-    type: QueryTypes.SELECT,
-  });
+export const LETTER_LINKS_PAGE_SIZE = 50;
+
+/**
+ * One page of the school's links, by sponsor then student, optionally those whose sponsor's or
+ * student's name holds a part: paged in SQL with the number that match from one count (two
+ * queries, whatever the number of links).
+ */
+export async function letterLinksPage(
+  schoolId: string,
+  filter: { name?: string | undefined } = {},
+  opts: { page?: number; pageSize?: number } = {},
+): Promise<{ rows: LetterLink[]; total: number; page: number; pageSize: number }> {
+  const pageSize = opts.pageSize ?? LETTER_LINKS_PAGE_SIZE;
+  const page = Math.max(1, Math.floor(opts.page ?? 1));
+  const name = filter.name ? `%${filter.name.replace(/[\\%_]/g, (ch) => `\\${ch}`)}%` : null;
+  const matching = `AND (CAST(:name AS text) IS NULL OR sp.name ILIKE CAST(:name AS text) OR st.name ILIKE CAST(:name AS text))`;
+  const replacements = { school: schoolId, name };
+  const [rows, [count]] = await Promise.all([
+    sequelize.query<LetterLink>(`${SELECT} ${matching} ORDER BY sp.name, st.name, l.sponsor_id, l.student_id LIMIT :limit OFFSET :offset`, {
+      replacements: { ...replacements, limit: pageSize, offset: (page - 1) * pageSize },
+      type: QueryTypes.SELECT,
+    }),
+    sequelize.query<{ n: number }>(
+      `SELECT count(*)::int AS n FROM sponsor_links l JOIN people sp ON sp.id = l.sponsor_id JOIN people st ON st.id = l.student_id
+        WHERE sp.school_id = :school AND st.school_id = :school AND sp.active AND st.active ${matching}`,
+      { replacements, type: QueryTypes.SELECT },
+    ),
+  ]);
+  return { rows, total: count?.n ?? 0, page, pageSize };
 }
 
 /** One link of the school, or a 404 naming the field. */

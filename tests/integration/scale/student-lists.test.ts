@@ -10,6 +10,8 @@ import { todayFocusList, FOCUS_SHOWN } from "@/db/access/today/focus-list";
 import { cohortsTop, listCohorts, listCohortMembers } from "@/db/access/cohorts/list-cohorts";
 import { peoplePage, PEOPLE_PAGE_SIZE } from "@/db/access/people/people-page";
 import { cohortRosters, ROSTERS_SHOWN } from "@/db/access/people/cohort-rosters";
+import { letterLinksPage, LETTER_LINKS_PAGE_SIZE } from "@/db/access/mail/letter-links";
+import { linkSponsor } from "@/db/access/cohorts/sponsor-links";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
 
 // The lists that grow with the school (the Progress map list, the Ground log's student list, the
@@ -197,4 +199,40 @@ it("pages the People page: everyone once across the pages, filters before paging
     expect(members.length).toBeGreaterThan(0);
     expect([...members].sort((a, b) => key(a).localeCompare(key(b)))).toEqual([...full].sort((a, b) => key(a).localeCompare(key(b))));
   }
+});
+
+it("pages the Weekly letters' sponsor links: the same queries and at most a page of rows from 1 link to 61, every link once across the pages", async () => {
+  const read = () => letterLinksPage(s.school.id);
+  await read();
+  const before = { queries: await countQueries(read), page: await read() };
+  expect(before.page.total).toBeGreaterThanOrEqual(1);
+  const students = await sequelize.query<{ id: string }>(
+    `SELECT id FROM people WHERE school_id = :s AND 'student' = ANY(roles) AND active
+        AND id NOT IN (SELECT student_id FROM sponsor_links WHERE sponsor_id = :sp) ORDER BY name LIMIT 60`,
+    { replacements: { s: s.school.id, sp: s.people.sponsor.id }, type: QueryTypes.SELECT },
+  );
+  expect(students).toHaveLength(60);
+  for (const st of students) await linkSponsor({ sponsorId: s.people.sponsor.id, studentId: st.id });
+  const after = { queries: await countQueries(read), page: await read() };
+  expect(after.queries).toBe(before.queries);
+  expect(after.page.total).toBe(before.page.total + 60);
+  expect(after.page.rows).toHaveLength(LETTER_LINKS_PAGE_SIZE);
+  const keys: string[] = [];
+  for (let page = 1; (page - 1) * LETTER_LINKS_PAGE_SIZE < after.page.total; page++)
+    keys.push(...(await letterLinksPage(s.school.id, {}, { page })).rows.map((l) => `${l.sponsorId}:${l.studentId}`));
+  expect(new Set(keys).size).toBe(after.page.total);
+  expect(keys).toContain(`${s.people.sponsor.id}:${students[59]!.id}`);
+  const one = await sequelize.query<{ name: string }>(`SELECT name FROM people WHERE id = :id`, {
+    replacements: { id: students[0]!.id },
+    type: QueryTypes.SELECT,
+  });
+  const byName = await letterLinksPage(s.school.id, { name: one[0]!.name.toUpperCase() });
+  expect(byName.rows.map((l) => l.studentId)).toContain(students[0]!.id);
+  expect(
+    byName.rows.every(
+      (l) =>
+        l.studentName.toUpperCase().includes(one[0]!.name.toUpperCase()) ||
+        l.sponsorName.toUpperCase().includes(one[0]!.name.toUpperCase()),
+    ),
+  ).toBe(true);
 });

@@ -1,7 +1,10 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission, can, HttpError } from "@/lib/auth/guard";
-import { letterLink, letterLinks } from "@/db/access/mail/letter-links";
+import { letterLink, letterLinksPage } from "@/db/access/mail/letter-links";
+import { studentListQuerySchema } from "@/lib/records/schema";
+import { ListPageNav } from "@/components/student-pages";
+import { fieldLabel } from "@/lib/validation/messages";
 import { getSchool } from "@/db/access/shared/school";
 import { composeLetterFor } from "@/lib/mail/producers";
 import { now } from "@/lib/clock";
@@ -21,7 +24,23 @@ export default async function WeeklyLettersPage({
 }) {
   const user = await requirePagePermission("mail.letters", "/mail/letters");
   const q = await searchParams;
-  const [school, links] = await Promise.all([getSchool(user.schoolId), letterLinks(user.schoolId)]);
+  // one page of the links (a part of a sponsor's or student's name to narrow them), whatever the number of sponsors
+  const listQuery = studentListQuerySchema.pick({ name: true, page: true }).safeParse({ name: one(q.name), page: one(q.page) });
+  const list = listQuery.success ? listQuery.data : {};
+  const [school, linksPage] = await Promise.all([
+    getSchool(user.schoolId),
+    letterLinksPage(user.schoolId, { name: list.name }, { page: list.page ?? 1 }),
+  ]);
+  const links = linksPage.rows;
+  const listPairs: [string, string][] = list.name ? [["name", list.name]] : [];
+  // a preview keeps the list where it was (its filter and page)
+  const previewHref = (sponsor: string, student: string) =>
+    `/mail/letters?${new URLSearchParams([
+      ["sponsor", sponsor],
+      ["student", student],
+      ...listPairs,
+      ...(linksPage.page > 1 ? ([["page", String(linksPage.page)]] as [string, string][]) : []),
+    ]).toString()}`;
   const sponsorId = one(q.sponsor);
   const studentId = one(q.student);
   let preview: { link: Awaited<ReturnType<typeof letterLink>>; subject: string; text: string } | null = null;
@@ -82,8 +101,37 @@ export default async function WeeklyLettersPage({
         <h2 id="links-title" className="text-lead font-semibold">
           Sponsors and their students
         </h2>
+        {(linksPage.total > linksPage.pageSize || list.name || linksPage.page > 1 || !listQuery.success) && (
+          <form method="get" className="card flex flex-wrap items-end gap-3" aria-label="Find a sponsor or student">
+            <div className="min-w-0 flex-1">
+              <label htmlFor="letters-name" className="field-label">
+                Sponsor or student name contains
+              </label>
+              <input id="letters-name" name="name" type="search" maxLength={100} defaultValue={list.name ?? ""} className="field-input" />
+            </div>
+            <button type="submit" className="btn-primary">
+              Show
+            </button>
+            {list.name && (
+              <Link href="/mail/letters" className="btn-quiet">
+                Clear
+              </Link>
+            )}
+          </form>
+        )}
+        {!listQuery.success && (
+          <p role="alert" className="text-notyet-800">
+            {fieldLabel(listQuery.error.issues[0]?.path ?? [])}: {listQuery.error.issues[0]?.message}. Showing every link instead.
+          </p>
+        )}
         {links.length === 0 ? (
-          <p className="card">No sponsor is linked to a student.</p>
+          <p className="card">
+            {linksPage.page > 1
+              ? `Nothing on page ${linksPage.page}.`
+              : list.name
+                ? "No sponsor or student matches."
+                : "No sponsor is linked to a student."}
+          </p>
         ) : (
           <ul className="card divide-y divide-paper-edge" aria-label="Sponsors and their students" data-testid="letter-links">
             {links.map((l) => (
@@ -106,7 +154,7 @@ export default async function WeeklyLettersPage({
                     )}
                   </p>
                 </div>
-                <Link href={`/mail/letters?sponsor=${l.sponsorId}&student=${l.studentId}`} className="btn-quiet">
+                <Link href={previewHref(l.sponsorId, l.studentId)} className="btn-quiet">
                   Preview
                   <span className="sr-only">
                     {" "}
@@ -117,6 +165,17 @@ export default async function WeeklyLettersPage({
             ))}
           </ul>
         )}
+        <ListPageNav
+          basePath="/mail/letters"
+          pairs={listPairs}
+          page={linksPage.page}
+          pageSize={linksPage.pageSize}
+          shown={links.length}
+          total={linksPage.total}
+          label="Sponsors and their students, pages"
+          testId="letter-links-pages"
+          noun="Links"
+        />
       </section>
     </div>
   );
