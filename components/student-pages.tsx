@@ -38,6 +38,7 @@ export function StudentFilterForm({
   keep = [],
   label = "Find a student",
   submitLabel = "Show",
+  bare = false,
 }: {
   basePath: string;
   q: StudentListState;
@@ -47,9 +48,11 @@ export function StudentFilterForm({
   keep?: [string, string][];
   label?: string;
   submitLabel?: string;
+  /** inside a card already: no card of its own */
+  bare?: boolean;
 }) {
   return (
-    <form method="get" action={basePath} className="card grid gap-3 sm:grid-cols-3" aria-label={label}>
+    <form method="get" action={basePath} className={`${bare ? "" : "card "}grid gap-3 sm:grid-cols-3`} aria-label={label}>
       {keep.map(([k, v]) => (
         <input key={k} type="hidden" name={k} value={v} />
       ))}

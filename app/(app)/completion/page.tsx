@@ -5,13 +5,24 @@ import { completionOverview } from "@/db/access/completion/completion-overview";
 import { END_KIND_WORDS } from "@/lib/completion/statements";
 import { DataTable } from "@/components/ui/data-table";
 import { formatDay } from "@/lib/time";
+import { studentListQuerySchema } from "@/lib/records/schema";
+import { fieldLabel } from "@/lib/validation/messages";
+import { StudentFilterForm, StudentPageNav, isFiltered, noStudentsWords } from "@/components/student-pages";
 
 export const metadata: Metadata = { title: "End of training" };
 export const dynamic = "force-dynamic";
 
-export default async function CompletionPage() {
+export default async function CompletionPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requirePagePermission("records.certify", "/completion");
-  const { inTraining, ended } = await completionOverview(user);
+  const raw = Object.fromEntries(Object.entries(await searchParams).filter(([, v]) => typeof v === "string")) as Record<string, string>;
+  const parsed = studentListQuerySchema.safeParse(raw);
+  const q = parsed.success ? parsed.data : {};
+  const problem = parsed.success ? null : parsed.error.issues[0];
+  const { inTraining, inTrainingTotal, page, pageSize, cohorts, ended } = await completionOverview(
+    user,
+    { cohortId: q.cohort, name: q.name },
+    { page: q.page ?? 1 },
+  );
   return (
     <div className="max-w-5xl space-y-6">
       <div>
@@ -23,8 +34,18 @@ export default async function CompletionPage() {
       </div>
       <section className="card" aria-labelledby="in-training">
         <h2 id="in-training">In training</h2>
+        {(inTrainingTotal > pageSize || isFiltered(q) || page > 1 || problem) && (
+          <div className="mt-2">
+            <StudentFilterForm basePath="/completion" q={q} cohorts={cohorts} idPrefix="completion" bare />
+          </div>
+        )}
+        {problem && (
+          <p role="alert" className="mt-2 text-notyet-800">
+            {fieldLabel(problem.path)}: {problem.message}. Showing every student instead.
+          </p>
+        )}
         {inTraining.length === 0 ? (
-          <p className="mt-2 text-ink-soft">Nobody is in training.</p>
+          <p className="mt-2 text-ink-soft">{noStudentsWords(q, page, "Nobody is in training.")}</p>
         ) : (
           <div className="mt-2">
             <DataTable
@@ -49,6 +70,18 @@ export default async function CompletionPage() {
             </DataTable>
           </div>
         )}
+        <div className="mt-2">
+          <StudentPageNav
+            basePath="/completion"
+            q={q}
+            page={page}
+            pageSize={pageSize}
+            shown={inTraining.length}
+            total={inTrainingTotal}
+            label="Students in training, pages"
+            testId="in-training-pages"
+          />
+        </div>
       </section>
       <section className="card" aria-labelledby="ended">
         <h2 id="ended">Training ended</h2>

@@ -5,6 +5,7 @@ import type { CurrentUser } from "@/lib/auth/session";
 import { can } from "@/lib/auth/can";
 import { HttpError } from "@/lib/http/errors";
 import type { EndKind } from "@/lib/completion/schema";
+import { studentsPage, type StudentsFilter } from "../shared/students-page";
 
 // The chief's End of training list: students in training (with their cohort) and the enrolments
 // that ended, newest first, with whether a graduation certificate exists.
@@ -28,19 +29,40 @@ export interface Ended {
   graduated: boolean;
 }
 
-export async function completionOverview(user: CurrentUser): Promise<{ inTraining: InTraining[]; ended: Ended[] }> {
+/**
+ * The End of training page: one page of the students in training (filtered by cohort and a part of
+ * the name, paged in SQL by the shared student pager, deactivated accounts included), their course
+ * and enrolment date read for that page only, and the latest 200 ended trainings.
+ */
+export async function completionOverview(
+  user: CurrentUser,
+  filter: StudentsFilter = {},
+  opts: { page?: number } = {},
+): Promise<{
+  inTraining: InTraining[];
+  inTrainingTotal: number;
+  page: number;
+  pageSize: number;
+  cohorts: { id: string; name: string }[];
+  ended: Ended[];
+}> {
   if (!can(user, "records.certify")) throw new HttpError(403, "Only the chief instructor ends training");
-  const inTraining = await sequelize.query<InTraining>(
-    `SELECT p.id AS "studentId", p.name, co.code AS "courseCode", e.enrolled_on::text AS "enrolledOn", c.name AS "cohortName"
-       FROM people p
-       JOIN active_enrolments e ON e.student_id = p.id
-       JOIN courses co ON co.id = e.course_id
-       LEFT JOIN cohort_memberships m ON m.student_id = p.id AND m.to_date IS NULL
-       LEFT JOIN cohorts c ON c.id = m.cohort_id
-      WHERE p.school_id = :s AND 'student' = ANY(p.roles)
-      ORDER BY p.name, p.id`,
-    { replacements: { s: user.schoolId }, type: QueryTypes.SELECT },
-  );
+  const listed = await studentsPage(user, "records", filter, { page: opts.page ?? 1, includeInactive: true });
+  const enrolments = listed.rows.length
+    ? await sequelize.query<{ studentId: string; courseCode: string; enrolledOn: string }>(
+        `SELECT e.student_id AS "studentId", co.code AS "courseCode", e.enrolled_on::text AS "enrolledOn"
+           FROM active_enrolments e JOIN courses co ON co.id = e.course_id WHERE e.student_id IN (:ids)`,
+        { replacements: { ids: listed.rows.map((r) => r.id) }, type: QueryTypes.SELECT },
+      )
+    : [];
+  const byStudent = new Map(enrolments.map((e) => [e.studentId, e]));
+  const inTraining = listed.rows.map((r) => ({
+    studentId: r.id,
+    name: r.name,
+    cohortName: r.cohortName,
+    courseCode: byStudent.get(r.id)?.courseCode ?? "",
+    enrolledOn: byStudent.get(r.id)?.enrolledOn ?? "",
+  }));
   const ended = await sequelize.query<Ended>(
     `SELECT p.id AS "studentId", p.name, co.code AS "courseCode", e.ended_on::text AS "endedOn", e.end_kind AS "endKind",
             e.end_reason AS reason,
@@ -55,5 +77,5 @@ export async function completionOverview(user: CurrentUser): Promise<{ inTrainin
       LIMIT 200`,
     { replacements: { s: user.schoolId }, type: QueryTypes.SELECT },
   );
-  return { inTraining, ended };
+  return { inTraining, inTrainingTotal: listed.total, page: listed.page, pageSize: listed.pageSize, cohorts: listed.cohorts, ended };
 }

@@ -42,6 +42,8 @@ export interface StudentsPageOptions {
    * of the school the scope allows, enrolled or not (the Ground log keeps ended trainings).
    */
   who?: "enrolled" | "accounts";
+  /** with "enrolled": deactivated accounts too (the end of training may still be recorded for them) */
+  includeInactive?: boolean;
   /** name the cohort only to staff (a sponsor or the student sees no cohort names) */
   cohortToStaffOnly?: boolean;
 }
@@ -70,7 +72,8 @@ export async function studentsPage(
        ${enrolled ? "JOIN active_enrolments e ON e.student_id = p.id" : ""}
        LEFT JOIN cohort_memberships m ON m.student_id = p.id AND m.to_date IS NULL LEFT JOIN cohorts c ON c.id = m.cohort_id`;
   const cohortShown = opts.cohortToStaffOnly ? `(${scope.staffSql})` : "TRUE";
-  const where = `WHERE p.school_id = :schoolId AND ${enrolled ? "p.active" : "'student' = ANY(p.roles)"} AND ${scope.sql}`;
+  const who = enrolled ? (opts.includeInactive ? "'student' = ANY(p.roles)" : "p.active") : "'student' = ANY(p.roles)";
+  const where = `WHERE p.school_id = :schoolId AND ${who} AND ${scope.sql}`;
   const matching = `${where}
         AND (CAST(:cohortId AS uuid) IS NULL OR (m.cohort_id = CAST(:cohortId AS uuid) AND ${cohortShown}))
         AND (CAST(:name AS text) IS NULL OR p.name ILIKE CAST(:name AS text))`;

@@ -12,6 +12,7 @@ import { peoplePage, PEOPLE_PAGE_SIZE } from "@/db/access/people/people-page";
 import { cohortRosters, ROSTERS_SHOWN } from "@/db/access/people/cohort-rosters";
 import { letterLinksPage, LETTER_LINKS_PAGE_SIZE } from "@/db/access/mail/letter-links";
 import { linkSponsor } from "@/db/access/cohorts/sponsor-links";
+import { completionOverview } from "@/db/access/completion/completion-overview";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
 
 // The lists that grow with the school (the Progress map list, the Ground log's student list, the
@@ -67,6 +68,10 @@ async function measure() {
     const r = await read();
     out[`Today list, ${who}`] = { queries, shown: r.rows.length, total: r.total };
   }
+  const completion = () => completionOverview(s.as.chief);
+  await completion();
+  const c = await completion();
+  out["End of training, in training"] = { queries: await countQueries(completion), shown: c.inTraining.length, total: c.inTrainingTotal };
   const people = () => peoplePage(s.school.id);
   await people();
   out["People, everyone"] = { queries: await countQueries(people), shown: (await people()).rows.length, total: (await people()).total };
@@ -95,7 +100,7 @@ it("shows a bounded number of rows with the same number of queries at 20 and at 
     for (const at of [small, large]) expect(at[name]!.shown).toBe(Math.min(at[name]!.total, bound));
   }
   // the chief's lists count every generated student and show one page of them
-  for (const name of ["Progress map list, chief", "Ground log students, chief", "People, everyone"]) {
+  for (const name of ["Progress map list, chief", "Ground log students, chief", "People, everyone", "End of training, in training"]) {
     expect(large[name]!.total).toBeGreaterThanOrEqual(small[name]!.total + 40);
     expect(large[name]!.shown).toBe(STUDENTS_PAGE_SIZE);
   }
@@ -235,4 +240,26 @@ it("pages the Weekly letters' sponsor links: the same queries and at most a page
         l.sponsorName.toUpperCase().includes(one[0]!.name.toUpperCase()),
     ),
   ).toBe(true);
+});
+
+it("pages the End of training's students in training: every student with an active enrolment once, with their course and enrolment date", async () => {
+  const first = await completionOverview(s.as.chief);
+  const rows = [...first.inTraining];
+  for (let page = 2; (page - 1) * first.pageSize < first.inTrainingTotal; page++)
+    rows.push(...(await completionOverview(s.as.chief, {}, { page })).inTraining);
+  const enrolled = await sequelize.query<{ id: string; code: string; on: string }>(
+    `SELECT e.student_id AS id, co.code, e.enrolled_on::text AS "on" FROM active_enrolments e JOIN people p ON p.id = e.student_id
+       JOIN courses co ON co.id = e.course_id WHERE p.school_id = :s`,
+    { replacements: { s: s.school.id }, type: QueryTypes.SELECT },
+  );
+  expect(rows.map((r) => r.studentId).sort()).toEqual(enrolled.map((e) => e.id).sort());
+  const byId = new Map(enrolled.map((e) => [e.id, e]));
+  for (const r of rows) expect([r.courseCode, r.enrolledOn]).toEqual([byId.get(r.studentId)!.code, byId.get(r.studentId)!.on]);
+  const inB = await completionOverview(s.as.chief, { cohortId: s.cohorts.b.id });
+  expect(inB.inTraining.map((r) => r.studentId).sort()).toEqual(
+    s.people.students
+      .slice(3, 6)
+      .map((p) => p.id)
+      .sort(),
+  );
 });
