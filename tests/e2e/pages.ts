@@ -152,6 +152,8 @@ export const PAGES: CrawlPage[] = [
   { name: "mail-notes", path: "/mail/notes", roles: ["chief", "instructor"], waitFor: "main h1" },
   { name: "mail-tray-forbidden", path: "/mail", roles: ["instructor"], waitFor: "h1", status: 403 },
   { name: "mail-letters", path: "/mail/letters", roles: ["chief"], waitFor: "main h1" },
+  // the sponsor links narrowed by a part of a name, on a later page (the page links keep it)
+  { name: "mail-letters-find-page-2", path: "/mail/letters?name=a&page=2", roles: ["chief"], waitFor: "[data-testid=letter-links-pages]" },
   {
     name: "mail-letters-preview",
     path: (fx) => `/mail/letters?sponsor=${fx.sponsor}&student=${fx.student}`,
@@ -187,6 +189,7 @@ export const PAGES: CrawlPage[] = [
   { name: "endorsements-settings-forbidden", path: "/endorsements/settings", roles: ["instructor"], waitFor: "h1", status: 403 },
   // ---- end of training ----
   { name: "completion", path: "/completion", roles: ["chief"], waitFor: "[data-testid=in-training] tbody tr" },
+  { name: "completion-find", path: "/completion?name=a", roles: ["chief"], waitFor: "[aria-label='Find a student']" },
   { name: "completion-forbidden", path: "/completion", roles: ["instructor", "student"], waitFor: "h1", status: 403 },
   {
     name: "completion-student",
