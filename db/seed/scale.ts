@@ -119,13 +119,10 @@ export async function generateScale(students: number, opts: { schoolId?: string;
                occurred_at, occurred_at + interval '30 minutes', 'meets', CAST(:rule AS jsonb),
                jsonb_build_array(jsonb_build_object('itemId', item_id, 'code', item_code, 'meets', true, 'reasons', '[]'::jsonb))
           FROM ${checks} x;
-      INSERT INTO oral_check_items (check_id, syllabus_item_id)
-        SELECT c.id, q.syllabus_item_id FROM oral_checks c JOIN LATERAL (SELECT (c.item_outcomes->0->>'itemId')::uuid AS syllabus_item_id) q ON true
-         WHERE c.school_id = :s AND c.remarks = 'Generated for a scale run.' AND c.student_id IN (SELECT ${id("s", "st.no::text")} FROM ${studentsOf});
+      INSERT INTO oral_check_items (check_id, syllabus_item_id) SELECT id, item_id FROM ${checks} x;
       INSERT INTO oral_check_questions (check_id, position, syllabus_item_id, item_code, question_text, answer_summary, outcome)
-        SELECT i.check_id, 1, i.syllabus_item_id, si.code, 'Explain ' || si.code || ' in your own words.', 'Clear and complete.', 'solid'
-          FROM oral_check_items i JOIN syllabus_items si ON si.id = i.syllabus_item_id
-         WHERE i.check_id IN (SELECT c.id FROM oral_checks c WHERE c.student_id IN (SELECT ${id("s", "st.no::text")} FROM ${studentsOf}));`);
+        SELECT id, 1, item_id, item_code, 'Explain ' || item_code || ' in your own words.', 'Clear and complete.', 'solid'
+          FROM ${checks} x;`);
 
     // Sign-offs: the first items, each on its own check (check j covers item j), a day later.
     log(`[scale] ${tag}: ${students * signOffs} sign-offs`);
