@@ -2,6 +2,7 @@ import "server-only";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
 import { studentScopeSql, type Caller, type ScopePurpose } from "./student-scope";
+import { STUDENT_ROLES } from "@/lib/auth/account-roles";
 
 // Every list of students that grows with the school, one page at a time (Records, the Progress
 // map list, the Ground log's student list): the students the caller may see for a purpose
@@ -63,6 +64,7 @@ export async function studentsPage(
   const page = Math.max(1, Math.floor(opts.page ?? 1));
   const replacements = {
     schoolId: caller.schoolId,
+    studentRoles: STUDENT_ROLES,
     ...scope.replacements,
     cohortId: filter.cohortId ?? null,
     name: filter.name ? likePattern(filter.name) : null,
@@ -72,7 +74,8 @@ export async function studentsPage(
        ${enrolled ? "JOIN active_enrolments e ON e.student_id = p.id" : ""}
        LEFT JOIN cohort_memberships m ON m.student_id = p.id AND m.to_date IS NULL LEFT JOIN cohorts c ON c.id = m.cohort_id`;
   const cohortShown = opts.cohortToStaffOnly ? `(${scope.staffSql})` : "TRUE";
-  const who = enrolled ? (opts.includeInactive ? "'student' = ANY(p.roles)" : "p.active") : "'student' = ANY(p.roles)";
+  const studentAccount = "p.roles && ARRAY[:studentRoles]::text[]";
+  const who = enrolled && !opts.includeInactive ? "p.active" : studentAccount;
   const where = `WHERE p.school_id = :schoolId AND ${who} AND ${scope.sql}`;
   const matching = `${where}
         AND (CAST(:cohortId AS uuid) IS NULL OR (m.cohort_id = CAST(:cohortId AS uuid) AND ${cohortShown}))
