@@ -4,6 +4,8 @@ import { z } from "zod";
 const schema = z.object({
   /** How often the worker runs the producers and moves due outbox rows into the queue. */
   CHALKWING_MAIL_TICK_SECONDS: z.coerce.number().min(0.5).max(3600).default(15),
+  /** How many mails one worker process sends at once (each its own pg-boss worker polling the queue). */
+  CHALKWING_MAIL_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(4),
   /** pg-boss retry: first delay in seconds, doubled each time (with jitter), and how many retries. */
   CHALKWING_MAIL_RETRY_DELAY: z.coerce.number().int().min(1).max(3600).default(30),
   CHALKWING_MAIL_RETRY_LIMIT: z.coerce.number().int().min(0).max(50).default(8),

@@ -19,16 +19,19 @@ async function main() {
   const boss = await startBoss(cfg);
   let stopping = false;
 
-  await boss.work<MailJob>(
-    MAIL_QUEUE,
-    { batchSize: 1, pollingIntervalSeconds: Math.max(0.5, Math.min(2, cfg.CHALKWING_MAIL_TICK_SECONDS)), includeMetadata: true },
-    async (jobs: PgBoss.JobWithMetadata<MailJob>[]) => {
-      for (const job of jobs) {
-        const outcome = await deliverOutboxMail(job.data.outboxId, { transport, final: job.retryCount >= job.retryLimit });
-        console.log(`[mail-worker] ${job.data.outboxId} ${outcome}`);
-      }
-    },
-  );
+  // CHALKWING_MAIL_CONCURRENCY pg-boss workers in this process, one job each: a failed send
+  // retries only its own mail, and a burst drains that many mails per poll instead of one.
+  for (let i = 0; i < cfg.CHALKWING_MAIL_CONCURRENCY; i++)
+    await boss.work<MailJob>(
+      MAIL_QUEUE,
+      { batchSize: 1, pollingIntervalSeconds: Math.max(0.5, Math.min(2, cfg.CHALKWING_MAIL_TICK_SECONDS)), includeMetadata: true },
+      async (jobs: PgBoss.JobWithMetadata<MailJob>[]) => {
+        for (const job of jobs) {
+          const outcome = await deliverOutboxMail(job.data.outboxId, { transport, final: job.retryCount >= job.retryLimit });
+          console.log(`[mail-worker] ${job.data.outboxId} ${outcome}`);
+        }
+      },
+    );
 
   let running = false;
   const tick = async () => {
@@ -51,7 +54,7 @@ async function main() {
   await tick();
   const timer = setInterval(() => void tick(), cfg.CHALKWING_MAIL_TICK_SECONDS * 1000);
   console.log(
-    `[mail-worker] running: tick ${cfg.CHALKWING_MAIL_TICK_SECONDS}s, SMTP ${process.env.SMTP_HOST ?? "127.0.0.1"}:${process.env.SMTP_PORT ?? 2525}`,
+    `[mail-worker] running: tick ${cfg.CHALKWING_MAIL_TICK_SECONDS}s, ${cfg.CHALKWING_MAIL_CONCURRENCY} at once, SMTP ${process.env.SMTP_HOST ?? "127.0.0.1"}:${process.env.SMTP_PORT ?? 2525}`,
   );
 
   const stop = async () => {
