@@ -20,9 +20,12 @@ async function main() {
   let stopping = false;
 
   // CHALKWING_MAIL_CONCURRENCY pg-boss workers in this process, one job each: a failed send
-  // retries only its own mail, and a burst drains that many mails per poll instead of one.
-  for (let i = 0; i < cfg.CHALKWING_MAIL_CONCURRENCY; i++)
-    await boss.work<MailJob>(
+  // retries only its own mail. A worker that has just sent a mail looks for the next at once
+  // (notifyWorker skips its polling pause), so a burst drains as fast as SMTP takes it; an idle
+  // worker, or one whose send failed, polls again after the interval.
+  for (let i = 0; i < cfg.CHALKWING_MAIL_CONCURRENCY; i++) {
+    let workerId = "";
+    workerId = await boss.work<MailJob>(
       MAIL_QUEUE,
       { batchSize: 1, pollingIntervalSeconds: Math.max(0.5, Math.min(2, cfg.CHALKWING_MAIL_TICK_SECONDS)), includeMetadata: true },
       async (jobs: PgBoss.JobWithMetadata<MailJob>[]) => {
@@ -30,8 +33,10 @@ async function main() {
           const outcome = await deliverOutboxMail(job.data.outboxId, { transport, final: job.retryCount >= job.retryLimit });
           console.log(`[mail-worker] ${job.data.outboxId} ${outcome}`);
         }
+        if (jobs.length > 0 && workerId) boss.notifyWorker(workerId);
       },
     );
+  }
 
   let running = false;
   const tick = async () => {
