@@ -1,4 +1,5 @@
 import "server-only";
+import { cache } from "react";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
 import { studentScopeSql, type Caller } from "../shared/student-scope";
@@ -74,9 +75,14 @@ export async function stagesWaiting(caller: Caller): Promise<StageWaiting[]> {
 
 /**
  * The chief's Today: how many stages are waiting for their check, and the `limit` that have waited
- * longest (every item signed off longest ago first), counted and limited in SQL.
+ * longest (every item signed off longest ago first), counted and limited in SQL. Read once per
+ * page render (React `cache`): the chief who also teaches has it in the Records card and in
+ * "Checks due", from the same caller object.
  */
-export async function stagesWaitingTop(caller: Caller, limit: number): Promise<{ total: number; top: StageWaiting[] }> {
+export const stagesWaitingTop = cache(async function stagesWaitingTop(
+  caller: Caller,
+  limit: number,
+): Promise<{ total: number; top: StageWaiting[] }> {
   const q = stagesWaitingSql(caller);
   const rows = await sequelize.query<StageWaiting & { total: number }>(
     `SELECT w."studentId", w."studentName", w."stageCode", w.since, (count(*) OVER ())::int AS total FROM (${q.sql}) w
@@ -86,4 +92,4 @@ export async function stagesWaitingTop(caller: Caller, limit: number): Promise<{
   );
   const top = rows.map((r) => ({ studentId: r.studentId, studentName: r.studentName, stageCode: r.stageCode, since: r.since }));
   return { total: rows[0]?.total ?? 0, top };
-}
+});
