@@ -1,12 +1,15 @@
 import Link from "next/link";
 import type { ReactNode } from "react";
+import { COHORT_CHOICES_MAX } from "@/lib/records/schema";
 
 // The UI pieces of a paged student list (Records, Progress map, Ground log): the filter form
-// (a part of the name, a cohort), the line that names a bad query string, and the page links
+// (a part of the name, a cohort: chosen from a list, or a part of its name when the school has
+// more than COHORT_CHOICES_MAX), the line that names a bad query string, and the page links
 // (Previous / Next keep the filters, "Students x to y of N"). The lists themselves stay each page's own.
 
 export interface StudentListState {
   cohort?: string | undefined;
+  cohortName?: string | undefined;
   name?: string | undefined;
   page?: number | undefined;
 }
@@ -16,6 +19,7 @@ function filterPairs(q: StudentListState, keep: [string, string][] = []): [strin
   const pairs: [string, string][] = [...keep];
   if (q.name) pairs.push(["name", q.name]);
   if (q.cohort) pairs.push(["cohort", q.cohort]);
+  if (q.cohortName) pairs.push(["cohortName", q.cohortName]);
   return pairs;
 }
 
@@ -27,7 +31,7 @@ export function studentPageHref(basePath: string, q: StudentListState, page: num
 }
 
 export function isFiltered(q: StudentListState): boolean {
-  return Boolean(q.name || q.cohort);
+  return Boolean(q.name || q.cohort || q.cohortName);
 }
 
 export function StudentFilterForm({
@@ -62,19 +66,36 @@ export function StudentFilterForm({
         </label>
         <input id={`${idPrefix}-name`} name="name" type="search" maxLength={100} defaultValue={q.name ?? ""} className="field-input" />
       </div>
-      <div>
-        <label htmlFor={`${idPrefix}-cohort`} className="field-label">
-          Cohort
-        </label>
-        <select id={`${idPrefix}-cohort`} name="cohort" defaultValue={q.cohort ?? ""} className="field-input">
-          <option value="">Any</option>
-          {cohorts.map((c) => (
-            <option key={c.id} value={c.id}>
-              {c.name}
-            </option>
-          ))}
-        </select>
-      </div>
+      {cohorts.length > COHORT_CHOICES_MAX ? (
+        // too many cohorts to offer as choices: a part of the cohort's name instead
+        <div>
+          <label htmlFor={`${idPrefix}-cohort-name`} className="field-label">
+            Cohort name contains
+          </label>
+          <input
+            id={`${idPrefix}-cohort-name`}
+            name="cohortName"
+            type="search"
+            maxLength={100}
+            defaultValue={q.cohortName ?? ""}
+            className="field-input"
+          />
+        </div>
+      ) : (
+        <div>
+          <label htmlFor={`${idPrefix}-cohort`} className="field-label">
+            Cohort
+          </label>
+          <select id={`${idPrefix}-cohort`} name="cohort" defaultValue={q.cohort ?? ""} className="field-input">
+            <option value="">Any</option>
+            {cohorts.map((c) => (
+              <option key={c.id} value={c.id}>
+                {c.name}
+              </option>
+            ))}
+          </select>
+        </div>
+      )}
       <div className="flex items-end gap-2">
         <button type="submit" className="btn-primary">
           {submitLabel}

@@ -258,9 +258,16 @@ export function toFilter(q: RegisterQuery) {
 // ---------------------------------------------------------------- the paged student lists' query string
 
 /** The filters and page of a paged student list (Records, Progress map, Ground log), from a query string; a bad one is refused naming it. */
+/**
+ * Up to this many cohorts, a student list's cohort filter is a choice of names; a school with more
+ * gets a "Cohort name contains" field instead, so the page does not grow with the number of cohorts.
+ */
+export const COHORT_CHOICES_MAX = 50;
+
 export const studentListQuerySchema = z
   .object({
     cohort: z.preprocess(emptyToUndefined, z.string().uuid("must be a cohort id").optional()),
+    cohortName: z.preprocess(emptyToUndefined, z.string().trim().max(100, "must be 100 characters or fewer").optional()),
     name: z.preprocess(emptyToUndefined, z.string().trim().max(100, "must be 100 characters or fewer").optional()),
     page: z.preprocess(
       emptyToUndefined,

@@ -20,7 +20,7 @@ export default async function CompletionPage({ searchParams }: { searchParams: P
   const problem = parsed.success ? null : parsed.error.issues[0];
   const { inTraining, inTrainingTotal, page, pageSize, cohorts, ended } = await completionOverview(
     user,
-    { cohortId: q.cohort, name: q.name },
+    { cohortId: q.cohort, cohortName: q.cohortName, name: q.name },
     { page: q.page ?? 1 },
   );
   return (

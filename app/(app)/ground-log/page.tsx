@@ -45,7 +45,9 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
   const parsedList = studentListQuerySchema.safeParse(listQuery);
   const q = parsedList.success ? parsedList.data : {};
   const listProblem = isStudent || parsedList.success ? null : parsedList.error.issues[0];
-  const list = isStudent ? null : await groundLogStudentsPage(user, { cohortId: q.cohort, name: q.name }, { page: q.page ?? 1 });
+  const list = isStudent
+    ? null
+    : await groundLogStudentsPage(user, { cohortId: q.cohort, cohortName: q.cohortName, name: q.name }, { page: q.page ?? 1 });
   const choices = list?.rows ?? [];
   const paged = list !== null && (list.total > list.pageSize || list.page > 1 || isFiltered(q) || listProblem !== null);
   const listPairs: [string, string][] = [

@@ -29,7 +29,7 @@ export default async function ProgressIndexPage({
     page,
     pageSize,
     cohorts,
-  } = await progressStudentsPage(user, { cohortId: q.cohort, name: q.name }, { page: q.page ?? 1 });
+  } = await progressStudentsPage(user, { cohortId: q.cohort, cohortName: q.cohortName, name: q.name }, { page: q.page ?? 1 });
   // a sponsor with one shared student (and no filter asked for) goes straight to that map
   if (total === 1 && students.length === 1 && !staff && !isFiltered(q)) redirect(`/progress/${students[0]!.id}`);
   const none = (

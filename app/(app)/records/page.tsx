@@ -23,7 +23,7 @@ export default async function RecordsPage({ searchParams }: { searchParams: Prom
     page,
     pageSize,
     cohorts,
-  } = await recordStudentsPage(user, { cohortId: q.cohort, name: q.name }, { page: q.page ?? 1 });
+  } = await recordStudentsPage(user, { cohortId: q.cohort, cohortName: q.cohortName, name: q.name }, { page: q.page ?? 1 });
   const byCohort = new Map<string, typeof students>();
   for (const s of students) byCohort.set(s.cohortName ?? "No cohort", [...(byCohort.get(s.cohortName ?? "No cohort") ?? []), s]);
   const instructors = can(user, "stagechecks.designate") ? await listCheckInstructors(user.schoolId) : [];

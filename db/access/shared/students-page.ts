@@ -3,13 +3,15 @@ import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
 import { studentScopeSql, type Caller, type ScopePurpose } from "./student-scope";
 import { STUDENT_ROLES } from "@/lib/auth/account-roles";
+import { COHORT_CHOICES_MAX } from "@/lib/records/schema";
 
 // Every list of students that grows with the school, one page at a time (Records, the Progress
 // map list, the Ground log's student list): the students the caller may see for a purpose
 // (active, with an active enrolment, unless asked for every student account), filtered by cohort
-// and by a part of the name, ordered by cohort then name, paged in SQL (LIMIT/OFFSET) with the
-// number that match from one count; the cohorts to filter by from one grouped query. Three
-// queries, whatever the size of the school.
+// (or a part of its name) and by a part of the student's name, ordered by cohort then name, paged
+// in SQL (LIMIT/OFFSET) with the number that match from one count; the cohorts to filter by from
+// one grouped query, at most COHORT_CHOICES_MAX + 1 of them. Three queries, whatever the size of
+// the school.
 
 export const STUDENTS_PAGE_SIZE = 50;
 
@@ -21,6 +23,8 @@ export interface ListedStudent {
 
 export interface StudentsFilter {
   cohortId?: string | undefined;
+  /** a part of the cohort's name, any case (the filter of a school with many cohorts) */
+  cohortName?: string | undefined;
   /** a part of the student's name, any case */
   name?: string | undefined;
 }
@@ -31,7 +35,10 @@ export interface StudentsPage {
   total: number;
   page: number;
   pageSize: number;
-  /** the cohorts of the students the caller may see (not only the filtered ones) */
+  /**
+   * the cohorts of the students the caller may see (not only the filtered ones), at most
+   * COHORT_CHOICES_MAX + 1: more than COHORT_CHOICES_MAX means "too many to offer as choices"
+   */
   cohorts: { id: string; name: string }[];
 }
 
@@ -68,6 +75,8 @@ export async function studentsPage(
     ...scope.replacements,
     cohortId: filter.cohortId ?? null,
     name: filter.name ? likePattern(filter.name) : null,
+    cohortName: filter.cohortName ? likePattern(filter.cohortName) : null,
+    cohortChoices: COHORT_CHOICES_MAX + 1,
   };
   const enrolled = (opts.who ?? "enrolled") === "enrolled";
   const from = `FROM people p
@@ -79,6 +88,7 @@ export async function studentsPage(
   const where = `WHERE p.school_id = :schoolId AND ${who} AND ${scope.sql}`;
   const matching = `${where}
         AND (CAST(:cohortId AS uuid) IS NULL OR (m.cohort_id = CAST(:cohortId AS uuid) AND ${cohortShown}))
+        AND (CAST(:cohortName AS text) IS NULL OR (c.name ILIKE CAST(:cohortName AS text) AND ${cohortShown}))
         AND (CAST(:name AS text) IS NULL OR p.name ILIKE CAST(:name AS text))`;
   const [rows, [count], cohorts] = await Promise.all([
     sequelize.query<ListedStudent>(
@@ -88,7 +98,7 @@ export async function studentsPage(
     ),
     sequelize.query<{ n: number }>(`SELECT count(*)::int AS n ${from} ${matching}`, { replacements, type: QueryTypes.SELECT }),
     sequelize.query<{ id: string; name: string }>(
-      `SELECT c.id, c.name ${from} ${where} AND c.id IS NOT NULL AND ${cohortShown} GROUP BY c.id, c.name ORDER BY c.name`,
+      `SELECT c.id, c.name ${from} ${where} AND c.id IS NOT NULL AND ${cohortShown} GROUP BY c.id, c.name ORDER BY c.name LIMIT :cohortChoices`,
       { replacements, type: QueryTypes.SELECT },
     ),
   ]);

@@ -1,6 +1,7 @@
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
-import { generateScale } from "@/db/seed/scale";
+import { generateScale, STUDENTS_PER_COHORT } from "@/db/seed/scale";
+import { COHORT_CHOICES_MAX } from "@/lib/records/schema";
 import { progressStudentsPage } from "@/db/access/records/student-list";
 import { recordStudentsPage } from "@/db/access/records/record-students-page";
 import { groundLogStudentsPage } from "@/db/access/ground-log/visible-students";
@@ -262,4 +263,23 @@ it("pages the End of training's students in training: every student with an acti
       .map((p) => p.id)
       .sort(),
   );
+});
+
+it("offers the cohorts as choices up to COHORT_CHOICES_MAX and, beyond, filters by a part of the cohort's name", async () => {
+  const big = await makeSchool("many-cohorts");
+  const { tag } = await generateScale(STUDENTS_PER_COHORT * (COHORT_CHOICES_MAX + 1), { schoolId: big.school.id });
+  const first = await recordStudentsPage(big.as.chief);
+  // 51 generated cohorts and the factory's two: the choices stop one past the bound, which tells the form to ask for a name
+  expect(first.cohorts).toHaveLength(COHORT_CHOICES_MAX + 1);
+  const name = `Scale ${tag} C0007`;
+  const [cohort] = await sequelize.query<{ id: string }>(`SELECT id FROM cohorts WHERE school_id = :s AND name = :n`, {
+    replacements: { s: big.school.id, n: name },
+    type: QueryTypes.SELECT,
+  });
+  const byName = await allPages((page) => recordStudentsPage(big.as.chief, { cohortName: "c0007" }, { page }));
+  const byId = await allPages((page) => recordStudentsPage(big.as.chief, { cohortId: cohort!.id }, { page }));
+  expect(byName).toHaveLength(STUDENTS_PER_COHORT);
+  expect(byName.sort()).toEqual(byId.sort());
+  // LIKE wildcards are taken literally; no cohort has a % in its name
+  expect((await recordStudentsPage(big.as.chief, { cohortName: "%" })).total).toBe(0);
 });

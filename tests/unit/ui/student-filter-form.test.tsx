@@ -1,0 +1,26 @@
+import { render, screen } from "@testing-library/react";
+import { StudentFilterForm } from "@/components/student-pages";
+import { COHORT_CHOICES_MAX } from "@/lib/records/schema";
+
+// The filter form of the paged student lists (Records, Progress map, Ground log, End of training):
+// the cohort is a choice of names while the school has up to COHORT_CHOICES_MAX cohorts, and a
+// "Cohort name contains" field beyond, so the page does not grow with the number of cohorts.
+
+const cohorts = (n: number) => Array.from({ length: n }, (_, i) => ({ id: `c${i}`, name: `Cohort ${i + 1}` }));
+
+it("offers the cohorts as a list up to the bound", () => {
+  render(<StudentFilterForm basePath="/records" q={{}} cohorts={cohorts(COHORT_CHOICES_MAX)} />);
+  const choice = screen.getByRole("combobox", { name: "Cohort" });
+  expect(choice.querySelectorAll("option")).toHaveLength(COHORT_CHOICES_MAX + 1); // "Any" and each cohort
+  expect(screen.queryByRole("searchbox", { name: "Cohort name contains" })).toBeNull();
+});
+
+it("asks for a part of the cohort's name beyond the bound, keeping what was asked", () => {
+  render(<StudentFilterForm basePath="/records" q={{ cohortName: "C0007" }} cohorts={cohorts(COHORT_CHOICES_MAX + 1)} />);
+  const field = screen.getByRole("searchbox", { name: "Cohort name contains" });
+  expect(field).toHaveAttribute("name", "cohortName");
+  expect(field).toHaveValue("C0007");
+  expect(screen.queryByRole("combobox", { name: "Cohort" })).toBeNull();
+  // a filter is set, so the form offers to clear it
+  expect(screen.getByRole("link", { name: "Clear" })).toHaveAttribute("href", "/records");
+});
