@@ -2,7 +2,9 @@
 // pointing at a throwaway cluster): a write load of oral checks, each through the same steps as
 // runAction with an idempotency key, retried with the same key on connection errors. Prints
 // "READY" once its school exists, then one "ACK <key> <checkId>" per acknowledged write, and at the
-// end one "SUMMARY <json>" read with the same Sequelize instance (so its pool has recovered).
+// end one "SUMMARY <json>" read with the same Sequelize instance (so its pool has recovered). It
+// writes at least FAULT_WRITES and goes on until the test writes "DONE" on its stdin (after the
+// last fault), so a fast machine cannot finish the load before the faults.
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
 import { makeSchool } from "@/tests/helpers/factories";
@@ -12,6 +14,10 @@ import { verifyChain } from "@/db/access/records/audit-chain";
 
 const WRITES = Number(process.env.FAULT_WRITES ?? 200);
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+let done = false;
+process.stdin.on("data", (d: Buffer) => {
+  if (d.toString().includes("DONE")) done = true;
+});
 
 /** Errors of a lost or refused connection: the client cannot know whether the write committed. */
 function isConnectionError(e: unknown): boolean {
@@ -33,7 +39,7 @@ async function main() {
   const user = s.as.chief;
   process.stdout.write(`READY ${s.school.id} ${user.id}\n`);
   let retries = 0;
-  for (let i = 0; i < WRITES; i++) {
+  for (let i = 0; i < WRITES || !done; i++) {
     const key = `fault-load-${String(i).padStart(4, "0")}`;
     const studentId = s.people.students[i % s.people.students.length]!.id;
     for (;;) {
