@@ -5,7 +5,7 @@ import { completionOverview } from "@/db/access/completion/completion-overview";
 import { END_KIND_WORDS } from "@/lib/completion/statements";
 import { DataTable } from "@/components/ui/data-table";
 import { formatDay } from "@/lib/time";
-import { studentListQuerySchema } from "@/lib/records/schema";
+import { parseStudentListQuery } from "@/lib/records/student-list-query";
 import { fieldLabel } from "@/lib/validation/messages";
 import { StudentFilterForm, StudentPageNav, isFiltered, noStudentsWords } from "@/components/student-pages";
 
@@ -14,15 +14,8 @@ export const dynamic = "force-dynamic";
 
 export default async function CompletionPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requirePagePermission("records.certify", "/completion");
-  const raw = Object.fromEntries(Object.entries(await searchParams).filter(([, v]) => typeof v === "string")) as Record<string, string>;
-  const parsed = studentListQuerySchema.safeParse(raw);
-  const q = parsed.success ? parsed.data : {};
-  const problem = parsed.success ? null : parsed.error.issues[0];
-  const { inTraining, inTrainingTotal, page, pageSize, cohorts, ended } = await completionOverview(
-    user,
-    { cohortId: q.cohort, cohortName: q.cohortName, name: q.name },
-    { page: q.page ?? 1 },
-  );
+  const { q, problem, filter } = parseStudentListQuery(await searchParams);
+  const { inTraining, inTrainingTotal, page, pageSize, cohorts, ended } = await completionOverview(user, filter, { page: q.page ?? 1 });
   return (
     <div className="max-w-5xl space-y-6">
       <div>

@@ -17,7 +17,7 @@ import { MAKEUP_STATE_WORDS } from "@/lib/labels";
 import { ScrollArea } from "@/components/ui/scroll-area";
 import { WideTable } from "@/components/ui/wide-table";
 import { StudentFilterForm, StudentPageNav, isFiltered, noStudentsWords } from "@/components/student-pages";
-import { studentListQuerySchema } from "@/lib/records/schema";
+import { parseStudentListQuery } from "@/lib/records/student-list-query";
 import { fieldLabel } from "@/lib/validation/messages";
 
 export const metadata: Metadata = { title: "Ground log" };
@@ -38,16 +38,9 @@ export default async function GroundLogPage({ searchParams }: { searchParams: Pr
   // a student (who records no attendance) sees only their own Ground log: no student picker
   const isStudent = can(user, "students.own") && !can(user, "attendance.record");
   // the students to choose from, one page at a time (filtered by name and cohort) like Records
-  const listQuery = Object.fromEntries(Object.entries(sp).filter(([k, v]) => k !== "student" && typeof v === "string")) as Record<
-    string,
-    string
-  >;
-  const parsedList = studentListQuerySchema.safeParse(listQuery);
-  const q = parsedList.success ? parsedList.data : {};
-  const listProblem = isStudent || parsedList.success ? null : parsedList.error.issues[0];
-  const list = isStudent
-    ? null
-    : await groundLogStudentsPage(user, { cohortId: q.cohort, cohortName: q.cohortName, name: q.name }, { page: q.page ?? 1 });
+  const { q, problem, filter } = parseStudentListQuery(sp, ["student"]);
+  const listProblem = isStudent ? null : problem;
+  const list = isStudent ? null : await groundLogStudentsPage(user, filter, { page: q.page ?? 1 });
   const choices = list?.rows ?? [];
   const paged = list !== null && (list.total > list.pageSize || list.page > 1 || isFiltered(q) || listProblem !== null);
   const listPairs: [string, string][] = [

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { redirect } from "next/navigation";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { progressStudentsPage } from "@/db/access/records/student-list";
-import { studentListQuerySchema } from "@/lib/records/schema";
+import { parseStudentListQuery } from "@/lib/records/student-list-query";
 import { fieldLabel } from "@/lib/validation/messages";
 import { StudentFilterForm, StudentPageNav, isFiltered, noStudentsWords } from "@/components/student-pages";
 
@@ -19,17 +19,8 @@ export default async function ProgressIndexPage({
   // who sees no one but themself: straight to the one map, decided before any student is read
   const staff = can(user, "students.all") || can(user, "students.taught");
   if (can(user, "students.own") && !staff && !can(user, "students.sponsored")) redirect(`/progress/${user.id}`);
-  const raw = Object.fromEntries(Object.entries(await searchParams).filter(([, v]) => typeof v === "string")) as Record<string, string>;
-  const parsed = studentListQuerySchema.safeParse(raw);
-  const q = parsed.success ? parsed.data : {};
-  const problem = parsed.success ? null : parsed.error.issues[0];
-  const {
-    rows: students,
-    total,
-    page,
-    pageSize,
-    cohorts,
-  } = await progressStudentsPage(user, { cohortId: q.cohort, cohortName: q.cohortName, name: q.name }, { page: q.page ?? 1 });
+  const { q, problem, filter } = parseStudentListQuery(await searchParams);
+  const { rows: students, total, page, pageSize, cohorts } = await progressStudentsPage(user, filter, { page: q.page ?? 1 });
   // a sponsor with one shared student (and no filter asked for) goes straight to that map
   if (total === 1 && students.length === 1 && !staff && !isFiltered(q)) redirect(`/progress/${students[0]!.id}`);
   const none = (

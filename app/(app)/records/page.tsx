@@ -3,7 +3,7 @@ import Link from "next/link";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { recordStudentsPage } from "@/db/access/records/record-students-page";
 import { listCheckInstructors } from "@/db/access/records/stage-checks";
-import { studentListQuerySchema } from "@/lib/records/schema";
+import { parseStudentListQuery } from "@/lib/records/student-list-query";
 import { StudentFilterForm, StudentPageNav, noStudentsWords } from "@/components/student-pages";
 import { fieldLabel } from "@/lib/validation/messages";
 import { DesignateToggle } from "./_components/designate-toggle";
@@ -13,17 +13,8 @@ export const dynamic = "force-dynamic";
 
 export default async function RecordsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requirePagePermission("checks.record", "/records");
-  const raw = Object.fromEntries(Object.entries(await searchParams).filter(([, v]) => typeof v === "string")) as Record<string, string>;
-  const parsed = studentListQuerySchema.safeParse(raw);
-  const q = parsed.success ? parsed.data : {};
-  const problem = parsed.success ? null : parsed.error.issues[0];
-  const {
-    rows: students,
-    total,
-    page,
-    pageSize,
-    cohorts,
-  } = await recordStudentsPage(user, { cohortId: q.cohort, cohortName: q.cohortName, name: q.name }, { page: q.page ?? 1 });
+  const { q, problem, filter } = parseStudentListQuery(await searchParams);
+  const { rows: students, total, page, pageSize, cohorts } = await recordStudentsPage(user, filter, { page: q.page ?? 1 });
   const byCohort = new Map<string, typeof students>();
   for (const s of students) byCohort.set(s.cohortName ?? "No cohort", [...(byCohort.get(s.cohortName ?? "No cohort") ?? []), s]);
   const instructors = can(user, "stagechecks.designate") ? await listCheckInstructors(user.schoolId) : [];
