@@ -1,7 +1,7 @@
 // The accessibility crawler: every page in pages.ts, for every role allowed, loaded in headless
 // Chromium after its data has arrived, checked with axe-core (no serious or critical violations),
-// photographed at 1280x800 and 390x844 (tests/artifacts/screenshots/<role>-<name>-<width>.jpg: JPEG
-// takes the browser about half the time of PNG over ~380 full-page pictures),
+// photographed at 1280x800 and 390x844 (tests/artifacts/screenshots/<role>-<name>-<width>.png: PNG,
+// which every viewer and the project's own tools open; JPEG would save the browser about 15 s a run),
 // and checked for sideways scrolling at 390 px. To add a page, see the header of pages.ts.
 // The visits run in CONCURRENCY isolated browser contexts of one Chromium (each with its own
 // session cookie) against the one production build; each jest test awaits its own visit and
@@ -123,12 +123,7 @@ async function visit(page: Page, spec: CrawlPage, role: Caller): Promise<Visit> 
       checked.sidewaysScrollPx = Math.max(0, sizes.scrollWidth - sizes.innerWidth);
     }
     found.widths.push(checked);
-    await page.screenshot({
-      path: path.join(SCREENSHOT_DIR, `${role}-${spec.name}-${vp.width}.jpg`),
-      fullPage: true,
-      type: "jpeg",
-      quality: 80,
-    });
+    await page.screenshot({ path: path.join(SCREENSHOT_DIR, `${role}-${spec.name}-${vp.width}.png`), fullPage: true });
   }
   return found;
 }
