@@ -1,7 +1,7 @@
 // The accessibility crawler: every page in pages.ts, for every role allowed, loaded in headless
 // Chromium after its data has arrived, checked with axe-core (no serious or critical violations),
-// photographed at 1280x800 and 390x844 (tests/artifacts/screenshots/<role>-<name>-<width>.png: PNG,
-// which every viewer and the project's own tools open; JPEG would save the browser about 15 s a run),
+// photographed at 1280x800 and 390x844 (tests/artifacts/screenshots/<role>-<name>-<width>.jpg; JPEG
+// saves the crawl about 40 s a run over PNG; CHALKWING_CRAWL_SHOTS=png takes PNG instead),
 // and checked for sideways scrolling at 390 px. To add a page, see the header of pages.ts.
 // The visits run in CONCURRENCY isolated browser contexts of one Chromium (each with its own
 // session cookie) against the one production build; each jest test awaits its own visit and
@@ -24,6 +24,8 @@ const ACCOUNTS: Record<Exclude<Caller, "signedOut">, string> = {
   student: "student@chalkwing.test",
   sponsor: "sponsor@chalkwing.test",
 };
+/** The pictures' format: JPEG unless CHALKWING_CRAWL_SHOTS=png (PNG costs the crawl about 40 s a run). */
+const SHOT_TYPE: "png" | "jpeg" = process.env.CHALKWING_CRAWL_SHOTS === "png" ? "png" : "jpeg";
 /** Parallel visits: three contexts keep the 2-CPU test machine busy while each page waits for network idle. */
 const CONCURRENCY = 3;
 const VIEWPORTS = [
@@ -123,7 +125,8 @@ async function visit(page: Page, spec: CrawlPage, role: Caller): Promise<Visit> 
       checked.sidewaysScrollPx = Math.max(0, sizes.scrollWidth - sizes.innerWidth);
     }
     found.widths.push(checked);
-    await page.screenshot({ path: path.join(SCREENSHOT_DIR, `${role}-${spec.name}-${vp.width}.png`), fullPage: true });
+    const file = path.join(SCREENSHOT_DIR, `${role}-${spec.name}-${vp.width}.${SHOT_TYPE === "png" ? "png" : "jpg"}`);
+    await page.screenshot({ path: file, fullPage: true, type: SHOT_TYPE, ...(SHOT_TYPE === "jpeg" ? { quality: 85 } : {}) });
   }
   return found;
 }
