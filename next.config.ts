@@ -11,10 +11,10 @@ const nextConfig: NextConfig = {
   // Lets parallel checkouts or test runs build side by side without sharing .next.
   distDir: process.env.CHALKWING_DIST_DIR || ".next",
   // Next.js adds each build folder's types to the tsconfig it is given unless that file `extends`
-  // another: tsconfig.next.json only extends tsconfig.json, so no build or test run edits a tracked file.
+  // another: lib/build/tsconfig.next.json only extends tsconfig.json, so no build or test run edits a tracked file.
   // The test command type-checks the whole tree in its static phase and says so with
   // CHALKWING_TYPECHECKED=1, so its build does not check the same files a second time.
-  typescript: { tsconfigPath: "tsconfig.next.json", ignoreBuildErrors: process.env.CHALKWING_TYPECHECKED === "1" },
+  typescript: { tsconfigPath: "lib/build/tsconfig.next.json", ignoreBuildErrors: process.env.CHALKWING_TYPECHECKED === "1" },
   experimental: { authInterrupts: true },
   async headers() {
     return [
