@@ -53,7 +53,11 @@ export function studentScopeSql(
   const staffSql = staff.length ? `(${staff.join(" OR ")})` : "FALSE";
   const all = [...staff, ...other];
   return {
-    sql: all.length ? `(${all.join(" OR ")})` : "FALSE",
+    // IS TRUE keeps each IN (…) a hashed subplan read once per query: a bare IN at the top of a
+    // WHERE becomes a semi-join, and with the row estimates of aggregate CTEs the planner looped
+    // over the scope's set for every row (an instructor's stages waiting, 10,000 students: 2.9 s
+    // against 0.15 s). Same rows: IN is only ever true, false or null, and null filters out alike.
+    sql: all.length ? `((${all.join(" OR ")}) IS TRUE)` : "FALSE",
     staffSql,
     replacements: { [`${k}School`]: caller.schoolId, [`${k}Uid`]: caller.id },
   };
