@@ -1,7 +1,8 @@
 import "server-only";
 import type { CurrentUser } from "@/lib/auth/session";
 import { dateInZone, formatDay } from "@/lib/time";
-import { standingKey, watchNoteKey, watchNotes, type WatchNote } from "@/lib/records/watch-notes";
+import { standingKey, watchNoteKey, watchNotes, type WatchNote, type WatchNoteReview } from "@/lib/records/watch-notes";
+import { cachedSummary } from "../shared/summary-cache";
 import { OUTCOME_LABEL } from "@/lib/records/outcome";
 import { watchNoteReviews } from "./watch-note-reviews";
 import { getSchool } from "../shared/school";
@@ -144,10 +145,25 @@ async function rowsOf(school: School, refs: RegisterRowRef[]): Promise<RegisterR
  * size of the school). `studentId` restricts them to one student (access checked by the caller).
  */
 export async function recentWatchNotes(user: Pick<CurrentUser, "schoolId">, opts: { studentId?: string } = {}): Promise<WatchNote[]> {
-  const school = await getSchool(user.schoolId);
-  const facts = await registerFacts(user.schoolId, opts.studentId ?? null, WATCH_NOTE_WINDOW);
+  if (opts.studentId) return computeWatchNotes(user.schoolId, opts.studentId);
+  // the school's notes are kept while its records are unchanged (cachedSummary, migration 0650)
+  return cachedSummary(user.schoolId, "watch-notes", () => computeWatchNotes(user.schoolId, null), reviveWatchNotes);
+}
+
+function reviveWatchNotes(stored: unknown): WatchNote[] {
+  return (
+    stored as (Omit<WatchNote, "at" | "reviews"> & {
+      at: string;
+      reviews?: (Omit<WatchNoteReview, "reviewedAt"> & { reviewedAt: string })[];
+    })[]
+  ).map((n) => ({ ...n, at: new Date(n.at), reviews: n.reviews?.map((r) => ({ ...r, reviewedAt: new Date(r.reviewedAt) })) }));
+}
+
+async function computeWatchNotes(schoolId: string, studentId: string | null): Promise<WatchNote[]> {
+  const school = await getSchool(schoolId);
+  const facts = await registerFacts(schoolId, studentId, WATCH_NOTE_WINDOW);
   const notes = await notesOf(school, facts);
-  const reviews = await watchNoteReviews(user.schoolId);
+  const reviews = await watchNoteReviews(schoolId);
   for (const n of notes) n.reviews = reviews.get(watchNoteKey(n)) ?? [];
   notes.sort((a, b) => b.at.getTime() - a.at.getTime());
   return notes;
