@@ -32,3 +32,17 @@ export async function migrateUp(ownerUrl?: string) {
     await sequelize.close();
   }
 }
+
+/** ANALYZE every table of the public schema as their owner (the app role may not). */
+export async function analyzeAsOwner(ownerUrl = env().DATABASE_OWNER_URL) {
+  const sequelize = new Sequelize(ownerUrl, { dialect: "postgres", dialectModule: pg, logging: false });
+  try {
+    const [tables] = (await sequelize.query(`SELECT tablename FROM pg_tables WHERE schemaname = 'public'`)) as [
+      { tablename: string }[],
+      unknown,
+    ];
+    for (const { tablename } of tables) await sequelize.query(`ANALYZE "${tablename}"`);
+  } finally {
+    await sequelize.close();
+  }
+}
