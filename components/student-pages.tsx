@@ -184,3 +184,37 @@ export function StudentPageNav({
 }) {
   return <ListPageNav basePath={basePath} pairs={filterPairs(q, keep)} {...rest} />;
 }
+
+/** The filter of a list narrowed by a part of the name only (the Cohorts page, Accounts and roles). */
+export function NameFilterForm({
+  basePath,
+  name,
+  idPrefix,
+  label,
+  submitLabel = "Show",
+}: {
+  basePath: string;
+  name: string | undefined;
+  idPrefix: string;
+  label: string;
+  submitLabel?: string;
+}) {
+  return (
+    <form method="get" action={basePath} className="card flex flex-wrap items-end gap-3" aria-label={label}>
+      <div>
+        <label htmlFor={`${idPrefix}-name`} className="field-label">
+          Name contains
+        </label>
+        <input id={`${idPrefix}-name`} name="name" type="search" maxLength={100} defaultValue={name ?? ""} className="field-input" />
+      </div>
+      <button type="submit" className="btn-primary">
+        {submitLabel}
+      </button>
+      {name && (
+        <Link href={basePath} className="btn-quiet">
+          Clear
+        </Link>
+      )}
+    </form>
+  );
+}

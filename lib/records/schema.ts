@@ -277,3 +277,8 @@ export const studentListQuerySchema = z
   .strict();
 
 export type StudentListQuery = z.output<typeof studentListQuerySchema>;
+
+/** The query string of a paged list filtered only by a part of the name (the Cohorts page, Accounts and roles). */
+export const nameListQuerySchema = studentListQuerySchema.pick({ name: true, page: true }).strict();
+
+export type NameListQuery = z.output<typeof nameListQuerySchema>;

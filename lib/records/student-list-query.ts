@@ -1,5 +1,5 @@
 import type { z } from "zod";
-import { studentListQuerySchema, type StudentListQuery } from "./schema";
+import { nameListQuerySchema, studentListQuerySchema, type NameListQuery, type StudentListQuery } from "./schema";
 
 // The query string of a paged student list (Records, the Progress map list, the Ground log's
 // student picker, End of training): the filters when it parses (none when it does not, with the
@@ -24,4 +24,14 @@ export function parseStudentListQuery(params: Record<string, string | string[] |
     problem: parsed.success ? null : (parsed.error.issues[0] ?? null),
     filter: { cohortId: q.cohort, cohortName: q.cohortName, name: q.name },
   };
+}
+
+/** The query string of a list filtered by a part of the name only (the Cohorts page, Accounts and roles). */
+export function parseNameListQuery(params: Record<string, string | string[] | undefined>): {
+  q: NameListQuery;
+  problem: z.core.$ZodIssue | null;
+} {
+  const raw = Object.fromEntries(Object.entries(params).filter(([, v]) => typeof v === "string")) as Record<string, string>;
+  const parsed = nameListQuerySchema.safeParse(raw);
+  return { q: parsed.success ? parsed.data : {}, problem: parsed.success ? null : (parsed.error.issues[0] ?? null) };
 }

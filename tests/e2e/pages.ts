@@ -99,6 +99,8 @@ export const PAGES: CrawlPage[] = [
   },
   { name: "timetable-forbidden", path: "/timetable", roles: ["sponsor"], waitFor: "h1", status: 403 },
   { name: "roster", path: "/roster", roles: ["chief", "instructor"], waitFor: "main h1" },
+  // the Roster paged and filtered (part of the name), as a school too large for one list uses it
+  { name: "roster-find", path: "/roster?name=a", roles: ["chief", "instructor"], waitFor: "[aria-label='Find a student']" },
   { name: "ground-log", path: "/ground-log", roles: ["chief", "instructor", "student", "sponsor"], waitFor: "main h1" },
   // the student picker filtered (part of the name), as a school too large for one list uses it
   { name: "ground-log-find", path: "/ground-log?name=a", roles: ["chief", "instructor"], waitFor: "[aria-label='Find a student']" },
@@ -179,6 +181,7 @@ export const PAGES: CrawlPage[] = [
   { name: "rooms-forbidden", path: "/rooms", roles: ["instructor"], waitFor: "h1", status: 403 },
   // ---- cohorts ----
   { name: "cohorts", path: "/cohorts", roles: ["chief"], waitFor: "[data-testid=cohorts-table] tbody tr" },
+  { name: "cohorts-find", path: "/cohorts?name=a", roles: ["chief"], waitFor: "[aria-label='Find a cohort']" },
   { name: "cohorts-forbidden", path: "/cohorts", roles: ["instructor"], waitFor: "h1", status: 403 },
   // ---- knowledge-test endorsements ----
   { name: "endorsements", path: "/endorsements", roles: ["chief", "instructor"], waitFor: "main h1" },
@@ -205,6 +208,7 @@ export const PAGES: CrawlPage[] = [
   { name: "retention-forbidden", path: "/retention", roles: ["instructor", "student", "sponsor"], waitFor: "h1", status: 403 },
   // ---- people: invitations and roles ----
   { name: "people-accounts", path: "/people/accounts", roles: ["chief"], waitFor: "[data-testid=accounts-table] tbody tr" },
+  { name: "people-accounts-find", path: "/people/accounts?name=a", roles: ["chief"], waitFor: "[aria-label='Find an account']" },
   { name: "people-accounts-forbidden", path: "/people/accounts", roles: ["instructor", "sponsor"], waitFor: "h1", status: 403 },
   { name: "set-password-invalid", path: "/set-password/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },
   { name: "unsubscribe-invalid", path: "/unsubscribe/not-a-valid-link", roles: ["signedOut"], waitFor: "h1" },

@@ -32,6 +32,9 @@ describe("Accounts and roles", () => {
     await signIn(page, "chief@chalkwing.test");
     await page.goto("/people");
     await Promise.all([page.waitForURL(/\/people\/accounts$/), page.click("a:has-text('Invite people and change roles')")]);
+    // the list pages 50 accounts at a time: narrow it to the tag first, so the new account shows on it
+    await page.fill("#accounts-name", tag);
+    await Promise.all([page.waitForURL(/\/people\/accounts\?name=/), page.click("form[aria-label='Find an account'] button[type=submit]")]);
     await page.fill("#inv-name", `Noor Achterberg ${tag}`);
     await page.fill("#inv-email", email);
     await page.check("form[aria-labelledby=invite-title] input[name=roles][value=instructor]");
@@ -64,7 +67,8 @@ describe("Accounts and roles", () => {
     const today = (c: string) => fetch(`${BASE_URL}/api/today`, { headers: { cookie: c } }).then((r) => r.status);
     expect(await today(cookie)).toBe(200);
 
-    await page.goto("/people/accounts");
+    // the Person choice offers the accounts on the list's page: narrowed to this one's name
+    await page.goto(`/people/accounts?name=${encodeURIComponent(person.name)}`);
     await page.selectOption("#roles-person", { label: person.name });
     await page.check("form[aria-labelledby=roles-title] input[value=sponsor]");
     await page.click("form[aria-labelledby=roles-title] button[type=submit]");

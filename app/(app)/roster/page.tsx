@@ -1,11 +1,13 @@
 import type { Metadata } from "next";
 import { requirePagePermission, can } from "@/lib/auth/guard";
-import { listCohorts } from "@/db/access/cohorts/list-cohorts";
-import { listRoster } from "@/db/access/roster/list-roster";
+import { cohortChoices, rosterPage, type RosterRow } from "@/db/access/roster/roster-page";
 import { cohortsManagedBy } from "@/db/access/roster/managed-cohorts";
 import { getSchool } from "@/db/access/shared/school";
+import { parseStudentListQuery } from "@/lib/records/student-list-query";
+import { fieldLabel } from "@/lib/validation/messages";
 import { dateInZone, formatDay } from "@/lib/time";
 import { now } from "@/lib/clock";
+import { StudentFilterForm, StudentPageNav, noStudentsWords } from "@/components/student-pages";
 import { AddStudentForm } from "./_components/add-student-form";
 import { RosterImport } from "./_components/roster-import";
 import { MoveStudent } from "./_components/move-student";
@@ -14,14 +16,23 @@ import { WideTable } from "@/components/ui/wide-table";
 export const metadata: Metadata = { title: "Roster" };
 export const dynamic = "force-dynamic";
 
-export default async function RosterPage() {
+export default async function RosterPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requirePagePermission("roster.manage", "/roster");
+  const { q, problem, filter } = parseStudentListQuery(await searchParams);
   const school = await getSchool(user.schoolId);
   const everyCohort = can(user, "roster.all");
-  const cohorts = await listCohorts(user.schoolId, everyCohort ? {} : { leadInstructorId: user.id });
-  const managed = await cohortsManagedBy(user);
-  const allCohorts = (await listCohorts(user.schoolId)).map((c) => ({ id: c.id, name: c.name }));
-  const students = await listRoster(user);
+  const [{ rows, total, page, pageSize, cohorts }, managed, allCohorts] = await Promise.all([
+    rosterPage(user, filter, { page: q.page ?? 1 }),
+    cohortsManagedBy(user),
+    cohortChoices(user.schoolId),
+  ]);
+  // the page's rows come ordered by cohort: one section for each cohort on this page
+  const byCohort: RosterRow[][] = [];
+  for (const r of rows) {
+    const last = byCohort.at(-1);
+    if (last && last[0]!.cohortId === r.cohortId) last.push(r);
+    else byCohort.push([r]);
+  }
   const today = dateInZone(now(), school.timeZone);
   return (
     <div className="space-y-6">
@@ -31,20 +42,27 @@ export default async function RosterPage() {
           {everyCohort ? "Every cohort of the school." : "The cohorts you lead."} Students keep their whole cohort history when they move.
         </p>
       </header>
-      {cohorts.map((c) => {
-        const members = students.filter((s) => s.cohortId === c.id);
+      <StudentFilterForm basePath="/roster" q={q} cohorts={cohorts} idPrefix="roster" />
+      {problem && (
+        <p role="alert" className="text-notyet-800">
+          {fieldLabel(problem.path)}: {problem.message}. Showing every student instead.
+        </p>
+      )}
+      {rows.length === 0 && <p className="text-ink-soft">{noStudentsWords(q, page, "No students in your cohorts now.")}</p>}
+      {byCohort.map((members) => {
+        const c = members[0]!;
         return (
-          <section key={c.id} className="card" aria-labelledby={`c-${c.id}`}>
-            <h2 id={`c-${c.id}`}>
-              {c.name}{" "}
+          <section key={c.cohortId} className="card" aria-labelledby={`c-${c.cohortId}`}>
+            <h2 id={`c-${c.cohortId}`}>
+              {c.cohortName}{" "}
               <span className="text-caption font-normal text-ink-soft">
                 · {c.courseCode} · lead instructor {c.leadInstructorName} · from {formatDay(c.startsOn)} ·{" "}
-                <span className="num">{members.length}</span> students
+                <span className="num">{c.cohortSize}</span> students
               </span>
             </h2>
             <div className="mt-2">
-              <WideTable label={`${c.name} students, scrolls sideways`} more={3}>
-                <table className="data-table">
+              <WideTable label={`${c.cohortName} students, scrolls sideways`} more={3}>
+                <table className="data-table" data-testid="roster-table">
                   <thead>
                     <tr>
                       <th scope="col">Student</th>
@@ -79,20 +97,13 @@ export default async function RosterPage() {
                           <MoveStudent
                             studentId={m.studentId}
                             studentName={m.name}
-                            currentCohortId={c.id}
+                            currentCohortId={c.cohortId}
                             cohorts={allCohorts}
                             today={today}
                           />
                         </td>
                       </tr>
                     ))}
-                    {members.length === 0 && (
-                      <tr>
-                        <td colSpan={5} className="text-ink-soft">
-                          No students in this cohort now.
-                        </td>
-                      </tr>
-                    )}
                   </tbody>
                 </table>
               </WideTable>
@@ -100,6 +111,16 @@ export default async function RosterPage() {
           </section>
         );
       })}
+      <StudentPageNav
+        basePath="/roster"
+        q={q}
+        page={page}
+        pageSize={pageSize}
+        shown={rows.length}
+        total={total}
+        label="Roster pages"
+        testId="roster-pages"
+      />
       <div className="grid gap-6 lg:grid-cols-2">
         <AddStudentForm cohorts={managed.map((c) => ({ id: c.id, name: c.name }))} />
         <RosterImport />

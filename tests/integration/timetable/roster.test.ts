@@ -4,7 +4,7 @@ import { makeSchool, closeDb } from "@/tests/helpers/factories";
 import { createPerson } from "@/db/access/people/create-person";
 import { previewRosterImport, commitRosterImport } from "@/db/access/roster/import-roster";
 import { moveStudent } from "@/db/access/roster/move-student";
-import { listRoster } from "@/db/access/roster/list-roster";
+import { rosterPage } from "@/db/access/roster/roster-page";
 import { count } from "./helpers";
 
 afterAll(closeDb);
@@ -164,14 +164,14 @@ describe("moving a student between cohorts", () => {
     const st = s.people.students[0]!;
     await sequelize.transaction((t) => moveStudent(s.as.chief, { studentId: st.id, toCohortId: s.cohorts.b.id, onDate: "2026-10-01" }, t));
     const newLead = { ...s.as.instructor2 };
-    const roster = await listRoster(newLead);
-    const row = roster.find((r) => r.studentId === st.id)!;
+    const roster = await rosterPage(newLead, { name: st.name });
+    const row = roster.rows.find((r) => r.studentId === st.id)!;
     expect(row.cohortName).toBe(s.cohorts.b.name);
     expect(row.history).toEqual([
       { cohortName: s.cohorts.a.name, fromDate: "2026-09-01", toDate: "2026-10-01" },
       { cohortName: s.cohorts.b.name, fromDate: "2026-10-01", toDate: null },
     ]);
-    expect((await listRoster(s.as.instructor)).some((r) => r.studentId === st.id)).toBe(false);
+    expect((await rosterPage(s.as.instructor, { name: st.name })).rows.some((r) => r.studentId === st.id)).toBe(false);
     // the old lead may no longer move them
     await expect(
       sequelize.transaction((t) => moveStudent(s.as.instructor, { studentId: st.id, toCohortId: s.cohorts.a.id, onDate: "2026-10-05" }, t)),

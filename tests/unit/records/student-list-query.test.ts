@@ -1,4 +1,4 @@
-import { parseStudentListQuery } from "@/lib/records/student-list-query";
+import { parseNameListQuery, parseStudentListQuery } from "@/lib/records/student-list-query";
 
 // The query string of the paged student lists: the pager's filter when it parses, and when it does
 // not, no filter at all (the page shows every student) with the problem named by its field.
@@ -21,4 +21,14 @@ it("refuses a key the list does not know unless the page says it is its own, and
   expect(parseStudentListQuery({ student: "x" }).problem).not.toBeNull();
   expect(parseStudentListQuery({ student: "x" }, ["student"]).problem).toBeNull();
   expect(parseStudentListQuery({ name: ["a", "b"] }).filter.name).toBeUndefined();
+});
+
+it("reads the lists filtered by a part of the name only (Cohorts, Accounts and roles), naming the field of a bad value", () => {
+  expect(parseNameListQuery({ name: " Kestrel ", page: "2" })).toEqual({ q: { name: "Kestrel", page: 2 }, problem: null });
+  const bad = parseNameListQuery({ name: "Kestrel", page: "0" });
+  expect(bad.q).toEqual({});
+  expect(bad.problem?.path).toEqual(["page"]);
+  expect(bad.problem?.message).toBe("must be 1 or more");
+  // a cohort is no filter of these lists
+  expect(parseNameListQuery({ cohort: "x" }).problem?.path).toEqual([]);
 });

@@ -13,18 +13,22 @@ interface Cohort {
   startsOn: string;
   closedOn: string | null;
   members: { id: string; name: string; fromDate: string }[];
+  memberCount: number;
 }
 type Choice = { id: string; name: string };
 type Result = { ok: true } | { ok: false; message: string; fieldErrors?: Record<string, string[]> };
 
 export function CohortsManager({
   cohorts,
+  openCohorts,
   courses,
   instructors,
   students,
   today,
 }: {
   cohorts: Cohort[];
+  /** every open cohort of the school (the page shows one page of cohorts) */
+  openCohorts: Choice[];
   courses: Choice[];
   instructors: Choice[];
   students: Choice[];
@@ -56,7 +60,6 @@ export function CohortsManager({
     return Object.fromEntries([...new FormData(e.currentTarget).entries()].map(([k, v]) => [k, String(v)]));
   };
   const err = (name: string) => (errors[name] ? <p className="field-error">{errors[name][0]}</p> : null);
-  const open = cohorts.filter((c) => !c.closedOn);
 
   return (
     <div className="space-y-6">
@@ -89,7 +92,12 @@ export function CohortsManager({
                 <td>{c.courseCode}</td>
                 <td>{c.leadName}</td>
                 <td>{formatDay(c.startsOn)}</td>
-                <td>{c.members.length ? c.members.map((m) => m.name).join(", ") : "—"}</td>
+                <td>
+                  {c.memberCount === 0
+                    ? "—"
+                    : c.members.map((m) => m.name).join(", ") +
+                      (c.memberCount > c.members.length ? ` and ${c.memberCount - c.members.length} more` : "")}
+                </td>
                 <td>
                   <form
                     className="flex flex-wrap items-end gap-2"
@@ -163,7 +171,7 @@ export function CohortsManager({
           </label>
           <select id="pl-cohort" name="cohortId" className="field-input">
             <option value="">Choose a cohort</option>
-            {open.map((c) => (
+            {openCohorts.map((c) => (
               <option key={c.id} value={c.id}>
                 {c.name}
               </option>

@@ -1,9 +1,12 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { listPeople } from "@/db/access/people/list-people";
+import { accountsPage } from "@/db/access/people/accounts-page";
+import { parseNameListQuery } from "@/lib/records/student-list-query";
+import { fieldLabel } from "@/lib/validation/messages";
+import { ListPageNav, NameFilterForm } from "@/components/student-pages";
 import { ROLE_LABELS } from "@/lib/auth/roles";
-import { ASSIGNABLE_ROLES, isStudentAccount } from "@/lib/auth/account-roles";
+import { ASSIGNABLE_ROLES } from "@/lib/auth/account-roles";
 import { DataTable } from "@/components/ui/data-table";
 import { InviteForm } from "./_components/invite-form";
 import { RolesForm } from "./_components/roles-form";
@@ -11,10 +14,11 @@ import { RolesForm } from "./_components/roles-form";
 export const metadata: Metadata = { title: "Accounts and roles" };
 export const dynamic = "force-dynamic";
 
-export default async function AccountsPage() {
+export default async function AccountsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requirePagePermission("people.manage", "/people/accounts");
-  const people = await listPeople(user.schoolId);
-  const staffAndSponsors = people.filter((p) => !isStudentAccount(p.roles));
+  const { q, problem } = parseNameListQuery(await searchParams);
+  // one page of staff and sponsors (every account but students'), narrowed by a part of the name
+  const { rows: staffAndSponsors, total, page, pageSize } = await accountsPage(user.schoolId, { name: q.name }, { page: q.page ?? 1 });
   const roles = ASSIGNABLE_ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
   return (
     <div className="max-w-4xl space-y-6">
@@ -35,6 +39,12 @@ export default async function AccountsPage() {
         </p>
       </header>
       <InviteForm roles={roles} />
+      <NameFilterForm basePath="/people/accounts" name={q.name} idPrefix="accounts" label="Find an account" />
+      {problem && (
+        <p role="alert" className="text-notyet-800">
+          {fieldLabel(problem.path)}: {problem.message}. Showing every account instead.
+        </p>
+      )}
       <RolesForm roles={roles} people={staffAndSponsors.map((p) => ({ id: p.id, name: p.name, roles: p.roles, self: p.id === user.id }))} />
       <section className="card" aria-labelledby="staff-title">
         <h2 id="staff-title">Staff and sponsors</h2>
@@ -57,7 +67,23 @@ export default async function AccountsPage() {
               </tr>
             ))}
           </DataTable>
+          {staffAndSponsors.length === 0 && (
+            <p className="text-ink-soft">
+              {page > 1 ? `No accounts on page ${page}.` : q.name ? "No account matches." : "No accounts yet."}
+            </p>
+          )}
         </div>
+        <ListPageNav
+          basePath="/people/accounts"
+          pairs={q.name ? [["name", q.name]] : []}
+          page={page}
+          pageSize={pageSize}
+          shown={staffAndSponsors.length}
+          total={total}
+          label="Accounts pages"
+          testId="accounts-pages"
+          noun="Accounts"
+        />
       </section>
     </div>
   );

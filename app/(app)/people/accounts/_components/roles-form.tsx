@@ -61,7 +61,7 @@ export function RolesForm({ roles, people }: { roles: Choice[]; people: Person[]
           value={personId}
           onChange={(e) => pick(e.target.value)}
           aria-invalid={!!errors.personId}
-          aria-describedby={errors.personId ? "roles-person-error" : undefined}
+          aria-describedby={errors.personId ? "roles-person-hint roles-person-error" : "roles-person-hint"}
         >
           <option value="">Choose a person</option>
           {people.map((p) => (
@@ -71,6 +71,9 @@ export function RolesForm({ roles, people }: { roles: Choice[]; people: Person[]
             </option>
           ))}
         </select>
+        <p id="roles-person-hint" className="text-caption text-ink-soft">
+          The people listed under Staff and sponsors on this page; find another with Name contains.
+        </p>
         {errors.personId && (
           <p id="roles-person-error" className="field-error">
             {errors.personId}
