@@ -38,7 +38,7 @@ export default async function TimetableWeekPage({
     fromInstant: zonedInstant(monday, "00:00", school.timeZone),
     toInstant: zonedInstant(addDaysIso(monday, 7), "00:00", school.timeZone),
   });
-  const choices = staff ? await timetableFilterChoices(user) : null;
+  const choices = staff ? await timetableFilterChoices(user, { cohort: q.cohort }) : null;
   const feedSince = await calendarFeedCreatedAt(user.id);
   const keep = new URLSearchParams(
     Object.entries({ instructor: q.instructor, cohort: q.cohort, room: q.room, mine: q.mine }).filter((e): e is [string, string] => !!e[1]),
@@ -85,6 +85,7 @@ export default async function TimetableWeekPage({
           values={{ ...q }}
           instructors={choices.instructors}
           cohorts={choices.cohorts}
+          cohort={choices.cohort}
           rooms={choices.rooms}
           hidden={{ week: monday }}
         />

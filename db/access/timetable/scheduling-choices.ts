@@ -2,11 +2,16 @@ import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
+import { cohortChoices } from "../directory/cohorts";
+import { studentChoices } from "../directory/students";
 import { TEACHING_ROLES } from "./session-people";
 
 type Db = { transaction?: Transaction };
 
-/** What the scheduling forms offer: current briefings, instructors, cohorts, students and the school's rooms. */
+/**
+ * What the scheduling forms offer: current briefings, instructors, the school's rooms, and cohorts
+ * and students listed only while few (else `{ kind: "search" }`: the forms search for them).
+ */
 export async function schedulingChoices(user: CurrentUser, db: Db = {}) {
   const rep = { replacements: { s: user.schoolId }, type: QueryTypes.SELECT as const, transaction: db.transaction };
   const [briefings, instructors, cohorts, students, rooms] = await Promise.all([
@@ -20,11 +25,8 @@ export async function schedulingChoices(user: CurrentUser, db: Db = {}) {
       `SELECT id, name FROM people WHERE school_id = :s AND active AND roles && ARRAY[:teachers]::text[] ORDER BY name`,
       { ...rep, replacements: { ...rep.replacements, teachers: TEACHING_ROLES } },
     ),
-    sequelize.query<{ id: string; name: string }>(`SELECT id, name FROM cohorts WHERE school_id = :s ORDER BY starts_on, name`, rep),
-    sequelize.query<{ id: string; name: string }>(
-      `SELECT id, name FROM people WHERE school_id = :s AND active AND 'student' = ANY(roles) ORDER BY name`,
-      rep,
-    ),
+    cohortChoices(user, "timetable"),
+    studentChoices(user, "schedule"),
     sequelize.query<{ id: string; name: string; capacity: number | null; active: boolean }>(
       `SELECT id, name, capacity, active FROM rooms WHERE school_id = :s ORDER BY name_key`,
       rep,

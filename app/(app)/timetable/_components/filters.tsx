@@ -1,16 +1,23 @@
+import { ChoiceField } from "@/components/search-picker";
+import type { PickerChoices, PickerOption } from "@/lib/directory/picker";
+
 /** The Timetable's filters: a plain GET form, so the view's URL says what it shows. */
 export function TimetableFilters({
   action,
   values,
   instructors,
   cohorts,
+  cohort,
   rooms,
   hidden,
 }: {
   action: string;
   values: { instructor?: string; cohort?: string; room?: string; mine?: string };
   instructors: { id: string; name: string }[];
-  cohorts: { id: string; name: string }[];
+  /** listed while few, else searched (GET /api/directory/cohorts) */
+  cohorts: PickerChoices;
+  /** the cohort in the URL, named for the search picker */
+  cohort?: PickerOption | null;
   rooms: string[];
   hidden?: Record<string, string>;
 }) {
@@ -32,19 +39,19 @@ export function TimetableFilters({
           ))}
         </select>
       </div>
-      <div className="min-w-40 flex-1">
-        <label htmlFor="f-cohort" className="field-label">
-          Cohort
-        </label>
-        <select id="f-cohort" name="cohort" defaultValue={values.cohort ?? ""} className="field-input">
-          <option value="">Any cohort</option>
-          {cohorts.map((c) => (
-            <option key={c.id} value={c.id}>
-              {c.name}
-            </option>
-          ))}
-        </select>
-      </div>
+      <ChoiceField
+        className="min-w-40 flex-1"
+        id="f-cohort"
+        name="cohort"
+        label="Cohort"
+        emptyLabel="Any cohort"
+        placeholder="Any cohort: type a name"
+        choices={cohorts}
+        defaultValue={values.cohort}
+        initial={cohort}
+        endpoint="/api/directory/cohorts"
+        params={{ purpose: "timetable" }}
+      />
       <div className="min-w-40 flex-1">
         <label htmlFor="f-room" className="field-label">
           Room

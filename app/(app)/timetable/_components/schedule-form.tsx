@@ -5,6 +5,8 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
 import { scheduleSessionSchema } from "@/lib/timetable/schema";
+import { SearchPicker } from "@/components/search-picker";
+import type { PickerChoices, PickerOption } from "@/lib/directory/picker";
 import { scheduleSessionAction } from "../actions";
 
 type In = z.input<typeof scheduleSessionSchema>;
@@ -13,8 +15,9 @@ type Out = z.output<typeof scheduleSessionSchema>;
 export interface SchedulingChoices {
   briefings: { id: string; title: string; revisionNumber: number; minutes: number }[];
   instructors: { id: string; name: string }[];
-  cohorts: { id: string; name: string }[];
-  students: { id: string; name: string }[];
+  /** listed while few, else searched (GET /api/directory/cohorts, /api/directory/students) */
+  cohorts: PickerChoices;
+  students: PickerChoices;
   rooms: string[];
   roomChoices: { id: string; name: string; capacity: number | null }[];
 }
@@ -27,6 +30,17 @@ export function ScheduleForm({ choices, defaults }: { choices: SchedulingChoices
   const router = useRouter();
   const [message, setMessage] = useState<string | null>(null);
   const [key] = useState(newKey);
+  // the students chosen through the search picker (a large school), and a key to empty it after each
+  const [picked, setPicked] = useState<PickerOption[]>([]);
+  const [pickerKey, setPickerKey] = useState(0);
+  function pickStudents(next: PickerOption[]) {
+    setPicked(next);
+    setValue(
+      "studentIds",
+      next.map((p) => p.id),
+      { shouldDirty: true },
+    );
+  }
   const {
     register,
     handleSubmit,
@@ -174,46 +188,90 @@ export function ScheduleForm({ choices, defaults }: { choices: SchedulingChoices
         </select>
         {err("instructorId")}
       </div>
-      <div>
-        <label htmlFor="cohortId" className="field-label">
-          Cohort
-        </label>
-        <select
+      {choices.cohorts.kind === "list" ? (
+        <div>
+          <label htmlFor="cohortId" className="field-label">
+            Cohort
+          </label>
+          <select
+            id="cohortId"
+            className="field-input"
+            aria-invalid={!!errors.cohortId}
+            aria-describedby="cohortId-error"
+            {...register("cohortId")}
+          >
+            <option value="">No cohort (students below)</option>
+            {choices.cohorts.rows.map((c) => (
+              <option key={c.id} value={c.id}>
+                {c.name}
+              </option>
+            ))}
+          </select>
+          {err("cohortId")}
+        </div>
+      ) : (
+        <SearchPicker
           id="cohortId"
-          className="field-input"
-          aria-invalid={!!errors.cohortId}
-          aria-describedby="cohortId-error"
-          {...register("cohortId")}
-        >
-          <option value="">No cohort (students below)</option>
-          {choices.cohorts.map((c) => (
-            <option key={c.id} value={c.id}>
-              {c.name}
-            </option>
-          ))}
-        </select>
-        {err("cohortId")}
-      </div>
-      <div className="sm:col-span-2">
-        <label htmlFor="studentIds" className="field-label">
-          Individual students (in addition to the cohort; Ctrl or ⌘ to choose several)
-        </label>
-        <select
-          id="studentIds"
-          multiple
-          size={6}
-          className="field-input h-auto"
-          aria-describedby="studentIds-error"
-          {...register("studentIds")}
-        >
-          {choices.students.map((s) => (
-            <option key={s.id} value={s.id}>
-              {s.name}
-            </option>
-          ))}
-        </select>
-        {err("studentIds")}
-      </div>
+          name="cohortId"
+          label="Cohort"
+          placeholder="No cohort: type a name to choose one"
+          endpoint="/api/directory/cohorts"
+          params={{ purpose: "timetable" }}
+          error={errors.cohortId?.message ? String(errors.cohortId.message) : null}
+          onChange={(c) => setValue("cohortId", c?.id ?? "", { shouldDirty: true })}
+        />
+      )}
+      {choices.students.kind === "list" ? (
+        <div className="sm:col-span-2">
+          <label htmlFor="studentIds" className="field-label">
+            Individual students (in addition to the cohort; Ctrl or ⌘ to choose several)
+          </label>
+          <select
+            id="studentIds"
+            multiple
+            size={6}
+            className="field-input h-auto"
+            aria-describedby="studentIds-error"
+            {...register("studentIds")}
+          >
+            {choices.students.rows.map((s) => (
+              <option key={s.id} value={s.id}>
+                {s.name}
+              </option>
+            ))}
+          </select>
+          {err("studentIds")}
+        </div>
+      ) : (
+        <div className="space-y-2 sm:col-span-2">
+          <SearchPicker
+            key={pickerKey}
+            id="studentIds"
+            name="studentSearch"
+            label="Individual students (in addition to the cohort; choose one at a time)"
+            endpoint="/api/directory/students"
+            params={{ purpose: "schedule" }}
+            error={errors.studentIds?.message ? String(errors.studentIds.message) : null}
+            onChange={(c) => {
+              if (!c) return;
+              if (!picked.some((p) => p.id === c.id)) pickStudents([...picked, c]);
+              setPickerKey((k) => k + 1);
+            }}
+          />
+          {picked.length > 0 && (
+            <ul aria-label="Students chosen" className="flex flex-wrap gap-2">
+              {picked.map((p) => (
+                <li key={p.id} className="flex items-center gap-1 rounded-card border border-paper-edge px-2">
+                  {p.name}
+                  <button type="button" className="btn-quiet" onClick={() => pickStudents(picked.filter((x) => x.id !== p.id))}>
+                    Remove<span className="sr-only"> {p.name}</span>
+                  </button>
+                </li>
+              ))}
+            </ul>
+          )}
+        </div>
+      )}
       <div className="sm:col-span-2" aria-live="polite">
         {message && (
           <p role="alert" className="field-error" data-testid="form-message">

@@ -6,6 +6,8 @@ import type { SessionRow } from "@/db/access/timetable/list-sessions";
 import { WideTable } from "@/components/ui/wide-table";
 import { formatDay } from "@/lib/time";
 import { apiErrorText } from "@/lib/validation/messages";
+import { ChoiceField } from "@/components/search-picker";
+import type { PickerChoices, PickerOption } from "@/lib/directory/picker";
 
 interface Page {
   rows: SessionRow[];
@@ -32,12 +34,16 @@ export function SessionsTable({
   initial,
   instructors,
   cohorts,
+  cohort,
   rooms,
 }: {
   staff: boolean;
   initial: Record<string, string>;
   instructors: { id: string; name: string }[];
-  cohorts: { id: string; name: string }[];
+  /** listed while few, else searched (GET /api/directory/cohorts) */
+  cohorts: PickerChoices;
+  /** the cohort of the initial filter, named for the search picker */
+  cohort?: PickerOption | null;
   rooms: string[];
 }) {
   const [params, setParams] = useState<Record<string, string>>({
@@ -113,19 +119,19 @@ export function SessionsTable({
                 ))}
               </select>
             </div>
-            <div>
-              <label htmlFor="l-cohort" className="field-label">
-                Cohort
-              </label>
-              <select id="l-cohort" className="field-input" value={params.cohort ?? ""} onChange={(e) => set({ cohort: e.target.value })}>
-                <option value="">Any cohort</option>
-                {cohorts.map((c) => (
-                  <option key={c.id} value={c.id}>
-                    {c.name}
-                  </option>
-                ))}
-              </select>
-            </div>
+            <ChoiceField
+              id="l-cohort"
+              name="cohort"
+              label="Cohort"
+              emptyLabel="Any cohort"
+              placeholder="Any cohort: type a name"
+              choices={cohorts}
+              defaultValue={params.cohort ?? ""}
+              initial={cohort}
+              endpoint="/api/directory/cohorts"
+              params={{ purpose: "timetable" }}
+              onChange={(c) => set({ cohort: c?.id ?? "" })}
+            />
             <div>
               <label htmlFor="l-room" className="field-label">
                 Room

@@ -16,9 +16,11 @@ export default async function TimetableListPage({
   const user = await requirePagePermission("timetable.view", "/timetable/list");
   const school = await getSchool(user.schoolId);
   const staff = can(user, "timetable.schedule");
-  const choices = staff ? await timetableFilterChoices(user) : { instructors: [], cohorts: [], rooms: [] };
   const raw = await searchParams;
   const initial = Object.fromEntries(Object.entries(raw).filter((e): e is [string, string] => typeof e[1] === "string"));
+  const choices = staff
+    ? await timetableFilterChoices(user, { cohort: initial.cohort })
+    : { instructors: [], cohorts: { kind: "list" as const, rows: [] }, cohort: null, rooms: [] };
   return (
     <div className="space-y-6">
       <header className="flex flex-wrap items-end justify-between gap-3">
@@ -37,7 +39,14 @@ export default async function TimetableListPage({
           )}
         </nav>
       </header>
-      <SessionsTable staff={staff} initial={initial} instructors={choices.instructors} cohorts={choices.cohorts} rooms={choices.rooms} />
+      <SessionsTable
+        staff={staff}
+        initial={initial}
+        instructors={choices.instructors}
+        cohorts={choices.cohorts}
+        cohort={choices.cohort}
+        rooms={choices.rooms}
+      />
     </div>
   );
 }

@@ -1,0 +1,51 @@
+import "server-only";
+import { QueryTypes } from "sequelize";
+import { sequelize } from "../../index";
+import type { CurrentUser } from "@/lib/auth/session";
+import { can } from "@/lib/auth/can";
+import { HttpError } from "@/lib/http/errors";
+import {
+  choicesFrom,
+  containsPattern,
+  PICKER_LIST_MAX,
+  PICKER_RESULTS,
+  STUDENT_PICKER_RULES,
+  type PickerAnswer,
+  type PickerChoices,
+  type PickerOption,
+  type StudentPickerPurpose,
+} from "@/lib/directory/picker";
+import { studentScopeSql } from "../shared/student-scope";
+
+// The students a form's picker offers: those the caller may see for the form's purpose (through
+// the one scoping rule), by name, LIMITed in SQL: one query whatever the size of the school.
+
+async function readStudents(user: CurrentUser, purpose: StudentPickerPurpose, q: string, limit: number): Promise<PickerOption[]> {
+  const rule = STUDENT_PICKER_RULES[purpose];
+  if (!can(user, rule.permission)) throw new HttpError(403, "You do not have access to this");
+  const scope = studentScopeSql(user, rule.scope, "p.id");
+  const rows = await sequelize.query<{ id: string; name: string; detail: string | null }>(
+    `SELECT p.id, p.name, ${rule.enrolledOnly ? "co.code" : "NULL::text"} AS detail
+       FROM people p
+       ${rule.enrolledOnly ? "JOIN active_enrolments e ON e.student_id = p.id JOIN courses co ON co.id = e.course_id" : ""}
+      WHERE p.school_id = :school AND 'student' = ANY(p.roles) ${rule.activeOnly ? "AND p.active" : ""}
+        AND ${scope.sql} ${q ? "AND p.name ILIKE :pattern" : ""}
+      ORDER BY p.name, p.id LIMIT :limit`,
+    {
+      replacements: { school: user.schoolId, pattern: containsPattern(q), limit, ...scope.replacements },
+      type: QueryTypes.SELECT,
+    },
+  );
+  return rows.map((r) => (r.detail ? { id: r.id, name: r.name, detail: r.detail } : { id: r.id, name: r.name }));
+}
+
+/** Up to PICKER_RESULTS students whose name contains `q`, and whether more match. */
+export async function searchStudents(user: CurrentUser, purpose: StudentPickerPurpose, q: string): Promise<PickerAnswer> {
+  const rows = await readStudents(user, purpose, q, PICKER_RESULTS + 1);
+  return { rows: rows.slice(0, PICKER_RESULTS).map((r) => ({ ...r, primary: r.name })), more: rows.length > PICKER_RESULTS };
+}
+
+/** A form's student choices: all of them up to PICKER_LIST_MAX, else "search". */
+export async function studentChoices(user: CurrentUser, purpose: StudentPickerPurpose): Promise<PickerChoices> {
+  return choicesFrom(await readStudents(user, purpose, "", PICKER_LIST_MAX + 1));
+}

@@ -1,0 +1,98 @@
+import { z } from "zod";
+import type { Permission } from "@/lib/auth/permissions";
+import type { ScopePurpose } from "@/lib/auth/student-scope";
+
+// Pickers over sets that grow with the school (students, cohorts, accounts). Up to
+// PICKER_LIST_MAX choices a form keeps its plain <select>; above it the form renders the
+// search-as-you-type picker (components/search-picker.tsx), which asks /api/directory/* for at
+// most PICKER_RESULTS names at a time. The server decides which, from one bounded query.
+
+/** The most choices a form lists in a plain <select>; above it, the search picker. */
+export const PICKER_LIST_MAX = 50;
+/** The most results one search answers with (ordered by name). */
+export const PICKER_RESULTS = 20;
+/** The longest search text accepted. */
+export const PICKER_QUERY_MAX = 80;
+
+export interface PickerOption {
+  id: string;
+  name: string;
+  /** a second line (a course code, "deactivated"); never needed to choose */
+  detail?: string;
+}
+
+/** What a form gets for one picker: every choice (a small set) or "search" (a large one). */
+export type PickerChoices<T extends PickerOption = PickerOption> = { kind: "list"; rows: T[] } | { kind: "search" };
+
+/** The answer of GET /api/directory/*: at most PICKER_RESULTS rows, `more` when others match too. */
+export interface PickerAnswer {
+  rows: (PickerOption & { primary: string })[];
+  more: boolean;
+}
+
+const q = z
+  .string()
+  .trim()
+  .max(PICKER_QUERY_MAX, { error: `q must be at most ${PICKER_QUERY_MAX} characters` })
+  .optional()
+  .default("");
+
+/** Which students the picker lists, per form: each with the permission and scope of that form. */
+export const STUDENT_PICKER_PURPOSES = ["schedule", "cohorts", "transfers", "sponsors"] as const;
+export type StudentPickerPurpose = (typeof STUDENT_PICKER_PURPOSES)[number];
+
+/** Per purpose: the permission of the form that uses it and the student scope it reads through. */
+export const STUDENT_PICKER_RULES: Record<
+  StudentPickerPurpose,
+  {
+    permission: Permission;
+    scope: ScopePurpose;
+    /** active accounts only */
+    activeOnly: boolean;
+    /** students with an active enrolment only (with its course code as detail) */
+    enrolledOnly: boolean;
+  }
+> = {
+  schedule: { permission: "timetable.schedule", scope: "schedule", activeOnly: true, enrolledOnly: false },
+  cohorts: { permission: "cohorts.manage", scope: "records", activeOnly: true, enrolledOnly: false },
+  transfers: { permission: "transfers.manage", scope: "records", activeOnly: true, enrolledOnly: true },
+  sponsors: { permission: "people.manage", scope: "records", activeOnly: false, enrolledOnly: false },
+};
+
+export const studentPickerQuery = z.object({
+  q,
+  purpose: z.enum(STUDENT_PICKER_PURPOSES, { error: `purpose must be one of ${STUDENT_PICKER_PURPOSES.join(", ")}` }),
+});
+
+export const COHORT_PICKER_PURPOSES = ["timetable", "placing"] as const;
+export type CohortPickerPurpose = (typeof COHORT_PICKER_PURPOSES)[number];
+
+/** Per purpose: the permission of the form that uses it, and whether closed cohorts are left out. */
+export const COHORT_PICKER_RULES: Record<CohortPickerPurpose, { permission: Permission; openOnly: boolean }> = {
+  timetable: { permission: "timetable.schedule", openOnly: false },
+  placing: { permission: "cohorts.manage", openOnly: true },
+};
+
+export const cohortPickerQuery = z.object({
+  q,
+  purpose: z.enum(COHORT_PICKER_PURPOSES, { error: `purpose must be one of ${COHORT_PICKER_PURPOSES.join(", ")}` }),
+});
+
+/** `any`: every account of the school (with "deactivated" as detail); `sponsor`: those who may be linked as sponsor (students go through the student picker, purpose `sponsors`). */
+export const PEOPLE_PICKER_ROLES = ["any", "sponsor"] as const;
+export type PeoplePickerRole = (typeof PEOPLE_PICKER_ROLES)[number];
+
+export const peoplePickerQuery = z.object({
+  q,
+  role: z.enum(PEOPLE_PICKER_ROLES, { error: `role must be one of ${PEOPLE_PICKER_ROLES.join(", ")}` }).default("any"),
+});
+
+/** A LIKE pattern matching `text` anywhere, with LIKE's own characters taken literally. */
+export function containsPattern(text: string): string {
+  return `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+}
+
+/** Rows read with LIMIT PICKER_LIST_MAX + 1 become the form's choices: the list, or "search". */
+export function choicesFrom<T extends PickerOption>(rows: T[]): PickerChoices<T> {
+  return rows.length > PICKER_LIST_MAX ? { kind: "search" } : { kind: "list", rows };
+}
