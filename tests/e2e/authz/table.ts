@@ -36,6 +36,7 @@ import { COMPLETION_TABLE } from "./completion/table";
 import { INSPECTION_TABLE } from "./inspection/table";
 import { TRANSFERS_TABLE } from "./transfers/table";
 import { RETENTION_TABLE } from "./retention/table";
+import { DIRECTORY_TABLE } from "./directory/table";
 
 function rowsOf(res: HarnessResponse): { id: string; primary: string }[] {
   const j = res.json as { rows?: { id: string; primary: string }[] } | undefined;
@@ -160,6 +161,9 @@ export const TABLE: AuthzTable = {
   // ---- transfers in and retention ----
   ...TRANSFERS_TABLE,
   ...RETENTION_TABLE,
+
+  // ---- search pickers over growing sets (directory/table.ts) ----
+  ...DIRECTORY_TABLE,
 
   // ---- mail ----
   // Public by design (the signed token is the credential): a forged token is refused for everyone.
