@@ -184,11 +184,18 @@ export async function signOffRegister(
   const studentId = opts.studentId ?? null;
   const pageSize = opts.pageSize !== undefined ? opts.pageSize : studentId ? null : REGISTER_PAGE_SIZE;
   const page = Math.max(1, Math.floor(opts.page ?? 1));
-  const refs = await registerRowRefs(school.id, school.timeZone, filter, studentId, {
-    limit: pageSize,
-    offset: pageSize === null ? 0 : (page - 1) * pageSize,
-  });
-  const total = pageSize === null ? refs.length : await registerRowCount(school.id, school.timeZone, filter, studentId);
+  const count = () => registerRowCount(school.id, school.timeZone, filter, studentId);
+  // the count reads every matching row: without dates (the register as first opened, or filtered by
+  // instructor, cohort or stage) it is kept while the records are unchanged (cachedSummary)
+  const countKey = `register-count:${filter.instructorId ?? ""}:${filter.cohortId ?? ""}:${filter.stageId ?? ""}`;
+  const [refs, counted] = await Promise.all([
+    registerRowRefs(school.id, school.timeZone, filter, studentId, {
+      limit: pageSize,
+      offset: pageSize === null ? 0 : (page - 1) * pageSize,
+    }),
+    pageSize === null ? null : filter.from || filter.to || studentId ? count() : cachedSummary(school.id, countKey, count, Number),
+  ]);
+  const total = counted ?? refs.length;
   const rows = await rowsOf(school, refs);
   const notes = await recentWatchNotes(user, opts.studentId ? { studentId: opts.studentId } : {});
   return { rows, notes, total, page, pageSize };
