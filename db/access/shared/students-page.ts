@@ -2,6 +2,7 @@ import "server-only";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
 import { studentScopeSql, type Caller, type ScopePurpose } from "./student-scope";
+import { cachedSummary } from "./summary-cache";
 import { STUDENT_ROLES } from "@/lib/auth/account-roles";
 import { COHORT_CHOICES_MAX } from "@/lib/records/schema";
 
@@ -10,8 +11,8 @@ import { COHORT_CHOICES_MAX } from "@/lib/records/schema";
 // (active, with an active enrolment, unless asked for every student account), filtered by cohort
 // (or a part of its name) and by a part of the student's name, ordered by cohort then name, paged
 // in SQL (LIMIT/OFFSET) with the number that match from one count; the cohorts to filter by from
-// one grouped query, at most COHORT_CHOICES_MAX + 1 of them. Three queries, whatever the size of
-// the school.
+// one grouped query, at most COHORT_CHOICES_MAX + 1 of them (those two kept per caller while the
+// records are unchanged, see below). At most three queries, whatever the size of the school.
 
 export const STUDENTS_PAGE_SIZE = 50;
 
@@ -90,17 +91,39 @@ export async function studentsPage(
         AND (CAST(:cohortId AS uuid) IS NULL OR (m.cohort_id = CAST(:cohortId AS uuid) AND ${cohortShown}))
         AND (CAST(:cohortName AS text) IS NULL OR (c.name ILIKE CAST(:cohortName AS text) AND ${cohortShown}))
         AND (CAST(:name AS text) IS NULL OR p.name ILIKE CAST(:name AS text))`;
-  const [rows, [count], cohorts] = await Promise.all([
+  // The count and the cohort choices read every student in scope; without a typed filter (the list
+  // as first opened, a cohort chosen) they are kept per caller while the records are unchanged
+  // (cachedSummary). A typed part of a name is counted afresh (not kept: one row per search).
+  const countAndCohorts = async () => {
+    const [[count], cohorts] = await Promise.all([
+      sequelize.query<{ n: number }>(`SELECT count(*)::int AS n ${from} ${matching}`, { replacements, type: QueryTypes.SELECT }),
+      sequelize.query<{ id: string; name: string }>(
+        `SELECT c.id, c.name ${from} ${where} AND c.id IS NOT NULL AND ${cohortShown} GROUP BY c.id, c.name ORDER BY c.name LIMIT :cohortChoices`,
+        { replacements, type: QueryTypes.SELECT },
+      ),
+    ]);
+    return { total: count?.n ?? 0, cohorts };
+  };
+  const typed = Boolean(filter.name || filter.cohortName);
+  const key = [
+    "students-count",
+    purpose,
+    caller.id,
+    [...caller.roles].sort().join(","),
+    opts.who ?? "enrolled",
+    opts.includeInactive ? "inactive" : "active",
+    opts.cohortToStaffOnly ? "staff-cohorts" : "cohorts",
+    filter.cohortId ?? "",
+  ].join(":");
+  const [rows, { total, cohorts }] = await Promise.all([
     sequelize.query<ListedStudent>(
       `SELECT p.id, p.name, CASE WHEN ${cohortShown} THEN c.name END AS "cohortName" ${from} ${matching}
         ORDER BY 3 NULLS LAST, p.name, p.id LIMIT :limit OFFSET :offset`,
       { replacements: { ...replacements, limit: pageSize, offset: (page - 1) * pageSize }, type: QueryTypes.SELECT },
     ),
-    sequelize.query<{ n: number }>(`SELECT count(*)::int AS n ${from} ${matching}`, { replacements, type: QueryTypes.SELECT }),
-    sequelize.query<{ id: string; name: string }>(
-      `SELECT c.id, c.name ${from} ${where} AND c.id IS NOT NULL AND ${cohortShown} GROUP BY c.id, c.name ORDER BY c.name LIMIT :cohortChoices`,
-      { replacements, type: QueryTypes.SELECT },
-    ),
+    typed
+      ? countAndCohorts()
+      : cachedSummary(caller.schoolId, key, countAndCohorts, (v) => v as { total: number; cohorts: { id: string; name: string }[] }),
   ]);
-  return { rows, total: count?.n ?? 0, page, pageSize, cohorts };
+  return { rows, total, page, pageSize, cohorts };
 }
