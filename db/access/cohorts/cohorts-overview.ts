@@ -2,6 +2,8 @@ import "server-only";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
+import { cohortChoices } from "../directory/cohorts";
+import { studentChoices } from "../directory/students";
 
 export const COHORTS_PAGE_SIZE = 50;
 /** the names of a cohort's students shown in its row; the count says how many there are in all */
@@ -59,10 +61,8 @@ export async function cohortsOverview(
       { ...list, replacements: { ...list.replacements, limit: pageSize, offset: (page - 1) * pageSize } },
     ),
     sequelize.query<{ n: number }>(`SELECT count(*)::int AS n ${matching}`, list),
-    sequelize.query<{ id: string; name: string }>(
-      `SELECT id, name FROM cohorts WHERE school_id = :s AND closed_on IS NULL ORDER BY starts_on DESC, name`,
-      rep,
-    ),
+    // the Add or move form's choices: listed while few, else its search pickers (db/access/directory)
+    cohortChoices(user, "placing"),
     sequelize.query<{ id: string; name: string }>(
       `SELECT id, code || ' ' || title AS name FROM courses WHERE school_id = :s ORDER BY code`,
       rep,
@@ -71,10 +71,7 @@ export async function cohortsOverview(
       `SELECT id, name FROM people WHERE school_id = :s AND active AND 'instructor' = ANY(roles) ORDER BY name`,
       rep,
     ),
-    sequelize.query<{ id: string; name: string }>(
-      `SELECT id, name FROM people WHERE school_id = :s AND active AND 'student' = ANY(roles) ORDER BY name`,
-      rep,
-    ),
+    studentChoices(user, "cohorts"),
   ]);
   return { cohorts, total: count?.n ?? 0, page, pageSize, openCohorts, courses, instructors, students };
 }

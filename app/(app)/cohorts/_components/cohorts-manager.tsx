@@ -3,6 +3,8 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { ScrollArea } from "@/components/ui/scroll-area";
 import { formatDay } from "@/lib/time";
+import { ChoiceField } from "@/components/search-picker";
+import type { PickerChoices } from "@/lib/directory/picker";
 import { addMemberAction, closeCohortAction, createCohortAction, moveMemberAction, renameCohortAction } from "../actions";
 
 interface Cohort {
@@ -27,11 +29,12 @@ export function CohortsManager({
   today,
 }: {
   cohorts: Cohort[];
-  /** every open cohort of the school (the page shows one page of cohorts) */
-  openCohorts: Choice[];
+  /** every open cohort of the school (the page shows one page of cohorts), or "search" when many */
+  openCohorts: PickerChoices;
   courses: Choice[];
   instructors: Choice[];
-  students: Choice[];
+  /** the school's active students while few, else "search" (GET /api/directory/students) */
+  students: PickerChoices;
   today: string;
 }) {
   const router = useRouter();
@@ -151,34 +154,26 @@ export function CohortsManager({
         <h2 id="place-title" className="sm:col-span-2">
           Add or move a student
         </h2>
-        <div>
-          <label htmlFor="pl-student" className="field-label">
-            Student
-          </label>
-          <select id="pl-student" name="studentId" className="field-input">
-            <option value="">Choose a student</option>
-            {students.map((s) => (
-              <option key={s.id} value={s.id}>
-                {s.name}
-              </option>
-            ))}
-          </select>
-          {err("studentId")}
-        </div>
-        <div>
-          <label htmlFor="pl-cohort" className="field-label">
-            Cohort
-          </label>
-          <select id="pl-cohort" name="cohortId" className="field-input">
-            <option value="">Choose a cohort</option>
-            {openCohorts.map((c) => (
-              <option key={c.id} value={c.id}>
-                {c.name}
-              </option>
-            ))}
-          </select>
-          {err("cohortId") ?? err("toCohortId")}
-        </div>
+        <ChoiceField
+          id="pl-student"
+          name="studentId"
+          label="Student"
+          emptyLabel="Choose a student"
+          choices={students}
+          endpoint="/api/directory/students"
+          params={{ purpose: "cohorts" }}
+          error={errors.studentId?.[0]}
+        />
+        <ChoiceField
+          id="pl-cohort"
+          name="cohortId"
+          label="Cohort"
+          emptyLabel="Choose a cohort"
+          choices={openCohorts}
+          endpoint="/api/directory/cohorts"
+          params={{ purpose: "placing" }}
+          error={(errors.cohortId ?? errors.toCohortId)?.[0]}
+        />
         <div>
           <label htmlFor="pl-date" className="field-label">
             From
