@@ -6,6 +6,7 @@ import type { CurrentUser } from "@/lib/auth/session";
 import { cohortsTop } from "../cohorts/list-cohorts";
 import { listSponsoredStudents } from "../cohorts/sponsor-links";
 import { activeEnrolment } from "../shared/enrolment";
+import { cachedSummary } from "../shared/summary-cache";
 
 export interface TodayFocusRow {
   id: string;
@@ -46,9 +47,21 @@ export function todayFocusKind(user: Pick<CurrentUser, "roles">): TodayFocusKind
  * sponsor's students in one list only, the richer panel (SponsorToday), so it does not show this
  * list to a caller whose first panel is sponsoring; /api/today still answers with it. The school's
  * and the teaching lists name the first FOCUS_SHOWN and count the rest (one query each), with a
- * link to the list that holds them all.
+ * link to the list that holds them all. Kept per caller while the school's records are unchanged
+ * (cachedSummary).
  */
 export async function todayFocusList(user: CurrentUser): Promise<TodayFocus> {
+  // counted over every cohort or every student taught: kept per caller while the records are unchanged
+  const key = `today-focus:${user.id}:${[...user.roles].sort().join(",")}`;
+  return cachedSummary(
+    user.schoolId,
+    key,
+    () => computeFocusList(user),
+    (v) => v as TodayFocus,
+  );
+}
+
+async function computeFocusList(user: CurrentUser): Promise<TodayFocus> {
   if (can(user, "today.school")) {
     const { rows: cohorts, total } = await cohortsTop(user.schoolId, {}, FOCUS_SHOWN);
     return {
