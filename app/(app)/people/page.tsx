@@ -3,7 +3,8 @@ import { z } from "zod";
 import Link from "next/link";
 import { can, requirePagePermission } from "@/lib/auth/guard";
 import { rolesAllow } from "@/lib/auth/permissions";
-import { listPeople } from "@/db/access/people/list-people";
+import { peopleChoices } from "@/db/access/directory/people";
+import { studentChoices } from "@/db/access/directory/students";
 import { peoplePage } from "@/db/access/people/people-page";
 import { cohortRosters, ROSTERS_SHOWN } from "@/db/access/people/cohort-rosters";
 import { ListPageNav } from "@/components/student-pages";
@@ -38,15 +39,10 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
     ...(filter.role ? ([["role", filter.role]] as [string, string][]) : []),
   ];
   const manage = can(user, "people.manage");
+  // the account pickers list while few, else search (db/access/directory, GET /api/directory/*)
   const accounts = manage
-    ? (await listPeople(user.schoolId)).map((p) => ({
-        id: p.id,
-        name: p.name,
-        active: p.active,
-        sponsor: rolesAllow(p.roles, "students.sponsored"),
-        student: rolesAllow(p.roles, "students.own"),
-      }))
-    : [];
+    ? await Promise.all([peopleChoices(user, "any"), peopleChoices(user, "sponsor"), studentChoices(user, "sponsors")])
+    : null;
   return (
     <div className="space-y-6">
       <h1 className="text-display">People</h1>
@@ -197,7 +193,7 @@ export default async function PeoplePage({ searchParams }: { searchParams: Promi
           </div>
         </section>
       )}
-      {manage && <AccountControls people={accounts} />}
+      {accounts && <AccountControls people={accounts[0]} sponsors={accounts[1]} students={accounts[2]} />}
     </div>
   );
 }

@@ -22,8 +22,7 @@ async function readCohorts(user: CurrentUser, purpose: CohortPickerPurpose, q: s
   const rule = COHORT_PICKER_RULES[purpose];
   if (!can(user, rule.permission)) throw new HttpError(403, "You do not have access to this");
   return sequelize.query<PickerOption>(
-    `SELECT c.id, c.name, co.code AS detail
-       FROM cohorts c JOIN courses co ON co.id = c.course_id
+    `SELECT c.id, c.name FROM cohorts c
       WHERE c.school_id = :school ${rule.openOnly ? "AND c.closed_on IS NULL" : ""} ${q ? "AND c.name ILIKE :pattern" : ""}
       ORDER BY c.name, c.id LIMIT :limit`,
     { replacements: { school: user.schoolId, pattern: containsPattern(q), limit }, type: QueryTypes.SELECT },

@@ -1,12 +1,23 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
+import { ChoiceField } from "@/components/search-picker";
+import type { PickerChoices } from "@/lib/directory/picker";
 import { linkSponsorAction, setAccountActiveAction } from "../actions";
 
-type Person = { id: string; name: string; active: boolean; sponsor: boolean; student: boolean };
-
-/** The chief's account changes: deactivate or reactivate an account, link a sponsor to a student. */
-export function AccountControls({ people }: { people: Person[] }) {
+/**
+ * The chief's account changes: deactivate or reactivate an account, link a sponsor to a student.
+ * Each choice is a plain select while the set is small, else a search picker (GET /api/directory/*).
+ */
+export function AccountControls({
+  people,
+  sponsors,
+  students,
+}: {
+  people: PickerChoices;
+  sponsors: PickerChoices;
+  students: PickerChoices;
+}) {
   const router = useRouter();
   const [linkKey, setLinkKey] = useState(() => crypto.randomUUID());
   const [message, setMessage] = useState<{ text: string; ok: boolean } | null>(null);
@@ -47,20 +58,15 @@ export function AccountControls({ people }: { people: Person[] }) {
           );
         }}
       >
-        <div>
-          <label htmlFor="acc-person" className="field-label">
-            Person
-          </label>
-          <select id="acc-person" name="personId" className="field-input">
-            <option value="">Choose a person</option>
-            {people.map((p) => (
-              <option key={p.id} value={p.id}>
-                {p.name}
-                {p.active ? "" : " (deactivated)"}
-              </option>
-            ))}
-          </select>
-        </div>
+        <ChoiceField
+          id="acc-person"
+          name="personId"
+          label="Person"
+          emptyLabel="Choose a person"
+          choices={people}
+          endpoint="/api/directory/people"
+          params={{ role: "any" }}
+        />
         <button type="submit" value="off" className="btn-quiet" disabled={busy}>
           Deactivate (ends their sessions)
         </button>
@@ -80,36 +86,24 @@ export function AccountControls({ people }: { people: Person[] }) {
           );
         }}
       >
-        <div>
-          <label htmlFor="ln-sponsor" className="field-label">
-            Sponsor
-          </label>
-          <select id="ln-sponsor" name="sponsorId" className="field-input">
-            <option value="">Choose a sponsor</option>
-            {people
-              .filter((p) => p.sponsor)
-              .map((p) => (
-                <option key={p.id} value={p.id}>
-                  {p.name}
-                </option>
-              ))}
-          </select>
-        </div>
-        <div>
-          <label htmlFor="ln-student" className="field-label">
-            Student
-          </label>
-          <select id="ln-student" name="studentId" className="field-input">
-            <option value="">Choose a student</option>
-            {people
-              .filter((p) => p.student)
-              .map((p) => (
-                <option key={p.id} value={p.id}>
-                  {p.name}
-                </option>
-              ))}
-          </select>
-        </div>
+        <ChoiceField
+          id="ln-sponsor"
+          name="sponsorId"
+          label="Sponsor"
+          emptyLabel="Choose a sponsor"
+          choices={sponsors}
+          endpoint="/api/directory/people"
+          params={{ role: "sponsor" }}
+        />
+        <ChoiceField
+          id="ln-student"
+          name="studentId"
+          label="Student"
+          emptyLabel="Choose a student"
+          choices={students}
+          endpoint="/api/directory/students"
+          params={{ purpose: "sponsors" }}
+        />
         <div>
           <label htmlFor="ln-rel" className="field-label">
             Relationship
