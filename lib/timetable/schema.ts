@@ -8,6 +8,8 @@ import { ATTENDANCE_WORDS } from "@/lib/labels";
 export const isoDate = calendarDate();
 export const wallTime = wallClockTime();
 const uuid = z.string().uuid("not a valid id");
+/** a change of the record (an amended attendance, a waived make-up item) is signed by re-entering one's password */
+const password = z.string("re-enter your password").min(1, "re-enter your password").max(200);
 
 // A session's room: `roomId` from the school's list of rooms (the forms' select); `room`, a name
 // that must match a room of the list once normalised, is still taken from older callers.
@@ -86,6 +88,7 @@ export type RecordAttendanceOutput = z.output<typeof recordAttendanceSchema>;
 export const amendEntrySchema = attendanceLineSchema.omit({ studentId: true }).extend({
   entryId: uuid,
   reason: z.string().trim().min(3, "say what was wrong, in a few words").max(500),
+  password,
 });
 export type AmendEntryOutput = z.output<typeof amendEntrySchema>;
 
@@ -95,7 +98,7 @@ export const makeupCloseSchema = z.object({
   note: z.string().trim().max(500).optional().default(""),
 });
 export const makeupScheduleSchema = z.object({ itemId: uuid, sessionId: uuid });
-export const makeupWaiveSchema = z.object({ itemId: uuid, reason: z.string().trim().min(3, "say why, in a few words").max(500) });
+export const makeupWaiveSchema = z.object({ itemId: uuid, reason: z.string().trim().min(3, "say why, in a few words").max(500), password });
 export type MakeupCloseOutput = z.output<typeof makeupCloseSchema>;
 export type MakeupScheduleOutput = z.output<typeof makeupScheduleSchema>;
 export type MakeupWaiveOutput = z.output<typeof makeupWaiveSchema>;

@@ -3,6 +3,7 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { openMakeupForAbsence } from "./makeup-from-attendance";
 import { sessionForRecord } from "./attendance-session";
+import { confirmPassword } from "../records/sign-offs";
 import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";
 import { creditFor, isAbsence } from "@/lib/timetable/crediting";
@@ -11,7 +12,8 @@ import type { AmendEntryOutput, AttendanceStatusName } from "@/lib/timetable/sch
 
 /**
  * Corrects an entry by appending an amendment (the original stays). Only the current entry of a
- * student and session may be amended, so the chain stays a single line.
+ * student and session may be amended, so the chain stays a single line. The amender re-enters their
+ * password (`password`, a 422 naming the field when it does not match, nothing written).
  */
 export async function amendEntry(user: CurrentUser, input: AmendEntryOutput, t: Transaction) {
   const [cur] = await sequelize.query<{ entryId: string; sessionId: string; studentId: string; status: AttendanceStatusName }>(
@@ -23,6 +25,8 @@ export async function amendEntry(user: CurrentUser, input: AmendEntryOutput, t: 
   if (!cur) throw new HttpError(404, "entryId: no such Ground log entry", "entryId");
   const s = await sessionForRecord(user, cur.sessionId, t);
   if (cur.entryId !== input.entryId) throw new HttpError(409, "entryId: this entry was already amended; amend the latest one", "entryId");
+  // signed as a sign-off is: a wrong password writes nothing
+  await confirmPassword(user, input.password, t);
   const c = creditFor(s.minutes, input);
   const [row] = await sequelize
     .query<{ id: string }>(

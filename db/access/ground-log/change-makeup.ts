@@ -5,6 +5,7 @@ import { HttpError } from "@/lib/http/errors";
 import { now } from "@/lib/clock";
 import { can } from "@/lib/auth/can";
 import { accessTo } from "../shared/student-scope";
+import { confirmPassword } from "../records/sign-offs";
 import type { CurrentUser } from "@/lib/auth/session";
 import type { MakeupCloseOutput, MakeupScheduleOutput, MakeupWaiveOutput } from "@/lib/timetable/schema";
 
@@ -57,6 +58,8 @@ export async function waiveMakeup(user: CurrentUser, input: MakeupWaiveOutput, t
   if (!can(user, "makeup.waive")) throw new HttpError(403, "Only the chief instructor waives make-up items");
   const m = await lockItem(user, input.itemId, t);
   if (m.state === "done" || m.state === "waived") throw new HttpError(409, `itemId: the item is already ${m.state}`, "itemId");
+  // the chief re-enters their password, as for a sign-off: a wrong one writes nothing
+  await confirmPassword(user, input.password, t);
   await sequelize.query(
     `UPDATE makeup_items SET state = 'waived', waived_reason = :r, waived_by = :by, closed_at = :now, scheduled_session_id = NULL WHERE id = :id`,
     { replacements: { r: input.reason, by: user.id, now: now(), id: m.id }, transaction: t },

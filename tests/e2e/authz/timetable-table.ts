@@ -5,6 +5,8 @@ import type { AuthzTable, HarnessResponse } from "./types";
 const ok = (res: HarnessResponse) => res.json as { ok: boolean; data?: Record<string, unknown> };
 const sessionsOf = (res: HarnessResponse) => (res.json as { rows: { id: string; cohortName: string | null }[]; total: number }).rows;
 
+// the demo accounts' password: amending attendance and waiving a make-up item are signed with it
+const PASSWORD = "chalkwing-demo";
 const csv = (email: string) => `name,email,cohort\nHarness Preview,${email},Kestrel cohort\n`;
 
 export const TIMETABLE_TABLE: AuthzTable = {
@@ -173,7 +175,14 @@ export const TIMETABLE_TABLE: AuthzTable = {
     // posted from a session's page; which page does not matter to the action
     request: (fx, caller) => ({
       params: { sessionId: fx.kestrelSessionRecorded! },
-      args: [{ entryId: caller === "chief" ? fx.otherStudentEntry : fx.studentEntry, status: "attended", reason: "Harness correction" }],
+      args: [
+        {
+          entryId: caller === "chief" ? fx.otherStudentEntry : fx.studentEntry,
+          status: "attended",
+          reason: "Harness correction",
+          password: PASSWORD,
+        },
+      ],
     }),
     expect: { signedOut: 401, chief: 200, instructor: 200, student: 403, sponsor: 403 },
     mutates: true,
@@ -210,7 +219,7 @@ export const TIMETABLE_TABLE: AuthzTable = {
   },
 
   "action app/(app)/ground-log/actions.ts#waiveMakeupAction": {
-    request: (fx) => ({ args: [{ itemId: fx.makeupE, reason: "Harness waiver" }] }),
+    request: (fx) => ({ args: [{ itemId: fx.makeupE, reason: "Harness waiver", password: PASSWORD }] }),
     expect: {
       signedOut: 401,
       chief: { status: 200, check: (res) => expect(ok(res).data?.state).toBe("waived") },

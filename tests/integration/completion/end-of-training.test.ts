@@ -5,7 +5,7 @@ import path from "node:path";
 import { NextRequest } from "next/server";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
-import { makeSchool, closeDb, actAs } from "@/tests/helpers/factories";
+import { makeSchool, closeDb, actAs, TEST_PASSWORD } from "@/tests/helpers/factories";
 import { GET as certificateRoute } from "@/app/api/records/[studentId]/certificate/route";
 import { GET as trainingRecordRoute } from "@/app/api/records/[studentId]/training-record/route";
 import { scheduleSession } from "@/db/access/timetable/schedule-session";
@@ -163,7 +163,9 @@ describe("ending training", () => {
       replacements: { st },
       type: QueryTypes.SELECT,
     });
-    await sequelize.transaction((t) => waiveMakeup(s.as.chief, { itemId: m!.id, reason: "covered in the stage check" }, t));
+    await sequelize.transaction((t) =>
+      waiveMakeup(s.as.chief, { itemId: m!.id, reason: "covered in the stage check", password: TEST_PASSWORD }, t),
+    );
     actAs(s.as.chief);
     const r = await endTrainingToday({ studentId: st, kind: "graduated", reason: "all stages passed" });
     expect(r).toMatchObject({ ok: true, data: { status: "completed" } });

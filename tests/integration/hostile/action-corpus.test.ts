@@ -38,7 +38,7 @@ const ACTIONS: [string, (input: unknown) => Promise<unknown>, string[]][] = [
   ["rescheduleSession", rescheduleSessionAction, ["sessionId", "date", "time", "durationMinutes", "room", "instructorId"]],
   ["cancelSession", cancelSessionAction, ["sessionId", "reason"]],
   ["recordAttendance", recordAttendanceAction, ["sessionId", "lines"]],
-  ["amendEntry", amendEntryAction, ["entryId", "status", "reason"]],
+  ["amendEntry", amendEntryAction, ["entryId", "status", "reason", "password"]],
   ["createAssignment", createAssignmentAction, ["kind", "briefingId", "demoId", "cohortId", "studentIds", "dueOn", "note"]],
   ["setAssignmentDone", setAssignmentDoneAction, ["assignmentId", "done"]], // run as a student (the permission is theirs)
   ["createRoom", createRoomAction, ["name", "seats", "idempotencyKey"]],

@@ -1,7 +1,7 @@
 jest.setTimeout(120_000);
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
-import { makeSchool, closeDb } from "@/tests/helpers/factories";
+import { makeSchool, closeDb, TEST_PASSWORD } from "@/tests/helpers/factories";
 import { scheduleSession } from "@/db/access/timetable/schedule-session";
 import { recordAttendance } from "@/db/access/ground-log/record-attendance";
 import { waiveMakeup } from "@/db/access/ground-log/change-makeup";
@@ -51,7 +51,9 @@ it("an item signed while the student missed its covering session with no complet
     type: QueryTypes.SELECT,
   });
   // the chief waives it: the item can be signed, but the register notes the missed session
-  await sequelize.transaction((t) => waiveMakeup(s.as.chief, { itemId: m!.id, reason: "Read the notes instead" }, t));
+  await sequelize.transaction((t) =>
+    waiveMakeup(s.as.chief, { itemId: m!.id, reason: "Read the notes instead", password: TEST_PASSWORD }, t),
+  );
   const so = await sign(s.as.instructor, { studentId: st, itemId: item });
   const { notes } = await signOffRegister(s.as.chief);
   expect(notes.filter((n) => n.recordId === so.id).map((n) => n.kind)).toEqual(["missed_session"]);

@@ -1,6 +1,6 @@
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
-import { makeSchool, closeDb } from "@/tests/helpers/factories";
+import { makeSchool, closeDb, TEST_PASSWORD } from "@/tests/helpers/factories";
 import { scheduleSession } from "@/db/access/timetable/schedule-session";
 import { rescheduleSession } from "@/db/access/timetable/reschedule-session";
 import { cancelSession } from "@/db/access/timetable/cancel-session";
@@ -111,7 +111,13 @@ describe("credited minutes", () => {
     const amended = await sequelize.transaction((t) =>
       amendEntry(
         s.as.instructor,
-        amendEntrySchema.parse({ entryId: orig!.id, status: "late", lateMinutes: 5, reason: "Arrived at 09:05, not 09:15" }),
+        amendEntrySchema.parse({
+          entryId: orig!.id,
+          status: "late",
+          lateMinutes: 5,
+          reason: "Arrived at 09:05, not 09:15",
+          password: TEST_PASSWORD,
+        }),
         t,
       ),
     );
@@ -128,7 +134,11 @@ describe("credited minutes", () => {
     // the original cannot be amended a second time: only the latest entry can
     await expect(
       sequelize.transaction((t) =>
-        amendEntry(s.as.instructor, amendEntrySchema.parse({ entryId: orig!.id, status: "attended", reason: "second try" }), t),
+        amendEntry(
+          s.as.instructor,
+          amendEntrySchema.parse({ entryId: orig!.id, status: "attended", reason: "second try", password: TEST_PASSWORD }),
+          t,
+        ),
       ),
     ).rejects.toMatchObject({ status: 409 });
     const log = await logbookFor(s.school.id, a.id);
@@ -187,7 +197,9 @@ describe("make-up items", () => {
     const [item] = (await listMakeupFor([st.id])).filter((m) => m.itemCode === "ATM-01" && m.state === "open");
     // an instructor may not waive it: that is the chief's
     await expect(
-      sequelize.transaction((t) => waiveMakeup(s.as.instructor, { itemId: item!.id, reason: "Not mine to waive" }, t)),
+      sequelize.transaction((t) =>
+        waiveMakeup(s.as.instructor, { itemId: item!.id, reason: "Not mine to waive", password: TEST_PASSWORD }, t),
+      ),
     ).rejects.toMatchObject({ status: 403 });
     // it cannot be planned into a session the student does not attend
     const notTheirs = await sequelize.transaction((t) =>
@@ -242,7 +254,7 @@ describe("make-up items", () => {
     );
     expect((await listMakeupFor([b.id]))[0]).toMatchObject({ state: "done", closedByKind: "oral_check" });
     await expect(
-      sequelize.transaction((t) => waiveMakeup(s.as.chief, { itemId: item!.id, reason: "Already done" }, t)),
+      sequelize.transaction((t) => waiveMakeup(s.as.chief, { itemId: item!.id, reason: "Already done", password: TEST_PASSWORD }, t)),
     ).rejects.toMatchObject({ status: 409 });
   });
 
@@ -256,14 +268,21 @@ describe("make-up items", () => {
     });
     let items = (await listMakeupFor([d.id])).filter((m) => m.state === "open");
     expect(items.map((m) => m.itemCode)).toEqual(["ATM-01"]);
-    await sequelize.transaction((t) => waiveMakeup(s.as.chief, { itemId: items[0]!.id, reason: "Covered in the ATM workshop" }, t));
+    await sequelize.transaction((t) =>
+      waiveMakeup(s.as.chief, { itemId: items[0]!.id, reason: "Covered in the ATM workshop", password: TEST_PASSWORD }, t),
+    );
     items = await listMakeupFor([d.id]);
     expect(items.find((m) => m.id === items[0]!.id)).toMatchObject({ state: "waived", waivedReason: "Covered in the ATM workshop" });
     const before = await creditedMinutesFor(d.id, s.course.id);
     await sequelize.transaction((t) =>
       amendEntry(
         s.as.instructor,
-        amendEntrySchema.parse({ entryId: entry!.id, status: "attended", reason: "Was in the room; register misread" }),
+        amendEntrySchema.parse({
+          entryId: entry!.id,
+          status: "attended",
+          reason: "Was in the room; register misread",
+          password: TEST_PASSWORD,
+        }),
         t,
       ),
     );

@@ -21,9 +21,12 @@ export function MakeupActions({
   const [value, setValue] = useState("");
   const [how, setHow] = useState<"one_to_one" | "oral_check">("one_to_one");
   const [msg, setMsg] = useState<string | null>(null);
+  const [password, setPassword] = useState("");
+  const [passwordError, setPasswordError] = useState<string | null>(null);
   async function submit(e: React.FormEvent) {
     e.preventDefault();
     setMsg(null);
+    setPasswordError(null);
     let r;
     if (mode === "plan") r = await scheduleMakeupAction({ itemId, sessionId: value });
     else if (mode === "close") {
@@ -31,14 +34,23 @@ export function MakeupActions({
       if (!p.success) return setMsg(p.error.issues[0]?.message ?? "invalid");
       r = await closeMakeupAction(p.data);
     } else {
-      const p = makeupWaiveSchema.safeParse({ itemId, reason: value });
-      if (!p.success) return setMsg(`reason: ${p.error.issues[0]?.message ?? "invalid"}`);
+      const p = makeupWaiveSchema.safeParse({ itemId, reason: value, password });
+      if (!p.success) {
+        const issue = p.error.issues[0];
+        if (issue?.path[0] === "password") return setPasswordError(issue.message);
+        return setMsg(`reason: ${issue?.message ?? "invalid"}`);
+      }
       r = await waiveMakeupAction(p.data);
     }
     if (r.ok) {
       setMode("none");
       setValue("");
+      setPassword("");
       router.refresh();
+    } else if (r.field === "password") {
+      // a wrong password: said beside the field, which is emptied for another try
+      setPassword("");
+      setPasswordError(r.fieldErrors?.password?.[0] ?? r.message);
     } else setMsg(r.message);
   }
   if (mode === "none") {
@@ -113,6 +125,24 @@ export function MakeupActions({
             Reason for the waiver
           </label>
           <input id={`mk-w-${itemId}`} className="field-input" value={value} onChange={(e) => setValue(e.target.value)} />
+          <label htmlFor={`mk-pw-${itemId}`} className="field-label mt-2">
+            Re-enter your password to sign the waiver
+          </label>
+          <input
+            id={`mk-pw-${itemId}`}
+            type="password"
+            autoComplete="current-password"
+            className="field-input"
+            value={password}
+            onChange={(e) => setPassword(e.target.value)}
+            aria-invalid={!!passwordError}
+            aria-describedby={passwordError ? `mk-pw-${itemId}-error` : undefined}
+          />
+          {passwordError && (
+            <p id={`mk-pw-${itemId}-error`} role="alert" className="field-error">
+              {passwordError}
+            </p>
+          )}
         </div>
       )}
       {msg && (

@@ -216,6 +216,8 @@ function AmendForm({ line }: { line: AttendanceSheetLine }) {
   const {
     register,
     handleSubmit,
+    setError,
+    resetField,
     formState: { errors, isSubmitting },
   } = useForm<AIn, unknown, AOut>({
     resolver: zodResolver(amendEntrySchema),
@@ -226,6 +228,7 @@ function AmendForm({ line }: { line: AttendanceSheetLine }) {
       earlyMinutes: line.earlyMinutes,
       creditedMinutes: "",
       reason: "",
+      password: "",
     },
   });
   if (!openForm)
@@ -235,10 +238,18 @@ function AmendForm({ line }: { line: AttendanceSheetLine }) {
       </button>
     );
   async function onSubmit(data: AOut) {
+    setMsg(null);
     const r = await amendEntryAction({ ...data, idempotencyKey: `am-${crypto.randomUUID()}` });
     if (r.ok) {
       setOpen(false);
       router.refresh();
+      return;
+    }
+    // a refusal of the password (or the reason) is shown beside its field, the password field emptied
+    const field = r.field === "password" || r.field === "reason" ? r.field : null;
+    if (field) {
+      if (field === "password") resetField("password");
+      setError(field, { message: r.fieldErrors?.[field]?.[0] ?? r.message }, { shouldFocus: true });
     } else setMsg(r.message);
   }
   const id = line.studentId;
@@ -276,6 +287,25 @@ function AmendForm({ line }: { line: AttendanceSheetLine }) {
         </label>
         <input id={`am-r-${id}`} className="field-input" {...register("reason")} />
         {errors.reason && <p className="field-error">{errors.reason.message}</p>}
+      </div>
+      <div>
+        <label htmlFor={`am-pw-${id}`} className="field-label">
+          Re-enter your password to sign the amendment
+        </label>
+        <input
+          id={`am-pw-${id}`}
+          type="password"
+          autoComplete="current-password"
+          className="field-input"
+          aria-invalid={!!errors.password}
+          aria-describedby={errors.password ? `am-pw-${id}-error` : undefined}
+          {...register("password")}
+        />
+        {errors.password && (
+          <p id={`am-pw-${id}-error`} className="field-error" role="alert">
+            {errors.password.message}
+          </p>
+        )}
       </div>
       {msg && (
         <p role="alert" className="field-error">
