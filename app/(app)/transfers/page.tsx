@@ -11,9 +11,15 @@ export const dynamic = "force-dynamic";
 
 const TEST_WORDS = { knowledge: "Knowledge test", proficiency: "Proficiency test", both: "Knowledge and proficiency tests" } as const;
 
-export default async function TransfersPage() {
+export default async function TransfersPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requirePagePermission("transfers.manage", "/transfers");
-  const [credits, choices, school] = await Promise.all([listTransferCredits(user), transferChoices(user), getSchool(user.schoolId)]);
+  const chosen = (await searchParams).student;
+  // every student in training while few; above PICKER_LIST_MAX, the student chosen in the search picker (?student=)
+  const [credits, choices, school] = await Promise.all([
+    listTransferCredits(user),
+    transferChoices(user, { studentId: typeof chosen === "string" ? chosen : undefined }),
+    getSchool(user.schoolId),
+  ]);
   const students = choices.students.map((s) => ({
     ...s,
     items: (choices.items[s.revisionId] ?? []).map((i) => ({ id: i.id, code: i.code, title: i.title, stageCode: i.stageCode })),
@@ -30,7 +36,11 @@ export default async function TransfersPage() {
       </div>
       <section aria-labelledby="record-credit" className="space-y-2">
         <h2 id="record-credit">Record a credit</h2>
-        <TransferForm students={students} />
+        <TransferForm
+          key={choices.kind === "search" ? (students[0]?.id ?? "none") : "list"}
+          students={students}
+          search={choices.kind === "search"}
+        />
       </section>
       <section aria-labelledby="credits" className="space-y-2">
         <h2 id="credits">

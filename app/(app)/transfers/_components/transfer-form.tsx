@@ -2,6 +2,7 @@
 import { useRouter } from "next/navigation";
 import { useId, useState } from "react";
 import { hoursLabel } from "@/lib/time";
+import { SearchPicker } from "@/components/search-picker";
 
 export interface StudentChoice {
   id: string;
@@ -17,8 +18,13 @@ export interface StudentChoice {
 
 type ApiError = { error?: { message: string; field?: string } };
 
-/** The chief's form for a transfer credit: sent as one multipart upload with the evidence file. */
-export function TransferForm({ students }: { students: StudentChoice[] }) {
+/**
+ * The chief's form for a transfer credit: sent as one multipart upload with the evidence file.
+ * `search`: the school has too many students to list; the student is found with the search picker
+ * and the page reloads with `?student=` to bring that student's course and items (`students` holds
+ * only them).
+ */
+export function TransferForm({ students, search = false }: { students: StudentChoice[]; search?: boolean }) {
   const router = useRouter();
   const id = useId();
   const [key, setKey] = useState(() => crypto.randomUUID());
@@ -63,29 +69,43 @@ export function TransferForm({ students }: { students: StudentChoice[] }) {
     ) : null;
   const aria = (field: string) => (error?.field === field ? { "aria-invalid": true, "aria-describedby": `${id}-${field}-error` } : {});
 
-  if (students.length === 0) return <p className="text-ink-soft">No student is in training: credit is recorded on an active enrolment.</p>;
+  if (students.length === 0 && !search)
+    return <p className="text-ink-soft">No student is in training: credit is recorded on an active enrolment.</p>;
   return (
     <form className="card space-y-3" aria-label="Record a transfer credit" noValidate onSubmit={submit} encType="multipart/form-data">
-      <div>
-        <label htmlFor={`${id}-student`} className="field-label">
-          Student
-        </label>
-        <select
+      {search ? (
+        <SearchPicker
           id={`${id}-student`}
           name="studentId"
-          className="field-input"
-          value={studentId}
-          onChange={(e) => setStudentId(e.target.value)}
-          {...aria("studentId")}
-        >
-          {students.map((s) => (
-            <option key={s.id} value={s.id}>
-              {s.name} ({s.courseCode})
-            </option>
-          ))}
-        </select>
-        {err("studentId")}
-      </div>
+          label="Student"
+          endpoint="/api/directory/students"
+          params={{ purpose: "transfers" }}
+          initial={student ? { id: student.id, name: student.name, detail: student.courseCode } : null}
+          error={error?.field === "studentId" ? error.message.replace(/^[A-Za-z]+: /, "") : null}
+          onChange={(c) => router.replace(c ? `/transfers?student=${encodeURIComponent(c.id)}` : "/transfers", { scroll: false })}
+        />
+      ) : (
+        <div>
+          <label htmlFor={`${id}-student`} className="field-label">
+            Student
+          </label>
+          <select
+            id={`${id}-student`}
+            name="studentId"
+            className="field-input"
+            value={studentId}
+            onChange={(e) => setStudentId(e.target.value)}
+            {...aria("studentId")}
+          >
+            {students.map((s) => (
+              <option key={s.id} value={s.id}>
+                {s.name} ({s.courseCode})
+              </option>
+            ))}
+          </select>
+          {err("studentId")}
+        </div>
+      )}
       <div>
         <label htmlFor={`${id}-source`} className="field-label">
           Earlier school
