@@ -2,6 +2,7 @@ import "server-only";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
 import { studentScopeSql, type Caller } from "../shared/student-scope";
+import { cachedSummary } from "../shared/summary-cache";
 
 // The instructor's Today, "checks due": the syllabus items ready for an oral check. An item is
 // ready for a student when it was taught in a session the student attended (attended, late or left
@@ -30,6 +31,20 @@ export async function oralChecksDue(caller: Caller, limit = 40): Promise<OralChe
  * the rows read stay bounded whatever the number of students taught.
  */
 export async function oralChecksDueTop(caller: Caller, limit: number): Promise<{ students: OralCheckDue[]; total: number }> {
+  // read over every student taught: kept per caller while the records are unchanged (cachedSummary)
+  const key = `oral-checks-due:${limit}:${caller.id}:${[...caller.roles].sort().join(",")}`;
+  return cachedSummary(
+    caller.schoolId,
+    key,
+    () => computeOralChecksDue(caller, limit),
+    (stored) => {
+      const v = stored as { students: (Omit<OralCheckDue, "lastTaughtAt"> & { lastTaughtAt: string })[]; total: number };
+      return { total: v.total, students: v.students.map((s) => ({ ...s, lastTaughtAt: new Date(s.lastTaughtAt) })) };
+    },
+  );
+}
+
+async function computeOralChecksDue(caller: Caller, limit: number): Promise<{ students: OralCheckDue[]; total: number }> {
   const scope = studentScopeSql(caller, "records", "g.student_id");
   const rows = await sequelize.query<{
     student_id: string;
