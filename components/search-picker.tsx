@@ -216,8 +216,8 @@ export interface ChoiceFieldProps extends Omit<SearchPickerProps, "initial"> {
   /** the chosen id at first; with a search picker, `initial` gives its name */
   defaultValue?: string;
   initial?: PickerOption | null;
-  /** the <select>'s first, empty option ("Choose a student", "Any cohort") */
-  emptyLabel: string;
+  /** the <select>'s first, empty option ("Choose a student", "Any cohort"); none: the first choice is chosen */
+  emptyLabel?: string;
 }
 
 /**
@@ -242,7 +242,7 @@ export function ChoiceField({ choices, defaultValue, initial, emptyLabel, ...pic
         aria-describedby={error ? errorId : undefined}
         onChange={(e) => onChange?.(choices.rows.find((r) => r.id === e.target.value) ?? null)}
       >
-        <option value="">{emptyLabel}</option>
+        {emptyLabel !== undefined && <option value="">{emptyLabel}</option>}
         {choices.rows.map((r) => (
           <option key={r.id} value={r.id}>
             {r.name}

@@ -38,7 +38,7 @@ const q = z
   .default("");
 
 /** Which students the picker lists, per form: each with the permission and scope of that form. */
-export const STUDENT_PICKER_PURPOSES = ["schedule", "cohorts", "transfers", "sponsors"] as const;
+export const STUDENT_PICKER_PURPOSES = ["schedule", "cohorts", "transfers", "sponsors", "endorsements"] as const;
 export type StudentPickerPurpose = (typeof STUDENT_PICKER_PURPOSES)[number];
 
 /** Per purpose: the permission of the form that uses it and the student scope it reads through. */
@@ -57,6 +57,7 @@ export const STUDENT_PICKER_RULES: Record<
   cohorts: { permission: "cohorts.manage", scope: "records", activeOnly: true, enrolledOnly: false },
   transfers: { permission: "transfers.manage", scope: "records", activeOnly: true, enrolledOnly: true },
   sponsors: { permission: "people.manage", scope: "records", activeOnly: false, enrolledOnly: false },
+  endorsements: { permission: "endorsements.sign", scope: "records", activeOnly: false, enrolledOnly: true },
 };
 
 export const studentPickerQuery = z.object({

@@ -3,7 +3,9 @@ import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
 import { can } from "@/lib/auth/can";
+import type { PickerChoices } from "@/lib/directory/picker";
 import { studentScopeSql } from "../shared/student-scope";
+import { studentChoices } from "../directory/students";
 
 // The endorsement log (kept at least 3 years, 14 CFR 61.189; rows are never deleted): instructors
 // see their own endorsements, the chief every endorsement of the school; both within the
@@ -42,14 +44,13 @@ export async function endorsementLog(user: CurrentUser): Promise<EndorsementLogR
   );
 }
 
-/** Students on a course whom the caller may endorse (records scope), by name. */
-export async function endorsableStudents(user: CurrentUser): Promise<{ id: string; name: string; courseCode: string }[]> {
-  const scope = studentScopeSql(user, "records", "a.student_id");
-  return sequelize.query(
-    `SELECT p.id, p.name, c.code AS "courseCode" FROM active_enrolments a JOIN people p ON p.id = a.student_id JOIN courses c ON c.id = a.course_id
-      WHERE p.school_id = :school AND ${scope.sql} ORDER BY p.name`,
-    { replacements: { school: user.schoolId, ...scope.replacements }, type: QueryTypes.SELECT },
-  );
+/**
+ * Students on a course whom the caller may endorse (records scope), by name: all of them up to
+ * PICKER_LIST_MAX, else "search" (the form's search picker, purpose `endorsements`).
+ */
+export async function endorsableStudents(user: CurrentUser): Promise<PickerChoices> {
+  if (!can(user, "endorsements.sign")) return { kind: "list", rows: [] };
+  return studentChoices(user, "endorsements");
 }
 
 /** Open remedial items of the students in the caller's records scope. */

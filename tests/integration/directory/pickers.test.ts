@@ -105,6 +105,18 @@ describe("GET /api/directory/students", () => {
     expect(nul.body.error).toMatchObject({ field: "q" });
   });
 
+  it("purpose endorsements: students on a course in the caller's records scope, with their course", async () => {
+    const r = await ask(s.as.instructor2, "students", { purpose: "endorsements", q: "Student" });
+    expect(r.status).toBe(200);
+    expect(r.body.rows.map((x) => x.id).sort()).toEqual(
+      s.people.students
+        .slice(3)
+        .map((p) => p.id)
+        .sort(),
+    );
+    expect(r.body.rows.every((x) => x.detail === s.course.code)).toBe(true);
+  });
+
   it("takes the search text literally (a % matches only a %)", async () => {
     const r = await ask(s.as.chief, "students", { purpose: "cohorts", q: "%" });
     expect(r.status).toBe(200);

@@ -1,6 +1,8 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
+import { ChoiceField } from "@/components/search-picker";
+import type { PickerChoices } from "@/lib/directory/picker";
 import { completeRemedialAction, endorseAction, recordResultAction } from "../actions";
 
 interface Option {
@@ -11,7 +13,8 @@ type Errors = Record<string, string[]>;
 
 /** Endorse a student (password re-entry), record a test result, and mark remedial training done. */
 export function EndorsementForms(props: {
-  students: { id: string; name: string; courseCode: string }[];
+  /** listed while few (with their course), else searched (GET /api/directory/students?purpose=endorsements) */
+  students: PickerChoices;
   awaiting: Option[];
   remedials: Option[];
   maySign: boolean;
@@ -74,19 +77,15 @@ export function EndorsementForms(props: {
             )
           }
         >
-          <div>
-            <label htmlFor="studentId" className="field-label">
-              Student
-            </label>
-            <select id="studentId" name="studentId" className="field-input" {...described("studentId")}>
-              {props.students.map((s) => (
-                <option key={s.id} value={s.id}>
-                  {s.name} ({s.courseCode})
-                </option>
-              ))}
-            </select>
-            {err("studentId")}
-          </div>
+          <ChoiceField
+            id="studentId"
+            name="studentId"
+            label="Student"
+            choices={props.students}
+            endpoint="/api/directory/students"
+            params={{ purpose: "endorsements" }}
+            error={errors.studentId?.[0]}
+          />
           <div>
             <label htmlFor="endorsedOn" className="field-label">
               Endorsed on (empty: today)
@@ -108,7 +107,11 @@ export function EndorsementForms(props: {
             />
             {err("password")}
           </div>
-          <button type="submit" className="btn-primary" disabled={busy || props.students.length === 0}>
+          <button
+            type="submit"
+            className="btn-primary"
+            disabled={busy || (props.students.kind === "list" && props.students.rows.length === 0)}
+          >
             Sign the endorsement
           </button>
         </form>
