@@ -81,12 +81,14 @@ export async function studentsPage(
   };
   const enrolled = (opts.who ?? "enrolled") === "enrolled";
   const from = `FROM people p
-       ${enrolled ? "JOIN active_enrolments e ON e.student_id = p.id" : ""}
        LEFT JOIN cohort_memberships m ON m.student_id = p.id AND m.to_date IS NULL LEFT JOIN cohorts c ON c.id = m.cohort_id`;
+  // enrolled: an active enrolment exists (what joining active_enrolments meant here, read by an index
+  // probe per student instead of the view's DISTINCT ON over every enrolment of the school)
+  const enrolledSql = enrolled ? "AND EXISTS (SELECT 1 FROM enrolments e WHERE e.student_id = p.id AND e.status = 'active')" : "";
   const cohortShown = opts.cohortToStaffOnly ? `(${scope.staffSql})` : "TRUE";
   const studentAccount = "p.roles && ARRAY[:studentRoles]::text[]";
   const who = enrolled && !opts.includeInactive ? "p.active" : studentAccount;
-  const where = `WHERE p.school_id = :schoolId AND ${who} AND ${scope.sql}`;
+  const where = `WHERE p.school_id = :schoolId AND ${who} AND ${scope.sql} ${enrolledSql}`;
   const matching = `${where}
         AND (CAST(:cohortId AS uuid) IS NULL OR (m.cohort_id = CAST(:cohortId AS uuid) AND ${cohortShown}))
         AND (CAST(:cohortName AS text) IS NULL OR (c.name ILIKE CAST(:cohortName AS text) AND ${cohortShown}))
