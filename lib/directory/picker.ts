@@ -33,12 +33,12 @@ export interface PickerAnswer {
 const q = z
   .string()
   .trim()
-  .max(PICKER_QUERY_MAX, { error: `q must be at most ${PICKER_QUERY_MAX} characters` })
+  .max(PICKER_QUERY_MAX, { error: `at most ${PICKER_QUERY_MAX} characters` })
   .optional()
   .default("");
 
 /** Which students the picker lists, per form: each with the permission and scope of that form. */
-export const STUDENT_PICKER_PURPOSES = ["schedule", "cohorts", "transfers", "sponsors", "endorsements"] as const;
+export const STUDENT_PICKER_PURPOSES = ["schedule", "cohorts", "transfers", "sponsors", "endorsements", "notes"] as const;
 export type StudentPickerPurpose = (typeof STUDENT_PICKER_PURPOSES)[number];
 
 /** Per purpose: the permission of the form that uses it and the student scope it reads through. */
@@ -51,6 +51,8 @@ export const STUDENT_PICKER_RULES: Record<
     activeOnly: boolean;
     /** students with an active enrolment only (with its course code as detail) */
     enrolledOnly: boolean;
+    /** students with a linked sponsor only */
+    sponsoredOnly?: boolean;
   }
 > = {
   schedule: { permission: "timetable.schedule", scope: "schedule", activeOnly: true, enrolledOnly: false },
@@ -58,11 +60,12 @@ export const STUDENT_PICKER_RULES: Record<
   transfers: { permission: "transfers.manage", scope: "records", activeOnly: true, enrolledOnly: true },
   sponsors: { permission: "people.manage", scope: "records", activeOnly: false, enrolledOnly: false },
   endorsements: { permission: "endorsements.sign", scope: "records", activeOnly: false, enrolledOnly: true },
+  notes: { permission: "sponsornotes.write", scope: "records", activeOnly: true, enrolledOnly: false, sponsoredOnly: true },
 };
 
 export const studentPickerQuery = z.object({
   q,
-  purpose: z.enum(STUDENT_PICKER_PURPOSES, { error: `purpose must be one of ${STUDENT_PICKER_PURPOSES.join(", ")}` }),
+  purpose: z.enum(STUDENT_PICKER_PURPOSES, { error: `must be one of ${STUDENT_PICKER_PURPOSES.join(", ")}` }),
 });
 
 export const COHORT_PICKER_PURPOSES = ["timetable", "placing"] as const;
@@ -76,7 +79,7 @@ export const COHORT_PICKER_RULES: Record<CohortPickerPurpose, { permission: Perm
 
 export const cohortPickerQuery = z.object({
   q,
-  purpose: z.enum(COHORT_PICKER_PURPOSES, { error: `purpose must be one of ${COHORT_PICKER_PURPOSES.join(", ")}` }),
+  purpose: z.enum(COHORT_PICKER_PURPOSES, { error: `must be one of ${COHORT_PICKER_PURPOSES.join(", ")}` }),
 });
 
 /** `any`: every account of the school (with "deactivated" as detail); `sponsor`: those who may be linked as sponsor (students go through the student picker, purpose `sponsors`). */
@@ -85,7 +88,7 @@ export type PeoplePickerRole = (typeof PEOPLE_PICKER_ROLES)[number];
 
 export const peoplePickerQuery = z.object({
   q,
-  role: z.enum(PEOPLE_PICKER_ROLES, { error: `role must be one of ${PEOPLE_PICKER_ROLES.join(", ")}` }).default("any"),
+  role: z.enum(PEOPLE_PICKER_ROLES, { error: `must be one of ${PEOPLE_PICKER_ROLES.join(", ")}` }).default("any"),
 });
 
 /** A LIKE pattern matching `text` anywhere, with LIKE's own characters taken literally. */

@@ -29,6 +29,7 @@ async function readStudents(user: CurrentUser, purpose: StudentPickerPurpose, q:
        FROM people p
        ${rule.enrolledOnly ? "JOIN active_enrolments e ON e.student_id = p.id JOIN courses co ON co.id = e.course_id" : ""}
       WHERE p.school_id = :school AND 'student' = ANY(p.roles) ${rule.activeOnly ? "AND p.active" : ""}
+        ${rule.sponsoredOnly ? "AND EXISTS (SELECT 1 FROM sponsor_links l WHERE l.student_id = p.id)" : ""}
         AND ${scope.sql} ${q ? "AND p.name ILIKE :pattern" : ""}
       ORDER BY p.name, p.id LIMIT :limit`,
     {

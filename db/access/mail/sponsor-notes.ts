@@ -17,13 +17,13 @@ export interface NoteStudent {
  * one scoping rule, purpose "records": the chief every student, an instructor those they teach)
  * who have a sponsor.
  */
-export async function studentsForNotes(user: Caller, t?: Transaction): Promise<NoteStudent[]> {
+export async function studentsForNotes(user: Caller, t?: Transaction, only?: string): Promise<NoteStudent[]> {
   const scope = studentScopeSql(user, "records", "p.id");
   return sequelize.query<NoteStudent>(
     `SELECT p.id, p.name, count(l.id)::int AS sponsors FROM people p JOIN sponsor_links l ON l.student_id = p.id
-      WHERE p.school_id = :s AND p.active AND ${scope.sql}
+      WHERE p.school_id = :s AND p.active AND ${scope.sql} ${only ? "AND p.id = CAST(:only AS uuid)" : ""}
       GROUP BY p.id, p.name ORDER BY p.name`,
-    { replacements: { s: user.schoolId, ...scope.replacements }, type: QueryTypes.SELECT, transaction: t },
+    { replacements: { s: user.schoolId, only: only ?? null, ...scope.replacements }, type: QueryTypes.SELECT, transaction: t },
   );
 }
 
@@ -48,7 +48,8 @@ export async function recentNotes(user: Caller, limit = 30): Promise<NoteRow[]> 
 }
 
 export async function addSponsorNote(user: Caller, input: { studentId: string; body: string }, t: Transaction) {
-  const allowed = await studentsForNotes(user, t);
+  // this one student, not every student the caller may write about
+  const allowed = await studentsForNotes(user, t, input.studentId);
   if (!allowed.some((s) => s.id === input.studentId)) {
     throw new HttpError(404, "studentId: not a student you teach who has a sponsor", "studentId");
   }

@@ -99,7 +99,7 @@ describe("GET /api/directory/students", () => {
     expect(none.body.error).toMatchObject({ field: "purpose" });
     const bad = await ask(s.as.chief, "students", { purpose: "everyone" });
     expect(bad.status).toBe(400);
-    expect(bad.body.error?.message).toMatch(/^purpose: /);
+    expect(bad.body.error?.message).toMatch(/^purpose: must be one of schedule, /);
     const nul = await ask(s.as.chief, "students", { purpose: "schedule", q: "a\u0000b" });
     expect(nul.status).toBe(400);
     expect(nul.body.error).toMatchObject({ field: "q" });
@@ -115,6 +115,13 @@ describe("GET /api/directory/students", () => {
         .sort(),
     );
     expect(r.body.rows.every((x) => x.detail === s.course.code)).toBe(true);
+  });
+
+  it("purpose notes: students in the caller's records scope who have a sponsor", async () => {
+    const r = await ask(s.as.chief, "students", { purpose: "notes", q: "Student" });
+    expect(r.status).toBe(200);
+    expect(r.body.rows.map((x) => x.id)).toEqual([s.people.students[0]!.id]);
+    expect((await ask(s.as.instructor2, "students", { purpose: "notes", q: "Student" })).body.rows).toEqual([]);
   });
 
   it("takes the search text literally (a % matches only a %)", async () => {

@@ -1,8 +1,11 @@
 "use client";
 import { useRef, useState } from "react";
+import { ChoiceField } from "@/components/search-picker";
+import type { PickerChoices } from "@/lib/directory/picker";
 import { addSponsorNoteAction } from "../actions";
 
-export function NoteForm({ students }: { students: { id: string; name: string }[] }) {
+/** A note for a student's sponsors; the students are listed while few, else searched (purpose notes). */
+export function NoteForm({ students }: { students: PickerChoices }) {
   const [errors, setErrors] = useState<Record<string, string[]>>({});
   const [status, setStatus] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
@@ -33,33 +36,16 @@ export function NoteForm({ students }: { students: { id: string; name: string }[
 
   return (
     <form ref={formRef} onSubmit={onSubmit} noValidate className="card space-y-4">
-      <div>
-        <label htmlFor="studentId" className="field-label">
-          Student
-        </label>
-        <select
-          id="studentId"
-          name="studentId"
-          defaultValue=""
-          className="field-input"
-          aria-invalid={errors.studentId ? true : undefined}
-          aria-describedby={errors.studentId ? "studentId-error" : undefined}
-        >
-          <option value="" disabled>
-            Choose a student
-          </option>
-          {students.map((s) => (
-            <option key={s.id} value={s.id}>
-              {s.name}
-            </option>
-          ))}
-        </select>
-        {errors.studentId && (
-          <p id="studentId-error" className="field-error">
-            {errors.studentId[0]}
-          </p>
-        )}
-      </div>
+      <ChoiceField
+        id="studentId"
+        name="studentId"
+        label="Student"
+        emptyLabel="Choose a student"
+        choices={students}
+        endpoint="/api/directory/students"
+        params={{ purpose: "notes" }}
+        error={errors.studentId?.[0]}
+      />
       <div>
         <label htmlFor="body" className="field-label">
           Note for the sponsors

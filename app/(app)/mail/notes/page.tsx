@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { requirePagePermission, can } from "@/lib/auth/guard";
-import { recentNotes, studentsForNotes } from "@/db/access/mail/sponsor-notes";
+import { recentNotes } from "@/db/access/mail/sponsor-notes";
+import { studentChoices } from "@/db/access/directory/students";
 import { getSchool } from "@/db/access/shared/school";
 import { formatDayTime } from "@/lib/time";
 import { MailTabs } from "../_components/mail-tabs";
@@ -11,7 +12,7 @@ export const dynamic = "force-dynamic";
 
 export default async function SponsorNotesPage() {
   const user = await requirePagePermission("sponsornotes.write", "/mail/notes");
-  const [school, students, notes] = await Promise.all([getSchool(user.schoolId), studentsForNotes(user), recentNotes(user)]);
+  const [school, students, notes] = await Promise.all([getSchool(user.schoolId), studentChoices(user, "notes"), recentNotes(user)]);
   return (
     <div className="max-w-3xl space-y-6">
       <div>
@@ -22,10 +23,10 @@ export default async function SponsorNotesPage() {
         </p>
       </div>
       {can(user, "mail.tray") && <MailTabs current="/mail/notes" show={["/mail", "/mail/outbox", "/mail/notes"]} />}
-      {students.length === 0 ? (
+      {students.kind === "list" && students.rows.length === 0 ? (
         <p className="card">None of your students has a sponsor yet.</p>
       ) : (
-        <NoteForm students={students.map((s) => ({ id: s.id, name: s.name }))} />
+        <NoteForm students={students} />
       )}
       <section aria-labelledby="recent-notes" className="card">
         <h2 id="recent-notes" className="text-lead font-semibold">
