@@ -68,13 +68,14 @@ export const studentPickerQuery = z.object({
   purpose: z.enum(STUDENT_PICKER_PURPOSES, { error: `must be one of ${STUDENT_PICKER_PURPOSES.join(", ")}` }),
 });
 
-export const COHORT_PICKER_PURPOSES = ["timetable", "placing"] as const;
+export const COHORT_PICKER_PURPOSES = ["timetable", "placing", "register"] as const;
 export type CohortPickerPurpose = (typeof COHORT_PICKER_PURPOSES)[number];
 
 /** Per purpose: the permission of the form that uses it, and whether closed cohorts are left out. */
 export const COHORT_PICKER_RULES: Record<CohortPickerPurpose, { permission: Permission; openOnly: boolean }> = {
   timetable: { permission: "timetable.schedule", openOnly: false },
   placing: { permission: "cohorts.manage", openOnly: true },
+  register: { permission: "register.view", openOnly: false },
 };
 
 export const cohortPickerQuery = z.object({

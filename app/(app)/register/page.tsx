@@ -7,6 +7,8 @@ import { registerQuerySchema, toFilter } from "@/lib/records/schema";
 import { WideTable } from "@/components/ui/wide-table";
 import { SIGN_OFF_STATE_WORDS, STAGE_RESULT_WORDS } from "@/lib/labels";
 import { getSchool } from "@/db/access/shared/school";
+import { cohortChoices, cohortOption } from "@/db/access/directory/cohorts";
+import { ChoiceField } from "@/components/search-picker";
 import { formatDayTime, formatDay } from "@/lib/time";
 import { ReviewNote } from "./_components/review-note";
 
@@ -20,10 +22,13 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
   const raw = Object.fromEntries(Object.entries(await searchParams).filter(([, v]) => typeof v === "string")) as Record<string, string>;
   const parsed = registerQuerySchema.safeParse(raw);
   const q = parsed.success ? parsed.data : {};
-  const [{ rows, notes, total, page, pageSize }, options, head] = await Promise.all([
+  const [{ rows, notes, total, page, pageSize }, options, head, cohorts, cohort] = await Promise.all([
     signOffRegister(user, toFilter(q), { page: q.page ?? 1 }),
     registerFilterOptions(user.schoolId),
     chainHead(user.schoolId),
+    // the cohort filter lists while few, else searches (GET /api/directory/cohorts?purpose=register)
+    cohortChoices(user, "register"),
+    cohortOption(user, "register", q.cohort),
   ]);
   const school = await getSchool(user.schoolId);
   const mayReview = can(user, "register.review");
@@ -71,19 +76,18 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
             ))}
           </select>
         </div>
-        <div>
-          <label htmlFor="cohort" className="field-label">
-            Cohort
-          </label>
-          <select id="cohort" name="cohort" defaultValue={q.cohort ?? ""} className="field-input">
-            <option value="">Any</option>
-            {options.cohorts.map((c) => (
-              <option key={c.id} value={c.id}>
-                {c.name}
-              </option>
-            ))}
-          </select>
-        </div>
+        <ChoiceField
+          id="cohort"
+          name="cohort"
+          label="Cohort"
+          emptyLabel="Any"
+          placeholder="Any: type a cohort's name"
+          choices={cohorts}
+          defaultValue={q.cohort ?? ""}
+          initial={cohort}
+          endpoint="/api/directory/cohorts"
+          params={{ purpose: "register" }}
+        />
         <div>
           <label htmlFor="stage" className="field-label">
             Stage
