@@ -258,3 +258,49 @@ export function ChoiceField({ choices, defaultValue, initial, emptyLabel, ...pic
     </div>
   );
 }
+
+export interface MultiSearchPickerProps extends Omit<SearchPickerProps, "initial" | "onChange"> {
+  /** the choices made so far */
+  value: PickerOption[];
+  onChange: (choices: PickerOption[]) => void;
+}
+
+/**
+ * Several choices from a growing set: the search picker adds one at a time to a list with a
+ * Remove button each. Each chosen id is submitted under `name` (one hidden input per choice).
+ */
+export function MultiSearchPicker({ value, onChange, name, label, ...picker }: MultiSearchPickerProps) {
+  const [round, setRound] = useState(0);
+  return (
+    <div className="space-y-2">
+      <SearchPicker
+        key={round}
+        {...picker}
+        name={`${name}Search`}
+        label={label}
+        onChange={(c) => {
+          if (!c) return;
+          if (!value.some((v) => v.id === c.id)) onChange([...value, c]);
+          // an empty picker for the next one
+          setRound((r) => r + 1);
+        }}
+      />
+      {value.map((v) => (
+        <input key={v.id} type="hidden" name={name} value={v.id} />
+      ))}
+      {value.length > 0 && (
+        <ul aria-label={`${label}: chosen`} className="flex flex-wrap gap-2">
+          {value.map((v) => (
+            <li key={v.id} className="flex items-center gap-1 rounded-card border border-paper-edge pl-2">
+              {v.name}
+              {v.detail && <span className="text-caption text-ink-soft">· {v.detail}</span>}
+              <button type="button" className="btn-quiet" onClick={() => onChange(value.filter((x) => x.id !== v.id))}>
+                Remove<span className="sr-only"> {v.name}</span>
+              </button>
+            </li>
+          ))}
+        </ul>
+      )}
+    </div>
+  );
+}

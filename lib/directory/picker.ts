@@ -38,7 +38,7 @@ const q = z
   .default("");
 
 /** Which students the picker lists, per form: each with the permission and scope of that form. */
-export const STUDENT_PICKER_PURPOSES = ["schedule", "cohorts", "transfers", "sponsors", "endorsements", "notes"] as const;
+export const STUDENT_PICKER_PURPOSES = ["schedule", "cohorts", "transfers", "sponsors", "endorsements", "notes", "assignments"] as const;
 export type StudentPickerPurpose = (typeof STUDENT_PICKER_PURPOSES)[number];
 
 /** Per purpose: the permission of the form that uses it and the student scope it reads through. */
@@ -53,6 +53,8 @@ export const STUDENT_PICKER_RULES: Record<
     enrolledOnly: boolean;
     /** students with a linked sponsor only */
     sponsoredOnly?: boolean;
+    /** students in a cohort now (its name as detail); a caller without students.all: a cohort they lead */
+    inLedCohort?: boolean;
   }
 > = {
   schedule: { permission: "timetable.schedule", scope: "schedule", activeOnly: true, enrolledOnly: false },
@@ -61,6 +63,7 @@ export const STUDENT_PICKER_RULES: Record<
   sponsors: { permission: "people.manage", scope: "records", activeOnly: false, enrolledOnly: false },
   endorsements: { permission: "endorsements.sign", scope: "records", activeOnly: false, enrolledOnly: true },
   notes: { permission: "sponsornotes.write", scope: "records", activeOnly: true, enrolledOnly: false, sponsoredOnly: true },
+  assignments: { permission: "assignments.manage", scope: "records", activeOnly: true, enrolledOnly: false, inLedCohort: true },
 };
 
 export const studentPickerQuery = z.object({
@@ -68,14 +71,20 @@ export const studentPickerQuery = z.object({
   purpose: z.enum(STUDENT_PICKER_PURPOSES, { error: `must be one of ${STUDENT_PICKER_PURPOSES.join(", ")}` }),
 });
 
-export const COHORT_PICKER_PURPOSES = ["timetable", "placing", "register"] as const;
+export const COHORT_PICKER_PURPOSES = ["timetable", "placing", "register", "assignments", "roster"] as const;
 export type CohortPickerPurpose = (typeof COHORT_PICKER_PURPOSES)[number];
 
-/** Per purpose: the permission of the form that uses it, and whether closed cohorts are left out. */
-export const COHORT_PICKER_RULES: Record<CohortPickerPurpose, { permission: Permission; openOnly: boolean }> = {
+/**
+ * Per purpose: the permission of the form that uses it, whether closed cohorts are left out, and
+ * whether a caller without students.all sees only the cohorts they lead.
+ */
+export const COHORT_PICKER_RULES: Record<CohortPickerPurpose, { permission: Permission; openOnly: boolean; ledOnly?: boolean }> = {
   timetable: { permission: "timetable.schedule", openOnly: false },
   placing: { permission: "cohorts.manage", openOnly: true },
   register: { permission: "register.view", openOnly: false },
+  assignments: { permission: "assignments.manage", openOnly: false, ledOnly: true },
+  // the Roster's Add a student and Move forms (adding checks that the caller leads the cohort, or has roster.all)
+  roster: { permission: "roster.manage", openOnly: true },
 };
 
 export const cohortPickerQuery = z.object({

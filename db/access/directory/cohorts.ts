@@ -21,11 +21,13 @@ import {
 async function readCohorts(user: CurrentUser, purpose: CohortPickerPurpose, q: string, limit: number): Promise<PickerOption[]> {
   const rule = COHORT_PICKER_RULES[purpose];
   if (!can(user, rule.permission)) throw new HttpError(403, "You do not have access to this");
+  const led = rule.ledOnly && !can(user, "students.all");
   return sequelize.query<PickerOption>(
     `SELECT c.id, c.name FROM cohorts c
-      WHERE c.school_id = :school ${rule.openOnly ? "AND c.closed_on IS NULL" : ""} ${q ? "AND c.name ILIKE :pattern" : ""}
+      WHERE c.school_id = :school ${rule.openOnly ? "AND c.closed_on IS NULL" : ""} ${led ? "AND c.lead_instructor_id = :viewer" : ""}
+        ${q ? "AND c.name ILIKE :pattern" : ""}
       ORDER BY c.name, c.id LIMIT :limit`,
-    { replacements: { school: user.schoolId, pattern: containsPattern(q), limit }, type: QueryTypes.SELECT },
+    { replacements: { school: user.schoolId, viewer: user.id, pattern: containsPattern(q), limit }, type: QueryTypes.SELECT },
   );
 }
 
@@ -45,9 +47,10 @@ export async function cohortOption(user: CurrentUser, purpose: CohortPickerPurpo
   if (!id || !/^[0-9a-f-]{36}$/i.test(id)) return null;
   const rule = COHORT_PICKER_RULES[purpose];
   if (!can(user, rule.permission)) throw new HttpError(403, "You do not have access to this");
-  const [row] = await sequelize.query<PickerOption>(`SELECT id, name FROM cohorts WHERE id = :id AND school_id = :school`, {
-    replacements: { id, school: user.schoolId },
-    type: QueryTypes.SELECT,
-  });
+  const led = rule.ledOnly && !can(user, "students.all");
+  const [row] = await sequelize.query<PickerOption>(
+    `SELECT id, name FROM cohorts WHERE id = :id AND school_id = :school ${led ? "AND lead_instructor_id = :viewer" : ""}`,
+    { replacements: { id, school: user.schoolId, viewer: user.id }, type: QueryTypes.SELECT },
+  );
   return row ?? null;
 }

@@ -24,16 +24,29 @@ async function readStudents(user: CurrentUser, purpose: StudentPickerPurpose, q:
   const rule = STUDENT_PICKER_RULES[purpose];
   if (!can(user, rule.permission)) throw new HttpError(403, "You do not have access to this");
   const scope = studentScopeSql(user, rule.scope, "p.id");
+  // in a cohort now: the first by name (of those the caller leads, unless they see every student)
+  const inCohort = `JOIN LATERAL (SELECT c.name FROM cohort_memberships m JOIN cohorts c ON c.id = m.cohort_id
+                      WHERE m.student_id = p.id AND m.to_date IS NULL AND (:all OR c.lead_instructor_id = :viewer)
+                      ORDER BY c.name LIMIT 1) mc ON true`;
+  const detail = rule.enrolledOnly ? "co.code" : rule.inLedCohort ? "mc.name" : "NULL::text";
   const rows = await sequelize.query<{ id: string; name: string; detail: string | null }>(
-    `SELECT p.id, p.name, ${rule.enrolledOnly ? "co.code" : "NULL::text"} AS detail
+    `SELECT p.id, p.name, ${detail} AS detail
        FROM people p
        ${rule.enrolledOnly ? "JOIN active_enrolments e ON e.student_id = p.id JOIN courses co ON co.id = e.course_id" : ""}
+       ${rule.inLedCohort ? inCohort : ""}
       WHERE p.school_id = :school AND 'student' = ANY(p.roles) ${rule.activeOnly ? "AND p.active" : ""}
         ${rule.sponsoredOnly ? "AND EXISTS (SELECT 1 FROM sponsor_links l WHERE l.student_id = p.id)" : ""}
         AND ${scope.sql} ${q ? "AND p.name ILIKE :pattern" : ""}
       ORDER BY p.name, p.id LIMIT :limit`,
     {
-      replacements: { school: user.schoolId, pattern: containsPattern(q), limit, ...scope.replacements },
+      replacements: {
+        school: user.schoolId,
+        pattern: containsPattern(q),
+        limit,
+        all: can(user, "students.all"),
+        viewer: user.id,
+        ...scope.replacements,
+      },
       type: QueryTypes.SELECT,
     },
   );

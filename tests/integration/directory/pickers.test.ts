@@ -124,6 +124,23 @@ describe("GET /api/directory/students", () => {
     expect((await ask(s.as.instructor2, "students", { purpose: "notes", q: "Student" })).body.rows).toEqual([]);
   });
 
+  it("purpose assignments: an instructor gets the cohorts they lead and those cohorts' students, each with their cohort", async () => {
+    const cohorts = await ask(s.as.instructor, "cohorts", { purpose: "assignments" });
+    expect(cohorts.status).toBe(200);
+    expect(cohorts.body.rows.map((x) => x.id)).toEqual([s.cohorts.a.id]);
+    const chief = await ask(s.as.chief, "cohorts", { purpose: "assignments" });
+    expect(chief.body.rows.map((x) => x.id).sort()).toEqual([s.cohorts.a.id, s.cohorts.b.id].sort());
+    const students = await ask(s.as.instructor, "students", { purpose: "assignments" });
+    expect(students.body.rows.map((x) => x.id).sort()).toEqual(
+      s.people.students
+        .slice(0, 3)
+        .map((p) => p.id)
+        .sort(),
+    );
+    expect(students.body.rows.every((x) => x.detail === s.cohorts.a.name)).toBe(true);
+    expect((await ask(s.as.student, "cohorts", { purpose: "assignments" })).status).toBe(403);
+  });
+
   it("takes the search text literally (a % matches only a %)", async () => {
     const r = await ask(s.as.chief, "students", { purpose: "cohorts", q: "%" });
     expect(r.status).toBe(200);

@@ -7,6 +7,8 @@ import type { z } from "zod";
 import { assignmentSchema } from "@/lib/assignments/schema";
 import { createAssignmentAction } from "../actions";
 import type { AssignmentChoices } from "@/db/access/assignments/choices";
+import { MultiSearchPicker, SearchPicker } from "@/components/search-picker";
+import type { PickerOption } from "@/lib/directory/picker";
 
 type FormIn = z.input<typeof assignmentSchema>;
 type FormOut = z.output<typeof assignmentSchema>;
@@ -24,6 +26,19 @@ export function AssignmentForm({
   const [idempotencyKey, setKey] = useState(() => crypto.randomUUID());
   const [status, setStatus] = useState<{ ok: boolean; text: string } | null>(null);
   const [target, setTarget] = useState<"cohort" | "students">("cohort");
+  const firstCohort = choices.cohorts.kind === "list" ? (choices.cohorts.rows[0]?.id ?? "") : "";
+  // the students chosen through the search picker (a large school)
+  const [picked, setPicked] = useState<PickerOption[]>([]);
+  // a new round empties the search pickers after an assignment is made
+  const [round, setRound] = useState(0);
+  const pickStudents = (next: PickerOption[]) => {
+    setPicked(next);
+    setValue(
+      "studentIds",
+      next.map((p) => p.id),
+      { shouldDirty: true },
+    );
+  };
   const {
     register,
     handleSubmit,
@@ -38,7 +53,7 @@ export function AssignmentForm({
       kind: "briefing",
       briefingId: initialBriefingId ?? "",
       demoId: "",
-      cohortId: choices.cohorts[0]?.id ?? "",
+      cohortId: firstCohort,
       studentIds: [],
       dueOn: "",
       note: "",
@@ -53,6 +68,8 @@ export function AssignmentForm({
       setStatus({ ok: true, text: `Assigned. ${result.data.mailed} student${result.data.mailed === 1 ? "" : "s"} will get an e-mail.` });
       setKey(crypto.randomUUID());
       reset();
+      setPicked([]);
+      setRound((r) => r + 1);
       router.refresh();
       return;
     }
@@ -128,7 +145,7 @@ export function AssignmentForm({
             onChange={() => {
               setTarget("cohort");
               setValue("studentIds", []);
-              setValue("cohortId", choices.cohorts[0]?.id ?? "");
+              setValue("cohortId", firstCohort);
             }}
           />{" "}
           A cohort
@@ -147,7 +164,18 @@ export function AssignmentForm({
           Chosen students
         </label>
       </fieldset>
-      {target === "cohort" ? (
+      {target === "cohort" && choices.cohorts.kind === "search" ? (
+        <SearchPicker
+          key={round}
+          id="cohortId"
+          name="cohortId"
+          label="Cohort"
+          endpoint="/api/directory/cohorts"
+          params={{ purpose: "assignments" }}
+          error={msg("cohortId") ?? null}
+          onChange={(c) => setValue("cohortId", c?.id ?? "", { shouldDirty: true })}
+        />
+      ) : target === "cohort" && choices.cohorts.kind === "list" ? (
         <div>
           <label htmlFor="cohortId" className="field-label">
             Cohort
@@ -159,7 +187,7 @@ export function AssignmentForm({
             aria-invalid={!!msg("cohortId")}
             aria-describedby="e-cohort"
           >
-            {choices.cohorts.map((c) => (
+            {choices.cohorts.rows.map((c) => (
               <option key={c.id} value={c.id}>
                 {c.name}
               </option>
@@ -171,14 +199,26 @@ export function AssignmentForm({
             </p>
           )}
         </div>
+      ) : choices.students.kind === "search" ? (
+        <MultiSearchPicker
+          key={round}
+          id="studentIds"
+          name="studentIdsChosen"
+          label="Students (choose one at a time)"
+          endpoint="/api/directory/students"
+          params={{ purpose: "assignments" }}
+          error={msg("studentIds") ?? msg("cohortId") ?? null}
+          value={picked}
+          onChange={pickStudents}
+        />
       ) : (
         <fieldset>
           <legend className="field-label">Students</legend>
           <div className="mt-1 grid max-h-64 gap-1 overflow-y-auto sm:grid-cols-2">
-            {choices.students.map((s) => (
+            {choices.students.rows.map((s) => (
               <label key={s.id} className="flex min-h-touch items-center gap-2">
                 <input type="checkbox" value={s.id} className="size-5" {...register("studentIds")} /> {s.name}{" "}
-                <span className="text-caption text-ink-soft">· {s.cohortName}</span>
+                <span className="text-caption text-ink-soft">· {s.detail}</span>
               </label>
             ))}
           </div>

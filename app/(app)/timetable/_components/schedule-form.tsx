@@ -5,7 +5,7 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
 import { scheduleSessionSchema } from "@/lib/timetable/schema";
-import { SearchPicker } from "@/components/search-picker";
+import { MultiSearchPicker, SearchPicker } from "@/components/search-picker";
 import type { PickerChoices, PickerOption } from "@/lib/directory/picker";
 import { scheduleSessionAction } from "../actions";
 
@@ -30,9 +30,8 @@ export function ScheduleForm({ choices, defaults }: { choices: SchedulingChoices
   const router = useRouter();
   const [message, setMessage] = useState<string | null>(null);
   const [key] = useState(newKey);
-  // the students chosen through the search picker (a large school), and a key to empty it after each
+  // the students chosen through the search picker (a large school)
   const [picked, setPicked] = useState<PickerOption[]>([]);
-  const [pickerKey, setPickerKey] = useState(0);
   function pickStudents(next: PickerOption[]) {
     setPicked(next);
     setValue(
@@ -243,33 +242,17 @@ export function ScheduleForm({ choices, defaults }: { choices: SchedulingChoices
           {err("studentIds")}
         </div>
       ) : (
-        <div className="space-y-2 sm:col-span-2">
-          <SearchPicker
-            key={pickerKey}
+        <div className="sm:col-span-2">
+          <MultiSearchPicker
             id="studentIds"
-            name="studentSearch"
+            name="studentIdsChosen"
             label="Individual students (in addition to the cohort; choose one at a time)"
             endpoint="/api/directory/students"
             params={{ purpose: "schedule" }}
             error={errors.studentIds?.message ? String(errors.studentIds.message) : null}
-            onChange={(c) => {
-              if (!c) return;
-              if (!picked.some((p) => p.id === c.id)) pickStudents([...picked, c]);
-              setPickerKey((k) => k + 1);
-            }}
+            value={picked}
+            onChange={pickStudents}
           />
-          {picked.length > 0 && (
-            <ul aria-label="Students chosen" className="flex flex-wrap gap-2">
-              {picked.map((p) => (
-                <li key={p.id} className="flex items-center gap-1 rounded-card border border-paper-edge px-2">
-                  {p.name}
-                  <button type="button" className="btn-quiet" onClick={() => pickStudents(picked.filter((x) => x.id !== p.id))}>
-                    Remove<span className="sr-only"> {p.name}</span>
-                  </button>
-                </li>
-              ))}
-            </ul>
-          )}
         </div>
       )}
       <div className="sm:col-span-2" aria-live="polite">
