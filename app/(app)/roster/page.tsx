@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
 import { requirePagePermission, can } from "@/lib/auth/guard";
-import { cohortChoices, rosterPage, type RosterRow } from "@/db/access/roster/roster-page";
+import { rosterPage, type RosterRow } from "@/db/access/roster/roster-page";
+import { cohortChoices } from "@/db/access/directory/cohorts";
+import { choicesFrom } from "@/lib/directory/picker";
 import { cohortsManagedBy } from "@/db/access/roster/managed-cohorts";
 import { getSchool } from "@/db/access/shared/school";
 import { parseStudentListQuery } from "@/lib/records/student-list-query";
@@ -21,10 +23,12 @@ export default async function RosterPage({ searchParams }: { searchParams: Promi
   const { q, problem, filter } = parseStudentListQuery(await searchParams);
   const school = await getSchool(user.schoolId);
   const everyCohort = can(user, "roster.all");
-  const [{ rows, total, page, pageSize, cohorts }, managed, allCohorts] = await Promise.all([
+  // the forms' cohort choices: every open cohort to move to, the cohorts the caller leads (every one with
+  // roster.all) to add to; listed while few, else searched (GET /api/directory/cohorts, purpose roster)
+  const [{ rows, total, page, pageSize, cohorts }, moveTo, addTo] = await Promise.all([
     rosterPage(user, filter, { page: q.page ?? 1 }),
-    cohortsManagedBy(user),
-    cohortChoices(user.schoolId),
+    cohortChoices(user, "roster"),
+    everyCohort ? null : cohortsManagedBy(user),
   ]);
   // the page's rows come ordered by cohort: one section for each cohort on this page
   const byCohort: RosterRow[][] = [];
@@ -98,7 +102,7 @@ export default async function RosterPage({ searchParams }: { searchParams: Promi
                             studentId={m.studentId}
                             studentName={m.name}
                             currentCohortId={c.cohortId}
-                            cohorts={allCohorts}
+                            choices={moveTo}
                             today={today}
                           />
                         </td>
@@ -122,7 +126,7 @@ export default async function RosterPage({ searchParams }: { searchParams: Promi
         testId="roster-pages"
       />
       <div className="grid gap-6 lg:grid-cols-2">
-        <AddStudentForm cohorts={managed.map((c) => ({ id: c.id, name: c.name }))} />
+        <AddStudentForm choices={addTo ? choicesFrom(addTo.map((c) => ({ id: c.id, name: c.name }))) : moveTo} />
         <RosterImport />
       </div>
     </div>

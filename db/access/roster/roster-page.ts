@@ -105,14 +105,3 @@ export async function rosterPage(
   ]);
   return { rows, total: count?.n ?? 0, page, pageSize, cohorts };
 }
-
-/** Every cohort of the school by id and name, oldest first: the choices of the Roster's Move form, read once a page. */
-export async function cohortChoices(schoolId: string): Promise<{ id: string; name: string }[]> {
-  return sequelize.query<{ id: string; name: string }>(
-    `SELECT id, name FROM cohorts WHERE school_id = :schoolId ORDER BY starts_on, name`,
-    {
-      replacements: { schoolId },
-      type: QueryTypes.SELECT,
-    },
-  );
-}

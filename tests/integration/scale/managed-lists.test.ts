@@ -7,6 +7,7 @@ import { accountsPage, ACCOUNTS_PAGE_SIZE } from "@/db/access/people/accounts-pa
 import { STUDENTS_PAGE_SIZE } from "@/db/access/shared/students-page";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
 import { PICKER_LIST_MAX } from "@/lib/directory/picker";
+import { cohortChoices, searchCohorts } from "@/db/access/directory/cohorts";
 
 // The chief's lists of the whole school that used to show every row (the Roster, the Cohorts
 // page's cohorts, Accounts and roles' staff and sponsors) show one page, read with the same number
@@ -150,6 +151,17 @@ it("pages the Roster: every student in the caller's cohorts today once, the filt
   expect((await rosterPage(s.as.chief, { cohortName: s.cohorts.b.name.toUpperCase() })).rows.map((r) => r.studentId).sort()).toEqual(
     byCohort.rows.map((r) => r.studentId).sort(),
   );
+});
+
+it("the Roster's forms search the open cohorts once there are more than a list holds", async () => {
+  const open = await sql<{ id: string }>(`SELECT id FROM cohorts WHERE school_id = :s AND closed_on IS NULL`);
+  expect(open.length).toBeGreaterThan(PICKER_LIST_MAX);
+  expect(await cohortChoices(s.as.chief, "roster")).toEqual({ kind: "search" });
+  // a lead instructor searches them too (the server still checks what they may add to or move)
+  const found = await searchCohorts(s.as.instructor, "roster", "extra cohort b 04");
+  expect(found.rows.map((r) => r.name)).toEqual(Array.from({ length: 10 }, (_, i) => `Extra cohort b ${String(40 + i).padStart(3, "0")}`));
+  expect(found.more).toBe(false);
+  await expect(searchCohorts(s.as.sponsor, "roster", "")).rejects.toMatchObject({ status: 403 });
 });
 
 it("pages the Cohorts page: every cohort of the school once, a part of the name filters before paging, members counted in full", async () => {

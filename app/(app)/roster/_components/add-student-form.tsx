@@ -5,12 +5,16 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
 import { addStudentSchema } from "@/lib/roster/schema";
+import { ChoiceField } from "@/components/search-picker";
+import type { PickerChoices } from "@/lib/directory/picker";
 import { addStudentAction } from "../actions";
 
 type In = z.input<typeof addStudentSchema>;
 type Out = z.output<typeof addStudentSchema>;
 
-export function AddStudentForm({ cohorts }: { cohorts: { id: string; name: string }[] }) {
+/** `choices`: the cohorts the caller may add to, listed while few, else searched. */
+export function AddStudentForm({ choices }: { choices: PickerChoices }) {
+  const first = choices.kind === "list" ? choices.rows[0]?.id : undefined;
   const router = useRouter();
   const [msg, setMsg] = useState<{ ok: boolean; text: string } | null>(null);
   const {
@@ -18,10 +22,11 @@ export function AddStudentForm({ cohorts }: { cohorts: { id: string; name: strin
     handleSubmit,
     reset,
     setError,
+    setValue,
     formState: { errors, isSubmitting },
   } = useForm<In, unknown, Out>({
     resolver: zodResolver(addStudentSchema),
-    defaultValues: { name: "", email: "", cohortId: cohorts[0]?.id ?? "", sponsorName: "", sponsorEmail: "" },
+    defaultValues: { name: "", email: "", cohortId: first ?? "", sponsorName: "", sponsorEmail: "" },
   });
   async function onSubmit(data: Out) {
     const r = await addStudentAction({ ...data, idempotencyKey: `add-${crypto.randomUUID()}` });
@@ -60,19 +65,17 @@ export function AddStudentForm({ cohorts }: { cohorts: { id: string; name: strin
       <h2 id="add-title">Add a student</h2>
       {field("name", "Name")}
       {field("email", "E-mail", "email")}
-      <div>
-        <label htmlFor="add-cohortId" className="field-label">
-          Cohort
-        </label>
-        <select id="add-cohortId" className="field-input" {...register("cohortId")}>
-          {cohorts.map((c) => (
-            <option key={c.id} value={c.id}>
-              {c.name}
-            </option>
-          ))}
-        </select>
-        {errors.cohortId && <p className="field-error">{errors.cohortId.message}</p>}
-      </div>
+      <ChoiceField
+        id="add-cohortId"
+        name="cohortId"
+        label="Cohort"
+        choices={choices}
+        defaultValue={first}
+        endpoint="/api/directory/cohorts"
+        params={{ purpose: "roster" }}
+        onChange={(c) => setValue("cohortId", c?.id ?? "")}
+        error={errors.cohortId?.message}
+      />
       {field("sponsorName", "Sponsor's name (optional)")}
       {field("sponsorEmail", "Sponsor's e-mail (optional)", "email")}
       <p className="text-caption text-ink-soft">New accounts get an invitation to set a password.</p>

@@ -5,6 +5,8 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
 import { moveStudentSchema } from "@/lib/roster/schema";
+import { ChoiceField } from "@/components/search-picker";
+import type { PickerChoices } from "@/lib/directory/picker";
 import { moveStudentAction } from "../actions";
 
 type In = z.input<typeof moveStudentSchema>;
@@ -14,28 +16,31 @@ export function MoveStudent({
   studentId,
   studentName,
   currentCohortId,
-  cohorts,
+  choices,
   today,
 }: {
   studentId: string;
   studentName: string;
   currentCohortId: string;
-  cohorts: { id: string; name: string }[];
+  /** the open cohorts to move to: listed while few, else searched (the current one is refused by the server) */
+  choices: PickerChoices;
   today: string;
 }) {
   const router = useRouter();
   const [open, setOpen] = useState(false);
   const [msg, setMsg] = useState<string | null>(null);
-  const others = cohorts.filter((c) => c.id !== currentCohortId);
+  const listed = choices.kind === "list" ? { kind: "list" as const, rows: choices.rows.filter((c) => c.id !== currentCohortId) } : choices;
+  const others = listed.kind === "list" ? listed.rows : null;
   const {
     register,
     handleSubmit,
+    setValue,
     formState: { errors, isSubmitting },
   } = useForm<In, unknown, Out>({
     resolver: zodResolver(moveStudentSchema),
-    defaultValues: { studentId, toCohortId: others[0]?.id ?? "", onDate: today },
+    defaultValues: { studentId, toCohortId: others?.[0]?.id ?? "", onDate: today },
   });
-  if (others.length === 0) return <span className="text-caption text-ink-faint">No other cohort</span>;
+  if (others && others.length === 0) return <span className="text-caption text-ink-faint">No other cohort</span>;
   if (!open)
     return (
       <button type="button" className="btn-quiet" onClick={() => setOpen(true)} aria-label={`Move ${studentName}`}>
@@ -51,18 +56,17 @@ export function MoveStudent({
   }
   return (
     <form onSubmit={handleSubmit(onSubmit)} className="min-w-52 space-y-2" noValidate aria-label={`Move ${studentName}`}>
-      <div>
-        <label htmlFor={`mv-c-${studentId}`} className="field-label">
-          To cohort
-        </label>
-        <select id={`mv-c-${studentId}`} className="field-input" {...register("toCohortId")}>
-          {others.map((c) => (
-            <option key={c.id} value={c.id}>
-              {c.name}
-            </option>
-          ))}
-        </select>
-      </div>
+      <ChoiceField
+        id={`mv-c-${studentId}`}
+        name="toCohortId"
+        label="To cohort"
+        choices={listed}
+        defaultValue={others?.[0]?.id}
+        endpoint="/api/directory/cohorts"
+        params={{ purpose: "roster" }}
+        onChange={(c) => setValue("toCohortId", c?.id ?? "")}
+        error={errors.toCohortId?.message}
+      />
       <div>
         <label htmlFor={`mv-d-${studentId}`} className="field-label">
           From date
