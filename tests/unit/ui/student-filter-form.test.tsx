@@ -1,5 +1,5 @@
 import { render, screen } from "@testing-library/react";
-import { StudentFilterForm } from "@/components/student-pages";
+import { NameFilterForm, StudentFilterForm } from "@/components/student-pages";
 import { COHORT_CHOICES_MAX } from "@/lib/records/schema";
 
 // The filter form of the paged student lists (Records, Progress map, Ground log, End of training):
@@ -23,4 +23,17 @@ it("asks for a part of the cohort's name beyond the bound, keeping what was aske
   expect(screen.queryByRole("combobox", { name: "Cohort" })).toBeNull();
   // a filter is set, so the form offers to clear it
   expect(screen.getByRole("link", { name: "Clear" })).toHaveAttribute("href", "/records");
+});
+
+it("narrows a list by a part of the name only (Cohorts, Accounts and roles), keeping what was asked", () => {
+  const { unmount } = render(<NameFilterForm basePath="/cohorts" name={undefined} idPrefix="cohorts" label="Find a cohort" />);
+  const form = screen.getByRole("form", { name: "Find a cohort" });
+  expect(form).toHaveAttribute("method", "get");
+  expect(form).toHaveAttribute("action", "/cohorts");
+  expect(screen.getByRole("searchbox", { name: "Name contains" })).toHaveAttribute("name", "name");
+  expect(screen.queryByRole("link", { name: "Clear" })).toBeNull();
+  unmount();
+  render(<NameFilterForm basePath="/people/accounts" name="Ortega" idPrefix="accounts" label="Find an account" />);
+  expect(screen.getByRole("searchbox", { name: "Name contains" })).toHaveValue("Ortega");
+  expect(screen.getByRole("link", { name: "Clear" })).toHaveAttribute("href", "/people/accounts");
 });
