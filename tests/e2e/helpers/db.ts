@@ -20,6 +20,8 @@ export const FINGERPRINT_EXCLUDE: Record<string, string> = {
   "public.mail_jobs": "written by the mail worker in the background (queue bookkeeping of outbox rows)",
   "public.audit_checkpoints":
     "the verified position of the audit chain, moved forward when the chief's Today checks new events (a cache of the verification, not a record)",
+  "public.summary_cache":
+    "summaries computed from the records (stages waiting, watch notes, counts), kept when a page or GET /api/today reads one not kept yet (a cache of a read, not a record; migration 0650)",
 };
 /**
  * Tables fingerprinted by an expression over the row (alias x) instead of the whole row, where
