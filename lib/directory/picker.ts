@@ -92,6 +92,31 @@ export const cohortPickerQuery = z.object({
   purpose: z.enum(COHORT_PICKER_PURPOSES, { error: `must be one of ${COHORT_PICKER_PURPOSES.join(", ")}` }),
 });
 
+/** Which instructors a picker lists, per form: each with the permission of that form. */
+export const INSTRUCTOR_PICKER_PURPOSES = ["timetable", "register", "cohorts"] as const;
+export type InstructorPickerPurpose = (typeof INSTRUCTOR_PICKER_PURPOSES)[number];
+
+/**
+ * Per purpose: the permission of the form that uses it, the permission whose holders are offered
+ * (who may teach a session, sign records, lead a cohort) and whether deactivated accounts are left out.
+ */
+export const INSTRUCTOR_PICKER_RULES: Record<
+  InstructorPickerPurpose,
+  { permission: Permission; holders: Permission; activeOnly: boolean }
+> = {
+  // who may teach a session (TEACHING_ROLES)
+  timetable: { permission: "timetable.schedule", holders: "attendance.record", activeOnly: true },
+  // the register's signers and examiners, past ones too
+  register: { permission: "register.view", holders: "records.sign", activeOnly: false },
+  // a cohort's lead
+  cohorts: { permission: "cohorts.manage", holders: "students.taught", activeOnly: true },
+};
+
+export const instructorPickerQuery = z.object({
+  q,
+  purpose: z.enum(INSTRUCTOR_PICKER_PURPOSES, { error: `must be one of ${INSTRUCTOR_PICKER_PURPOSES.join(", ")}` }),
+});
+
 /** `any`: every account of the school (with "deactivated" as detail); `sponsor`: those who may be linked as sponsor (students go through the student picker, purpose `sponsors`). */
 export const PEOPLE_PICKER_ROLES = ["any", "sponsor"] as const;
 export type PeoplePickerRole = (typeof PEOPLE_PICKER_ROLES)[number];

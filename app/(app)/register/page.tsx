@@ -8,6 +8,7 @@ import { WideTable } from "@/components/ui/wide-table";
 import { SIGN_OFF_STATE_WORDS, STAGE_RESULT_WORDS } from "@/lib/labels";
 import { getSchool } from "@/db/access/shared/school";
 import { cohortChoices, cohortOption } from "@/db/access/directory/cohorts";
+import { instructorChoices, instructorOption } from "@/db/access/directory/instructors";
 import { ChoiceField } from "@/components/search-picker";
 import { formatDayTime, formatDay } from "@/lib/time";
 import { ReviewNote } from "./_components/review-note";
@@ -22,13 +23,16 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
   const raw = Object.fromEntries(Object.entries(await searchParams).filter(([, v]) => typeof v === "string")) as Record<string, string>;
   const parsed = registerQuerySchema.safeParse(raw);
   const q = parsed.success ? parsed.data : {};
-  const [{ rows, notes, total, page, pageSize }, options, head, cohorts, cohort] = await Promise.all([
+  const [{ rows, notes, total, page, pageSize }, options, head, cohorts, cohort, instructors, instructor] = await Promise.all([
     signOffRegister(user, toFilter(q), { page: q.page ?? 1 }),
     registerFilterOptions(user.schoolId),
     chainHead(user.schoolId),
     // the cohort filter lists while few, else searches (GET /api/directory/cohorts?purpose=register)
     cohortChoices(user, "register"),
     cohortOption(user, "register", q.cohort),
+    // likewise the signers and examiners (GET /api/directory/instructors?purpose=register)
+    instructorChoices(user, "register"),
+    instructorOption(user, "register", q.instructor),
   ]);
   const school = await getSchool(user.schoolId);
   const mayReview = can(user, "register.review");
@@ -63,19 +67,18 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
         </p>
       )}
       <form method="get" className="card grid gap-3 sm:grid-cols-2 lg:grid-cols-5" aria-label="Filters">
-        <div>
-          <label htmlFor="instructor" className="field-label">
-            Signer or examiner
-          </label>
-          <select id="instructor" name="instructor" defaultValue={q.instructor ?? ""} className="field-input">
-            <option value="">Anyone</option>
-            {options.instructors.map((i) => (
-              <option key={i.id} value={i.id}>
-                {i.name}
-              </option>
-            ))}
-          </select>
-        </div>
+        <ChoiceField
+          id="instructor"
+          name="instructor"
+          label="Signer or examiner"
+          emptyLabel="Anyone"
+          placeholder="Anyone: type a name"
+          choices={instructors}
+          defaultValue={q.instructor ?? ""}
+          initial={instructor}
+          endpoint="/api/directory/instructors"
+          params={{ purpose: "register" }}
+        />
         <ChoiceField
           id="cohort"
           name="cohort"

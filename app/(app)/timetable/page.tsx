@@ -38,7 +38,7 @@ export default async function TimetableWeekPage({
     fromInstant: zonedInstant(monday, "00:00", school.timeZone),
     toInstant: zonedInstant(addDaysIso(monday, 7), "00:00", school.timeZone),
   });
-  const choices = staff ? await timetableFilterChoices(user, { cohort: q.cohort }) : null;
+  const choices = staff ? await timetableFilterChoices(user, { cohort: q.cohort, instructor: q.instructor }) : null;
   const feedSince = await calendarFeedCreatedAt(user.id);
   const keep = new URLSearchParams(
     Object.entries({ instructor: q.instructor, cohort: q.cohort, room: q.room, mine: q.mine }).filter((e): e is [string, string] => !!e[1]),
@@ -84,6 +84,7 @@ export default async function TimetableWeekPage({
           action="/timetable"
           values={{ ...q }}
           instructors={choices.instructors}
+          instructor={choices.instructor}
           cohorts={choices.cohorts}
           cohort={choices.cohort}
           rooms={choices.rooms}

@@ -4,6 +4,7 @@ import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
 import { cohortChoices } from "../directory/cohorts";
 import { studentChoices } from "../directory/students";
+import { instructorChoices } from "../directory/instructors";
 
 export const COHORTS_PAGE_SIZE = 50;
 /** the names of a cohort's students shown in its row; the count says how many there are in all */
@@ -67,10 +68,8 @@ export async function cohortsOverview(
       `SELECT id, code || ' ' || title AS name FROM courses WHERE school_id = :s ORDER BY code`,
       rep,
     ),
-    sequelize.query<{ id: string; name: string }>(
-      `SELECT id, name FROM people WHERE school_id = :s AND active AND 'instructor' = ANY(roles) ORDER BY name`,
-      rep,
-    ),
+    // the New cohort form's lead: listed while few, else searched
+    instructorChoices(user, "cohorts"),
     studentChoices(user, "cohorts"),
   ]);
   return { cohorts, total: count?.n ?? 0, page, pageSize, openCohorts, courses, instructors, students };

@@ -4,7 +4,9 @@ import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
 import { cohortChoices } from "../directory/cohorts";
 import { studentChoices } from "../directory/students";
-import { TEACHING_ROLES } from "./session-people";
+import { instructorChoices } from "../directory/instructors";
+import { can } from "@/lib/auth/can";
+import { INSTRUCTOR_PICKER_RULES } from "@/lib/directory/picker";
 
 type Db = { transaction?: Transaction };
 
@@ -21,10 +23,7 @@ export async function schedulingChoices(user: CurrentUser, db: Db = {}) {
          FROM briefings b JOIN briefing_revisions br ON br.id = b.current_revision_id WHERE b.school_id = :s ORDER BY br.title`,
       rep,
     ),
-    sequelize.query<{ id: string; name: string }>(
-      `SELECT id, name FROM people WHERE school_id = :s AND active AND roles && ARRAY[:teachers]::text[] ORDER BY name`,
-      { ...rep, replacements: { ...rep.replacements, teachers: TEACHING_ROLES } },
-    ),
+    instructorChoices(user, "timetable"),
     cohortChoices(user, "timetable"),
     studentChoices(user, "schedule"),
     sequelize.query<{ id: string; name: string; capacity: number | null; active: boolean }>(
@@ -35,6 +34,8 @@ export async function schedulingChoices(user: CurrentUser, db: Db = {}) {
   return {
     briefings,
     instructors,
+    /** the caller, when they may teach a session (the form's first choice of instructor) */
+    self: can(user, INSTRUCTOR_PICKER_RULES.timetable.holders) ? { id: user.id, name: user.name } : null,
     cohorts,
     students,
     /** every room's name, for the Timetable's filters (rooms out of use still have sessions) */

@@ -11,6 +11,7 @@ import { peopleChoices } from "@/db/access/directory/people";
 import { GET as studentsGET } from "@/app/api/directory/students/route";
 import { GET as cohortsGET } from "@/app/api/directory/cohorts/route";
 import { GET as peopleGET } from "@/app/api/directory/people/route";
+import { GET as instructorsGET } from "@/app/api/directory/instructors/route";
 import { PICKER_LIST_MAX, PICKER_QUERY_MAX, PICKER_RESULTS, type PickerAnswer } from "@/lib/directory/picker";
 import type { CurrentUser } from "@/lib/auth/session";
 import { makeSchool, actAs, closeDb } from "@/tests/helpers/factories";
@@ -22,7 +23,7 @@ import { makeSchool, actAs, closeDb } from "@/tests/helpers/factories";
 type School = Awaited<ReturnType<typeof makeSchool>>;
 let s: School;
 
-const handlers = { students: studentsGET, cohorts: cohortsGET, people: peopleGET };
+const handlers = { students: studentsGET, cohorts: cohortsGET, people: peopleGET, instructors: instructorsGET };
 
 async function ask(
   who: CurrentUser | null,
@@ -147,6 +148,41 @@ describe("GET /api/directory/students", () => {
     expect(r.body.rows).toEqual([]);
     const u = await ask(s.as.chief, "students", { purpose: "cohorts", q: "Student_" });
     expect(u.body.rows).toEqual([]);
+  });
+});
+
+describe("GET /api/directory/instructors", () => {
+  it("offers per form who may teach (timetable), sign (register) or lead a cohort (cohorts), never a student", async () => {
+    const staff = [s.people.chief.id, s.people.instructor.id, s.people.instructor2.id].sort();
+    const teach = await ask(s.as.instructor, "instructors", { purpose: "timetable" });
+    expect(teach.status).toBe(200);
+    expect(teach.body.rows.map((x) => x.id).sort()).toEqual(staff);
+    // a cohort's lead: those who hold the instructor role (the chief here holds it too)
+    const lead = await ask(s.as.chief, "instructors", { purpose: "cohorts", q: "Instructor T" });
+    expect(lead.body.rows.map((x) => x.id)).toEqual([s.people.instructor2.id]);
+    expect((await ask(s.as.chief, "instructors", { purpose: "register", q: "Student" })).body.rows).toEqual([]);
+    // the register names past signers too (marked), the Timetable only active staff
+    await sequelize.query(`UPDATE people SET active = false WHERE id = :id`, { replacements: { id: s.people.instructor2.id } });
+    try {
+      expect((await ask(s.as.chief, "instructors", { purpose: "register", q: "Instructor Two" })).body.rows).toEqual([
+        { id: s.people.instructor2.id, name: "Instructor Two", detail: "deactivated", primary: "Instructor Two" },
+      ]);
+      expect((await ask(s.as.chief, "instructors", { purpose: "timetable", q: "Instructor Two" })).body.rows).toEqual([]);
+    } finally {
+      await sequelize.query(`UPDATE people SET active = true WHERE id = :id`, { replacements: { id: s.people.instructor2.id } });
+    }
+  });
+
+  it("refuses students and sponsors (403), forms the caller may not use (403), and a bad query (400 naming the field)", async () => {
+    for (const who of [s.as.student, s.as.sponsor]) expect((await ask(who, "instructors", { purpose: "timetable" })).status).toBe(403);
+    expect((await ask(null, "instructors", { purpose: "timetable" })).status).toBe(401);
+    expect((await ask(s.as.instructor, "instructors", { purpose: "register" })).status).toBe(403);
+    expect((await ask(s.as.instructor, "instructors", { purpose: "cohorts" })).status).toBe(403);
+    const bad = await ask(s.as.chief, "instructors", { purpose: "lead" });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error).toMatchObject({ field: "purpose" });
+    const long = await ask(s.as.chief, "instructors", { purpose: "timetable", q: "z".repeat(PICKER_QUERY_MAX + 1) });
+    expect(long.body.error).toMatchObject({ field: "q" });
   });
 });
 

@@ -5,6 +5,7 @@ import { createCohort } from "@/db/access/cohorts/memberships";
 import { searchStudents, studentChoices } from "@/db/access/directory/students";
 import { searchCohorts, cohortChoices } from "@/db/access/directory/cohorts";
 import { searchPeople, peopleChoices } from "@/db/access/directory/people";
+import { searchInstructors, instructorChoices } from "@/db/access/directory/instructors";
 import { timetableFilterChoices } from "@/db/access/timetable/filter-choices";
 import { schedulingChoices } from "@/db/access/timetable/scheduling-choices";
 import { transferChoices } from "@/db/access/transfers/students";
@@ -52,13 +53,22 @@ const READS: Record<string, () => Promise<unknown>> = {
     Promise.all([searchStudents(s.as.chief, "cohorts", ""), searchStudents(s.as.instructor, "schedule", "a")]),
   "cohort search": () => searchCohorts(s.as.chief, "timetable", ""),
   "account search": () => Promise.all([searchPeople(s.as.chief, "any", ""), searchPeople(s.as.chief, "sponsor", "")]),
+  "instructor search and choices": () =>
+    Promise.all([
+      searchInstructors(s.as.chief, "timetable", ""),
+      instructorChoices(s.as.chief, "register"),
+      instructorChoices(s.as.chief, "cohorts"),
+    ]),
   "Cohorts page's Add or move choices": () => Promise.all([studentChoices(s.as.chief, "cohorts"), cohortChoices(s.as.chief, "placing")]),
   "People's account choices": () =>
     Promise.all([peopleChoices(s.as.chief, "any"), peopleChoices(s.as.chief, "sponsor"), studentChoices(s.as.chief, "sponsors")]),
-  "Timetable filters": async () => (await timetableFilterChoices(s.as.chief)).cohorts,
+  "Timetable filters": async () => {
+    const c = await timetableFilterChoices(s.as.chief);
+    return [c.cohorts, c.instructors];
+  },
   "scheduling form": async () => {
     const c = await schedulingChoices(s.as.instructor);
-    return [c.cohorts, c.students];
+    return [c.cohorts, c.students, c.instructors];
   },
   "transfer credit form": () => transferChoices(s.as.chief),
 };

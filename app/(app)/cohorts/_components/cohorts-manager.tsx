@@ -32,7 +32,8 @@ export function CohortsManager({
   /** every open cohort of the school (the page shows one page of cohorts), or "search" when many */
   openCohorts: PickerChoices;
   courses: Choice[];
-  instructors: Choice[];
+  /** the school's active instructors while few, else "search" (GET /api/directory/instructors) */
+  instructors: PickerChoices;
   /** the school's active students while few, else "search" (GET /api/directory/students) */
   students: PickerChoices;
   today: string;
@@ -224,19 +225,15 @@ export function CohortsManager({
           </select>
           {err("courseId")}
         </div>
-        <div>
-          <label htmlFor="nc-lead" className="field-label">
-            Lead instructor
-          </label>
-          <select id="nc-lead" name="leadInstructorId" className="field-input">
-            {instructors.map((i) => (
-              <option key={i.id} value={i.id}>
-                {i.name}
-              </option>
-            ))}
-          </select>
-          {err("leadInstructorId")}
-        </div>
+        <ChoiceField
+          id="nc-lead"
+          name="leadInstructorId"
+          label="Lead instructor"
+          choices={instructors}
+          endpoint="/api/directory/instructors"
+          params={{ purpose: "cohorts" }}
+          error={errors.leadInstructorId?.[0]}
+        />
         <div>
           <label htmlFor="nc-starts" className="field-label">
             Starts on

@@ -92,6 +92,7 @@ export default async function SessionPage({ params }: { params: Promise<{ sessio
             durationMinutes: s.durationMinutes,
             roomId: s.roomId,
             instructorId: s.instructorId,
+            instructorName: s.instructorName,
           }}
           instructors={choices.instructors}
           rooms={choices.roomChoices}

@@ -6,6 +6,7 @@ export function TimetableFilters({
   action,
   values,
   instructors,
+  instructor,
   cohorts,
   cohort,
   rooms,
@@ -13,7 +14,10 @@ export function TimetableFilters({
 }: {
   action: string;
   values: { instructor?: string; cohort?: string; room?: string; mine?: string };
-  instructors: { id: string; name: string }[];
+  /** listed while few, else searched (GET /api/directory/instructors) */
+  instructors: PickerChoices;
+  /** the instructor in the URL, named for the search picker */
+  instructor?: PickerOption | null;
   /** listed while few, else searched (GET /api/directory/cohorts) */
   cohorts: PickerChoices;
   /** the cohort in the URL, named for the search picker */
@@ -26,19 +30,19 @@ export function TimetableFilters({
       {Object.entries(hidden ?? {}).map(([k, v]) => (
         <input key={k} type="hidden" name={k} value={v} />
       ))}
-      <div className="min-w-40 flex-1">
-        <label htmlFor="f-instructor" className="field-label">
-          Instructor
-        </label>
-        <select id="f-instructor" name="instructor" defaultValue={values.instructor ?? ""} className="field-input">
-          <option value="">Any instructor</option>
-          {instructors.map((i) => (
-            <option key={i.id} value={i.id}>
-              {i.name}
-            </option>
-          ))}
-        </select>
-      </div>
+      <ChoiceField
+        className="min-w-40 flex-1"
+        id="f-instructor"
+        name="instructor"
+        label="Instructor"
+        emptyLabel="Any instructor"
+        placeholder="Any instructor: type a name"
+        choices={instructors}
+        defaultValue={values.instructor}
+        initial={instructor}
+        endpoint="/api/directory/instructors"
+        params={{ purpose: "timetable" }}
+      />
       <ChoiceField
         className="min-w-40 flex-1"
         id="f-cohort"

@@ -14,7 +14,10 @@ type Out = z.output<typeof scheduleSessionSchema>;
 
 export interface SchedulingChoices {
   briefings: { id: string; title: string; revisionNumber: number; minutes: number }[];
-  instructors: { id: string; name: string }[];
+  /** listed while few, else searched (GET /api/directory/instructors) */
+  instructors: PickerChoices;
+  /** the caller, when they may teach (the first choice of instructor) */
+  self: PickerOption | null;
   /** listed while few, else searched (GET /api/directory/cohorts, /api/directory/students) */
   cohorts: PickerChoices;
   students: PickerChoices;
@@ -167,26 +170,39 @@ export function ScheduleForm({ choices, defaults }: { choices: SchedulingChoices
         {err("roomId")}
         {err("room")}
       </div>
-      <div>
-        <label htmlFor="instructorId" className="field-label">
-          Instructor
-        </label>
-        <select
+      {choices.instructors.kind === "list" ? (
+        <div>
+          <label htmlFor="instructorId" className="field-label">
+            Instructor
+          </label>
+          <select
+            id="instructorId"
+            className="field-input"
+            aria-invalid={!!errors.instructorId}
+            aria-describedby="instructorId-error"
+            {...register("instructorId")}
+          >
+            <option value="">Choose an instructor</option>
+            {choices.instructors.rows.map((i) => (
+              <option key={i.id} value={i.id}>
+                {i.name}
+              </option>
+            ))}
+          </select>
+          {err("instructorId")}
+        </div>
+      ) : (
+        <SearchPicker
           id="instructorId"
-          className="field-input"
-          aria-invalid={!!errors.instructorId}
-          aria-describedby="instructorId-error"
-          {...register("instructorId")}
-        >
-          <option value="">Choose an instructor</option>
-          {choices.instructors.map((i) => (
-            <option key={i.id} value={i.id}>
-              {i.name}
-            </option>
-          ))}
-        </select>
-        {err("instructorId")}
-      </div>
+          name="instructorId"
+          label="Instructor"
+          endpoint="/api/directory/instructors"
+          params={{ purpose: "timetable" }}
+          initial={defaults.instructorId && choices.self?.id === defaults.instructorId ? choices.self : null}
+          error={errors.instructorId?.message ? String(errors.instructorId.message) : null}
+          onChange={(i) => setValue("instructorId", i?.id ?? "", { shouldDirty: true })}
+        />
+      )}
       {choices.cohorts.kind === "list" ? (
         <div>
           <label htmlFor="cohortId" className="field-label">

@@ -5,6 +5,8 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
 import { rescheduleSessionSchema, cancelSessionSchema } from "@/lib/timetable/schema";
+import { SearchPicker } from "@/components/search-picker";
+import type { PickerChoices } from "@/lib/directory/picker";
 import { rescheduleSessionAction, cancelSessionAction } from "../actions";
 
 type RIn = z.input<typeof rescheduleSessionSchema>;
@@ -18,8 +20,17 @@ export function SessionChanges({
   instructors,
   rooms,
 }: {
-  session: { id: string; date: string; time: string; durationMinutes: number; roomId: string; instructorId: string };
-  instructors: { id: string; name: string }[];
+  session: {
+    id: string;
+    date: string;
+    time: string;
+    durationMinutes: number;
+    roomId: string;
+    instructorId: string;
+    instructorName: string;
+  };
+  /** listed while few, else searched (GET /api/directory/instructors) */
+  instructors: PickerChoices;
   rooms: { id: string; name: string }[];
 }) {
   const router = useRouter();
@@ -100,18 +111,32 @@ export function SessionChanges({
           </select>
           {re.roomId && <p className="field-error">{re.roomId.message}</p>}
         </div>
-        <div className="sm:col-span-2">
-          <label htmlFor="rs-instructor" className="field-label">
-            Instructor
-          </label>
-          <select id="rs-instructor" className="field-input" {...r.register("instructorId")}>
-            {instructors.map((i) => (
-              <option key={i.id} value={i.id}>
-                {i.name}
-              </option>
-            ))}
-          </select>
-        </div>
+        {instructors.kind === "list" ? (
+          <div className="sm:col-span-2">
+            <label htmlFor="rs-instructor" className="field-label">
+              Instructor
+            </label>
+            <select id="rs-instructor" className="field-input" {...r.register("instructorId")}>
+              {instructors.rows.map((i) => (
+                <option key={i.id} value={i.id}>
+                  {i.name}
+                </option>
+              ))}
+            </select>
+          </div>
+        ) : (
+          <SearchPicker
+            className="sm:col-span-2"
+            id="rs-instructor"
+            name="instructorId"
+            label="Instructor"
+            endpoint="/api/directory/instructors"
+            params={{ purpose: "timetable" }}
+            initial={{ id: session.instructorId, name: session.instructorName }}
+            error={re.instructorId?.message ?? null}
+            onChange={(i) => r.setValue("instructorId", i?.id ?? "", { shouldDirty: true })}
+          />
+        )}
         <div className="sm:col-span-2">
           <button type="submit" className="btn-primary" disabled={r.formState.isSubmitting}>
             Move the session

@@ -33,13 +33,17 @@ export function SessionsTable({
   staff,
   initial,
   instructors,
+  instructor,
   cohorts,
   cohort,
   rooms,
 }: {
   staff: boolean;
   initial: Record<string, string>;
-  instructors: { id: string; name: string }[];
+  /** listed while few, else searched (GET /api/directory/instructors) */
+  instructors: PickerChoices;
+  /** the instructor of the initial filter, named for the search picker */
+  instructor?: PickerOption | null;
   /** listed while few, else searched (GET /api/directory/cohorts) */
   cohorts: PickerChoices;
   /** the cohort of the initial filter, named for the search picker */
@@ -101,24 +105,19 @@ export function SessionsTable({
         </div>
         {staff && (
           <>
-            <div>
-              <label htmlFor="l-instructor" className="field-label">
-                Instructor
-              </label>
-              <select
-                id="l-instructor"
-                className="field-input"
-                value={params.instructor ?? ""}
-                onChange={(e) => set({ instructor: e.target.value })}
-              >
-                <option value="">Any instructor</option>
-                {instructors.map((i) => (
-                  <option key={i.id} value={i.id}>
-                    {i.name}
-                  </option>
-                ))}
-              </select>
-            </div>
+            <ChoiceField
+              id="l-instructor"
+              name="instructor"
+              label="Instructor"
+              emptyLabel="Any instructor"
+              placeholder="Any instructor: type a name"
+              choices={instructors}
+              defaultValue={params.instructor ?? ""}
+              initial={instructor}
+              endpoint="/api/directory/instructors"
+              params={{ purpose: "timetable" }}
+              onChange={(i) => set({ instructor: i?.id ?? "" })}
+            />
             <ChoiceField
               id="l-cohort"
               name="cohort"

@@ -19,8 +19,14 @@ export default async function TimetableListPage({
   const raw = await searchParams;
   const initial = Object.fromEntries(Object.entries(raw).filter((e): e is [string, string] => typeof e[1] === "string"));
   const choices = staff
-    ? await timetableFilterChoices(user, { cohort: initial.cohort })
-    : { instructors: [], cohorts: { kind: "list" as const, rows: [] }, cohort: null, rooms: [] };
+    ? await timetableFilterChoices(user, { cohort: initial.cohort, instructor: initial.instructor })
+    : {
+        instructors: { kind: "list" as const, rows: [] },
+        instructor: null,
+        cohorts: { kind: "list" as const, rows: [] },
+        cohort: null,
+        rooms: [],
+      };
   return (
     <div className="space-y-6">
       <header className="flex flex-wrap items-end justify-between gap-3">
@@ -43,6 +49,7 @@ export default async function TimetableListPage({
         staff={staff}
         initial={initial}
         instructors={choices.instructors}
+        instructor={choices.instructor}
         cohorts={choices.cohorts}
         cohort={choices.cohort}
         rooms={choices.rooms}

@@ -32,7 +32,8 @@ export default async function NewSessionPage() {
           choices={choices}
           defaults={{
             date: dateInZone(now(), school.timeZone),
-            instructorId: choices.instructors.some((i) => i.id === user.id) ? user.id : "",
+            // the caller, when they may teach
+            instructorId: choices.self?.id ?? "",
           }}
         />
       )}

@@ -44,6 +44,20 @@ export const DIRECTORY_TABLE: AuthzTable = {
     },
     secrets: (fx) => [fx.merlinCohort],
   },
+  "GET /api/directory/instructors": {
+    request: () => ({ query: "purpose=timetable&q=" }),
+    expect: {
+      signedOut: 401,
+      chief: {
+        status: 200,
+        check: (res, fx) => expect(rows(res).map((r) => r.id)).toEqual(expect.arrayContaining([fx.instructor, fx.otherInstructor])),
+      },
+      instructor: { status: 200, check: (res, fx) => expect(rows(res).map((r) => r.id)).not.toContain(fx.student) },
+      student: 403,
+      sponsor: 403,
+    },
+    secrets: (fx) => [fx.otherInstructor],
+  },
   "GET /api/directory/people": {
     request: () => ({ query: "role=sponsor&q=sponsor" }),
     expect: {
