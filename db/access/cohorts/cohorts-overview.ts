@@ -5,6 +5,9 @@ import type { CurrentUser } from "@/lib/auth/session";
 import { cohortChoices } from "../directory/cohorts";
 import { studentChoices } from "../directory/students";
 import { instructorChoices } from "../directory/instructors";
+import { getSchool } from "../shared/school";
+import { now } from "@/lib/clock";
+import { dateInZone } from "@/lib/time";
 
 export const COHORTS_PAGE_SIZE = 50;
 /** the names of a cohort's students shown in its row; the count says how many there are in all */
@@ -30,8 +33,8 @@ function likePattern(part: string): string {
 /**
  * The Cohorts page: one page of the school's cohorts (open ones first, newest first, a part of the
  * name to narrow them, paged in SQL with the number that match from one count), each with today's
- * students (the first MEMBERS_SHOWN names and the count), and the choices its forms offer. Six
- * queries, whatever the size of the school.
+ * students (the first MEMBERS_SHOWN names and the count), and the choices its forms offer. Seven
+ * queries (the school's time zone is one), whatever the size of the school.
  */
 export async function cohortsOverview(
   user: CurrentUser,
@@ -41,12 +44,14 @@ export async function cohortsOverview(
   const pageSize = opts.pageSize ?? COHORTS_PAGE_SIZE;
   const page = Math.max(1, Math.floor(opts.page ?? 1));
   const rep = { replacements: { s: user.schoolId }, type: QueryTypes.SELECT as const };
+  // "today" is the school's date (its time zone, by the app's clock), as for every dated membership
+  const today = dateInZone(now(), (await getSchool(user.schoolId)).timeZone);
   const list = {
-    replacements: { s: user.schoolId, name: filter.name ? likePattern(filter.name) : null, shown: MEMBERS_SHOWN },
+    replacements: { s: user.schoolId, name: filter.name ? likePattern(filter.name) : null, shown: MEMBERS_SHOWN, today },
     type: QueryTypes.SELECT as const,
   };
   const matching = `FROM cohorts c WHERE c.school_id = :s AND (CAST(:name AS text) IS NULL OR c.name ILIKE CAST(:name AS text))`;
-  const current = `m.from_date <= current_date AND (m.to_date IS NULL OR m.to_date > current_date)`;
+  const current = `m.from_date <= CAST(:today AS date) AND (m.to_date IS NULL OR m.to_date > CAST(:today AS date))`;
   const [cohorts, [count], openCohorts, courses, instructors, students] = await Promise.all([
     sequelize.query<CohortOverview>(
       `WITH page AS (
