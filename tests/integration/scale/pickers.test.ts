@@ -112,6 +112,12 @@ it("reads no more queries and carries a bounded number of names at 20 and at 80 
   expect(large["transfer credit form"]!.carried).toBe(0);
   expect(large["cohort search"]!.carried).toBe(PICKER_RESULTS);
   expect(large["student search (chief, instructor)"]!.carried).toBe(PICKER_RESULTS);
+  // transfer credit beyond the list: the page reads the student chosen in the picker, alone, with their items
+  const chosen = await transferChoices(s.as.chief, { studentId: s.people.students[0]!.id });
+  expect(chosen.kind).toBe("search");
+  expect(chosen.students.map((x) => x.id)).toEqual([s.people.students[0]!.id]);
+  expect(chosen.items[chosen.students[0]!.revisionId]!.length).toBeGreaterThan(0);
+  expect((await transferChoices(s.as.chief, { studentId: "not-a-uuid" })).students).toEqual([]);
   // while small, the forms list every choice (no change for a small school)
   expect(small["Cohorts page's Add or move choices"]!.carried).toBeGreaterThan(20);
 });
