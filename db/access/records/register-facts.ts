@@ -149,21 +149,16 @@ export async function registerRowFacts(
   return { signOffs, stageChecks, missedSessions };
 }
 
-/** The register's filter choices. */
+/**
+ * The register's stage filter choices (a few per course revision). The signer and cohort filters
+ * grow with the school: they list while few and search beyond (db/access/directory).
+ */
 export async function registerFilterOptions(schoolId: string) {
-  const instructors = await sequelize.query<{ id: string; name: string }>(
-    `SELECT id, name FROM people WHERE school_id = :schoolId AND roles && ARRAY['instructor','chief']::text[] ORDER BY name`,
-    { replacements: { schoolId }, type: QueryTypes.SELECT },
-  );
-  const cohorts = await sequelize.query<{ id: string; name: string }>(
-    `SELECT id, name FROM cohorts WHERE school_id = :schoolId ORDER BY name`,
-    { replacements: { schoolId }, type: QueryTypes.SELECT },
-  );
   const stages = await sequelize.query<{ id: string; label: string }>(
     `SELECT g.id, co.code || ' r' || r.number || ' · ' || g.code || ' ' || g.title AS label
        FROM syllabus_stages g JOIN syllabus_revisions r ON r.id = g.revision_id JOIN courses co ON co.id = r.course_id
       WHERE co.school_id = :schoolId ORDER BY co.code, r.number, g.position`,
     { replacements: { schoolId }, type: QueryTypes.SELECT },
   );
-  return { instructors, cohorts, stages };
+  return { stages };
 }
