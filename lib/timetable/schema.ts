@@ -105,14 +105,20 @@ export type MakeupWaiveOutput = z.output<typeof makeupWaiveSchema>;
 
 export const SESSION_SORTS = ["starts_at", "briefing", "room", "instructor", "cohort"] as const;
 
+/** A filter sent empty ("Any instructor" of a GET form, `?cohort=`) is no filter. */
+const emptyIsAbsent = (v: unknown) => (v === "" ? undefined : v);
+function optionalFilter<T extends z.ZodType>(schema: T) {
+  return z.preprocess(emptyIsAbsent, schema.optional());
+}
+
 /** GET /api/sessions and the list view's query string. Unknown parameters are refused by the caller. */
 export const sessionsQuerySchema = z.object({
-  from: isoDate.optional(),
-  to: isoDate.optional(),
-  instructor: uuid.optional(),
-  cohort: uuid.optional(),
-  room: z.string().trim().min(1).max(100).optional(),
-  mine: z.enum(["1", "0"], "1 or 0").optional(),
+  from: optionalFilter(isoDate),
+  to: optionalFilter(isoDate),
+  instructor: optionalFilter(uuid),
+  cohort: optionalFilter(uuid),
+  room: optionalFilter(z.string().trim().min(1).max(100)),
+  mine: optionalFilter(z.enum(["1", "0"], "1 or 0")),
   status: z.enum(["scheduled", "cancelled", "all"], "scheduled, cancelled or all").default("all"),
   sort: z.enum(SESSION_SORTS, `one of ${SESSION_SORTS.join(", ")}`).default("starts_at"),
   dir: z.enum(["asc", "desc"], "asc or desc").default("asc"),
@@ -124,9 +130,9 @@ export const SESSIONS_QUERY_KEYS = Object.keys(sessionsQuerySchema.shape);
 
 /** The week view's query string. */
 export const weekQuerySchema = z.object({
-  week: isoDate.optional(),
-  instructor: uuid.optional(),
-  cohort: uuid.optional(),
-  room: z.string().trim().min(1).max(100).optional(),
-  mine: z.enum(["1", "0"], "1 or 0").optional(),
+  week: optionalFilter(isoDate),
+  instructor: optionalFilter(uuid),
+  cohort: optionalFilter(uuid),
+  room: optionalFilter(z.string().trim().min(1).max(100)),
+  mine: optionalFilter(z.enum(["1", "0"], "1 or 0")),
 });
