@@ -74,8 +74,11 @@ export async function generateScale(students: number, opts: { schoolId?: string;
     const q = (sql: string) => sequelize.query(sql, { replacements: r, transaction: t });
 
     // Ids are derived from the run's tag (md5 → uuid), so each statement can find the rows of the
-    // statements before it without temporary tables (the app role may not create them).
-    const id = (kind: string, ...parts: string[]) => `md5(:tag || ':${kind}:' || ${parts.join(" || ':' || ")})::uuid`;
+    // statements before it without temporary tables (the app role may not create them). The md5 is
+    // given the version (4) and variant (10xx) bits of a random UUID (RFC 9562), as gen_random_uuid
+    // makes them: forms and query strings check ids as UUIDs, and a bare md5 is not one.
+    const id = (kind: string, ...parts: string[]) =>
+      `overlay(overlay(md5(:tag || ':${kind}:' || ${parts.join(" || ':' || ")}) placing '4' from 13) placing '8' from 17)::uuid`;
     const items = `(SELECT row_number() OVER (ORDER BY g.position, i.position) - 1 AS no, i.id, i.code
                       FROM syllabus_items i JOIN syllabus_stages g ON g.id = i.stage_id WHERE i.revision_id = :rev)`;
     const instr = `(SELECT row_number() OVER (ORDER BY name, id) - 1 AS no, id, roles
