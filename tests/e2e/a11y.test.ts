@@ -6,7 +6,7 @@
 // The visits run in CONCURRENCY isolated browser contexts of one Chromium (each with its own
 // session cookie) against the one production build; each jest test awaits its own visit and
 // checks what it found, so every page and role still passes or fails on its own.
-import { mkdirSync, readFileSync } from "node:fs";
+import { mkdirSync } from "node:fs";
 import path from "node:path";
 import type { BrowserContext, Page } from "playwright-core";
 import type { Client } from "pg";
@@ -16,8 +16,8 @@ import { ownerClient } from "./helpers/db";
 import { loadFixtures } from "./authz/fixtures";
 import type { Caller, Fixtures } from "./authz/types";
 import { PAGES, type CrawlPage } from "./pages";
+import { axeSerious, type AxeViolation } from "./helpers/axe";
 
-const AXE = readFileSync(path.join(process.cwd(), "node_modules", "axe-core", "axe.min.js"), "utf8");
 const ACCOUNTS: Record<Exclude<Caller, "signedOut">, string> = {
   chief: "chief@chalkwing.test",
   instructor: "instructor@chalkwing.test",
@@ -32,13 +32,6 @@ const VIEWPORTS = [
   { width: 1280, height: 800 },
   { width: 390, height: 844 },
 ] as const;
-
-interface AxeViolation {
-  id: string;
-  impact: string | null;
-  help: string;
-  nodes: { target: unknown[]; failureSummary?: string }[];
-}
 
 let browser: SharedBrowser;
 let fx: Fixtures;
@@ -78,23 +71,6 @@ async function settle(p: Page, waitFor?: string, network = true) {
   if (network) await p.waitForLoadState("networkidle");
   if (waitFor) await p.waitForSelector(waitFor, { state: "visible", timeout: 15_000 });
   await p.waitForFunction(() => document.querySelectorAll('[aria-busy="true"]').length === 0, undefined, { timeout: 15_000 });
-}
-
-async function axeSerious(p: Page): Promise<AxeViolation[]> {
-  await p.addScriptTag({ content: AXE });
-  const violations = await p.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: AxeViolation[] }> } }).axe;
-    const r = await axe.run(document, { resultTypes: ["violations"] });
-    return r.violations;
-  });
-  return violations
-    .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map((v) => ({
-      id: v.id,
-      impact: v.impact,
-      help: v.help,
-      nodes: v.nodes.slice(0, 5).map((n) => ({ target: n.target, failureSummary: n.failureSummary })),
-    }));
 }
 
 const runs = PAGES.flatMap((p) => p.roles.map((role) => [`${p.name} as ${role}`, p, role] as const));
