@@ -201,6 +201,8 @@ export function NameFilterForm({
 }) {
   return (
     <form method="get" action={basePath} className="card flex flex-wrap items-end gap-3" aria-label={label}>
+      {/* named on screen too: on its own between other cards, "Name contains" alone did not say what it narrows */}
+      <h2 className="w-full">{label}</h2>
       <div>
         <label htmlFor={`${idPrefix}-name`} className="field-label">
           Name contains

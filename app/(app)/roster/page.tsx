@@ -43,7 +43,8 @@ export default async function RosterPage({ searchParams }: { searchParams: Promi
       <header>
         <h1 className="text-display">Roster</h1>
         <p className="text-ink-soft">
-          {everyCohort ? "Every cohort of the school." : "The cohorts you lead."} Students keep their whole cohort history when they move.
+          {everyCohort ? "The school's students by cohort, 50 a page." : "The students of the cohorts you lead, 50 a page."} Students keep
+          their whole cohort history when they move.
         </p>
       </header>
       <StudentFilterForm basePath="/roster" q={q} cohorts={cohorts} idPrefix="roster" />

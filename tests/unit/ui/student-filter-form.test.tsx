@@ -28,6 +28,8 @@ it("asks for a part of the cohort's name beyond the bound, keeping what was aske
 it("narrows a list by a part of the name only (Cohorts, Accounts and roles), keeping what was asked", () => {
   const { unmount } = render(<NameFilterForm basePath="/cohorts" name={undefined} idPrefix="cohorts" label="Find a cohort" />);
   const form = screen.getByRole("form", { name: "Find a cohort" });
+  // the form says on screen what it narrows
+  expect(screen.getByRole("heading", { name: "Find a cohort" })).toBeInTheDocument();
   expect(form).toHaveAttribute("method", "get");
   expect(form).toHaveAttribute("action", "/cohorts");
   expect(screen.getByRole("searchbox", { name: "Name contains" })).toHaveAttribute("name", "name");
