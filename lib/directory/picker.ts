@@ -126,11 +126,6 @@ export const peoplePickerQuery = z.object({
   role: z.enum(PEOPLE_PICKER_ROLES, { error: `must be one of ${PEOPLE_PICKER_ROLES.join(", ")}` }).default("any"),
 });
 
-/** A LIKE pattern matching `text` anywhere, with LIKE's own characters taken literally. */
-export function containsPattern(text: string): string {
-  return `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
-}
-
 /** Rows read with LIMIT PICKER_LIST_MAX + 1 become the form's choices: the list, or "search". */
 export function choicesFrom<T extends PickerOption>(rows: T[]): PickerChoices<T> {
   return rows.length > PICKER_LIST_MAX ? { kind: "search" } : { kind: "list", rows };

@@ -8,6 +8,7 @@ import { instructorChoices } from "../directory/instructors";
 import { getSchool } from "../shared/school";
 import { now } from "@/lib/clock";
 import { dateInZone } from "@/lib/time";
+import { containsPattern } from "../shared/like";
 
 export const COHORTS_PAGE_SIZE = 50;
 /** the names of a cohort's students shown in its row; the count says how many there are in all */
@@ -24,10 +25,6 @@ export interface CohortOverview {
   members: { id: string; name: string; fromDate: string }[];
   /** how many students the cohort has today */
   memberCount: number;
-}
-
-function likePattern(part: string): string {
-  return `%${part.replace(/[\\%_]/g, (ch) => `\\${ch}`)}%`;
 }
 
 /**
@@ -47,7 +44,7 @@ export async function cohortsOverview(
   // "today" is the school's date (its time zone, by the app's clock), as for every dated membership
   const today = dateInZone(now(), (await getSchool(user.schoolId)).timeZone);
   const list = {
-    replacements: { s: user.schoolId, name: filter.name ? likePattern(filter.name) : null, shown: MEMBERS_SHOWN, today },
+    replacements: { s: user.schoolId, name: filter.name ? containsPattern(filter.name) : null, shown: MEMBERS_SHOWN, today },
     type: QueryTypes.SELECT as const,
   };
   const matching = `FROM cohorts c WHERE c.school_id = :s AND (CAST(:name AS text) IS NULL OR c.name ILIKE CAST(:name AS text))`;

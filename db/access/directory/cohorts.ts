@@ -6,7 +6,6 @@ import { can } from "@/lib/auth/can";
 import { HttpError } from "@/lib/http/errors";
 import {
   choicesFrom,
-  containsPattern,
   COHORT_PICKER_RULES,
   PICKER_LIST_MAX,
   PICKER_RESULTS,
@@ -15,6 +14,7 @@ import {
   type PickerChoices,
   type PickerOption,
 } from "@/lib/directory/picker";
+import { containsPattern } from "../shared/like";
 
 // The cohorts a form's picker offers (the school's, or its open ones), by name, LIMITed in SQL.
 

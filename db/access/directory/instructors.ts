@@ -7,7 +7,6 @@ import { rolesWith } from "@/lib/auth/permissions";
 import { HttpError } from "@/lib/http/errors";
 import {
   choicesFrom,
-  containsPattern,
   INSTRUCTOR_PICKER_RULES,
   PICKER_LIST_MAX,
   PICKER_RESULTS,
@@ -16,6 +15,7 @@ import {
   type PickerChoices,
   type PickerOption,
 } from "@/lib/directory/picker";
+import { containsPattern } from "../shared/like";
 
 // The instructors a form's picker offers (who may teach, sign or lead, per the form), by name,
 // LIMITed in SQL: one query whatever the size of the school.

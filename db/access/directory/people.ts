@@ -7,7 +7,6 @@ import { rolesWith } from "@/lib/auth/permissions";
 import { HttpError } from "@/lib/http/errors";
 import {
   choicesFrom,
-  containsPattern,
   PICKER_LIST_MAX,
   PICKER_RESULTS,
   type PeoplePickerRole,
@@ -15,6 +14,7 @@ import {
   type PickerChoices,
   type PickerOption,
 } from "@/lib/directory/picker";
+import { containsPattern } from "../shared/like";
 
 // The accounts the chief's account pickers offer (people.manage): every account, or those who may
 // be linked as a sponsor; by name, LIMITed in SQL.

@@ -6,7 +6,6 @@ import { can } from "@/lib/auth/can";
 import { HttpError } from "@/lib/http/errors";
 import {
   choicesFrom,
-  containsPattern,
   PICKER_LIST_MAX,
   PICKER_RESULTS,
   STUDENT_PICKER_RULES,
@@ -16,6 +15,7 @@ import {
   type StudentPickerPurpose,
 } from "@/lib/directory/picker";
 import { studentScopeSql } from "../shared/student-scope";
+import { containsPattern } from "../shared/like";
 
 // The students a form's picker offers: those the caller may see for the form's purpose (through
 // the one scoping rule), by name, LIMITed in SQL: one query whatever the size of the school.

@@ -3,6 +3,7 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { HttpError } from "@/lib/http/errors";
 import type { LetterRecipient } from "./weekly-letter-recipients";
+import { containsPattern } from "../shared/like";
 
 // The school's sponsor links as the chief sees them on the Weekly letters page: whether each
 // receives the letter (the student's consent and the sponsor's own unsubscribe), and the one link
@@ -40,7 +41,7 @@ export async function letterLinksPage(
 ): Promise<{ rows: LetterLink[]; total: number; page: number; pageSize: number }> {
   const pageSize = opts.pageSize ?? LETTER_LINKS_PAGE_SIZE;
   const page = Math.max(1, Math.floor(opts.page ?? 1));
-  const name = filter.name ? `%${filter.name.replace(/[\\%_]/g, (ch) => `\\${ch}`)}%` : null;
+  const name = filter.name ? containsPattern(filter.name) : null;
   const matching = `AND (CAST(:name AS text) IS NULL OR sp.name ILIKE CAST(:name AS text) OR st.name ILIKE CAST(:name AS text))`;
   const replacements = { school: schoolId, name };
   const [rows, [count]] = await Promise.all([

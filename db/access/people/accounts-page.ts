@@ -3,16 +3,13 @@ import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
 import { STUDENT_ROLES } from "@/lib/auth/account-roles";
 import type { PersonSummary } from "./person-summary";
+import { containsPattern } from "../shared/like";
 
 // Accounts and roles' list of staff and sponsors (every account that is not a student's), one page
 // at a time: a part of the name to narrow it, ordered by name, paged in SQL (LIMIT/OFFSET) with the
 // number that match from one count. Two queries, whatever the size of the school.
 
 export const ACCOUNTS_PAGE_SIZE = 50;
-
-function likePattern(part: string): string {
-  return `%${part.replace(/[\\%_]/g, (ch) => `\\${ch}`)}%`;
-}
 
 export async function accountsPage(
   schoolId: string,
@@ -21,7 +18,7 @@ export async function accountsPage(
 ): Promise<{ rows: PersonSummary[]; total: number; page: number; pageSize: number }> {
   const pageSize = opts.pageSize ?? ACCOUNTS_PAGE_SIZE;
   const page = Math.max(1, Math.floor(opts.page ?? 1));
-  const replacements = { schoolId, studentRoles: STUDENT_ROLES, name: filter.name ? likePattern(filter.name) : null };
+  const replacements = { schoolId, studentRoles: STUDENT_ROLES, name: filter.name ? containsPattern(filter.name) : null };
   const where = `FROM people WHERE school_id = :schoolId AND NOT (roles && ARRAY[:studentRoles]::text[])
       AND (CAST(:name AS text) IS NULL OR name ILIKE CAST(:name AS text))`;
   const [rows, [count]] = await Promise.all([

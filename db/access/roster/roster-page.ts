@@ -8,6 +8,7 @@ import { dateInZone } from "@/lib/time";
 import { now } from "@/lib/clock";
 import { can } from "@/lib/auth/can";
 import type { CurrentUser } from "@/lib/auth/session";
+import { containsPattern } from "../shared/like";
 
 // The Roster, one page at a time: the students in the cohorts the caller leads (with `roster.all`:
 // every cohort) today, filtered by cohort (or a part of its name) and by a part of the student's
@@ -50,10 +51,6 @@ export interface RosterPage {
   cohorts: { id: string; name: string }[];
 }
 
-function likePattern(part: string): string {
-  return `%${part.replace(/[\\%_]/g, (ch) => `\\${ch}`)}%`;
-}
-
 export async function rosterPage(
   user: CurrentUser,
   filter: RosterFilter = {},
@@ -68,8 +65,8 @@ export async function rosterPage(
     uid: user.id,
     today,
     cohortId: filter.cohortId ?? null,
-    cohortName: filter.cohortName ? likePattern(filter.cohortName) : null,
-    name: filter.name ? likePattern(filter.name) : null,
+    cohortName: filter.cohortName ? containsPattern(filter.cohortName) : null,
+    name: filter.name ? containsPattern(filter.name) : null,
     cohortChoices: COHORT_CHOICES_MAX + 1,
   };
   const current = `m.from_date <= CAST(:today AS date) AND (m.to_date IS NULL OR m.to_date > CAST(:today AS date))`;

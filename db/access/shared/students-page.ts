@@ -5,6 +5,7 @@ import { studentScopeSql, type Caller, type ScopePurpose } from "./student-scope
 import { cachedSummary } from "./summary-cache";
 import { STUDENT_ROLES } from "@/lib/auth/account-roles";
 import { COHORT_CHOICES_MAX } from "@/lib/records/schema";
+import { containsPattern } from "./like";
 
 // Every list of students that grows with the school, one page at a time (Records, the Progress
 // map list, the Ground log's student list): the students the caller may see for a purpose
@@ -57,10 +58,6 @@ export interface StudentsPageOptions {
   cohortToStaffOnly?: boolean;
 }
 
-function likePattern(part: string): string {
-  return `%${part.replace(/[\\%_]/g, (ch) => `\\${ch}`)}%`;
-}
-
 export async function studentsPage(
   caller: Caller,
   purpose: ScopePurpose,
@@ -75,8 +72,8 @@ export async function studentsPage(
     studentRoles: STUDENT_ROLES,
     ...scope.replacements,
     cohortId: filter.cohortId ?? null,
-    name: filter.name ? likePattern(filter.name) : null,
-    cohortName: filter.cohortName ? likePattern(filter.cohortName) : null,
+    name: filter.name ? containsPattern(filter.name) : null,
+    cohortName: filter.cohortName ? containsPattern(filter.cohortName) : null,
     cohortChoices: COHORT_CHOICES_MAX + 1,
   };
   const enrolled = (opts.who ?? "enrolled") === "enrolled";

@@ -8,6 +8,7 @@ import { STUDENTS_PAGE_SIZE } from "@/db/access/shared/students-page";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
 import { PICKER_LIST_MAX } from "@/lib/directory/picker";
 import { cohortChoices, searchCohorts } from "@/db/access/directory/cohorts";
+import { countQueries } from "@/tests/helpers/query-count";
 
 // The chief's lists of the whole school that used to show every row (the Roster, the Cohorts
 // page's cohorts, Accounts and roles' staff and sponsors) show one page, read with the same number
@@ -20,16 +21,6 @@ beforeAll(async () => {
   s = await makeSchool("managed");
 });
 afterAll(closeDb);
-
-async function countQueries(work: () => Promise<unknown>): Promise<number> {
-  const spy = jest.spyOn(sequelize, "query");
-  try {
-    await work();
-    return spy.mock.calls.length;
-  } finally {
-    spy.mockRestore();
-  }
-}
 
 /** Every page of a paged list, in order; the pages' sizes checked against the total. */
 async function allPages<R>(read: (page: number) => Promise<{ rows: R[]; total: number; pageSize: number }>): Promise<R[]> {

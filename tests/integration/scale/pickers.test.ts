@@ -11,6 +11,7 @@ import { schedulingChoices } from "@/db/access/timetable/scheduling-choices";
 import { transferChoices } from "@/db/access/transfers/students";
 import { PICKER_LIST_MAX, PICKER_RESULTS, type PickerChoices } from "@/lib/directory/picker";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
+import { countQueriesOf } from "@/tests/helpers/query-count";
 
 // The pickers' data does not grow with the school: every form's choices and every search answer
 // take no more SQL queries at 80 students than at 20 generated students (after 60 more students and 60
@@ -27,16 +28,6 @@ afterAll(async () => {
   jest.restoreAllMocks();
   await closeDb();
 });
-
-async function countQueries(work: () => Promise<unknown>): Promise<{ queries: number; value: unknown }> {
-  const spy = jest.spyOn(sequelize, "query");
-  try {
-    const value = await work();
-    return { queries: spy.mock.calls.length, value };
-  } finally {
-    spy.mockRestore();
-  }
-}
 
 /** The most names one picker in a value carries to the page (choices listed, search rows, transfer students). */
 function carried(value: unknown): number {
@@ -77,7 +68,7 @@ async function measure(): Promise<Record<string, { queries: number; carried: num
   const out: Record<string, { queries: number; carried: number }> = {};
   for (const [name, work] of Object.entries(READS)) {
     await work(); // warm
-    const r = await countQueries(work);
+    const r = await countQueriesOf(work);
     out[name] = { queries: r.queries, carried: carried(r.value) };
   }
   return out;

@@ -1,4 +1,3 @@
-import { sequelize } from "@/db/index";
 import { generateScale } from "@/db/seed/scale";
 import { chiefRecordsSummary, TODAY_WAITING_SHOWN } from "@/db/access/records/chief-summary";
 import { stagesWaiting } from "@/db/access/records/stages-waiting";
@@ -15,6 +14,7 @@ import { teachingWeek, CHECKS_DUE_SHOWN } from "@/db/access/today/teaching-week"
 import { listSessions } from "@/db/access/timetable/list-sessions";
 import { schedulingChoices } from "@/db/access/timetable/scheduling-choices";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
+import { countQueries } from "@/tests/helpers/query-count";
 
 // A constant number of SQL queries per request, whatever the size of the school: each page's
 // reads are counted at 20 generated students and again after 40 more (with their cohorts, oral
@@ -30,16 +30,6 @@ afterAll(async () => {
   jest.restoreAllMocks();
   await closeDb();
 });
-
-async function countQueries(work: () => Promise<unknown>): Promise<number> {
-  const spy = jest.spyOn(sequelize, "query");
-  try {
-    await work();
-    return spy.mock.calls.length;
-  } finally {
-    spy.mockRestore();
-  }
-}
 
 const PAGES: Record<string, () => Promise<unknown>> = {
   "chief's Today": () => Promise.all([chiefRecordsSummary(s.as.chief), schoolOverview(s.as.chief), todayFocusList(s.as.chief)]),

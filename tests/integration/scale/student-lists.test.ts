@@ -15,6 +15,7 @@ import { letterLinksPage, LETTER_LINKS_PAGE_SIZE } from "@/db/access/mail/letter
 import { linkSponsor } from "@/db/access/cohorts/sponsor-links";
 import { completionOverview } from "@/db/access/completion/completion-overview";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
+import { countQueries } from "@/tests/helpers/query-count";
 
 // The lists that grow with the school (the Progress map list, the Ground log's student list, the
 // Today lists of cohorts and students) show a bounded number of rows, read with the same number of
@@ -27,16 +28,6 @@ beforeAll(async () => {
   s = await makeSchool("lists");
 });
 afterAll(closeDb);
-
-async function countQueries(work: () => Promise<unknown>): Promise<number> {
-  const spy = jest.spyOn(sequelize, "query");
-  try {
-    await work();
-    return spy.mock.calls.length;
-  } finally {
-    spy.mockRestore();
-  }
-}
 
 /** Every page of a paged list, in order. */
 async function allPages(read: (page: number) => Promise<StudentsPage>): Promise<string[]> {

@@ -15,6 +15,7 @@ import { SUMMARY_FRESH_MS } from "@/db/access/shared/summary-cache";
 import { NOT_RECORDS } from "@/db/migrations/0650-summary-cache";
 import { fixedClock, resetClock } from "@/lib/clock";
 import { check, sign, type School } from "../records/helpers";
+import { countQueries } from "@/tests/helpers/query-count";
 
 afterAll(async () => {
   resetClock();
@@ -34,16 +35,6 @@ async function signStage(s: School, studentId: string, items: string[]) {
   const out = [];
   for (const itemId of items) out.push(await sign(s.as.instructor, { studentId, itemId }));
   return out;
-}
-
-async function countQueries(work: () => Promise<unknown>): Promise<number> {
-  const spy = jest.spyOn(sequelize, "query");
-  try {
-    await work();
-    return spy.mock.calls.length;
-  } finally {
-    spy.mockRestore();
-  }
 }
 
 /** Plants a total in the kept stages-waiting summaries of the school, as a summary that missed a write would hold. */
