@@ -185,19 +185,22 @@ export function StudentPageNav({
   return <ListPageNav basePath={basePath} pairs={filterPairs(q, keep)} {...rest} />;
 }
 
-/** The filter of a list narrowed by a part of the name only (the Cohorts page, Accounts and roles). */
+/** The filter of a list narrowed by a part of a name only (the Cohorts page, Accounts and roles, the endorsement log, transfer credits). */
 export function NameFilterForm({
   basePath,
   name,
   idPrefix,
   label,
   submitLabel = "Show",
+  fieldLabel = "Name contains",
 }: {
   basePath: string;
   name: string | undefined;
   idPrefix: string;
   label: string;
   submitLabel?: string;
+  /** the field's label, e.g. "Student's name contains" on a list of records about students */
+  fieldLabel?: string;
 }) {
   return (
     <form method="get" action={basePath} className="card flex flex-wrap items-end gap-3" aria-label={label}>
@@ -205,7 +208,7 @@ export function NameFilterForm({
       <h2 className="w-full">{label}</h2>
       <div>
         <label htmlFor={`${idPrefix}-name`} className="field-label">
-          Name contains
+          {fieldLabel}
         </label>
         <input id={`${idPrefix}-name`} name="name" type="search" maxLength={100} defaultValue={name ?? ""} className="field-input" />
       </div>

@@ -185,6 +185,13 @@ export const PAGES: CrawlPage[] = [
   { name: "cohorts-forbidden", path: "/cohorts", roles: ["instructor"], waitFor: "h1", status: 403 },
   // ---- knowledge-test endorsements ----
   { name: "endorsements", path: "/endorsements", roles: ["chief", "instructor"], waitFor: "main h1" },
+  {
+    name: "endorsements-find",
+    path: "/endorsements?name=a",
+    roles: ["chief", "instructor"],
+    waitFor: '[aria-label="Find a student\'s endorsements"]',
+  },
+  { name: "endorsements-bad-page", path: "/endorsements?page=zero", roles: ["chief"], waitFor: "[role=alert]" },
   { name: "endorsements-forbidden", path: "/endorsements", roles: ["student"], waitFor: "h1", status: 403 },
   { name: "endorsements-pass-rate", path: "/endorsements/pass-rate", roles: ["chief"], waitFor: "[data-testid=pass-rate-table] tbody tr" },
   { name: "endorsements-pass-rate-forbidden", path: "/endorsements/pass-rate", roles: ["instructor"], waitFor: "h1", status: 403 },
@@ -203,6 +210,7 @@ export const PAGES: CrawlPage[] = [
   { name: "completion-graduate", path: (fx) => `/completion/${fx.graduate}`, roles: ["chief"], waitFor: "[data-testid=certificate-link]" },
   // ---- transfers in and retention ----
   { name: "transfers", path: "/transfers", roles: ["chief"], waitFor: "[data-testid=transfer-credit]" },
+  { name: "transfers-find", path: "/transfers?name=a", roles: ["chief"], waitFor: '[aria-label="Find a student\'s credits"]' },
   { name: "transfers-forbidden", path: "/transfers", roles: ["instructor", "student", "sponsor"], waitFor: "h1", status: 403 },
   { name: "retention", path: "/retention", roles: ["chief"], waitFor: "li[data-state=due]" },
   { name: "retention-forbidden", path: "/retention", roles: ["instructor", "student", "sponsor"], waitFor: "h1", status: 403 },

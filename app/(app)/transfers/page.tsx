@@ -1,9 +1,12 @@
 import type { Metadata } from "next";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { listTransferCredits } from "@/db/access/transfers/credits";
+import { transferCreditsPage } from "@/db/access/transfers/credits";
 import { transferChoices } from "@/db/access/transfers/students";
 import { getSchool } from "@/db/access/shared/school";
 import { formatDay, hoursLabel } from "@/lib/time";
+import { parseNameListQuery } from "@/lib/records/student-list-query";
+import { fieldLabel } from "@/lib/validation/messages";
+import { ListPageNav, NameFilterForm } from "@/components/student-pages";
 import { TransferForm } from "./_components/transfer-form";
 
 export const metadata: Metadata = { title: "Transfers in" };
@@ -13,10 +16,12 @@ const TEST_WORDS = { knowledge: "Knowledge test", proficiency: "Proficiency test
 
 export default async function TransfersPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requirePagePermission("transfers.manage", "/transfers");
-  const chosen = (await searchParams).student;
+  const { student: chosen, ...listParams } = await searchParams;
+  // the credits recorded a page at a time (?name=, ?page=); they are kept for years
+  const { q, problem } = parseNameListQuery(listParams);
   // every student in training while few; above PICKER_LIST_MAX, the student chosen in the search picker (?student=)
-  const [credits, choices, school] = await Promise.all([
-    listTransferCredits(user),
+  const [{ rows: credits, total, page, pageSize }, choices, school] = await Promise.all([
+    transferCreditsPage(user, { name: q.name }, { page: q.page ?? 1 }),
     transferChoices(user, { studentId: typeof chosen === "string" ? chosen : undefined }),
     getSchool(user.schoolId),
   ]);
@@ -44,10 +49,46 @@ export default async function TransfersPage({ searchParams }: { searchParams: Pr
       </section>
       <section aria-labelledby="credits" className="space-y-2">
         <h2 id="credits">
-          Credits recorded <span className="num text-ink-soft">({credits.length})</span>
+          Credits recorded{" "}
+          <span className="num text-ink-soft">
+            ({total.toLocaleString("en-GB")}
+            {q.name ? " matching" : ""})
+          </span>
         </h2>
+        <NameFilterForm
+          basePath="/transfers"
+          name={q.name}
+          idPrefix="credits"
+          label="Find a student's credits"
+          fieldLabel="Student's name contains"
+        />
+        {problem && (
+          <p role="alert" className="text-notyet-800">
+            {fieldLabel(problem.path)}: {problem.message}. Showing every credit instead.
+          </p>
+        )}
+        <ListPageNav
+          basePath="/transfers"
+          pairs={[
+            ...(q.name ? ([["name", q.name]] as [string, string][]) : []),
+            ...(typeof chosen === "string" ? ([["student", chosen]] as [string, string][]) : []),
+          ]}
+          page={page}
+          pageSize={pageSize}
+          shown={credits.length}
+          total={total}
+          label="Credits recorded pages"
+          testId="transfer-credits-pages"
+          noun="Credits"
+        />
         {credits.length === 0 ? (
-          <p className="text-ink-soft">No transfer credit has been recorded.</p>
+          <p className="text-ink-soft">
+            {page > 1
+              ? `No credits on page ${page}.`
+              : q.name
+                ? "No credit for a student by that name."
+                : "No transfer credit has been recorded."}
+          </p>
         ) : (
           <ul className="space-y-2">
             {credits.map((c) => (

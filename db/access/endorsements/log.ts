@@ -6,6 +6,7 @@ import { can } from "@/lib/auth/can";
 import type { PickerChoices } from "@/lib/directory/picker";
 import { studentScopeSql } from "../shared/student-scope";
 import { studentChoices } from "../directory/students";
+import { containsPattern } from "../shared/like";
 
 // The endorsement log (kept at least 3 years, 14 CFR 61.189; rows are never deleted): instructors
 // see their own endorsements, the chief every endorsement of the school; both within the
@@ -27,20 +28,74 @@ export interface EndorsementLogRow {
   areasMissed: string[];
 }
 
-export async function endorsementLog(user: CurrentUser): Promise<EndorsementLogRow[]> {
-  const scope = studentScopeSql(user, "records", "e.student_id");
-  const own = can(user, "endorsements.all") ? "TRUE" : "e.instructor_id = :uid";
-  return sequelize.query<EndorsementLogRow>(
-    `SELECT e.id, e.student_id AS "studentId", s.name AS "studentName", c.code AS "courseCode", i.name AS "instructorName",
-            e.authority_name AS "authorityName", e.endorsed_on AS "endorsedOn", e.attempt,
-            r.taken_on AS "takenOn", r.score_percent AS "scorePercent", r.passed, r.valid_until AS "validUntil",
-            COALESCE(r.areas_missed, '{}') AS "areasMissed"
-       FROM knowledge_test_endorsements e
-       JOIN people s ON s.id = e.student_id JOIN people i ON i.id = e.instructor_id JOIN courses c ON c.id = e.course_id
-       LEFT JOIN knowledge_test_results r ON r.endorsement_id = e.id
-      WHERE e.school_id = :school AND ${own} AND ${scope.sql}
-      ORDER BY e.endorsed_on DESC, e.created_at DESC`,
-    { replacements: { school: user.schoolId, uid: user.id, ...scope.replacements }, type: QueryTypes.SELECT },
+export const ENDORSEMENT_LOG_PAGE_SIZE = 50;
+
+export interface EndorsementLogPage {
+  rows: EndorsementLogRow[];
+  /** how many endorsements match */
+  total: number;
+  page: number;
+  pageSize: number;
+}
+
+/** The endorsements the caller may read (their own, or the school's for the chief) within the records scope. */
+function logWhere(user: CurrentUser, alias: string) {
+  const scope = studentScopeSql(user, "records", `${alias}.student_id`);
+  const own = can(user, "endorsements.all") ? "TRUE" : `${alias}.instructor_id = :uid`;
+  return {
+    sql: `${alias}.school_id = :school AND ${own} AND ${scope.sql}`,
+    replacements: { school: user.schoolId, uid: user.id, ...scope.replacements },
+  };
+}
+
+/**
+ * One page of the endorsement log, newest first, optionally narrowed to students whose name
+ * contains `name`; the number that match from one count. Two queries whatever the log's length
+ * (the log is never pruned, so it grows with the years).
+ */
+export async function endorsementLogPage(
+  user: CurrentUser,
+  filter: { name?: string | undefined } = {},
+  opts: { page?: number; pageSize?: number } = {},
+): Promise<EndorsementLogPage> {
+  const where = logWhere(user, "e");
+  const pageSize = opts.pageSize ?? ENDORSEMENT_LOG_PAGE_SIZE;
+  const page = Math.max(1, Math.floor(opts.page ?? 1));
+  const replacements = { ...where.replacements, name: filter.name ? containsPattern(filter.name) : null };
+  const named = "(CAST(:name AS text) IS NULL OR s.name ILIKE CAST(:name AS text))";
+  const [rows, [count]] = await Promise.all([
+    sequelize.query<EndorsementLogRow>(
+      `SELECT e.id, e.student_id AS "studentId", s.name AS "studentName", c.code AS "courseCode", i.name AS "instructorName",
+              e.authority_name AS "authorityName", e.endorsed_on AS "endorsedOn", e.attempt,
+              r.taken_on AS "takenOn", r.score_percent AS "scorePercent", r.passed, r.valid_until AS "validUntil",
+              COALESCE(r.areas_missed, '{}') AS "areasMissed"
+         FROM knowledge_test_endorsements e
+         JOIN people s ON s.id = e.student_id JOIN people i ON i.id = e.instructor_id JOIN courses c ON c.id = e.course_id
+         LEFT JOIN knowledge_test_results r ON r.endorsement_id = e.id
+        WHERE ${where.sql} AND ${named}
+        ORDER BY e.endorsed_on DESC, e.created_at DESC, e.id DESC LIMIT :limit OFFSET :offset`,
+      { replacements: { ...replacements, limit: pageSize, offset: (page - 1) * pageSize }, type: QueryTypes.SELECT },
+    ),
+    sequelize.query<{ n: number }>(
+      `SELECT count(*)::int AS n FROM knowledge_test_endorsements e JOIN people s ON s.id = e.student_id WHERE ${where.sql} AND ${named}`,
+      { replacements, type: QueryTypes.SELECT },
+    ),
+  ]);
+  return { rows, total: count?.n ?? 0, page, pageSize };
+}
+
+/**
+ * The endorsements still awaiting their test result (the choices of the result form), newest
+ * first, whatever page of the log is shown: an endorsement leaves this list once its result is in.
+ */
+export async function awaitingEndorsements(user: CurrentUser): Promise<{ id: string; studentName: string; endorsedOn: string }[]> {
+  const where = logWhere(user, "e");
+  return sequelize.query(
+    `SELECT e.id, s.name AS "studentName", e.endorsed_on AS "endorsedOn"
+       FROM knowledge_test_endorsements e JOIN people s ON s.id = e.student_id
+      WHERE ${where.sql} AND NOT EXISTS (SELECT 1 FROM knowledge_test_results r WHERE r.endorsement_id = e.id)
+      ORDER BY e.endorsed_on DESC, e.created_at DESC, e.id DESC`,
+    { replacements: where.replacements, type: QueryTypes.SELECT },
   );
 }
 

@@ -4,6 +4,7 @@ import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
 import { can } from "@/lib/auth/can";
 import { HttpError } from "@/lib/http/errors";
+import { containsPattern } from "../shared/like";
 
 // Reading transfer credits (cross-area contract): the credits of one student on a course, the
 // minutes they add to the ground hours, the items they credit, and the school's list for the chief.
@@ -67,13 +68,34 @@ export async function transferCreditedItems(
   return new Map(rows.map((r) => [r.itemId, { sourceSchool: r.sourceSchool, on: r.on }]));
 }
 
-/** Every transfer credit of the school, newest first (the chief's Transfers page). */
-export async function listTransferCredits(user: CurrentUser): Promise<TransferCredit[]> {
+export const TRANSFER_CREDITS_PAGE_SIZE = 25;
+
+/**
+ * One page of the school's transfer credits, newest first (the chief's Transfers page), optionally
+ * narrowed to students whose name contains `name`, with the number that match from one count: two
+ * queries however many credits the school has recorded over the years.
+ */
+export async function transferCreditsPage(
+  user: CurrentUser,
+  filter: { name?: string | undefined } = {},
+  opts: { page?: number; pageSize?: number } = {},
+): Promise<{ rows: TransferCredit[]; total: number; page: number; pageSize: number }> {
   if (!can(user, "transfers.manage")) throw new HttpError(403, "Only the chief instructor reads transfer credits");
-  return sequelize.query<TransferCredit>(`${SELECT} WHERE c.school_id = :school ORDER BY c.created_at DESC`, {
-    replacements: { school: user.schoolId },
-    type: QueryTypes.SELECT,
-  });
+  const pageSize = opts.pageSize ?? TRANSFER_CREDITS_PAGE_SIZE;
+  const page = Math.max(1, Math.floor(opts.page ?? 1));
+  const replacements = { school: user.schoolId, name: filter.name ? containsPattern(filter.name) : null };
+  const where = "c.school_id = :school AND (CAST(:name AS text) IS NULL OR sp.name ILIKE CAST(:name AS text))";
+  const [rows, [count]] = await Promise.all([
+    sequelize.query<TransferCredit>(`${SELECT} WHERE ${where} ORDER BY c.created_at DESC, c.id DESC LIMIT :limit OFFSET :offset`, {
+      replacements: { ...replacements, limit: pageSize, offset: (page - 1) * pageSize },
+      type: QueryTypes.SELECT,
+    }),
+    sequelize.query<{ n: number }>(
+      `SELECT count(*)::int AS n FROM transfer_credits c JOIN people sp ON sp.id = c.student_id WHERE ${where}`,
+      { replacements, type: QueryTypes.SELECT },
+    ),
+  ]);
+  return { rows, total: count?.n ?? 0, page, pageSize };
 }
 
 /** The evidence file of a credit of the caller's school; null when there is none. */
