@@ -1,7 +1,9 @@
 import { z } from "zod";
 import { calendarDate } from "@/lib/validation/dates";
+import { nameListQuerySchema } from "@/lib/records/schema";
 
-// The syllabus revision form's schema, shared by the editor and the server action.
+// The syllabus revision form's schema, shared by the editor and the server action; the query
+// string of the revisions page's enrolment list.
 
 const uuid = z.string().uuid();
 const code = z
@@ -36,3 +38,15 @@ export const syllabusRevisionSchema = z.object({
 export type SyllabusRevisionFormInput = z.input<typeof syllabusRevisionSchema>;
 
 export const moveEnrolmentSchema = z.object({ enrolmentId: uuid, revisionId: uuid });
+
+/**
+ * The query string of the Syllabus revisions page's enrolment list (the course is read on its
+ * own): a part of the student's name, one revision, the page; a bad one is refused naming it.
+ */
+export const enrolmentListQuerySchema = nameListQuerySchema
+  .extend({
+    revision: z.preprocess((v) => (v === "" ? undefined : v), z.string().uuid("must be a revision id").optional()),
+  })
+  .strict();
+
+export type EnrolmentListQuery = z.output<typeof enrolmentListQuerySchema>;

@@ -119,6 +119,12 @@ export const PAGES: CrawlPage[] = [
   },
   { name: "assignments-forbidden", path: "/assignments", roles: ["sponsor"], waitFor: "h1", status: 403 },
   { name: "syllabus-revisions", path: "/syllabus/revisions", roles: ["chief"], waitFor: "[data-testid=syllabus-revisions]" },
+  {
+    name: "syllabus-revisions-find",
+    path: "/syllabus/revisions?name=a&revision=not-an-id",
+    roles: ["chief"],
+    waitFor: "[aria-label='Find enrolments'] ~ [role=alert]",
+  },
   { name: "syllabus-revision-new", path: "/syllabus/revisions/new", roles: ["chief"], waitFor: "form" },
   // ---- records: oral checks, sign-offs, Progress map, Sign-off register ----
   { name: "records", path: "/records", roles: ["chief", "instructor"], waitFor: "[data-testid=record-student]" },
