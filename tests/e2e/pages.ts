@@ -219,6 +219,8 @@ export const PAGES: CrawlPage[] = [
   { name: "transfers-find", path: "/transfers?name=a", roles: ["chief"], waitFor: '[aria-label="Find a student\'s credits"]' },
   { name: "transfers-forbidden", path: "/transfers", roles: ["instructor", "student", "sponsor"], waitFor: "h1", status: 403 },
   { name: "retention", path: "/retention", roles: ["chief"], waitFor: "li[data-state=due]" },
+  { name: "retention-one-state", path: "/retention?state=due", roles: ["chief"], waitFor: "li[data-state=due]" },
+  { name: "retention-bad-state", path: "/retention?state=gone", roles: ["chief"], waitFor: "[role=alert]" },
   { name: "retention-forbidden", path: "/retention", roles: ["instructor", "student", "sponsor"], waitFor: "h1", status: 403 },
   // ---- people: invitations and roles ----
   { name: "people-accounts", path: "/people/accounts", roles: ["chief"], waitFor: "[data-testid=accounts-table] tbody tr" },

@@ -1,11 +1,15 @@
 import type { Metadata } from "next";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { retentionList, type RetentionRow } from "@/db/access/retention/records";
+import Link from "next/link";
+import { z } from "zod";
+import { LISTED_STATES, retentionOverview, type ListedState, type RetentionRow } from "@/db/access/retention/records";
 import { retentionSettingsFor } from "@/db/access/retention/settings";
 import { getSchool } from "@/db/access/shared/school";
 import { RETENTION_RULES } from "@/lib/retention/rules";
 import { RETENTION_STATE_WORDS, words } from "@/lib/labels";
 import { formatDay } from "@/lib/time";
+import { fieldLabel } from "@/lib/validation/messages";
+import { ListPageNav } from "@/components/student-pages";
 import { ArchiveButton, LiftHoldForm, RetentionSettingsForm, SetHoldForm } from "./_components/retention-forms";
 
 export const metadata: Metadata = { title: "Retention" };
@@ -51,14 +55,43 @@ function RecordCard({ r, tz }: { r: RetentionRow; tz: string }) {
   );
 }
 
-function Section({ title, rows, empty, id, tz }: { title: string; rows: RetentionRow[]; empty: string; id: string; tz: string }) {
+const SECTIONS: Record<ListedState, { title: string; empty: string }> = {
+  due: { title: "Ready to archive", empty: "No record is past its retention date." },
+  held: { title: "On legal hold", empty: "No record is on legal hold." },
+  kept: { title: "Kept", empty: "No record of a student who has left is within its retention period." },
+  archived: { title: "Archived", empty: "No record has been marked archived." },
+};
+
+// ?state= shows one section, 50 a page (?page=); without it each section names its first 20
+const querySchema = z
+  .object({
+    state: z.enum(LISTED_STATES, { message: `must be one of ${LISTED_STATES.join(", ")}` }).optional(),
+    page: z.coerce.number().int("must be a whole number").min(1, "must be 1 or more").max(100_000, "must be 100000 or less").optional(),
+  })
+  .strict();
+
+function Section({
+  state,
+  rows,
+  total,
+  tz,
+  alone,
+}: {
+  state: ListedState;
+  rows: RetentionRow[];
+  total: number;
+  tz: string;
+  /** the only section shown (paged), not one of the four */
+  alone: boolean;
+}) {
+  const { title, empty } = SECTIONS[state];
   return (
-    <section aria-labelledby={id} className="space-y-2">
-      <h2 id={id}>
-        {title} <span className="num text-ink-soft">({rows.length})</span>
+    <section aria-labelledby={state} className="space-y-2">
+      <h2 id={state}>
+        {title} <span className="num text-ink-soft">({total.toLocaleString("en-GB")})</span>
       </h2>
       {rows.length === 0 ? (
-        <p className="text-ink-soft">{empty}</p>
+        <p className="text-ink-soft">{total > 0 ? "No records on this page." : empty}</p>
       ) : (
         <ul className="space-y-2">
           {rows.map((r) => (
@@ -66,16 +99,30 @@ function Section({ title, rows, empty, id, tz }: { title: string; rows: Retentio
           ))}
         </ul>
       )}
+      {!alone && total > rows.length && (
+        <p>
+          <Link href={`/retention?state=${state}`}>
+            The first {rows.length} by name are shown: see all {total.toLocaleString("en-GB")} {title.toLowerCase()}
+          </Link>
+        </p>
+      )}
     </section>
   );
 }
 
-export default async function RetentionPage() {
+export default async function RetentionPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requirePagePermission("retention.manage", "/retention");
-  const { saved, ...settings } = await retentionSettingsFor(user.schoolId);
-  const { today, rows } = await retentionList(user);
-  const tz = (await getSchool(user.schoolId)).timeZone;
-  const of = (state: RetentionRow["state"]) => rows.filter((r) => r.state === state);
+  const raw = Object.fromEntries(Object.entries(await searchParams).filter(([, v]) => typeof v === "string" && v !== ""));
+  const parsed = querySchema.safeParse(raw);
+  const q = parsed.success ? parsed.data : {};
+  const problem = parsed.success ? null : (parsed.error.issues[0] ?? null);
+  const [{ saved, ...settings }, overview, school] = await Promise.all([
+    retentionSettingsFor(user.schoolId),
+    retentionOverview(user, { state: q.state, page: q.page }),
+    getSchool(user.schoolId),
+  ]);
+  const { today, counts, sections, state, page, pageSize } = overview;
+  const tz = school.timeZone;
   return (
     <div className="max-w-3xl space-y-6">
       <div>
@@ -87,16 +134,32 @@ export default async function RetentionPage() {
         </p>
       </div>
       <RetentionSettingsForm settings={settings} />
-      <Section tz={tz} id="due" title="Ready to archive" rows={of("due")} empty="No record is past its retention date." />
-      <Section tz={tz} id="held" title="On legal hold" rows={of("held")} empty="No record is on legal hold." />
-      <Section
-        tz={tz}
-        id="kept"
-        title="Kept"
-        rows={of("kept")}
-        empty="No record of a student who has left is within its retention period."
-      />
-      <Section tz={tz} id="archived" title="Archived" rows={of("archived")} empty="No record has been marked archived." />
+      {problem && (
+        <p role="alert" className="text-notyet-800">
+          {fieldLabel(problem.path)}: {problem.message}. Showing every section instead.
+        </p>
+      )}
+      {state ? (
+        <>
+          <p>
+            <Link href="/retention">All four sections</Link>
+          </p>
+          <ListPageNav
+            basePath="/retention"
+            pairs={[["state", state]]}
+            page={page}
+            pageSize={pageSize}
+            shown={sections[state].length}
+            total={counts[state]}
+            label={`${SECTIONS[state].title} pages`}
+            testId="retention-pages"
+            noun="Records"
+          />
+          <Section tz={tz} state={state} rows={sections[state]} total={counts[state]} alone />
+        </>
+      ) : (
+        LISTED_STATES.map((k) => <Section key={k} tz={tz} state={k} rows={sections[k]} total={counts[k]} alone={false} />)
+      )}
     </div>
   );
 }
