@@ -1,6 +1,7 @@
 import "server-only";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
+import { activeEnrolmentLateral } from "../shared/enrolment";
 import type { CurrentUser } from "@/lib/auth/session";
 import { can } from "@/lib/auth/can";
 import { HttpError } from "@/lib/http/errors";
@@ -32,7 +33,7 @@ async function readStudents(user: CurrentUser, purpose: StudentPickerPurpose, q:
   const rows = await sequelize.query<{ id: string; name: string; detail: string | null }>(
     `SELECT p.id, p.name, ${detail} AS detail
        FROM people p
-       ${rule.enrolledOnly ? "JOIN active_enrolments e ON e.student_id = p.id JOIN courses co ON co.id = e.course_id" : ""}
+       ${rule.enrolledOnly ? `JOIN ${activeEnrolmentLateral("p.id")} e ON true JOIN courses co ON co.id = e.course_id` : ""}
        ${rule.inLedCohort ? inCohort : ""}
       WHERE p.school_id = :school AND 'student' = ANY(p.roles) ${rule.activeOnly ? "AND p.active" : ""}
         ${rule.sponsoredOnly ? "AND EXISTS (SELECT 1 FROM sponsor_links l WHERE l.student_id = p.id)" : ""}

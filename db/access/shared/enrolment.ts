@@ -4,7 +4,18 @@ import { sequelize } from "../../index";
 
 // The student's active enrolment, read once here. "Active" is defined by the SQL view
 // `active_enrolments` (migration 0500): the newest active enrolment of each student. Queries
-// elsewhere that mean "the course this student is on now" join that view.
+// elsewhere that mean "the course this student is on now" join that view, or, in a list that
+// stops after a page, `activeEnrolmentLateral` (the same row, probed per student).
+
+/**
+ * The row `active_enrolments` gives for one student, as a LATERAL probe of the index
+ * enrolments_one_active: `JOIN ${activeEnrolmentLateral("p.id")} e ON true`. For lists read in
+ * name order up to a LIMIT (pickers, choices), where a join to the view (a DISTINCT ON over every
+ * active enrolment of every school) computes the whole view first: 24–36 ms at 10,000 students,
+ * against 1 ms walking people by name (index people_school_name_idx) and probing each.
+ */
+export const activeEnrolmentLateral = (studentColumn: string) =>
+  `LATERAL (SELECT ae.* FROM enrolments ae WHERE ae.student_id = ${studentColumn} AND ae.status = 'active' ORDER BY ae.enrolled_on DESC, ae.id LIMIT 1)`;
 
 export interface StudentRef {
   id: string;

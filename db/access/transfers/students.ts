@@ -1,6 +1,7 @@
 import "server-only";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
+import { activeEnrolmentLateral } from "../shared/enrolment";
 import type { CurrentUser } from "@/lib/auth/session";
 import { can } from "@/lib/auth/can";
 import { HttpError } from "@/lib/http/errors";
@@ -58,7 +59,7 @@ async function readStudents(user: CurrentUser, studentId: string | null, limit: 
     `SELECT p.id, p.name, co.code AS "courseCode", co.min_ground_minutes AS "minGroundMinutes", e.revision_id AS "revisionId",
             COALESCE((SELECT sum(credited_minutes) FROM transfer_credits c WHERE c.student_id = p.id AND c.course_id = e.course_id AND c.source_approved), 0)::int AS "creditedApproved",
             COALESCE((SELECT sum(credited_minutes) FROM transfer_credits c WHERE c.student_id = p.id AND c.course_id = e.course_id AND NOT c.source_approved), 0)::int AS "creditedNotApproved"
-       FROM people p JOIN active_enrolments e ON e.student_id = p.id JOIN courses co ON co.id = e.course_id
+       FROM people p JOIN ${activeEnrolmentLateral("p.id")} e ON true JOIN courses co ON co.id = e.course_id
       WHERE p.school_id = :school AND 'student' = ANY(p.roles) AND p.active AND (CAST(:id AS uuid) IS NULL OR p.id = CAST(:id AS uuid))
       ORDER BY p.name, p.id LIMIT :limit`,
     { replacements: { school: user.schoolId, id: studentId, limit }, type: QueryTypes.SELECT },
