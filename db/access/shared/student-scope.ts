@@ -21,35 +21,53 @@ let fragmentSeq = 0;
 /**
  * A WHERE fragment that is true for the students (ids in `column`) the caller may see for this
  * purpose, with its own named replacements (unique per call, so several may share a query).
+ * `probe`: the same rule asked per student (EXISTS … WHERE the student's id = `column`, an index
+ * probe each) instead of as sets read whole once (IN (…), hashed): for a query that stops after a
+ * few rows (a list's first page), whose cost must not grow with the number of students in scope.
  */
 export function studentScopeSql(
   caller: Caller,
   purpose: ScopePurpose,
   column: string,
+  opts: { probe?: boolean } = {},
 ): { sql: string; replacements: Record<string, unknown>; staffSql: string } {
   const scope = studentScopeFor(caller.roles, purpose);
   const k = `sc${++fragmentSeq % 1_000_000}`;
   const staff: string[] = [];
   const other: string[] = [];
-  const schoolStudents = `SELECT sp.id FROM people sp WHERE sp.school_id = :${k}School AND 'student' = ANY(sp.roles)`;
-  if (scope.school) staff.push(`${column} IN (${schoolStudents})`);
+  // among(id, from, where): `column` is one of the ids `id` of FROM … WHERE … (as a set or a probe)
+  const among = (id: string, from: string, where: string) =>
+    opts.probe
+      ? `EXISTS (SELECT 1 FROM ${from} WHERE ${id} = ${column} AND ${where})`
+      : `${column} IN (SELECT ${id} FROM ${from} WHERE ${where})`;
+  const schoolStudents = among("sp.id", "people sp", `sp.school_id = :${k}School AND 'student' = ANY(sp.roles)`);
+  if (scope.school) staff.push(schoolStudents);
   else if (scope.examiner)
     // a designated check instructor sees the school's students (read in SQL: no extra round trip)
     staff.push(
-      `(${column} IN (${schoolStudents}) AND EXISTS (SELECT 1 FROM instructor_qualifications_current q WHERE q.person_id = :${k}Uid AND q.check_instructor))`,
+      `(${schoolStudents} AND EXISTS (SELECT 1 FROM instructor_qualifications_current q WHERE q.person_id = :${k}Uid AND q.check_instructor))`,
     );
-  if (scope.taught)
+  if (scope.taught) {
+    const led = {
+      id: "m.student_id",
+      from: "cohort_memberships m JOIN cohorts c ON c.id = m.cohort_id",
+      where: `c.lead_instructor_id = :${k}Uid AND c.school_id = :${k}School`,
+    };
+    const attended = {
+      id: "a.student_id",
+      from: "session_attendees a JOIN training_sessions s ON s.id = a.session_id",
+      where: `s.instructor_id = :${k}Uid AND s.school_id = :${k}School`,
+    };
     staff.push(
-      `${column} IN (SELECT m.student_id FROM cohort_memberships m JOIN cohorts c ON c.id = m.cohort_id
-                      WHERE c.lead_instructor_id = :${k}Uid AND c.school_id = :${k}School
-                     UNION SELECT a.student_id FROM session_attendees a JOIN training_sessions s ON s.id = a.session_id
-                      WHERE s.instructor_id = :${k}Uid AND s.school_id = :${k}School)`,
+      opts.probe
+        ? `(${among(led.id, led.from, led.where)} OR ${among(attended.id, attended.from, attended.where)})`
+        : `${column} IN (SELECT ${led.id} FROM ${led.from} WHERE ${led.where}
+                     UNION SELECT ${attended.id} FROM ${attended.from} WHERE ${attended.where})`,
     );
+  }
   if (scope.own) other.push(`${column} = :${k}Uid`);
   if (scope.sponsored)
-    other.push(
-      `${column} IN (SELECT l.student_id FROM sponsor_links l WHERE l.sponsor_id = :${k}Uid${scope.sponsored.map((f) => ` AND l.${f}`).join("")})`,
-    );
+    other.push(among("l.student_id", "sponsor_links l", `l.sponsor_id = :${k}Uid${scope.sponsored.map((f) => ` AND l.${f}`).join("")}`));
   const staffSql = staff.length ? `(${staff.join(" OR ")})` : "FALSE";
   const all = [...staff, ...other];
   return {
