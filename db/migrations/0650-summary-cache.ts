@@ -16,6 +16,7 @@ import type { MigrationContext } from "../migrate";
 /** Tables whose writes never change a summary (queues, tokens, throttles, the cache itself). */
 export const NOT_RECORDS = [
   "audit_checkpoints",
+  "audit_walks",
   "idempotency_keys",
   "mail_deliveries",
   "mail_jobs",
