@@ -14,6 +14,9 @@ const schema = z.object({
   CHALKWING_MAIL_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
   /** off: only deliver (tests that look at delivery alone). */
   CHALKWING_MAIL_PRODUCERS: z.enum(["on", "off"]).default("on"),
+  /** The audit chain's full walk (same worker process): positions per batch, and how often asked-for walks are handed to the queue. */
+  CHALKWING_WALK_BATCH: z.coerce.number().int().min(1).max(1_000_000).default(5000),
+  CHALKWING_WALK_TICK_SECONDS: z.coerce.number().min(0.5).max(3600).default(2),
   /** Test hook: the worker process kills itself at this point of a delivery. */
   CHALKWING_MAIL_CRASH_AT: z.enum(["before-send", "after-accept", "after-commit"]).optional(),
 });

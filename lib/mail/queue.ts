@@ -2,6 +2,7 @@ import "server-only";
 import PgBoss from "pg-boss";
 import type { Transaction } from "@/db/access/mail/connection";
 import { handOverDueMail } from "@/db/access/mail/queue-handover";
+import { handOverWalks } from "@/db/access/records/audit-walks";
 import { env } from "@/lib/env";
 import type { MailConfig } from "./config";
 
@@ -10,6 +11,14 @@ export const BOSS_SCHEMA = "pgboss";
 
 export interface MailJob {
   outboxId: string;
+}
+
+/** The full walk of a school's audit chain (migration 0720 made the queue): one job per walk. */
+export const AUDIT_WALK_QUEUE = "audit.walk";
+export const AUDIT_WALK_RETRY_LIMIT = 3;
+
+export interface AuditWalkJob {
+  walkId: string;
 }
 
 /**
@@ -38,6 +47,14 @@ export async function startBoss(cfg: MailConfig): Promise<PgBoss> {
     retryBackoff: true,
     expireInSeconds: cfg.CHALKWING_MAIL_JOB_EXPIRE_SECONDS,
   });
+  await boss.createQueue(AUDIT_WALK_QUEUE, {
+    name: AUDIT_WALK_QUEUE,
+    policy: "standard",
+    retryLimit: AUDIT_WALK_RETRY_LIMIT,
+    retryDelay: 5,
+    retryBackoff: true,
+    expireInSeconds: 900,
+  });
   return boss;
 }
 
@@ -63,6 +80,24 @@ export async function moveDueToQueue(boss: PgBoss, at: Date, cfg: MailConfig): P
       expireInSeconds: cfg.CHALKWING_MAIL_JOB_EXPIRE_SECONDS,
     });
     if (!jobId) throw new Error("queue refused the job");
+    return jobId;
+  });
+}
+
+/**
+ * Hands the walks asked for on the chain page (queued or running, without a live job) to the
+ * `audit.walk` queue, each job written with the walk's job id in one transaction.
+ */
+export async function moveWalksToQueue(boss: PgBoss): Promise<number> {
+  return handOverWalks({ name: AUDIT_WALK_QUEUE, schema: BOSS_SCHEMA }, async (walkId, t) => {
+    const jobId = await boss.send(AUDIT_WALK_QUEUE, { walkId } satisfies AuditWalkJob, {
+      db: txDb(t),
+      retryLimit: AUDIT_WALK_RETRY_LIMIT,
+      retryDelay: 5,
+      retryBackoff: true,
+      expireInSeconds: 900,
+    });
+    if (!jobId) throw new Error("queue refused the walk");
     return jobId;
   });
 }

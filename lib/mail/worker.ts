@@ -1,13 +1,16 @@
-// The mail worker, run beside the web server by the start command (`tsx lib/mail/worker.ts`
+// The background worker, run beside the web server by the start command (`tsx lib/mail/worker.ts`
 // with the react-server condition). Each tick: the producers write what is due by the clock
 // (reminders, overdue reminders, Weekly letters) into the outbox, then due outbox rows move into
 // the pg-boss queue; the queue's handler sends each over SMTP (retries with backoff).
+// The same process walks the audit chain when a chief asks for a full walk: a shorter tick hands
+// asked-for walks (audit_walks) to the `audit.walk` queue, whose handler walks in batches.
 import type PgBoss from "pg-boss";
 import { closeDatabase } from "@/db/access/mail/connection";
 import { now } from "@/lib/clock";
 import { mailConfig } from "./config";
 import { deliverOutboxMail } from "./deliver";
-import { MAIL_QUEUE, moveDueToQueue, startBoss, type MailJob } from "./queue";
+import { failWalk, runWalk } from "@/db/access/records/audit-walks";
+import { AUDIT_WALK_QUEUE, MAIL_QUEUE, moveDueToQueue, moveWalksToQueue, startBoss, type AuditWalkJob, type MailJob } from "./queue";
 import { runDueWork } from "./producers";
 import { smtpTransport } from "./transport";
 
@@ -38,6 +41,41 @@ async function main() {
     );
   }
 
+  // The audit chain's full walk: one job at a time; progress is written to audit_walks after each
+  // batch, so a retried job (the worker died) goes on from the last batch.
+  await boss.work<AuditWalkJob>(
+    AUDIT_WALK_QUEUE,
+    { batchSize: 1, pollingIntervalSeconds: 1, includeMetadata: true },
+    async (jobs: PgBoss.JobWithMetadata<AuditWalkJob>[]) => {
+      for (const job of jobs) {
+        try {
+          const walk = await runWalk(job.data.walkId, { batchSize: cfg.CHALKWING_WALK_BATCH });
+          console.log(`[walk] ${job.data.walkId} ${walk ? `${walk.state}, ${walk.checked} of ${walk.total}` : "already ended"}`);
+        } catch (e) {
+          const reason = e instanceof Error ? e.message : String(e);
+          console.error(`[walk] ${job.data.walkId} failed: ${reason}`);
+          if (job.retryCount >= job.retryLimit) await failWalk(job.data.walkId, reason);
+          throw e;
+        }
+      }
+    },
+  );
+  let walkTicking = false;
+  const walkTick = async () => {
+    if (walkTicking || stopping) return;
+    walkTicking = true;
+    try {
+      const moved = await moveWalksToQueue(boss);
+      if (moved > 0) console.log(`[walk] queued ${moved} walk(s)`);
+    } catch (e) {
+      console.error("[walk] hand-over failed:", e instanceof Error ? e.message : e);
+    } finally {
+      walkTicking = false;
+    }
+  };
+  await walkTick();
+  const walkTimer = setInterval(() => void walkTick(), cfg.CHALKWING_WALK_TICK_SECONDS * 1000);
+
   let running = false;
   const tick = async () => {
     if (running || stopping) return;
@@ -66,6 +104,7 @@ async function main() {
     if (stopping) return;
     stopping = true;
     clearInterval(timer);
+    clearInterval(walkTimer);
     await boss.stop({ graceful: true, wait: true, timeout: 10_000 }).catch(() => undefined);
     transport.close();
     await closeDatabase().catch(() => undefined);

@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
 # Background services that run beside the web server: the local mail sink (an SMTP server on
-# 127.0.0.1 that stores what it receives) and the mail worker (producers, outbox → pg-boss → SMTP).
+# 127.0.0.1 that stores what it receives) and the background worker lib/mail/worker.ts (mail: producers,
+# outbox → pg-boss → SMTP; the audit chain's full walks asked for on the chain page).
 # start_services LOGDIR / stop_services; start_test_services RESULTS / stop_test_services.
 # The functions export SMTP_HOST/SMTP_PORT/MAIL_SINK_DIR, so the web server started after them
 # and the worker use the same SMTP settings. With SMTP_HOST set to a real host (not loopback),
