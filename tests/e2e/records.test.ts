@@ -122,6 +122,10 @@ describe("Records end to end", () => {
     expect(await chief.textContent("[data-testid=chain-result] h2")).toBe("The chain verifies");
     expect(await chief.textContent("[data-testid=chain-result]")).toContain(headInCsv!);
     await screenshot(chief, "records-e2e-chain-chief");
+    // a full walk is asked for and runs in the background worker; the page shows its progress and result
+    await chief.getByRole("button", { name: "Walk the whole chain now" }).click();
+    await chief.waitForSelector("[data-testid=full-walk][data-state=ok]", { timeout: 60_000 });
+    expect(await chief.textContent("[data-testid=walk-status]")).toMatch(/every link holds[\s\S]*Checked ([\d,]+) of \1 events/);
     await chief.goto("/today");
     await chief.waitForSelector("[data-testid=records-today]");
     expect(await chief.textContent("[data-testid=records-today]")).toContain("Verifies");

@@ -110,11 +110,15 @@ export async function listAuditEvents(schoolId: string, opts: { recordId?: strin
 /**
  * Verifies only the events written since the school's checkpoint (the last verified position and
  * head), then moves the checkpoint to the new head: three queries, whatever the chain's length.
- * A full walk from position 1 stays `verifyChain`, the deliberate act on the chain page.
+ * `since` is the checkpoint's position before this call and `sinceVerifiedAt` when it was set.
+ * A full walk from position 1 is the background walk (`audit-walks.ts`), the deliberate act on the
+ * chain page; `verifyChain` walks it in one call (the inspection pack, tests).
  */
-export async function verifyChainSinceCheckpoint(schoolId: string): Promise<ChainVerification & { since: number }> {
-  const [cp] = await sequelize.query<{ chain_pos: string; head_hash: string }>(
-    `SELECT chain_pos, head_hash FROM audit_checkpoints WHERE school_id = :schoolId`,
+export async function verifyChainSinceCheckpoint(
+  schoolId: string,
+): Promise<ChainVerification & { since: number; sinceVerifiedAt: Date | null }> {
+  const [cp] = await sequelize.query<{ chain_pos: string; head_hash: string; verified_at: Date }>(
+    `SELECT chain_pos, head_hash, verified_at FROM audit_checkpoints WHERE school_id = :schoolId`,
     { replacements: { schoolId }, type: QueryTypes.SELECT },
   );
   const since = cp ? Number(cp.chain_pos) : 0;
@@ -144,6 +148,7 @@ export async function verifyChainSinceCheckpoint(schoolId: string): Promise<Chai
     checked,
     headHash: r.head_hash,
     since,
+    sinceVerifiedAt: cp ? cp.verified_at : null,
     broken: r.ok ? null : { position: Number(r.broken_pos), seq: Number(r.broken_seq), id: r.broken_id ?? "", problem: r.problem ?? "" },
   };
 }

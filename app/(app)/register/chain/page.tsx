@@ -1,21 +1,22 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { verifyChain, listAuditEvents } from "@/db/access/records/audit-chain";
-import { getSchool } from "@/db/access/shared/school";
+import { chainPageData } from "@/db/access/records/chain-page";
 import { formatDayTime } from "@/lib/time";
 import { ScrollArea } from "@/components/ui/scroll-area";
+import { walkView } from "@/lib/records/audit-walk-view";
+import { FullWalk } from "./_components/full-walk";
 
 export const metadata: Metadata = { title: "Audit chain" };
 export const dynamic = "force-dynamic";
 
+const n = (x: number) => x.toLocaleString("en-GB");
+
 export default async function ChainPage() {
   const user = await requirePagePermission("audit.verify", "/register/chain");
-  const [v, events, school] = await Promise.all([
-    verifyChain(user.schoolId),
-    listAuditEvents(user.schoolId, { limit: 30 }),
-    getSchool(user.schoolId),
-  ]);
+  const { v, walk, events, school } = await chainPageData(user.schoolId);
+  const at = (d: Date) => formatDayTime(d, school.timeZone, { seconds: true });
+  const newer = v.checked - v.since;
   return (
     <div className="space-y-6">
       <header>
@@ -37,12 +38,20 @@ export default async function ChainPage() {
       >
         <h2 id="result">{v.ok ? "The chain verifies" : "The chain is broken"}</h2>
         <p>
+          {v.since === 0
+            ? "Checked on opening this page: every event from position 1 (no earlier check was on file)."
+            : v.ok && newer === 0
+              ? `Checked on opening this page: no event was written since the last check (position ${n(v.since)}, ${at(v.sinceVerifiedAt!)}).`
+              : `Checked on opening this page: the events after position ${n(v.since)}, written since the last check of ${at(v.sinceVerifiedAt!)}. Positions 1 to ${n(v.since)} were verified then and are re-checked only by a full walk.`}
+        </p>
+        <p>
           {v.ok
-            ? `All ${v.checked} events link up.`
-            : `${v.checked} events link up; the first broken link is at position ${v.broken?.position}: ${v.broken?.problem}.`}
+            ? `Positions 1 to ${n(v.checked)} verify; the checkpoint now stands at position ${n(v.checked)}.`
+            : `Positions up to ${n(v.checked)} link up; the first broken link is at position ${n(v.broken?.position ?? 0)}: ${v.broken?.problem}. The checkpoint stays at position ${n(v.since)}.`}
         </p>
         <p className="num break-all text-caption">Head hash {v.headHash}</p>
       </section>
+      <FullWalk initial={walk ? walkView(walk) : null} timeZone={school.timeZone} />
       <section className="card" aria-labelledby="latest">
         <h2 id="latest">Latest events</h2>
         <ScrollArea label="Latest audit events" className="mt-2">

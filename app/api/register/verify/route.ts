@@ -1,9 +1,23 @@
-// GET /api/register/verify: walks the school's audit hash chain in the database and reports the first broken link.
+// GET /api/register/verify: the audit hash chain verified from the school's checkpoint (the events written since the last verified position are walked now and the checkpoint moves to the head) plus the latest full walk; a GET never walks the whole chain (ask for a full walk on the chain page, /register/chain).
 import { NextResponse } from "next/server";
 import { route } from "@/lib/http/api";
-import { verifyChain } from "@/db/access/records/audit-chain";
+import { verifyChainSinceCheckpoint } from "@/db/access/records/audit-chain";
+import { latestWalk } from "@/db/access/records/audit-walks";
+import { walkView } from "@/lib/records/audit-walk-view";
 
 export const GET = route("audit.verify", async ({ user }) => {
-  const v = await verifyChain(user.schoolId);
-  return NextResponse.json(v, { headers: { "Cache-Control": "no-store" } });
+  const v = await verifyChainSinceCheckpoint(user.schoolId);
+  const walk = await latestWalk(user.schoolId);
+  return NextResponse.json(
+    {
+      ok: v.ok,
+      checked: v.checked,
+      headHash: v.headHash,
+      broken: v.broken,
+      since: v.since,
+      sinceVerifiedAt: v.sinceVerifiedAt?.toISOString() ?? null,
+      latestWalk: walk ? walkView(walk) : null,
+    },
+    { headers: { "Cache-Control": "no-store" } },
+  );
 });

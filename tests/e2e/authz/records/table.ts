@@ -280,12 +280,55 @@ export const RECORDS_TABLE: AuthzTable = {
   },
 
   "GET /api/register/verify": {
+    // the checkpoint verification (never a walk of the whole chain) and the latest full walk
     expect: {
       signedOut: 401,
-      chief: { status: 200, check: (res) => expect(res.json).toMatchObject({ ok: true, broken: null }) },
+      chief: {
+        status: 200,
+        check: (res) => {
+          expect(res.json).toMatchObject({ ok: true, broken: null });
+          expect(res.json).toHaveProperty("latestWalk");
+          expect(res.headers.get("cache-control")).toContain("no-store");
+        },
+      },
       instructor: 403,
       student: 403,
       sponsor: 403,
     },
+  },
+
+  "GET /api/register/walks/latest": {
+    expect: {
+      signedOut: 401,
+      chief: {
+        status: 200,
+        check: (res) => {
+          expect(res.json).toHaveProperty("walk");
+          expect(res.headers.get("cache-control")).toContain("no-store");
+        },
+      },
+      instructor: 403,
+      student: 403,
+      sponsor: 403,
+    },
+  },
+
+  "action app/(app)/register/chain/actions.ts#startWalkAction": {
+    request: () => ({ args: [{}] }),
+    expect: {
+      signedOut: 401,
+      chief: {
+        status: 200,
+        check: (res) => {
+          const walk = (okData(res) as { walk: { state: string; total: number } }).walk;
+          expect(["queued", "running", "ok"]).toContain(walk.state);
+          expect(walk.total).toBeGreaterThan(0);
+        },
+      },
+      instructor: 403,
+      student: 403,
+      sponsor: 403,
+    },
+    mutates: true,
   },
 };

@@ -1,0 +1,20 @@
+import "server-only";
+import { verifyChainSinceCheckpoint, listAuditEvents } from "./audit-chain";
+import { latestWalk } from "./audit-walks";
+import { getSchool } from "../shared/school";
+
+/**
+ * What a visit of the chain page reads: the events written since the checkpoint are checked now
+ * (the checkpoint moves to the head when they link up), the latest full walk is read from
+ * audit_walks, and the newest 30 events. Never a walk of the whole chain: that is asked for with
+ * the page's button and runs in the background worker (audit-walks.ts).
+ */
+export async function chainPageData(schoolId: string) {
+  const [v, walk, events, school] = await Promise.all([
+    verifyChainSinceCheckpoint(schoolId),
+    latestWalk(schoolId),
+    listAuditEvents(schoolId, { limit: 30 }),
+    getSchool(schoolId),
+  ]);
+  return { v, walk, events, school };
+}
