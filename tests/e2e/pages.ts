@@ -111,6 +111,7 @@ export const PAGES: CrawlPage[] = [
   { name: "briefing-edit", path: (fx) => `/briefings/${fx.briefingVmd}/edit`, roles: ["chief", "instructor"], waitFor: "form" },
   { name: "briefings-forbidden", path: "/briefings", roles: ["sponsor"], waitFor: "h1", status: 403 },
   { name: "assignments", path: "/assignments", roles: ["chief", "instructor", "student"], waitFor: "main h1" },
+  { name: "assignments-bad-page", path: "/assignments?page=0", roles: ["chief"], waitFor: "#h-set ~ [role=alert]" },
   {
     name: "assignment",
     path: (fx) => `/assignments/${fx.assignmentVmdKestrel}`,

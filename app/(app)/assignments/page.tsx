@@ -3,7 +3,7 @@ import Link from "next/link";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { getCurrentUser } from "@/lib/auth/session";
 import { assignmentChoices } from "@/db/access/assignments/choices";
-import { listAssignmentsForStaff } from "@/db/access/assignments/staff-assignments";
+import { staffAssignmentsPage } from "@/db/access/assignments/staff-assignments";
 import { listAssignmentsForStudent } from "@/db/access/assignments/student-assignments";
 import { schoolToday } from "@/db/access/assignments/school-today";
 import { uuidParam } from "@/lib/http/api";
@@ -12,6 +12,8 @@ import { DoneToggle } from "./_components/done-toggle";
 import { StatusBadge } from "./_components/status-badge";
 import { formatDueOn } from "./_components/format";
 import { WideTable } from "@/components/ui/wide-table";
+import { ListPageNav } from "@/components/student-pages";
+import { nameListQuerySchema } from "@/lib/records/schema";
 
 export const metadata: Metadata = { title: "Assignments" };
 export const dynamic = "force-dynamic";
@@ -24,11 +26,19 @@ export default async function AssignmentsPage({ searchParams }: { searchParams: 
     "/assignments",
   );
   const today = await schoolToday(user.schoolId);
-  const briefingParam = (await searchParams).briefing;
+  const params = await searchParams;
+  const briefingParam = params.briefing;
   const initialBriefingId = typeof briefingParam === "string" && uuidParam.safeParse(briefingParam).success ? briefingParam : undefined;
 
   if (can(user, "assignments.manage")) {
-    const [rows, choices] = await Promise.all([listAssignmentsForStaff(user), assignmentChoices(user)]);
+    // "Set so far" a page at a time (?page=): a school sets assignments every week
+    const pageParsed = nameListQuerySchema
+      .pick({ page: true })
+      .safeParse({ page: typeof params.page === "string" ? params.page : undefined });
+    const [{ rows, total, page, pageSize }, choices] = await Promise.all([
+      staffAssignmentsPage(user, { page: pageParsed.success ? (pageParsed.data.page ?? 1) : 1 }),
+      assignmentChoices(user),
+    ]);
     return (
       <div className="space-y-6">
         <h1 className="text-display">Assignments</h1>
@@ -40,8 +50,27 @@ export default async function AssignmentsPage({ searchParams }: { searchParams: 
         </section>
         <section className="card" aria-labelledby="h-set">
           <h2 id="h-set">Set so far</h2>
+          <p className="text-caption text-ink-soft">Newest due date first, 50 a page.</p>
+          {!pageParsed.success && (
+            <p role="alert" className="mt-2 text-notyet-800">
+              Page: {pageParsed.error.issues[0]?.message}. Showing the first page instead.
+            </p>
+          )}
+          <div className="mt-2">
+            <ListPageNav
+              basePath="/assignments"
+              pairs={[]}
+              page={page}
+              pageSize={pageSize}
+              shown={rows.length}
+              total={total}
+              label="Assignments pages"
+              testId="assignments-pages"
+              noun="Assignments"
+            />
+          </div>
           {rows.length === 0 ? (
-            <p className="mt-2 text-ink-soft">Nothing assigned yet.</p>
+            <p className="mt-2 text-ink-soft">{page > 1 ? `No assignments on page ${page}.` : "Nothing assigned yet."}</p>
           ) : (
             <div className="mt-2">
               <WideTable label="Assignments table (scrolls sideways on small screens)" more={3}>
