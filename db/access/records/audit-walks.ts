@@ -151,7 +151,8 @@ export interface WalkOptions {
  * position is in one batch; each batch starts at the last position verified (not the range's end),
  * so a position missing at a boundary is found by the next batch. The rows ending below the
  * captured head is a missing row. The walk passes the checkpoint's position and compares the hash
- * there with the one the checkpoint kept (a rewritten chain would otherwise walk clean).
+ * there with the one the checkpoint kept (a rewritten chain would otherwise walk clean). A walk that
+ * ends ok moves the checkpoint up to its head when it stood lower (or was not set).
  * Returns the walk as it ended, or null when it is not queued or running (already ended).
  */
 export async function runWalk(walkId: string, opts: WalkOptions): Promise<AuditWalk | null> {
@@ -235,6 +236,14 @@ export async function runWalk(walkId: string, opts: WalkOptions): Promise<AuditW
       },
     },
   );
+  if (!broken && checked > 0)
+    // a walk that ended ok has verified up to its head: the checkpoint may stand there (never moves back)
+    await sequelize.query(
+      `INSERT INTO audit_checkpoints (school_id, chain_pos, head_hash, verified_at) VALUES (:schoolId, :pos, :hash, :at)
+       ON CONFLICT (school_id) DO UPDATE SET chain_pos = EXCLUDED.chain_pos, head_hash = EXCLUDED.head_hash, verified_at = EXCLUDED.verified_at
+        WHERE audit_checkpoints.chain_pos < EXCLUDED.chain_pos`,
+      { replacements: { schoolId: w.school_id, pos: checked, hash, at: now() } },
+    );
   return walkById(walkId);
 }
 

@@ -34,6 +34,10 @@ export const FINGERPRINT_ROW: Record<string, { expr: string; where?: string; rea
     reason:
       "the mail worker updates state, attempts and sent_at, and its clock-driven producers add reminders, overdue reminders and Weekly letters",
   },
+  "public.audit_walks": {
+    expr: "(x.id, x.school_id, x.requested_by, x.requested_at, x.total, x.checkpoint_pos, x.checkpoint_hash)",
+    reason: "the background worker writes a full walk's job id, progress and result after the chief asked for it (migration 0720)",
+  },
 };
 /** Schemas left out: pg-boss keeps its job queue in its own schema, which a background worker changes. */
 const SCHEMA_EXCLUDE = ["pg_catalog", "information_schema", "pg_toast", "pgboss"];

@@ -77,6 +77,8 @@ describe("a full walk in batches", () => {
     // the same answer as the one-call walk
     expect(await verifyChain(s.school.id)).toMatchObject({ ok: true, checked: ended.checked });
     expect(await latestWalk(s.school.id)).toMatchObject({ id: ended.id, state: "ok" });
+    // the walk left the checkpoint at its head: the next page visit checks nothing again
+    expect(await verifyChainSinceCheckpoint(s.school.id)).toMatchObject({ ok: true, since: EVENTS, checked: EVENTS });
   });
 
   it.each([
