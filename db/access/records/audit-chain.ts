@@ -109,19 +109,26 @@ export async function listAuditEvents(schoolId: string, opts: { recordId?: strin
 
 /**
  * Verifies only the events written since the school's checkpoint (the last verified position and
- * head), then moves the checkpoint to the new head: three queries, whatever the chain's length.
+ * head), then moves the checkpoint to where it got: three queries, whatever the chain's length.
  * `since` is the checkpoint's position before this call and `sinceVerifiedAt` when it was set.
+ * With `maxEvents`, at most that many positions after the checkpoint are walked (a page's GET stays
+ * bounded even when no checkpoint was set yet, or a great many events came since); `unchecked` is
+ * how many events after the checked position are left for the next call or a full walk.
  * A full walk from position 1 is the background walk (`audit-walks.ts`), the deliberate act on the
  * chain page; `verifyChain` walks it in one call (the inspection pack, tests).
  */
 export async function verifyChainSinceCheckpoint(
   schoolId: string,
-): Promise<ChainVerification & { since: number; sinceVerifiedAt: Date | null }> {
+  opts: { maxEvents?: number } = {},
+): Promise<ChainVerification & { since: number; sinceVerifiedAt: Date | null; unchecked: number }> {
   const [cp] = await sequelize.query<{ chain_pos: string; head_hash: string; verified_at: Date }>(
     `SELECT chain_pos, head_hash, verified_at FROM audit_checkpoints WHERE school_id = :schoolId`,
     { replacements: { schoolId }, type: QueryTypes.SELECT },
   );
   const since = cp ? Number(cp.chain_pos) : 0;
+  const hash = cp?.head_hash ?? "0".repeat(64);
+  const bounded = opts.maxEvents !== undefined;
+  if (bounded && (!Number.isInteger(opts.maxEvents) || opts.maxEvents! < 1)) throw new Error("maxEvents: a whole number from 1");
   const [r] = await sequelize.query<{
     ok: boolean;
     checked: string;
@@ -130,10 +137,14 @@ export async function verifyChainSinceCheckpoint(
     broken_seq: string | null;
     broken_id: string | null;
     problem: string | null;
-  }>(`SELECT * FROM audit_verify_from(:schoolId, :since, :hash)`, {
-    replacements: { schoolId, since, hash: cp?.head_hash ?? "0".repeat(64) },
-    type: QueryTypes.SELECT,
-  });
+    head_pos: string | null;
+  }>(
+    bounded
+      ? `SELECT r.*, (SELECT max(chain_pos) FROM audit_events WHERE school_id = :schoolId) AS head_pos
+           FROM audit_verify_range(:schoolId, :since, :hash, :to) r`
+      : `SELECT *, NULL AS head_pos FROM audit_verify_from(:schoolId, :since, :hash)`,
+    { replacements: { schoolId, since, hash, to: since + (opts.maxEvents ?? 0) }, type: QueryTypes.SELECT },
+  );
   if (!r) throw new Error("audit_verify_from returned nothing");
   const checked = Number(r.checked);
   if (r.ok)
@@ -149,6 +160,7 @@ export async function verifyChainSinceCheckpoint(
     headHash: r.head_hash,
     since,
     sinceVerifiedAt: cp ? cp.verified_at : null,
+    unchecked: r.ok && r.head_pos !== null ? Math.max(0, Number(r.head_pos) - checked) : 0,
     broken: r.ok ? null : { position: Number(r.broken_pos), seq: Number(r.broken_seq), id: r.broken_id ?? "", problem: r.problem ?? "" },
   };
 }

@@ -5,7 +5,7 @@ import { sequelize } from "@/db/index";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
 import { verifyChain, verifyChainSinceCheckpoint } from "@/db/access/records/audit-chain";
 import { latestWalk, runWalk, startWalk, walkById } from "@/db/access/records/audit-walks";
-import { chainPageData } from "@/db/access/records/chain-page";
+import { CHAIN_PAGE_CHECK_LIMIT, chainPageData } from "@/db/access/records/chain-page";
 
 // The full walk of the audit chain in batches (migration 0720, db/access/records/audit-walks.ts),
 // against chains of a few thousand events written by the database's own chain trigger. The owner
@@ -259,6 +259,26 @@ describe("asking for a walk", () => {
 });
 
 describe("the chain page's reads", () => {
+  /** The positions walked by each audit_verify* call `work` sends, and whether it sent a walk without an upper bound. */
+  async function walksOf<T>(work: () => Promise<T>) {
+    const spy = jest.spyOn(sequelize, "query");
+    try {
+      const value = await work();
+      const calls = spy.mock.calls.map((c) => ({
+        sql: String(c[0]),
+        r: (c[1] as { replacements?: Record<string, unknown> })?.replacements,
+      }));
+      return {
+        value,
+        queries: calls.length,
+        unbounded: calls.filter((c) => /audit_verify(_from)?\(/.test(c.sql)).length,
+        ranges: calls.filter((c) => /audit_verify_range\(/.test(c.sql)).map((c) => Number(c.r!.to) - Number(c.r!.since)),
+      };
+    } finally {
+      spy.mockRestore();
+    }
+  }
+
   it("check only the events since the checkpoint and read the latest walk: no walk of the whole chain", async () => {
     const s = await chainOf();
     await verifyChainSinceCheckpoint(s.school.id); // an earlier visit left the checkpoint at the head
@@ -267,20 +287,26 @@ describe("the chain page's reads", () => {
        SELECT :s, '{}', 'test.later', 'test', gen_random_uuid(), now(), 0, '', '', 0 FROM generate_series(1, 5)`,
       { replacements: { s: s.school.id } },
     );
-    const spy = jest.spyOn(sequelize, "query");
-    try {
-      const value = await chainPageData(s.school.id);
-      const queries = spy.mock.calls.length;
-      const texts = spy.mock.calls.map((c) => String(c[0]));
-      expect(texts.some((q) => /audit_verify\(/.test(q))).toBe(false);
-      expect(texts.some((q) => /audit_verify_range\(/.test(q))).toBe(false);
-      expect(texts.filter((q) => /audit_verify_from\(/.test(q))).toHaveLength(1);
-      expect(queries).toBeLessThanOrEqual(6);
-      // what was checked now: the five events after the checkpoint
-      expect(value.v).toMatchObject({ ok: true, since: EVENTS, checked: EVENTS + 5 });
-      expect(value.walk).toBeNull();
-    } finally {
-      spy.mockRestore();
-    }
+    const { value, queries, unbounded, ranges } = await walksOf(() => chainPageData(s.school.id));
+    expect(unbounded).toBe(0);
+    expect(ranges).toEqual([CHAIN_PAGE_CHECK_LIMIT]);
+    expect(queries).toBeLessThanOrEqual(6);
+    // what was checked now: the five events after the checkpoint
+    expect(value.v).toMatchObject({ ok: true, since: EVENTS, checked: EVENTS + 5, unchecked: 0 });
+    expect(value.walk).toBeNull();
+  });
+
+  it("with no checkpoint yet, or more new events than a visit checks, a visit checks a bounded part and says what is left", async () => {
+    const s = await chainOf();
+    const first = await walksOf(() => chainPageData(s.school.id, { maxEvents: 1000 }));
+    expect(first.unbounded).toBe(0);
+    expect(first.ranges).toEqual([1000]);
+    expect(first.value.v).toMatchObject({ ok: true, since: 0, checked: 1000, unchecked: EVENTS - 1000 });
+    const second = await chainPageData(s.school.id, { maxEvents: 1000 });
+    expect(second.v).toMatchObject({ ok: true, since: 1000, checked: 2000, unchecked: EVENTS - 2000 });
+    // a full walk asked for meanwhile reads as such on the next visit
+    const { walk: asked } = await askForWalk(s);
+    const third = await chainPageData(s.school.id, { maxEvents: 1000 });
+    expect(third.walk).toMatchObject({ id: asked.id, state: "queued", total: EVENTS });
   });
 });

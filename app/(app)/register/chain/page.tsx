@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { chainPageData } from "@/db/access/records/chain-page";
+import { CHAIN_PAGE_CHECK_LIMIT, chainPageData } from "@/db/access/records/chain-page";
 import { formatDayTime } from "@/lib/time";
 import { ScrollArea } from "@/components/ui/scroll-area";
 import { walkView } from "@/lib/records/audit-walk-view";
@@ -36,19 +36,26 @@ export default async function ChainPage() {
         aria-labelledby="result"
         data-testid="chain-result"
       >
-        <h2 id="result">{v.ok ? "The chain verifies" : "The chain is broken"}</h2>
+        <h2 id="result">
+          {v.ok ? (v.unchecked > 0 ? "The chain verifies as far as checked" : "The chain verifies") : "The chain is broken"}
+        </h2>
         <p>
-          {v.since === 0
-            ? "Checked on opening this page: every event from position 1 (no earlier check was on file)."
-            : v.ok && newer === 0
-              ? `Checked on opening this page: no event was written since the last check (position ${n(v.since)}, ${at(v.sinceVerifiedAt!)}).`
-              : `Checked on opening this page: the events after position ${n(v.since)}, written since the last check of ${at(v.sinceVerifiedAt!)}. Positions 1 to ${n(v.since)} were verified then and are re-checked only by a full walk.`}
+          {v.ok && newer === 0 && v.since > 0
+            ? `Checked on opening this page: no event was written since the last check (position ${n(v.since)}, ${at(v.sinceVerifiedAt!)}).`
+            : v.since === 0
+              ? "Checked on opening this page: the events from position 1 (no earlier check was on file)."
+              : `Checked on opening this page: the events after position ${n(v.since)}, written since the last check of ${at(v.sinceVerifiedAt!)}. Positions 1 to ${n(v.since)} were verified then and are checked again only by a full walk.`}
         </p>
         <p>
           {v.ok
             ? `Positions 1 to ${n(v.checked)} verify; the checkpoint now stands at position ${n(v.checked)}.`
             : `Positions up to ${n(v.checked)} link up; the first broken link is at position ${n(v.broken?.position ?? 0)}: ${v.broken?.problem}. The checkpoint stays at position ${n(v.since)}.`}
         </p>
+        {v.unchecked > 0 && (
+          <p>
+            {`${n(v.unchecked)} later events are not checked yet: each visit checks up to ${n(CHAIN_PAGE_CHECK_LIMIT)} more, and a full walk checks them all.`}
+          </p>
+        )}
         <p className="num break-all text-caption">Head hash {v.headHash}</p>
       </section>
       <FullWalk initial={walk ? walkView(walk) : null} timeZone={school.timeZone} />
