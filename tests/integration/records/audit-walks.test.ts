@@ -4,7 +4,7 @@ import pg from "pg";
 import { sequelize } from "@/db/index";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
 import { verifyChain, verifyChainSinceCheckpoint } from "@/db/access/records/audit-chain";
-import { latestWalk, runWalk, startWalk, walkById } from "@/db/access/records/audit-walks";
+import { failWalk, handOverWalks, latestWalk, runWalk, startWalk, walkById } from "@/db/access/records/audit-walks";
 import { CHAIN_PAGE_CHECK_LIMIT, chainPageData } from "@/db/access/records/chain-page";
 
 // The full walk of the audit chain in batches (migration 0720, db/access/records/audit-walks.ts),
@@ -255,6 +255,52 @@ describe("asking for a walk", () => {
     expect(wb.started).toBe(true);
     expect(wb.walk.id).not.toBe(wa.walk.id);
     expect((await latestWalk(b.school.id))!.id).toBe(wb.walk.id);
+  });
+});
+
+describe("handing walks to the queue", () => {
+  const queue = { name: "audit.walk", schema: "pgboss" };
+  /** The worker's enqueue, as pg-boss writes it: a job row in the queue's table, in the hand-over's transaction. */
+  const handed: string[] = [];
+  const enqueue = async (walkId: string, t: import("sequelize").Transaction) => {
+    handed.push(walkId);
+    const [row] = await sequelize.query<{ id: string }>(
+      `INSERT INTO pgboss.job (name, data) VALUES ('audit.walk', CAST(:data AS jsonb)) RETURNING id`,
+      { replacements: { data: JSON.stringify({ walkId }) }, type: QueryTypes.SELECT, transaction: t },
+    );
+    return row!.id;
+  };
+
+  it("a walk gets one live job; a job that ended without finishing the walk is replaced; an ended walk is not handed again", async () => {
+    const s = await chainOf(10);
+    const { walk } = await askForWalk(s);
+    await handOverWalks(queue, enqueue);
+    expect(handed.filter((id) => id === walk.id)).toHaveLength(1);
+    const [marked] = await sequelize.query<{ job_id: string }>(`SELECT job_id FROM audit_walks WHERE id = :id`, {
+      replacements: { id: walk.id },
+      type: QueryTypes.SELECT,
+    });
+    const jobId = marked!.job_id;
+    expect(jobId).toMatch(/^[0-9a-f-]{36}$/);
+    await handOverWalks(queue, enqueue);
+    expect(handed.filter((id) => id === walk.id)).toHaveLength(1);
+    // the worker died and the retries ran out: the job failed, the walk is still queued
+    await owner.query(`UPDATE pgboss.job SET state = 'failed' WHERE name = 'audit.walk' AND id = :id`, { replacements: { id: jobId } });
+    await handOverWalks(queue, enqueue);
+    expect(handed.filter((id) => id === walk.id)).toHaveLength(2);
+    await runWalk(walk.id, { batchSize: 100 });
+    await handOverWalks(queue, enqueue);
+    expect(handed.filter((id) => id === walk.id)).toHaveLength(2);
+  });
+
+  it("a walk whose last retry failed ends as failed, with the reason, and the school may ask again", async () => {
+    const s = await chainOf(10);
+    const { walk } = await askForWalk(s);
+    await failWalk(walk.id, "connection terminated");
+    expect(await walkById(walk.id)).toMatchObject({ state: "failed", failure: "connection terminated", broken: null });
+    expect(await runWalk(walk.id, { batchSize: 100 })).toBeNull();
+    const again = await askForWalk(s);
+    expect(again.started).toBe(true);
   });
 });
 
