@@ -58,10 +58,12 @@ export async function RecordsToday({ user }: { user: CurrentUser }) {
         <div>
           <h3 className="font-semibold">Audit chain</h3>
           <p className={chain.ok ? "font-semibold text-solid-800" : "font-semibold text-notyet-800"}>
-            {chain.ok ? `Verifies (${chain.checked} events)` : `Broken at position ${chain.broken?.position}`}
+            {chain.ok
+              ? `Verifies (${chain.checked} events${chain.unchecked > 0 ? `; ${chain.unchecked} later events not checked yet` : ""})`
+              : `Broken at position ${chain.broken?.position}`}
           </p>
           <Link href="/register/chain" className="text-caption underline">
-            Verify now
+            Check the chain
           </Link>
         </div>
       </div>
