@@ -1,6 +1,7 @@
 import Link from "next/link";
 import type { ReactNode } from "react";
 import { COHORT_CHOICES_MAX } from "@/lib/records/schema";
+import { fieldLabel } from "@/lib/validation/messages";
 
 // The UI pieces of a paged student list (Records, Progress map, Ground log): the filter form
 // (a part of the name, a cohort: chosen from a list, or a part of its name when the school has
@@ -221,5 +222,26 @@ export function NameFilterForm({
         </Link>
       )}
     </form>
+  );
+}
+
+/**
+ * A list's query string that did not parse: the field and what is wrong with it, and what the page
+ * shows instead (e.g. "every student"), announced to screen readers.
+ */
+export function QueryProblem({
+  problem,
+  instead,
+  className = "",
+}: {
+  problem: { path: PropertyKey[]; message: string } | null;
+  instead: string;
+  className?: string;
+}) {
+  if (!problem) return null;
+  return (
+    <p role="alert" className={`${className} text-notyet-800`.trim()}>
+      {fieldLabel(problem.path)}: {problem.message}. Showing {instead} instead.
+    </p>
   );
 }

@@ -3,9 +3,8 @@ import { requirePagePermission } from "@/lib/auth/guard";
 import { cohortsOverview } from "@/db/access/cohorts/cohorts-overview";
 import { getSchool } from "@/db/access/shared/school";
 import { parseNameListQuery } from "@/lib/records/student-list-query";
-import { fieldLabel } from "@/lib/validation/messages";
 import { dateInZone } from "@/lib/time";
-import { ListPageNav, NameFilterForm } from "@/components/student-pages";
+import { ListPageNav, NameFilterForm, QueryProblem } from "@/components/student-pages";
 import { CohortsManager } from "./_components/cohorts-manager";
 
 export const metadata: Metadata = { title: "Cohorts" };
@@ -27,11 +26,7 @@ export default async function CohortsPage({ searchParams }: { searchParams: Prom
         </p>
       </div>
       <NameFilterForm basePath="/cohorts" name={q.name} idPrefix="cohorts" label="Find a cohort" />
-      {problem && (
-        <p role="alert" className="text-notyet-800">
-          {fieldLabel(problem.path)}: {problem.message}. Showing every cohort instead.
-        </p>
-      )}
+      <QueryProblem problem={problem} instead="every cohort" />
       {data.cohorts.length === 0 && (
         <p className="text-ink-soft">{page > 1 ? `No cohorts on page ${page}.` : q.name ? "No cohort matches." : "No cohorts yet."}</p>
       )}

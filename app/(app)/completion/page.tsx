@@ -6,8 +6,7 @@ import { END_KIND_WORDS } from "@/lib/completion/statements";
 import { DataTable } from "@/components/ui/data-table";
 import { formatDay } from "@/lib/time";
 import { parseStudentListQuery } from "@/lib/records/student-list-query";
-import { fieldLabel } from "@/lib/validation/messages";
-import { StudentFilterForm, StudentPageNav, isFiltered, noStudentsWords } from "@/components/student-pages";
+import { StudentFilterForm, StudentPageNav, isFiltered, noStudentsWords, QueryProblem } from "@/components/student-pages";
 
 export const metadata: Metadata = { title: "End of training" };
 export const dynamic = "force-dynamic";
@@ -32,11 +31,7 @@ export default async function CompletionPage({ searchParams }: { searchParams: P
             <StudentFilterForm basePath="/completion" q={q} cohorts={cohorts} idPrefix="completion" bare />
           </div>
         )}
-        {problem && (
-          <p role="alert" className="mt-2 text-notyet-800">
-            {fieldLabel(problem.path)}: {problem.message}. Showing every student instead.
-          </p>
-        )}
+        <QueryProblem problem={problem} instead="every student" className="mt-2" />
         {inTraining.length === 0 ? (
           <p className="mt-2 text-ink-soft">{noStudentsWords(q, page, "Nobody is in training.")}</p>
         ) : (

@@ -3,8 +3,7 @@ import Link from "next/link";
 import { can, requirePagePermission } from "@/lib/auth/guard";
 import { awaitingEndorsements, endorsableStudents, endorsementLogPage, openRemedials } from "@/db/access/endorsements/log";
 import { parseNameListQuery } from "@/lib/records/student-list-query";
-import { fieldLabel } from "@/lib/validation/messages";
-import { ListPageNav, NameFilterForm } from "@/components/student-pages";
+import { ListPageNav, NameFilterForm, QueryProblem } from "@/components/student-pages";
 import { formatDay } from "@/lib/time";
 import { ScrollArea } from "@/components/ui/scroll-area";
 import { EndorsementForms } from "./_components/endorsement-forms";
@@ -55,11 +54,7 @@ export default async function EndorsementsPage({ searchParams }: { searchParams:
           label="Find a student's endorsements"
           fieldLabel="Student's name contains"
         />
-        {problem && (
-          <p role="alert" className="text-notyet-800">
-            {fieldLabel(problem.path)}: {problem.message}. Showing the whole log instead.
-          </p>
-        )}
+        <QueryProblem problem={problem} instead="the whole log" />
         <ListPageNav
           basePath="/endorsements"
           pairs={q.name ? [["name", q.name]] : []}

@@ -4,8 +4,7 @@ import { redirect } from "next/navigation";
 import { requirePagePermission, can } from "@/lib/auth/guard";
 import { progressStudentsPage } from "@/db/access/records/student-list";
 import { parseStudentListQuery } from "@/lib/records/student-list-query";
-import { fieldLabel } from "@/lib/validation/messages";
-import { StudentFilterForm, StudentPageNav, isFiltered, noStudentsWords } from "@/components/student-pages";
+import { StudentFilterForm, StudentPageNav, isFiltered, noStudentsWords, QueryProblem } from "@/components/student-pages";
 
 export const metadata: Metadata = { title: "Progress map" };
 export const dynamic = "force-dynamic";
@@ -32,11 +31,7 @@ export default async function ProgressIndexPage({
       {(staff || total > pageSize || isFiltered(q) || page > 1 || problem) && (
         <StudentFilterForm basePath="/progress" q={q} cohorts={cohorts} idPrefix="progress" />
       )}
-      {problem && (
-        <p role="alert" className="text-notyet-800">
-          {fieldLabel(problem.path)}: {problem.message}. Showing every student instead.
-        </p>
-      )}
+      <QueryProblem problem={problem} instead="every student" />
       {students.length === 0 ? (
         <p className="text-ink-soft">{noStudentsWords(q, page, none)}</p>
       ) : (

@@ -4,8 +4,7 @@ import { requirePagePermission, can } from "@/lib/auth/guard";
 import { recordStudentsPage } from "@/db/access/records/record-students-page";
 import { listCheckInstructors } from "@/db/access/records/stage-checks";
 import { parseStudentListQuery } from "@/lib/records/student-list-query";
-import { StudentFilterForm, StudentPageNav, noStudentsWords } from "@/components/student-pages";
-import { fieldLabel } from "@/lib/validation/messages";
+import { StudentFilterForm, StudentPageNav, noStudentsWords, QueryProblem } from "@/components/student-pages";
 import { DesignateToggle } from "./_components/designate-toggle";
 
 export const metadata: Metadata = { title: "Records" };
@@ -25,11 +24,7 @@ export default async function RecordsPage({ searchParams }: { searchParams: Prom
         <p className="text-ink-soft">Choose a student to record an oral check, sign off items or conduct a stage check.</p>
       </header>
       <StudentFilterForm basePath="/records" q={q} cohorts={cohorts} idPrefix="records" />
-      {problem && (
-        <p role="alert" className="text-notyet-800">
-          {fieldLabel(problem.path)}: {problem.message}. Showing every student instead.
-        </p>
-      )}
+      <QueryProblem problem={problem} instead="every student" />
       {students.length === 0 && <p className="text-ink-soft">{noStudentsWords(q, page)}</p>}
       {[...byCohort.entries()].map(([cohort, list]) => (
         <section key={cohort} className="card" aria-labelledby={`c-${cohort}`}>

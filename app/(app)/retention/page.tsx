@@ -8,8 +8,7 @@ import { getSchool } from "@/db/access/shared/school";
 import { RETENTION_RULES } from "@/lib/retention/rules";
 import { RETENTION_STATE_WORDS, words } from "@/lib/labels";
 import { formatDay } from "@/lib/time";
-import { fieldLabel } from "@/lib/validation/messages";
-import { ListPageNav } from "@/components/student-pages";
+import { ListPageNav, QueryProblem } from "@/components/student-pages";
 import { ArchiveButton, LiftHoldForm, RetentionSettingsForm, SetHoldForm } from "./_components/retention-forms";
 
 export const metadata: Metadata = { title: "Retention" };
@@ -134,11 +133,7 @@ export default async function RetentionPage({ searchParams }: { searchParams: Pr
         </p>
       </div>
       <RetentionSettingsForm settings={settings} />
-      {problem && (
-        <p role="alert" className="text-notyet-800">
-          {fieldLabel(problem.path)}: {problem.message}. Showing every section instead.
-        </p>
-      )}
+      <QueryProblem problem={problem} instead="every section" />
       {state ? (
         <>
           <p>

@@ -6,10 +6,9 @@ import { choicesFrom } from "@/lib/directory/picker";
 import { cohortsManagedBy } from "@/db/access/roster/managed-cohorts";
 import { getSchool } from "@/db/access/shared/school";
 import { parseStudentListQuery } from "@/lib/records/student-list-query";
-import { fieldLabel } from "@/lib/validation/messages";
 import { dateInZone, formatDay } from "@/lib/time";
 import { now } from "@/lib/clock";
-import { StudentFilterForm, StudentPageNav, noStudentsWords } from "@/components/student-pages";
+import { StudentFilterForm, StudentPageNav, noStudentsWords, QueryProblem } from "@/components/student-pages";
 import { AddStudentForm } from "./_components/add-student-form";
 import { RosterImport } from "./_components/roster-import";
 import { MoveStudent } from "./_components/move-student";
@@ -48,11 +47,7 @@ export default async function RosterPage({ searchParams }: { searchParams: Promi
         </p>
       </header>
       <StudentFilterForm basePath="/roster" q={q} cohorts={cohorts} idPrefix="roster" />
-      {problem && (
-        <p role="alert" className="text-notyet-800">
-          {fieldLabel(problem.path)}: {problem.message}. Showing every student instead.
-        </p>
-      )}
+      <QueryProblem problem={problem} instead="every student" />
       {rows.length === 0 && <p className="text-ink-soft">{noStudentsWords(q, page, "No students in your cohorts now.")}</p>}
       {byCohort.map((members) => {
         const c = members[0]!;

@@ -5,8 +5,7 @@ import { transferChoices } from "@/db/access/transfers/students";
 import { getSchool } from "@/db/access/shared/school";
 import { formatDay, hoursLabel } from "@/lib/time";
 import { parseNameListQuery } from "@/lib/records/student-list-query";
-import { fieldLabel } from "@/lib/validation/messages";
-import { ListPageNav, NameFilterForm } from "@/components/student-pages";
+import { ListPageNav, NameFilterForm, QueryProblem } from "@/components/student-pages";
 import { TransferForm } from "./_components/transfer-form";
 
 export const metadata: Metadata = { title: "Transfers in" };
@@ -62,11 +61,7 @@ export default async function TransfersPage({ searchParams }: { searchParams: Pr
           label="Find a student's credits"
           fieldLabel="Student's name contains"
         />
-        {problem && (
-          <p role="alert" className="text-notyet-800">
-            {fieldLabel(problem.path)}: {problem.message}. Showing every credit instead.
-          </p>
-        )}
+        <QueryProblem problem={problem} instead="every credit" />
         <ListPageNav
           basePath="/transfers"
           pairs={[

@@ -3,8 +3,7 @@ import Link from "next/link";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { accountsPage } from "@/db/access/people/accounts-page";
 import { parseNameListQuery } from "@/lib/records/student-list-query";
-import { fieldLabel } from "@/lib/validation/messages";
-import { ListPageNav, NameFilterForm } from "@/components/student-pages";
+import { ListPageNav, NameFilterForm, QueryProblem } from "@/components/student-pages";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import { ASSIGNABLE_ROLES } from "@/lib/auth/account-roles";
 import { DataTable } from "@/components/ui/data-table";
@@ -40,11 +39,7 @@ export default async function AccountsPage({ searchParams }: { searchParams: Pro
       </header>
       <InviteForm roles={roles} />
       <NameFilterForm basePath="/people/accounts" name={q.name} idPrefix="accounts" label="Find an account" />
-      {problem && (
-        <p role="alert" className="text-notyet-800">
-          {fieldLabel(problem.path)}: {problem.message}. Showing every account instead.
-        </p>
-      )}
+      <QueryProblem problem={problem} instead="every account" />
       <RolesForm roles={roles} people={staffAndSponsors.map((p) => ({ id: p.id, name: p.name, roles: p.roles, self: p.id === user.id }))} />
       <section className="card" aria-labelledby="staff-title">
         <h2 id="staff-title">Staff and sponsors</h2>

@@ -10,9 +10,8 @@ import { formatDay } from "@/lib/time";
 import { uuidParam } from "@/lib/http/api";
 import { MoveEnrolment } from "../_components/move-enrolment";
 import { WideTable } from "@/components/ui/wide-table";
-import { ListPageNav } from "@/components/student-pages";
+import { ListPageNav, QueryProblem } from "@/components/student-pages";
 import { enrolmentListQuerySchema, type EnrolmentListQuery } from "@/lib/syllabus/schema";
-import { fieldLabel } from "@/lib/validation/messages";
 
 export const metadata: Metadata = { title: "Syllabus revisions" };
 export const dynamic = "force-dynamic";
@@ -162,11 +161,7 @@ export default async function SyllabusRevisionsPage({
             </Link>
           )}
         </form>
-        {problem && (
-          <p role="alert" className="mt-2 text-notyet-800">
-            {fieldLabel(problem.path)}: {problem.message}. Showing every enrolment instead.
-          </p>
-        )}
+        <QueryProblem problem={problem} instead="every enrolment" className="mt-2" />
         <div className="mt-2">
           <ListPageNav
             basePath="/syllabus/revisions"
