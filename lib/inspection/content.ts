@@ -91,6 +91,8 @@ export interface PackInput {
     /** the hash of the last row that links up (the head when ok) */
     lastGoodHash: string;
     broken: { position: number; problem: string } | null;
+    /** positions 1..through verified by the full walk that ended at finishedAt, the rest as the pack was made; null: all walked for the pack */
+    basis: { through: number; finishedAt: Date; requestedBy: string | null } | null;
   };
   /** credit from earlier schools (transfer in), oldest first */
   transferCredits: {
@@ -149,6 +151,17 @@ export interface InstructorFile {
 }
 
 const day = (d: string | null) => (d ? formatDay(d) : "none");
+
+/** How the chain's verification was reached: on a full walk, or walked whole for this pack. */
+function chainBasisWords(c: PackInput["chain"], tz: string): string {
+  if (!c.basis) return "The whole chain was walked from its first event as this pack was made.";
+  const walk = `the full walk of the chain that ended ${formatDayTime(c.basis.finishedAt, tz)}${c.basis.requestedBy ? ` (asked for by ${c.basis.requestedBy})` : ""}`;
+  const rest =
+    c.checked > c.basis.through || !c.ok
+      ? `; the events after it were checked from that walk's last hash as this pack was made`
+      : `; its last hash was found again at position ${c.basis.through} as this pack was made, and no event has been written since`;
+  return `Positions 1 to ${c.basis.through} were verified by ${walk}${rest}.`;
+}
 
 export function packDocument(p: PackInput): PackDocument {
   const tz = p.school.timeZone;
@@ -333,7 +346,7 @@ export function packDocument(p: PackInput): PackDocument {
   sections.push({ heading: "Retention of the record", blocks: retentionBlocks(p.retention) });
 
   sections.push({
-    heading: "Audit chain verification",
+    heading: CHAIN_SECTION_HEADING,
     blocks: [
       {
         kind: "text",
@@ -342,6 +355,7 @@ export function packDocument(p: PackInput): PackDocument {
           ? `Verified: all ${p.chain.checked} events of the school's chain link up from the first to the head.`
           : `NOT VERIFIED: the chain breaks at position ${p.chain.broken?.position ?? "?"} (${p.chain.broken?.problem ?? "unknown"}); ${p.chain.checked} events before it link up.`,
       },
+      { kind: "text", text: chainBasisWords(p.chain, p.school.timeZone) },
       { kind: "text", text: `Head of the chain: position ${p.chain.headPosition}` },
       { kind: "text", mono: true, text: `Head hash ${p.chain.headHash}` },
       ...(p.chain.ok ? [] : [{ kind: "text" as const, mono: true, text: `Last link that verifies ${p.chain.lastGoodHash}` }]),
@@ -455,15 +469,20 @@ function instructorBlocks(i: InstructorFile): PackSection["blocks"] {
   ];
 }
 
+/** The section the record hash leaves out: the school's chain moves with every event of any student. */
+export const CHAIN_SECTION_HEADING = "Audit chain verification";
+
 /**
  * The record hash: SHA-256 over the pack's content as printed (title, school and every section's
- * text and table cells, in order), not counting the page numbers and the time it was made, so the
- * same record gives the same hash whenever the pack is made.
+ * text and table cells, in order), not counting the page numbers, the time it was made and the
+ * audit chain's verification (its head moves with every event written for any student of the
+ * school), so the same record gives the same hash whenever the pack is made.
  */
 export function recordHash(doc: PackDocument): string {
-  return createHash("sha256").update(JSON.stringify(doc)).digest("hex");
+  const content = { ...doc, sections: doc.sections.filter((x) => x.heading !== CHAIN_SECTION_HEADING) };
+  return createHash("sha256").update(JSON.stringify(content)).digest("hex");
 }
 
 export const RECORD_HASH_BASIS =
   "The record hash is SHA-256 over this pack's content as printed (title, school and every section's text and table cells, in order), " +
-  "not counting the page numbers and the time it was made; the audit chain's head hash is printed apart, in the verification section.";
+  "not counting the page numbers, the time it was made and the audit chain verification, printed apart with the chain's head hash.";

@@ -5,7 +5,7 @@ import { dateInZone } from "@/lib/time";
 import { passRateWindow } from "@/lib/endorsements/rules";
 import type { PackInput } from "@/lib/inspection/content";
 import { getSchool } from "../shared/school";
-import { verifyChain, chainHead } from "../records/audit-chain";
+import { chainForPack } from "./chain-for-pack";
 import { passRateByCourse } from "../endorsements/pass-rate";
 import { inspectedStudent } from "./student-file";
 import { instructorFiles } from "./instructor-files";
@@ -14,7 +14,7 @@ import { creditAndRetention } from "./credit-and-retention";
 // Everything the inspection pack prints for one student (records.inspect, the chief instructor),
 // as plain values for lib/inspection: the student's file, the instructor files of everyone who
 // taught, checked or signed for them, transfer-in credit and the record's retention date, the audit
-// chain's full verification with its head, and the first-attempt pass rate per course over the
+// chain's verification with its head (chain-for-pack.ts: on the latest full walk, or a walk here), and the first-attempt pass rate per course over the
 // last 24 calendar months.
 
 export async function inspectionPackFor(user: CurrentUser, studentId: string): Promise<PackInput & { madeAt: Date }> {
@@ -23,9 +23,7 @@ export async function inspectionPackFor(user: CurrentUser, studentId: string): P
   const school = await getSchool(user.schoolId);
   const madeAt = now();
   const today = dateInZone(madeAt, school.timeZone);
-  // the head first, then the full walk (which may reach rows written in between)
-  const head = await chainHead(user.schoolId);
-  const chain = await verifyChain(user.schoolId);
+  const chain = await chainForPack(user.schoolId);
   const window = passRateWindow(today);
   const st = record.student;
   return {
@@ -69,15 +67,7 @@ export async function inspectionPackFor(user: CurrentUser, studentId: string): P
     stageChecks: [...record.stageChecks].sort((a, b) => a.date.localeCompare(b.date)),
     endorsements: f.endorsements,
     certification: record.certification,
-    chain: {
-      ok: chain.ok,
-      checked: chain.checked,
-      // a verified chain: the head the walk reached; a broken one: the newest row, and the last good link apart
-      headHash: chain.ok ? chain.headHash : head.hash,
-      headPosition: chain.ok ? chain.checked : head.position,
-      lastGoodHash: chain.headHash,
-      broken: chain.broken ? { position: chain.broken.position, problem: chain.broken.problem } : null,
-    },
+    chain,
     instructors: await instructorFiles({ id: school.id, timeZone: school.timeZone }, f.involved, today, madeAt),
     passRate: { window, rows: await passRateByCourse(user.schoolId, window) },
     ...(await creditAndRetention({ id: school.id, timeZone: school.timeZone }, { id: st.id, courseId: st.courseId })),

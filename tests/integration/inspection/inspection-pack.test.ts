@@ -37,6 +37,15 @@ let s: School;
 let other: School;
 let graduate: string;
 const TZ = "Europe/London";
+
+/** An audit event about someone else (the chain trigger links it): the school's chain moves on. */
+async function auditAnotherStudent() {
+  await sequelize.query(
+    `INSERT INTO audit_events (school_id, actor_id, actor_roles, action, record_type, record_id, after, occurred_at, chain_pos, prev_hash, hash, seq)
+     VALUES (:s, :actor, '{chief}', 'test.elsewhere', 'test', gen_random_uuid(), '{}'::jsonb, now(), 0, '', '', 0)`,
+    { replacements: { s: s.school.id, actor: s.people.chief.id } },
+  );
+}
 const today = () => dateInZone(new Date(), TZ);
 const daysAgo = (n: number) => dateInZone(new Date(Date.now() - n * 86_400_000), TZ);
 const QUESTION = "Why does induced drag fall as speed rises";
@@ -223,13 +232,15 @@ describe("the inspection pack", () => {
   it("the record hash is SHA-256 over the content, the same for the same record and different once the record changes", async () => {
     actAs(s.as.chief);
     const first = (await inspectionPackRoute(...req(graduate))).headers.get("x-record-hash");
-    // recomputed here from the content as printed (node:crypto)
-    const pack = await inspectionPackFor(s.as.chief, graduate);
-    expect(
-      createHash("sha256")
-        .update(JSON.stringify(packDocument(pack)))
-        .digest("hex"),
-    ).toBe(first);
+    // recomputed here from the content as printed (node:crypto), the chain's verification left out
+    const doc = packDocument(await inspectionPackFor(s.as.chief, graduate));
+    const printed = { ...doc, sections: doc.sections.filter((x) => x.heading !== "Audit chain verification") };
+    expect(createHash("sha256").update(JSON.stringify(printed)).digest("hex")).toBe(first);
+    expect((await inspectionPackRoute(...req(graduate))).headers.get("x-record-hash")).toBe(first);
+    // an event written for another student moves the school's chain, not this record's hash
+    const headBefore = (await chainHead(s.school.id)).position;
+    await auditAnotherStudent();
+    expect((await chainHead(s.school.id)).position).toBeGreaterThan(headBefore);
     expect((await inspectionPackRoute(...req(graduate))).headers.get("x-record-hash")).toBe(first);
     // a new version in Instructor One's file changes the content, so the hash
     await changeQualification(s.people.instructor.id, { ratings: ["Instrument ground instructor"] }, today());

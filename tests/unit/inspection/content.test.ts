@@ -28,7 +28,7 @@ function input(over: Partial<PackInput> = {}): PackInput {
     stageChecks: [],
     endorsements: [],
     certification: null,
-    chain: { ok: true, checked: 12, headHash: HEAD, headPosition: 12, lastGoodHash: HEAD, broken: null },
+    chain: { ok: true, checked: 12, headHash: HEAD, headPosition: 12, lastGoodHash: HEAD, broken: null, basis: null },
     instructors: [],
     passRate: {
       window: { from: "2024-12-01", to: "2026-11-30" },
@@ -69,6 +69,7 @@ describe("the inspection pack's content", () => {
           headPosition: 12,
           lastGoodHash: "ef".repeat(32),
           broken: { position: 8, problem: "hash mismatch" },
+          basis: null,
         },
       }),
     );
@@ -203,10 +204,46 @@ describe("the inspection pack's content", () => {
 
   it("hashes the content as printed with SHA-256: same content, same hash; any changed line, another hash", () => {
     const doc = packDocument(input());
-    expect(recordHash(doc)).toBe(createHash("sha256").update(JSON.stringify(doc)).digest("hex"));
+    const printed = { ...doc, sections: doc.sections.filter((x) => x.heading !== "Audit chain verification") };
+    expect(printed.sections.length).toBe(doc.sections.length - 1);
+    expect(recordHash(doc)).toBe(createHash("sha256").update(JSON.stringify(printed)).digest("hex"));
     expect(recordHash(packDocument(input()))).toBe(recordHash(doc));
     expect(recordHash(packDocument(input({ groundMinutes: 120 })))).not.toBe(recordHash(doc));
     // the hash covers what is printed: 91 minutes print as 1.5 h, like 90
     expect(recordHash(packDocument(input({ groundMinutes: 91 })))).toBe(recordHash(doc));
+  });
+
+  it("leaves the audit chain's verification out of the record hash: the chain moves with every event of the school", () => {
+    const doc = packDocument(input());
+    const moved = packDocument(
+      input({
+        chain: {
+          ok: true,
+          checked: 40,
+          headHash: "b".repeat(64),
+          headPosition: 40,
+          lastGoodHash: "b".repeat(64),
+          broken: null,
+          basis: null,
+        },
+      }),
+    );
+    expect(JSON.stringify(moved)).not.toBe(JSON.stringify(doc));
+    expect(recordHash(moved)).toBe(recordHash(doc));
+  });
+
+  it("says on what the chain's verification rests: a full walk and the events after it, or a walk made for the pack", () => {
+    const text = (c: Partial<PackInput["chain"]>) =>
+      JSON.stringify(
+        packDocument(input({ chain: { ...input().chain, ...c } })).sections.find((x) => x.heading === "Audit chain verification"),
+      );
+    expect(text({ basis: null })).toContain("The whole chain was walked from its first event as this pack was made.");
+    const basis = { through: 9, finishedAt: new Date("2026-11-30T17:05:00Z"), requestedBy: "Mira Okonjo" };
+    expect(text({ basis })).toContain(
+      "Positions 1 to 9 were verified by the full walk of the chain that ended Mon 30 Nov 2026, 17:05 (asked for by Mira Okonjo); the events after it were checked from that walk's last hash as this pack was made.",
+    );
+    expect(text({ basis: { ...basis, through: 12 } })).toContain(
+      "its last hash was found again at position 12 as this pack was made, and no event has been written since",
+    );
   });
 });
