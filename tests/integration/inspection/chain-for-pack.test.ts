@@ -1,5 +1,5 @@
 jest.setTimeout(180_000);
-import { QueryTypes, Sequelize } from "sequelize";
+import { Sequelize } from "sequelize";
 import pg from "pg";
 import { sequelize } from "@/db/index";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
