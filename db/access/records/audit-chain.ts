@@ -109,7 +109,7 @@ export async function listAuditEvents(schoolId: string, opts: { recordId?: strin
 
 /**
  * Verifies only the events written since the school's checkpoint (the last verified position and
- * head), then moves the checkpoint to where it got: three queries, whatever the chain's length.
+ * head), then moves the checkpoint to where it got: five queries in one transaction, whatever the chain's length.
  * `since` is the checkpoint's position before this call and `sinceVerifiedAt` when it was set.
  * With `maxEvents`, at most that many positions after the checkpoint are walked (a page's GET stays
  * bounded even when no checkpoint was set yet, or a great many events came since); `unchecked` is
@@ -120,47 +120,77 @@ export async function listAuditEvents(schoolId: string, opts: { recordId?: strin
 export async function verifyChainSinceCheckpoint(
   schoolId: string,
   opts: { maxEvents?: number } = {},
-): Promise<ChainVerification & { since: number; sinceVerifiedAt: Date | null; unchecked: number }> {
-  const [cp] = await sequelize.query<{ chain_pos: string; head_hash: string; verified_at: Date }>(
-    `SELECT chain_pos, head_hash, verified_at FROM audit_checkpoints WHERE school_id = :schoolId`,
-    { replacements: { schoolId }, type: QueryTypes.SELECT },
-  );
-  const since = cp ? Number(cp.chain_pos) : 0;
-  const hash = cp?.head_hash ?? "0".repeat(64);
+): Promise<ChainVerification & { since: number; sinceVerifiedAt: Date | null; unchecked: number; busy: boolean }> {
   const bounded = opts.maxEvents !== undefined;
   if (bounded && (!Number.isInteger(opts.maxEvents) || opts.maxEvents! < 1)) throw new Error("maxEvents: a whole number from 1");
-  const [r] = await sequelize.query<{
-    ok: boolean;
-    checked: string;
-    head_hash: string;
-    broken_pos: string | null;
-    broken_seq: string | null;
-    broken_id: string | null;
-    problem: string | null;
-    head_pos: string | null;
-  }>(
-    bounded
-      ? `SELECT r.*, (SELECT max(chain_pos) FROM audit_events WHERE school_id = :schoolId) AS head_pos
-           FROM audit_verify_range(:schoolId, :since, :hash, :to) r`
-      : `SELECT *, NULL AS head_pos FROM audit_verify_from(:schoolId, :since, :hash)`,
-    { replacements: { schoolId, since, hash, to: since + (opts.maxEvents ?? 0) }, type: QueryTypes.SELECT },
-  );
-  if (!r) throw new Error("audit_verify_from returned nothing");
-  const checked = Number(r.checked);
-  if (r.ok)
-    await sequelize.query(
-      `INSERT INTO audit_checkpoints (school_id, chain_pos, head_hash, verified_at) VALUES (:schoolId, :pos, :hash, :at)
-       ON CONFLICT (school_id) DO UPDATE SET chain_pos = EXCLUDED.chain_pos, head_hash = EXCLUDED.head_hash, verified_at = EXCLUDED.verified_at
-        WHERE audit_checkpoints.chain_pos <= EXCLUDED.chain_pos`,
-      { replacements: { schoolId, pos: checked, hash: r.head_hash, at: now() } },
+  // One check at a time per school: visits that arrive while another checks the same events (many
+  // chiefs' Today at once after a large import) answer from the checkpoint instead (`busy`), so
+  // the database does not hash the same range once per visit.
+  return sequelize.transaction(async (transaction) => {
+    const [lock] = await sequelize.query<{ got: boolean }>(
+      `SELECT pg_try_advisory_xact_lock(hashtextextended('audit-checkpoint:' || CAST(:schoolId AS text), 0)) AS got`,
+      { replacements: { schoolId }, type: QueryTypes.SELECT, transaction },
     );
-  return {
-    ok: r.ok,
-    checked,
-    headHash: r.head_hash,
-    since,
-    sinceVerifiedAt: cp ? cp.verified_at : null,
-    unchecked: r.ok && r.head_pos !== null ? Math.max(0, Number(r.head_pos) - checked) : 0,
-    broken: r.ok ? null : { position: Number(r.broken_pos), seq: Number(r.broken_seq), id: r.broken_id ?? "", problem: r.problem ?? "" },
-  };
+    const [cp] = await sequelize.query<{ chain_pos: string; head_hash: string; verified_at: Date }>(
+      `SELECT chain_pos, head_hash, verified_at FROM audit_checkpoints WHERE school_id = :schoolId`,
+      { replacements: { schoolId }, type: QueryTypes.SELECT, transaction },
+    );
+    const since = cp ? Number(cp.chain_pos) : 0;
+    const hash = cp?.head_hash ?? "0".repeat(64);
+    if (!lock?.got) {
+      const [h] = await sequelize.query<{ head: string | null }>(
+        `SELECT max(chain_pos) AS head FROM audit_events WHERE school_id = :schoolId`,
+        {
+          replacements: { schoolId },
+          type: QueryTypes.SELECT,
+          transaction,
+        },
+      );
+      return {
+        ok: true,
+        checked: since,
+        headHash: hash,
+        since,
+        sinceVerifiedAt: cp ? cp.verified_at : null,
+        unchecked: Math.max(0, Number(h?.head ?? 0) - since),
+        broken: null,
+        busy: true,
+      };
+    }
+    const [r] = await sequelize.query<{
+      ok: boolean;
+      checked: string;
+      head_hash: string;
+      broken_pos: string | null;
+      broken_seq: string | null;
+      broken_id: string | null;
+      problem: string | null;
+      head_pos: string | null;
+    }>(
+      bounded
+        ? `SELECT r.*, (SELECT max(chain_pos) FROM audit_events WHERE school_id = :schoolId) AS head_pos
+             FROM audit_verify_range(:schoolId, :since, :hash, :to) r`
+        : `SELECT *, NULL AS head_pos FROM audit_verify_from(:schoolId, :since, :hash)`,
+      { replacements: { schoolId, since, hash, to: since + (opts.maxEvents ?? 0) }, type: QueryTypes.SELECT, transaction },
+    );
+    if (!r) throw new Error("audit_verify_from returned nothing");
+    const checked = Number(r.checked);
+    if (r.ok)
+      await sequelize.query(
+        `INSERT INTO audit_checkpoints (school_id, chain_pos, head_hash, verified_at) VALUES (:schoolId, :pos, :hash, :at)
+         ON CONFLICT (school_id) DO UPDATE SET chain_pos = EXCLUDED.chain_pos, head_hash = EXCLUDED.head_hash, verified_at = EXCLUDED.verified_at
+          WHERE audit_checkpoints.chain_pos <= EXCLUDED.chain_pos`,
+        { replacements: { schoolId, pos: checked, hash: r.head_hash, at: now() }, transaction },
+      );
+    return {
+      ok: r.ok,
+      checked,
+      headHash: r.head_hash,
+      since,
+      sinceVerifiedAt: cp ? cp.verified_at : null,
+      unchecked: r.ok && r.head_pos !== null ? Math.max(0, Number(r.head_pos) - checked) : 0,
+      broken: r.ok ? null : { position: Number(r.broken_pos), seq: Number(r.broken_seq), id: r.broken_id ?? "", problem: r.problem ?? "" },
+      busy: false,
+    };
+  });
 }

@@ -40,16 +40,20 @@ export default async function ChainPage() {
           {v.ok ? (v.unchecked > 0 ? "The chain verifies as far as checked" : "The chain verifies") : "The chain is broken"}
         </h2>
         <p>
-          {v.ok && newer === 0 && v.since > 0
-            ? `Checked on opening this page: no event was written since the last check (position ${n(v.since)}, ${at(v.sinceVerifiedAt!)}).`
-            : v.since === 0
-              ? "Checked on opening this page: the events from position 1 (no earlier check was on file)."
-              : `Checked on opening this page: the events after position ${n(v.since)}, written since the last check of ${at(v.sinceVerifiedAt!)}. Positions 1 to ${n(v.since)} were verified then and are checked again only by a full walk.`}
+          {v.busy
+            ? `Another visit was checking the newest events at the same moment, so this shows the chain as of the last check${v.sinceVerifiedAt ? ` (${at(v.sinceVerifiedAt)})` : ""}.`
+            : v.ok && newer === 0 && v.since > 0
+              ? `Checked on opening this page: no event was written since the last check (position ${n(v.since)}, ${at(v.sinceVerifiedAt!)}).`
+              : v.since === 0
+                ? "Checked on opening this page: the events from position 1 (no earlier check was on file)."
+                : `Checked on opening this page: the events after position ${n(v.since)}, written since the last check of ${at(v.sinceVerifiedAt!)}. Positions 1 to ${n(v.since)} were verified then and are checked again only by a full walk.`}
         </p>
         <p>
-          {v.ok
-            ? `Positions 1 to ${n(v.checked)} verify; the checkpoint now stands at position ${n(v.checked)}.`
-            : `Positions up to ${n(v.checked)} link up; the first broken link is at position ${n(v.broken?.position ?? 0)}: ${v.broken?.problem}. The checkpoint stays at position ${n(v.since)}.`}
+          {v.busy && v.checked === 0
+            ? "No check of the chain is on file yet."
+            : v.ok
+              ? `Positions 1 to ${n(v.checked)} verify; the checkpoint ${v.busy ? "stands" : "now stands"} at position ${n(v.checked)}.`
+              : `Positions up to ${n(v.checked)} link up; the first broken link is at position ${n(v.broken?.position ?? 0)}: ${v.broken?.problem}. The checkpoint stays at position ${n(v.since)}.`}
         </p>
         {v.unchecked > 0 && (
           <p>
