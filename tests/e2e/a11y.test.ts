@@ -10,7 +10,7 @@ import { mkdirSync } from "node:fs";
 import path from "node:path";
 import type { BrowserContext, Page } from "playwright-core";
 import type { Client } from "pg";
-import { launchSharedBrowser, BASE_URL, SCREENSHOT_DIR, type SharedBrowser } from "./helpers/browser";
+import { launchSharedBrowser, captureScreenshot, BASE_URL, SCREENSHOT_DIR, type SharedBrowser } from "./helpers/browser";
 import { signInOrThrow, SESSION_COOKIE } from "./helpers/http";
 import { ownerClient } from "./helpers/db";
 import { loadFixtures } from "./authz/fixtures";
@@ -102,7 +102,7 @@ async function visit(page: Page, spec: CrawlPage, role: Caller): Promise<Visit> 
     }
     found.widths.push(checked);
     const file = path.join(SCREENSHOT_DIR, `${role}-${spec.name}-${vp.width}.${SHOT_TYPE === "png" ? "png" : "jpg"}`);
-    await page.screenshot({ path: file, fullPage: true, type: SHOT_TYPE, ...(SHOT_TYPE === "jpeg" ? { quality: 85 } : {}) });
+    await captureScreenshot(page, { path: file, fullPage: true, type: SHOT_TYPE, ...(SHOT_TYPE === "jpeg" ? { quality: 85 } : {}) });
   }
   return found;
 }

@@ -6,7 +6,7 @@
 import { readFileSync } from "node:fs";
 import type { Client } from "pg";
 import type { Page } from "playwright-core";
-import { launchBrowser, signIn, screenshot, type Browser } from "./helpers/browser";
+import { launchBrowser, signIn, screenshot, captureScreenshot, type Browser } from "./helpers/browser";
 import { ownerClient } from "./helpers/db";
 
 let db: Client;
@@ -145,7 +145,7 @@ describe("Projector view and export", () => {
     expect(drawn.some((t) => t.startsWith("Aircraft: "))).toBe(true);
     expect(drawn.some((t) => t.startsWith("Speed: "))).toBe(true);
     expect(drawn.join(" ")).toContain("For ground teaching only");
-    await page.screenshot({ path: "tests/artifacts/screenshots/curve-lab-export-page.png" });
+    await captureScreenshot(page, { path: "tests/artifacts/screenshots/curve-lab-export-page.png" });
   });
 
   it("on a phone the builder's chart keeps its speed-unstable label and the page does not scroll sideways", async () => {

@@ -80,9 +80,27 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
   await Promise.all([Promise.any([left, refused]).catch(() => undefined), page.click("button[type=submit]")]);
 }
 
+/**
+ * page.screenshot, tried again when Chromium's compositor answers "Unable to capture screenshot".
+ * That answer is transient (the frame was being replaced while the capture was asked for: seen once in
+ * CI on a 390 x 3,283 px page that captures fine on every other run); it says nothing about the page.
+ * Any other error, or the same one three times running, fails the test as before.
+ */
+export async function captureScreenshot(page: Page, options: Parameters<Page["screenshot"]>[0]): Promise<Buffer> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await page.screenshot(options);
+    } catch (err) {
+      if (attempt >= 3 || !/Unable to capture screenshot/.test(String(err))) throw err;
+      // let the page draw two more frames before asking again
+      await page.evaluate(() => new Promise<void>((done) => requestAnimationFrame(() => requestAnimationFrame(() => done()))));
+    }
+  }
+}
+
 export async function screenshot(page: Page, name: string): Promise<string> {
   mkdirSync(SCREENSHOT_DIR, { recursive: true });
   const file = path.join(SCREENSHOT_DIR, `${name}.png`);
-  await page.screenshot({ path: file, fullPage: true });
+  await captureScreenshot(page, { path: file, fullPage: true });
   return file;
 }
