@@ -93,7 +93,7 @@ export const cohortPickerQuery = z.object({
 });
 
 /** Which instructors a picker lists, per form: each with the permission of that form. */
-export const INSTRUCTOR_PICKER_PURPOSES = ["timetable", "register", "cohorts"] as const;
+export const INSTRUCTOR_PICKER_PURPOSES = ["timetable", "register", "cohorts", "designate"] as const;
 export type InstructorPickerPurpose = (typeof INSTRUCTOR_PICKER_PURPOSES)[number];
 
 /**
@@ -102,7 +102,7 @@ export type InstructorPickerPurpose = (typeof INSTRUCTOR_PICKER_PURPOSES)[number
  */
 export const INSTRUCTOR_PICKER_RULES: Record<
   InstructorPickerPurpose,
-  { permission: Permission; holders: Permission; activeOnly: boolean }
+  { permission: Permission; holders: Permission; activeOnly: boolean; qualifiedOnly?: boolean }
 > = {
   // who may teach a session (TEACHING_ROLES)
   timetable: { permission: "timetable.schedule", holders: "attendance.record", activeOnly: true },
@@ -110,7 +110,12 @@ export const INSTRUCTOR_PICKER_RULES: Record<
   register: { permission: "register.view", holders: "records.sign", activeOnly: false },
   // a cohort's lead
   cohorts: { permission: "cohorts.manage", holders: "students.taught", activeOnly: true },
+  // Records' Check instructors: instructors with a qualification in force, "check instructor" as detail when designated
+  designate: { permission: "stagechecks.designate", holders: "students.taught", activeOnly: true, qualifiedOnly: true },
 };
+
+/** The detail a `designate` picker gives an instructor who is a designated check instructor already. */
+export const DESIGNATED_DETAIL = "check instructor";
 
 export const instructorPickerQuery = z.object({
   q,
@@ -130,3 +135,12 @@ export const peoplePickerQuery = z.object({
 export function choicesFrom<T extends PickerOption>(rows: T[]): PickerChoices<T> {
   return rows.length > PICKER_LIST_MAX ? { kind: "search" } : { kind: "list", rows };
 }
+
+/** The knowledge-test result forms' choices: endorsements awaiting a result, open remedial items. */
+export const ENDORSEMENT_PICKER_KINDS = ["awaiting", "remedial"] as const;
+export type EndorsementPickerKind = (typeof ENDORSEMENT_PICKER_KINDS)[number];
+
+export const endorsementPickerQuery = z.object({
+  q,
+  kind: z.enum(ENDORSEMENT_PICKER_KINDS, { error: `must be one of ${ENDORSEMENT_PICKER_KINDS.join(", ")}` }),
+});

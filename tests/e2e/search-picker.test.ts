@@ -10,6 +10,7 @@ import type { Page } from "playwright-core";
 import { sequelize } from "@/db/index";
 import { generateScale } from "@/db/seed/scale";
 import { makeSchool, TEST_PASSWORD } from "@/tests/helpers/factories";
+import { createPerson, addQualification } from "@/db/access/people/create-person";
 import { PICKER_LIST_MAX, PICKER_RESULTS } from "@/lib/directory/picker";
 import { launchBrowser, signIn, screenshot, type Browser } from "./helpers/browser";
 import { axeSerious } from "./helpers/axe";
@@ -90,4 +91,55 @@ it("a search that matches nothing says so in the status the combobox points at",
       .getByRole("option")
       .count(),
   ).toBe(0);
+});
+
+it("Records' Check instructors finds an instructor by name past a list's worth, and designates them", async () => {
+  // more qualified instructors than a list holds, in the school of this file
+  await sequelize.transaction(async (t) => {
+    for (let i = 0; i <= PICKER_LIST_MAX; i++) {
+      const p = await createPerson(
+        {
+          schoolId: school.school.id,
+          name: `Tutor ${String(i).padStart(2, "0")} Vale`,
+          email: `tutor${i}.${school.tag}@chalkwing.test`,
+          roles: ["instructor"],
+        },
+        t,
+      );
+      await addQualification(
+        {
+          personId: p.id,
+          certificateKind: "Ground instructor",
+          certificateNumber: `GI-V${i}`,
+          ratings: [],
+          issuedOn: "2020-01-01",
+          recencyOn: "2026-01-01",
+          courseIds: [school.course.id],
+        },
+        t,
+      );
+    }
+  });
+  await page.goto("/records");
+  const section = page.getByTestId("check-instructors");
+  await section.waitFor({ state: "visible" });
+  // the designated ones by name with a toggle; no toggle for every other instructor
+  expect(await section.getByRole("heading", { name: "Designated (1)" }).isVisible()).toBe(true);
+  expect(await section.getByRole("button", { name: /^Designate / }).count()).toBe(0);
+  const box = section.getByRole("combobox", { name: "Instructor's name" });
+  await box.fill("Tutor 37");
+  const options = page.locator(`[id="${await box.getAttribute("aria-controls")}"]`).getByRole("option");
+  await options.filter({ hasText: "Tutor 37 Vale" }).first().waitFor({ state: "visible" });
+  await box.press("ArrowDown");
+  await box.press("Enter");
+  const choice = page.getByTestId("designate-choice");
+  expect(await choice.innerText()).toContain("Not designated");
+  expect(await axeSerious(page)).toEqual([]);
+  await choice.getByRole("button", { name: "Designate Tutor 37 Vale as check instructor" }).click();
+  await choice.getByText("Saved").waitFor({ state: "visible" });
+  // the page is refreshed: one more designated, named in the list, and the chosen one now offers to stop
+  await section.getByRole("heading", { name: "Designated (2)" }).waitFor({ state: "visible" });
+  expect(await section.locator("li", { hasText: "Tutor 37 Vale" }).count()).toBe(1);
+  expect(await choice.getByRole("button", { name: "Stop designating Tutor 37 Vale as check instructor" }).isVisible()).toBe(true);
+  await screenshot(page, "records-check-instructors-find-390");
 });

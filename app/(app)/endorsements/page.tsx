@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { can, requirePagePermission } from "@/lib/auth/guard";
-import { awaitingEndorsements, endorsableStudents, endorsementLogPage, openRemedials } from "@/db/access/endorsements/log";
+import { endorsableStudents, endorsementChoices, endorsementLogPage } from "@/db/access/endorsements/log";
 import { parseNameListQuery } from "@/lib/records/student-list-query";
 import { ListPageNav, NameFilterForm, QueryProblem } from "@/components/student-pages";
 import { formatDay } from "@/lib/time";
@@ -15,13 +15,12 @@ export default async function EndorsementsPage({ searchParams }: { searchParams:
   const user = await requirePagePermission("endorsements.view", "/endorsements");
   const { q, problem } = parseNameListQuery(await searchParams);
   // the log a page at a time (it is never pruned); the result form's choices from their own query
-  const [{ rows: log, total, page, pageSize }, waiting, students, remedials] = await Promise.all([
+  const [{ rows: log, total, page, pageSize }, awaiting, students, remedials] = await Promise.all([
     endorsementLogPage(user, { name: q.name }, { page: q.page ?? 1 }),
-    can(user, "endorsements.results") ? awaitingEndorsements(user) : Promise.resolve([]),
+    endorsementChoices(user, "awaiting"),
     endorsableStudents(user),
-    openRemedials(user),
+    endorsementChoices(user, "remedial"),
   ]);
-  const awaiting = waiting.map((r) => ({ id: r.id, label: `${r.studentName} (${formatDay(r.endorsedOn)})` }));
   return (
     <div className="max-w-5xl space-y-6">
       <div>
@@ -41,7 +40,7 @@ export default async function EndorsementsPage({ searchParams }: { searchParams:
       <EndorsementForms
         students={students}
         awaiting={awaiting}
-        remedials={remedials.map((m) => ({ id: m.id, label: `${m.studentName}: ${m.area} (test of ${formatDay(m.takenOn)})` }))}
+        remedials={remedials}
         maySign={can(user, "endorsements.sign")}
         mayRecord={can(user, "endorsements.results")}
       />

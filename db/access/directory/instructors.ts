@@ -7,6 +7,7 @@ import { rolesWith } from "@/lib/auth/permissions";
 import { HttpError } from "@/lib/http/errors";
 import {
   choicesFrom,
+  DESIGNATED_DETAIL,
   INSTRUCTOR_PICKER_RULES,
   PICKER_LIST_MAX,
   PICKER_RESULTS,
@@ -31,9 +32,12 @@ async function readInstructors(
 ): Promise<PickerOption[]> {
   const rule = INSTRUCTOR_PICKER_RULES[purpose];
   if (!can(user, rule.permission)) throw new HttpError(403, "You do not have access to this");
-  const rows = await sequelize.query<{ id: string; name: string; active: boolean }>(
-    `SELECT p.id, p.name, p.active FROM people p
+  const rows = await sequelize.query<{ id: string; name: string; active: boolean; designated: boolean }>(
+    `SELECT p.id, p.name, p.active,
+            ${rule.qualifiedOnly ? "EXISTS (SELECT 1 FROM instructor_qualifications_current q WHERE q.person_id = p.id AND q.check_instructor)" : "false"} AS designated
+       FROM people p
       WHERE p.school_id = :school AND p.roles && ARRAY[:holders]::text[] ${rule.activeOnly ? "AND p.active" : ""}
+        ${rule.qualifiedOnly ? "AND EXISTS (SELECT 1 FROM instructor_qualifications_current q WHERE q.person_id = p.id)" : ""}
         ${q ? "AND p.name ILIKE :pattern" : ""} ${id ? "AND p.id = CAST(:id AS uuid)" : ""}
       ORDER BY p.name, p.id LIMIT :limit`,
     {
@@ -41,7 +45,13 @@ async function readInstructors(
       type: QueryTypes.SELECT,
     },
   );
-  return rows.map((r) => (r.active ? { id: r.id, name: r.name } : { id: r.id, name: r.name, detail: "deactivated" }));
+  return rows.map((r) =>
+    !r.active
+      ? { id: r.id, name: r.name, detail: "deactivated" }
+      : rule.qualifiedOnly && r.designated
+        ? { id: r.id, name: r.name, detail: DESIGNATED_DETAIL }
+        : { id: r.id, name: r.name },
+  );
 }
 
 /** Up to PICKER_RESULTS instructors whose name contains `q`, and whether more match. */

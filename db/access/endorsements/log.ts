@@ -3,7 +3,17 @@ import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
 import type { CurrentUser } from "@/lib/auth/session";
 import { can } from "@/lib/auth/can";
-import type { PickerChoices } from "@/lib/directory/picker";
+import { HttpError } from "@/lib/http/errors";
+import { formatDay } from "@/lib/time";
+import {
+  choicesFrom,
+  PICKER_LIST_MAX,
+  PICKER_RESULTS,
+  type EndorsementPickerKind,
+  type PickerAnswer,
+  type PickerChoices,
+  type PickerOption,
+} from "@/lib/directory/picker";
 import { studentScopeSql } from "../shared/student-scope";
 import { studentChoices } from "../directory/students";
 import { containsPattern } from "../shared/like";
@@ -85,18 +95,48 @@ export async function endorsementLogPage(
 }
 
 /**
- * The endorsements still awaiting their test result (the choices of the result form), newest
- * first, whatever page of the log is shown: an endorsement leaves this list once its result is in.
+ * The result forms' choices, from one LIMITed query: the endorsements still awaiting their test
+ * result (newest first; an endorsement leaves this list once its result is in) and the open
+ * remedial items of the students in the caller's records scope (by student, then area). `q`: a
+ * part of the student's name (or of the remedial item's area).
  */
-export async function awaitingEndorsements(user: CurrentUser): Promise<{ id: string; studentName: string; endorsedOn: string }[]> {
-  const where = logWhere(user, "e");
-  return sequelize.query(
-    `SELECT e.id, s.name AS "studentName", e.endorsed_on AS "endorsedOn"
-       FROM knowledge_test_endorsements e JOIN people s ON s.id = e.student_id
-      WHERE ${where.sql} AND NOT EXISTS (SELECT 1 FROM knowledge_test_results r WHERE r.endorsement_id = e.id)
-      ORDER BY e.endorsed_on DESC, e.created_at DESC, e.id DESC`,
-    { replacements: where.replacements, type: QueryTypes.SELECT },
+async function readEndorsementChoices(user: CurrentUser, kind: EndorsementPickerKind, q: string, limit: number): Promise<PickerOption[]> {
+  if (!can(user, "endorsements.results")) throw new HttpError(403, "You do not have access to this");
+  const pattern = q ? containsPattern(q) : null;
+  if (kind === "awaiting") {
+    const where = logWhere(user, "e");
+    const rows = await sequelize.query<{ id: string; studentName: string; endorsedOn: string }>(
+      `SELECT e.id, s.name AS "studentName", e.endorsed_on AS "endorsedOn"
+         FROM knowledge_test_endorsements e JOIN people s ON s.id = e.student_id
+        WHERE ${where.sql} AND NOT EXISTS (SELECT 1 FROM knowledge_test_results r WHERE r.endorsement_id = e.id)
+          ${pattern ? "AND s.name ILIKE :pattern" : ""}
+        ORDER BY e.endorsed_on DESC, e.created_at DESC, e.id DESC LIMIT :limit`,
+      { replacements: { ...where.replacements, pattern, limit }, type: QueryTypes.SELECT },
+    );
+    return rows.map((r) => ({ id: r.id, name: r.studentName, detail: `endorsed ${formatDay(r.endorsedOn)}` }));
+  }
+  const scope = studentScopeSql(user, "records", "m.student_id");
+  const rows = await sequelize.query<{ id: string; studentName: string; area: string; takenOn: string }>(
+    `SELECT m.id, p.name AS "studentName", m.area, r.taken_on AS "takenOn"
+       FROM knowledge_test_remedials m JOIN people p ON p.id = m.student_id JOIN knowledge_test_results r ON r.id = m.result_id
+      WHERE m.school_id = :school AND m.state = 'open' AND ${scope.sql}
+        ${pattern ? "AND (p.name ILIKE :pattern OR m.area ILIKE :pattern)" : ""}
+      ORDER BY p.name, m.area, m.id LIMIT :limit`,
+    { replacements: { school: user.schoolId, ...scope.replacements, pattern, limit }, type: QueryTypes.SELECT },
   );
+  return rows.map((r) => ({ id: r.id, name: `${r.studentName}: ${r.area}`, detail: `test of ${formatDay(r.takenOn)}` }));
+}
+
+/** A result form's choices: all of them up to PICKER_LIST_MAX, else "search" (GET /api/directory/endorsements). */
+export async function endorsementChoices(user: CurrentUser, kind: EndorsementPickerKind): Promise<PickerChoices> {
+  if (!can(user, "endorsements.results")) return { kind: "list", rows: [] };
+  return choicesFrom(await readEndorsementChoices(user, kind, "", PICKER_LIST_MAX + 1));
+}
+
+/** Up to PICKER_RESULTS of a result form's choices matching `q`, and whether more match. */
+export async function searchEndorsementChoices(user: CurrentUser, kind: EndorsementPickerKind, q: string): Promise<PickerAnswer> {
+  const rows = await readEndorsementChoices(user, kind, q, PICKER_RESULTS + 1);
+  return { rows: rows.slice(0, PICKER_RESULTS).map((r) => ({ ...r, primary: r.name })), more: rows.length > PICKER_RESULTS };
 }
 
 /**
@@ -106,15 +146,4 @@ export async function awaitingEndorsements(user: CurrentUser): Promise<{ id: str
 export async function endorsableStudents(user: CurrentUser): Promise<PickerChoices> {
   if (!can(user, "endorsements.sign")) return { kind: "list", rows: [] };
   return studentChoices(user, "endorsements");
-}
-
-/** Open remedial items of the students in the caller's records scope. */
-export async function openRemedials(user: CurrentUser): Promise<{ id: string; studentName: string; area: string; takenOn: string }[]> {
-  const scope = studentScopeSql(user, "records", "m.student_id");
-  return sequelize.query(
-    `SELECT m.id, p.name AS "studentName", m.area, r.taken_on AS "takenOn"
-       FROM knowledge_test_remedials m JOIN people p ON p.id = m.student_id JOIN knowledge_test_results r ON r.id = m.result_id
-      WHERE m.school_id = :school AND m.state = 'open' AND ${scope.sql} ORDER BY p.name, m.area`,
-    { replacements: { school: user.schoolId, ...scope.replacements }, type: QueryTypes.SELECT },
-  );
 }

@@ -18,6 +18,7 @@ import { appendQualificationVersion, openVersions, qualificationFieldsOf } from 
 import { stageReadiness } from "./stage-readiness";
 import { confirmPassword } from "./sign-offs";
 import { dateInZone } from "@/lib/time";
+import { choicesFrom, PICKER_LIST_MAX, type PickerChoices, type PickerOption } from "@/lib/directory/picker";
 import { stageCheckStatement } from "@/lib/records/statements";
 
 // Stage checks: who may examine, recording a check (a fail opens remedial make-up items),
@@ -37,13 +38,39 @@ export async function mayExamine(user: CurrentUser, t?: Transaction): Promise<bo
   return can(user, "stagechecks.designate") || (await isCheckInstructor(user.id, t));
 }
 
-/** The school's active instructors and whether each is a designated check instructor. */
-export async function listCheckInstructors(schoolId: string): Promise<{ id: string; name: string; check_instructor: boolean }[]> {
-  return sequelize.query<{ id: string; name: string; check_instructor: boolean }>(
-    `SELECT p.id, p.name, bool_or(q.check_instructor) AS check_instructor FROM people p JOIN instructor_qualifications_current q ON q.person_id = p.id
-      WHERE p.school_id = :s AND 'instructor' = ANY(p.roles) AND p.active GROUP BY p.id, p.name ORDER BY p.name`,
-    { replacements: { s: schoolId }, type: QueryTypes.SELECT },
+/** The most designated check instructors Records names with a toggle; the others are found with the picker. */
+export const DESIGNATED_SHOWN_MAX = 50;
+
+export interface CheckInstructorsOverview {
+  /** designated check instructors by name, the first DESIGNATED_SHOWN_MAX */
+  designated: { id: string; name: string }[];
+  /** how many are designated in all */
+  designatedTotal: number;
+  /** the instructors not designated: each with a toggle while few, else the search picker (purpose `designate`) */
+  others: PickerChoices;
+}
+
+/**
+ * Records' Check instructors, in two bounded queries whatever the size of the staff: the designated
+ * ones (active instructors with a qualification in force marked check instructor) and the others.
+ */
+export async function checkInstructorsOverview(schoolId: string): Promise<CheckInstructorsOverview> {
+  const base = `FROM people p WHERE p.school_id = :s AND 'instructor' = ANY(p.roles) AND p.active
+      AND EXISTS (SELECT 1 FROM instructor_qualifications_current q WHERE q.person_id = p.id)`;
+  const designatedSql = `EXISTS (SELECT 1 FROM instructor_qualifications_current q WHERE q.person_id = p.id AND q.check_instructor)`;
+  const designated = await sequelize.query<{ id: string; name: string; total: string }>(
+    `SELECT p.id, p.name, count(*) OVER () AS total ${base} AND ${designatedSql} ORDER BY p.name, p.id LIMIT :limit`,
+    { replacements: { s: schoolId, limit: DESIGNATED_SHOWN_MAX }, type: QueryTypes.SELECT },
   );
+  const others = await sequelize.query<PickerOption>(
+    `SELECT p.id, p.name ${base} AND NOT ${designatedSql} ORDER BY p.name, p.id LIMIT :limit`,
+    { replacements: { s: schoolId, limit: PICKER_LIST_MAX + 1 }, type: QueryTypes.SELECT },
+  );
+  return {
+    designated: designated.map(({ id, name }) => ({ id, name })),
+    designatedTotal: Number(designated[0]?.total ?? 0),
+    others: choicesFrom(others),
+  };
 }
 
 /**

@@ -12,6 +12,7 @@ import { GET as studentsGET } from "@/app/api/directory/students/route";
 import { GET as cohortsGET } from "@/app/api/directory/cohorts/route";
 import { GET as peopleGET } from "@/app/api/directory/people/route";
 import { GET as instructorsGET } from "@/app/api/directory/instructors/route";
+import { GET as endorsementsGET } from "@/app/api/directory/endorsements/route";
 import { PICKER_LIST_MAX, PICKER_QUERY_MAX, PICKER_RESULTS, type PickerAnswer } from "@/lib/directory/picker";
 import type { CurrentUser } from "@/lib/auth/session";
 import { makeSchool, actAs, closeDb } from "@/tests/helpers/factories";
@@ -23,7 +24,13 @@ import { makeSchool, actAs, closeDb } from "@/tests/helpers/factories";
 type School = Awaited<ReturnType<typeof makeSchool>>;
 let s: School;
 
-const handlers = { students: studentsGET, cohorts: cohortsGET, people: peopleGET, instructors: instructorsGET };
+const handlers = {
+  students: studentsGET,
+  cohorts: cohortsGET,
+  people: peopleGET,
+  instructors: instructorsGET,
+  endorsements: endorsementsGET,
+};
 
 async function ask(
   who: CurrentUser | null,
@@ -182,6 +189,25 @@ describe("GET /api/directory/instructors", () => {
     expect(bad.status).toBe(400);
     expect(bad.body.error).toMatchObject({ field: "purpose" });
     const long = await ask(s.as.chief, "instructors", { purpose: "timetable", q: "z".repeat(PICKER_QUERY_MAX + 1) });
+    expect(long.body.error).toMatchObject({ field: "q" });
+  });
+});
+
+describe("GET /api/directory/endorsements", () => {
+  it("answers staff who record results (an empty school: no choices), refuses others, and names a bad field", async () => {
+    for (const kind of ["awaiting", "remedial"]) {
+      const r = await ask(s.as.instructor, "endorsements", { kind });
+      expect(r.status).toBe(200);
+      expect(r.body).toEqual({ rows: [], more: false });
+    }
+    for (const who of [s.as.student, s.as.sponsor]) expect((await ask(who, "endorsements", { kind: "awaiting" })).status).toBe(403);
+    expect((await ask(null, "endorsements", { kind: "awaiting" })).status).toBe(401);
+    const bad = await ask(s.as.chief, "endorsements", { kind: "results" });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error).toMatchObject({ field: "kind" });
+    const missing = await ask(s.as.chief, "endorsements", {});
+    expect(missing.body.error).toMatchObject({ field: "kind" });
+    const long = await ask(s.as.chief, "endorsements", { kind: "remedial", q: "z".repeat(PICKER_QUERY_MAX + 1) });
     expect(long.body.error).toMatchObject({ field: "q" });
   });
 });

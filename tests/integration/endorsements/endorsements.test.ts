@@ -7,6 +7,7 @@ import { endorseAction, recordResultAction, completeRemedialAction, saveAuthorit
 import { endorse } from "@/db/access/endorsements/endorse";
 import { EndorsementRefusal, type EndorsementReason } from "@/db/access/endorsements/preconditions";
 import { passRateByCourse } from "@/db/access/endorsements/pass-rate";
+import { endorsementChoices, searchEndorsementChoices } from "@/db/access/endorsements/log";
 import { itemsOfRevision } from "@/db/access/records/items";
 import { withdrawSignOff } from "@/db/access/records/sign-offs";
 import { dateInZone } from "@/lib/time";
@@ -186,10 +187,21 @@ describe("endorsing, results and retests", () => {
       type: QueryTypes.SELECT,
     });
     expect(remedials).toHaveLength(2);
+    // the form "Remedial training done" offers both (a list while few), and finds one by its area
+    const offered = await endorsementChoices(s.as.instructor, "remedial");
+    if (offered.kind !== "list") throw new Error("expected a list");
+    expect(offered.rows.filter((r) => remedials.some((m) => m.id === r.id)).map((r) => r.name.replace(/^.*: /, ""))).toEqual([
+      "Density altitude",
+      "Static stability",
+    ]);
+    const byArea = await searchEndorsementChoices(s.as.instructor, "remedial", "STABIL");
+    expect(byArea.rows.map((r) => r.id)).toEqual([remedials[1]!.id]);
+    expect(byArea.rows[0]!.detail).toMatch(/^test of /);
     expect(
       await completeRemedialAction({ remedialId: remedials[0]!.id, note: "Reviewed density altitude with worked examples" }),
     ).toMatchObject({ ok: true });
     expect((await reasonsOf(s.as.instructor, ready)).reasons).toEqual(["remedial_open"]);
+    expect((await searchEndorsementChoices(s.as.instructor, "remedial", "density")).rows).toEqual([]);
     expect(await completeRemedialAction({ remedialId: remedials[1]!.id, note: "Stability briefing repeated" })).toMatchObject({ ok: true });
 
     const again = await endorseAction({ studentId: ready, password: TEST_PASSWORD });

@@ -1,11 +1,12 @@
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/db/index";
 import { generateScale } from "@/db/seed/scale";
-import { awaitingEndorsements, endorsementLogPage, ENDORSEMENT_LOG_PAGE_SIZE } from "@/db/access/endorsements/log";
+import { endorsementChoices, endorsementLogPage, searchEndorsementChoices, ENDORSEMENT_LOG_PAGE_SIZE } from "@/db/access/endorsements/log";
+import { PICKER_LIST_MAX, PICKER_RESULTS } from "@/lib/directory/picker";
 import { transferCreditsPage, TRANSFER_CREDITS_PAGE_SIZE } from "@/db/access/transfers/credits";
 import { visibleStudentIds } from "@/db/access/shared/student-scope";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
-import { countQueries } from "@/tests/helpers/query-count";
+import { countQueries, countQueriesOf } from "@/tests/helpers/query-count";
 
 // The logs a school keeps for years and never prunes (the knowledge-test endorsement log, the
 // transfer credits recorded) are shown a page at a time, newest first: the pages read in sequence
@@ -136,16 +137,29 @@ describe("the endorsement log, a page at a time", () => {
     expect((await endorsementLogPage(s.as.chief, { name: "%" })).total).toBe(0);
   });
 
-  it("offers the result form every endorsement still awaiting its result, whatever page of the log is shown", async () => {
-    const waiting = await sql<{ id: string }>(
-      `SELECT e.id FROM knowledge_test_endorsements e LEFT JOIN knowledge_test_results r ON r.endorsement_id = e.id
+  it("offers the result form the endorsements still awaiting a result: a list while few, else a search, in one query", async () => {
+    const waiting = await sql<{ id: string; name: string }>(
+      `SELECT e.id, p.name FROM knowledge_test_endorsements e JOIN people p ON p.id = e.student_id
+         LEFT JOIN knowledge_test_results r ON r.endorsement_id = e.id
         WHERE e.school_id = :s AND r.id IS NULL ORDER BY e.endorsed_on DESC, e.created_at DESC, e.id DESC`,
     );
-    const offered = await awaitingEndorsements(s.as.chief);
-    expect(offered.map((r) => r.id)).toEqual(waiting.map((r) => r.id));
-    // some have results, so the choices are fewer than the log, and more than one page of it
-    expect(offered.length).toBeLessThan(130);
-    expect(offered.length).toBeGreaterThan(ENDORSEMENT_LOG_PAGE_SIZE);
+    // some have results, so the choices are fewer than the log, and more than a list holds
+    expect(waiting.length).toBeLessThan(130);
+    expect(waiting.length).toBeGreaterThan(PICKER_LIST_MAX);
+    const { queries, value } = await countQueriesOf(() => endorsementChoices(s.as.chief, "awaiting"));
+    expect(value).toEqual({ kind: "search" });
+    expect(queries).toBe(1);
+    // a part of a student's name: the first PICKER_RESULTS of theirs, newest first, and whether more match
+    const part = waiting[0]!.name.slice(-6);
+    const expected = waiting.filter((w) => w.name.toLowerCase().includes(part.toLowerCase()));
+    const found = await searchEndorsementChoices(s.as.chief, "awaiting", part.toUpperCase());
+    expect(found.rows.map((r) => r.id)).toEqual(expected.slice(0, PICKER_RESULTS).map((w) => w.id));
+    expect(found.more).toBe(expected.length > PICKER_RESULTS);
+    for (const r of found.rows) expect(r.detail).toMatch(/^endorsed [A-Z][a-z]{2} \d{1,2} [A-Z][a-z]{2} \d{4}$/);
+    // no text: the newest PICKER_RESULTS, with more to come
+    const newest = await searchEndorsementChoices(s.as.chief, "awaiting", "");
+    expect(newest.rows.map((r) => r.id)).toEqual(waiting.slice(0, PICKER_RESULTS).map((w) => w.id));
+    expect(newest.more).toBe(true);
   });
 });
 

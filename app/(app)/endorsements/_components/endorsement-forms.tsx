@@ -5,18 +5,19 @@ import { ChoiceField } from "@/components/search-picker";
 import type { PickerChoices } from "@/lib/directory/picker";
 import { completeRemedialAction, endorseAction, recordResultAction } from "../actions";
 
-interface Option {
-  id: string;
-  label: string;
-}
 type Errors = Record<string, string[]>;
+
+/** A form of choices is shown while there is something to choose: a non-empty list, or a set large enough to search. */
+const offers = (c: PickerChoices) => c.kind === "search" || c.rows.length > 0;
 
 /** Endorse a student (password re-entry), record a test result, and mark remedial training done. */
 export function EndorsementForms(props: {
   /** listed while few (with their course), else searched (GET /api/directory/students?purpose=endorsements) */
   students: PickerChoices;
-  awaiting: Option[];
-  remedials: Option[];
+  /** endorsements awaiting a result, listed while few, else searched (GET /api/directory/endorsements?kind=awaiting) */
+  awaiting: PickerChoices;
+  /** open remedial items, likewise (kind=remedial) */
+  remedials: PickerChoices;
   maySign: boolean;
   mayRecord: boolean;
 }) {
@@ -116,7 +117,7 @@ export function EndorsementForms(props: {
           </button>
         </form>
       )}
-      {props.mayRecord && props.awaiting.length > 0 && (
+      {props.mayRecord && offers(props.awaiting) && (
         <form
           className="card grid gap-3 sm:grid-cols-5 sm:items-end"
           aria-label="Record a test result"
@@ -136,19 +137,16 @@ export function EndorsementForms(props: {
             )
           }
         >
-          <div>
-            <label htmlFor="endorsementId" className="field-label">
-              Endorsement
-            </label>
-            <select id="endorsementId" name="endorsementId" className="field-input" {...described("endorsementId")}>
-              {props.awaiting.map((a) => (
-                <option key={a.id} value={a.id}>
-                  {a.label}
-                </option>
-              ))}
-            </select>
-            {err("endorsementId")}
-          </div>
+          <ChoiceField
+            id="endorsementId"
+            name="endorsementId"
+            label="Endorsement"
+            choices={props.awaiting}
+            endpoint="/api/directory/endorsements"
+            params={{ kind: "awaiting" }}
+            placeholder="A part of the student's name"
+            error={errors.endorsementId?.[0]}
+          />
           <div>
             <label htmlFor="takenOn" className="field-label">
               Test taken on
@@ -184,7 +182,7 @@ export function EndorsementForms(props: {
           </button>
         </form>
       )}
-      {props.mayRecord && props.remedials.length > 0 && (
+      {props.mayRecord && offers(props.remedials) && (
         <form
           className="card grid gap-3 sm:grid-cols-3 sm:items-end"
           aria-label="Remedial training done"
@@ -197,19 +195,16 @@ export function EndorsementForms(props: {
             )
           }
         >
-          <div>
-            <label htmlFor="remedialId" className="field-label">
-              Open remedial item
-            </label>
-            <select id="remedialId" name="remedialId" className="field-input" {...described("remedialId")}>
-              {props.remedials.map((m) => (
-                <option key={m.id} value={m.id}>
-                  {m.label}
-                </option>
-              ))}
-            </select>
-            {err("remedialId")}
-          </div>
+          <ChoiceField
+            id="remedialId"
+            name="remedialId"
+            label="Open remedial item"
+            choices={props.remedials}
+            endpoint="/api/directory/endorsements"
+            params={{ kind: "remedial" }}
+            placeholder="A part of the student's name or the area"
+            error={errors.remedialId?.[0]}
+          />
           <div>
             <label htmlFor="note" className="field-label">
               Training given

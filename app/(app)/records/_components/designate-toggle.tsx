@@ -3,7 +3,18 @@ import { useState, useTransition } from "react";
 import { useRouter } from "next/navigation";
 import { designateCheckInstructorAction } from "../actions";
 
-export function DesignateToggle({ personId, name, designated }: { personId: string; name: string; designated: boolean }) {
+export function DesignateToggle({
+  personId,
+  name,
+  designated,
+  onChanged,
+}: {
+  personId: string;
+  name: string;
+  designated: boolean;
+  /** told the new state once it is saved */
+  onChanged?: (designated: boolean) => void;
+}) {
   const [pending, start] = useTransition();
   const [message, setMessage] = useState<string | null>(null);
   const router = useRouter();
@@ -19,6 +30,7 @@ export function DesignateToggle({ personId, name, designated }: { personId: stri
           start(async () => {
             const r = await designateCheckInstructorAction({ personId, checkInstructor: !designated });
             setMessage(r.ok ? "Saved" : r.message);
+            if (r.ok) onChanged?.(!designated);
             router.refresh();
           })
         }

@@ -60,6 +60,17 @@ export const DIRECTORY_TABLE: AuthzTable = {
     },
     secrets: (fx) => [fx.otherInstructor],
   },
+  "GET /api/directory/endorsements": {
+    // the demo school's endorsements: whatever awaits a result is within the caller's reach (an instructor: their own)
+    request: () => ({ query: "kind=awaiting&q=" }),
+    expect: {
+      signedOut: 401,
+      chief: { status: 200, check: (res) => expect(Array.isArray(rows(res))).toBe(true) },
+      instructor: { status: 200, check: (res) => expect(Array.isArray(rows(res))).toBe(true) },
+      student: 403,
+      sponsor: 403,
+    },
+  },
   "GET /api/directory/people": {
     request: () => ({ query: "role=sponsor&q=sponsor" }),
     expect: {
