@@ -10,6 +10,11 @@ export interface Endpoint {
   role: Role;
   label: string;
   path: string;
+  /**
+   * An export of every matching row: its answer grows with the data by design (it streams), so its
+   * growth is judged per megabyte exported (the cost of a row must not grow), not per request.
+   */
+  export?: true;
 }
 
 export const ENDPOINTS: Endpoint[] = [
@@ -17,7 +22,7 @@ export const ENDPOINTS: Endpoint[] = [
   { role: "chief", label: "Today API", path: "/api/today" },
   { role: "chief", label: "Records", path: "/records" },
   { role: "chief", label: "Sign-off register", path: "/register" },
-  { role: "chief", label: "Sign-off register CSV", path: "/api/register/export" },
+  { role: "chief", label: "Sign-off register CSV", path: "/api/register/export", export: true },
   { role: "chief", label: "Progress map list", path: "/progress" },
   { role: "chief", label: "Progress map", path: "/progress/{student}" },
   { role: "chief", label: "Progress map API", path: "/api/progress/{student}" },
