@@ -23,6 +23,18 @@ import { GET as trainingRecordGET } from "@/app/api/records/[studentId]/training
 import { GET as logbookGET } from "@/app/api/ground-log/[studentId]/logbook/route";
 import { GET as handoutGET } from "@/app/api/handouts/[handoutId]/route";
 import { POST as unlockPOST } from "@/app/api/people/[personId]/unlock/route";
+import { GET as directoryStudentsGET } from "@/app/api/directory/students/route";
+import { GET as directoryCohortsGET } from "@/app/api/directory/cohorts/route";
+import { GET as directoryInstructorsGET } from "@/app/api/directory/instructors/route";
+import { GET as directoryPeopleGET } from "@/app/api/directory/people/route";
+import { GET as directoryEndorsementsGET } from "@/app/api/directory/endorsements/route";
+import {
+  COHORT_PICKER_PURPOSES,
+  ENDORSEMENT_PICKER_KINDS,
+  INSTRUCTOR_PICKER_PURPOSES,
+  PEOPLE_PICKER_ROLES,
+  STUDENT_PICKER_PURPOSES,
+} from "@/lib/directory/picker";
 
 // Route handlers read the session cookie through next/headers, which has no request outside Next:
 // here there is no cookie (the caller is set with actAs), so the Origin check of a cookie-carrying
@@ -76,10 +88,11 @@ const queryValue = fc.oneof(
 );
 
 /** A query string: a dictionary of the route's keys (and others) or raw text after the "?". */
-function queryFor(keys: string[]): fc.Arbitrary<string> {
+function queryFor(keys: string[], values: string[] = []): fc.Arbitrary<string> {
+  const value = values.length ? fc.oneof(queryValue, fc.constantFrom(...values)) : queryValue;
   return fc.oneof(
     fc
-      .dictionary(fc.oneof(fc.constantFrom(...keys), fc.string({ maxLength: 6 })), queryValue, { maxKeys: 5 })
+      .dictionary(fc.oneof(fc.constantFrom(...keys), fc.string({ maxLength: 6 })), value, { maxKeys: 5 })
       .map((d) => new URLSearchParams(d).toString()),
     fc.string({ unit: "binary-ascii", maxLength: 40 }).map((raw) => raw.replace(/#/g, "")),
   );
@@ -151,6 +164,8 @@ interface QueryRoute {
   name: string;
   handler: Handler;
   keys: string[];
+  /** values the route accepts for a key (a purpose, a kind), so the hostile text also reaches a valid query */
+  values?: readonly string[];
 }
 
 const QUERY_ROUTES: QueryRoute[] = [
@@ -166,14 +181,35 @@ const QUERY_ROUTES: QueryRoute[] = [
     handler: registerExportGET as Handler,
     keys: ["instructor", "cohort", "stage", "from", "to", "page"],
   },
+  // the search pickers: a purpose (or role, or kind) chosen from a list and the text typed
+  {
+    name: "GET /api/directory/students",
+    handler: directoryStudentsGET as Handler,
+    keys: ["q", "purpose"],
+    values: STUDENT_PICKER_PURPOSES,
+  },
+  { name: "GET /api/directory/cohorts", handler: directoryCohortsGET as Handler, keys: ["q", "purpose"], values: COHORT_PICKER_PURPOSES },
+  {
+    name: "GET /api/directory/instructors",
+    handler: directoryInstructorsGET as Handler,
+    keys: ["q", "purpose"],
+    values: INSTRUCTOR_PICKER_PURPOSES,
+  },
+  { name: "GET /api/directory/people", handler: directoryPeopleGET as Handler, keys: ["q", "role"], values: PEOPLE_PICKER_ROLES },
+  {
+    name: "GET /api/directory/endorsements",
+    handler: directoryEndorsementsGET as Handler,
+    keys: ["q", "kind"],
+    values: ENDORSEMENT_PICKER_KINDS,
+  },
 ];
 
-describe.each(QUERY_ROUTES)("$name", ({ handler, keys }) => {
+describe.each(QUERY_ROUTES)("$name", ({ handler, keys, values }) => {
   it("answers any query string with a 2xx or a 4xx naming a field, and writes nothing", async () => {
     actAs(s.as.chief);
     const before = await rowCounts();
     await fc.assert(
-      fc.asyncProperty(queryFor(keys), async (query) => {
+      fc.asyncProperty(queryFor(keys, [...(values ?? [])]), async (query) => {
         const res = await handler(new NextRequest(`${BASE}/api/x?${query}`), noParams);
         // a zod error on the whole query names "body", a nameless parameter "query"; else the route's own keys or a key it was sent
         await check(res, [...keys, ...sentKeys(query), "body", "query"]);
