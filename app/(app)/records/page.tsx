@@ -71,7 +71,7 @@ export default async function RecordsPage({ searchParams }: { searchParams: Prom
                 {checkers.designated.map((i) => (
                   <li key={i.id} className="flex flex-wrap items-center justify-between gap-2">
                     <span>{i.name}</span>
-                    <DesignateToggle personId={i.id} name={i.name} designated />
+                    <DesignateToggle personId={i.id} name={i.name} designated showState={false} />
                   </li>
                 ))}
               </ul>
@@ -91,7 +91,7 @@ export default async function RecordsPage({ searchParams }: { searchParams: Prom
                 {checkers.others.rows.map((i) => (
                   <li key={i.id} className="flex flex-wrap items-center justify-between gap-2">
                     <span>{i.name}</span>
-                    <DesignateToggle personId={i.id} name={i.name} designated={false} />
+                    <DesignateToggle personId={i.id} name={i.name} designated={false} showState={false} />
                   </li>
                 ))}
               </ul>

@@ -52,8 +52,9 @@ export async function progressFor(viewer: CurrentUser, studentId: string, opts: 
   const { student, access } = await requireStudentFor(viewer, studentId, opts.asExaminer ? "examiner" : "progress");
   const school = await getSchool(viewer.schoolId);
   const items = await itemsOfRevision(student.revisionId);
-  const stages = await stageReadiness(student);
-  const signed = new Map((await currentSignOffs(student.id)).map((s) => [s.itemId, s]));
+  const signOffs = await currentSignOffs(student.id);
+  const stages = await stageReadiness(student, undefined, { items, signOffs });
+  const signed = new Map(signOffs.map((s) => [s.itemId, s]));
   const checks = await listChecksOfStudent(viewer.schoolId, student.id, { withRemarks: access === "staff" });
   const inForce = checks.filter((c) => !c.withdrawn && !c.amendedBy);
   // each item's own result in its latest check in force (over all its questions in that check)

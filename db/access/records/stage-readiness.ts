@@ -2,7 +2,7 @@ import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import type { StudentRef } from "../shared/enrolment";
-import { itemsOfRevision, openMakeupItemIds, passedStageIds } from "./items";
+import { itemsOfRevision, openMakeupItemIds, type ItemRef } from "./items";
 import { currentSignOffs } from "./sign-offs";
 
 // How far each stage of a student's syllabus is: signed items, open make-ups, attempts, and
@@ -25,11 +25,18 @@ export interface StageReadiness {
   waitingFor: string | null;
 }
 
-export async function stageReadiness(student: StudentRef, t?: Transaction): Promise<StageReadiness[]> {
-  const items = await itemsOfRevision(student.revisionId, t);
-  const signed = new Map((await currentSignOffs(student.id, t)).map((s) => [s.itemId, s]));
+/**
+ * `known`: the student's items and current sign-offs when the caller has read them already (the
+ * Progress map), so one page render reads each once.
+ */
+export async function stageReadiness(
+  student: StudentRef,
+  t?: Transaction,
+  known?: { items: ItemRef[]; signOffs: Awaited<ReturnType<typeof currentSignOffs>> },
+): Promise<StageReadiness[]> {
+  const items = known?.items ?? (await itemsOfRevision(student.revisionId, t));
+  const signed = new Map((known?.signOffs ?? (await currentSignOffs(student.id, t))).map((s) => [s.itemId, s]));
   const makeups = await openMakeupItemIds(student.id, t);
-  const passed = await passedStageIds(student.id, student.enrolmentId, t);
   const attempts = await sequelize.query<{
     id: string;
     stage_id: string;
@@ -42,6 +49,8 @@ export async function stageReadiness(student: StudentRef, t?: Transaction): Prom
       WHERE s.student_id = :id AND s.enrolment_id = :e ORDER BY s.attempt`,
     { replacements: { id: student.id, e: student.enrolmentId }, type: QueryTypes.SELECT, transaction: t },
   );
+  // a stage is passed once any of its checks in this enrolment passed (what passedStageIds reads, from the rows at hand)
+  const passed = new Set(attempts.filter((a) => a.result === "pass").map((a) => a.stage_id));
   const stages = [...new Map(items.map((i) => [i.stageId, i])).values()];
   return stages.map((s) => {
     const its = items.filter((i) => i.stageId === s.stageId);

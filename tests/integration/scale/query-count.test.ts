@@ -14,6 +14,8 @@ import { teachingWeek, CHECKS_DUE_SHOWN } from "@/db/access/today/teaching-week"
 import { listSessions } from "@/db/access/timetable/list-sessions";
 import { schedulingChoices } from "@/db/access/timetable/scheduling-choices";
 import { makeSchool, closeDb } from "@/tests/helpers/factories";
+import { studentWeekFor } from "@/db/access/today/student-week";
+import { sequelize } from "@/db/index";
 import { countQueries } from "@/tests/helpers/query-count";
 
 // A constant number of SQL queries per request, whatever the size of the school: each page's
@@ -152,4 +154,32 @@ it("pages the Records list in SQL: the pages hold every student once, and the fi
   expect(byName.rows.map((r) => r.id)).toContain(one.id);
   expect(byName.rows.every((r) => r.name.toLowerCase().includes(one.name.slice(1).toLowerCase()))).toBe(true);
   expect((await recordStudentsPage(s.as.chief, { name: "%" })).total).toBe(0); // LIKE's wildcards are taken literally
+});
+
+// One render reads each thing once: the Progress map read the student's items and sign-offs twice
+// (once itself, once for the stages), and the student's Today summed the ground minutes twice.
+// Here no statement goes out twice with the same values. (The school row is read once per render by
+// React `cache`, which keeps nothing outside a render, so it is left out of this count.)
+async function repeatedStatements(work: () => Promise<unknown>): Promise<string[]> {
+  const spy = jest.spyOn(sequelize, "query");
+  try {
+    await work();
+    const seen = new Map<string, number>();
+    for (const [sql, options] of spy.mock.calls) {
+      const text = typeof sql === "string" ? sql : JSON.stringify(sql);
+      if (/FROM "schools"/.test(text)) continue;
+      const key = `${text}\n${JSON.stringify((options as { replacements?: unknown } | undefined)?.replacements ?? null)}`;
+      seen.set(key, (seen.get(key) ?? 0) + 1);
+    }
+    return [...seen].filter(([, n]) => n > 1).map(([k, n]) => `${n}x ${k.slice(0, 120)}`);
+  } finally {
+    spy.mockRestore();
+  }
+}
+
+it("reads nothing twice for one Progress map (staff, student, sponsor) or one student's week", async () => {
+  const student = s.people.students[0]!.id;
+  for (const who of [s.as.chief, s.as.instructor, s.as.student, s.as.sponsor])
+    expect(await repeatedStatements(() => progressFor(who, student))).toEqual([]);
+  expect(await repeatedStatements(() => studentWeekFor(s.as.student))).toEqual([]);
 });

@@ -8,19 +8,22 @@ export function DesignateToggle({
   name,
   designated,
   onChanged,
+  showState = true,
 }: {
   personId: string;
   name: string;
   designated: boolean;
   /** told the new state once it is saved */
   onChanged?: (designated: boolean) => void;
+  /** say "Check instructor" / "Not designated" beside the button (not needed under a heading that says it) */
+  showState?: boolean;
 }) {
   const [pending, start] = useTransition();
   const [message, setMessage] = useState<string | null>(null);
   const router = useRouter();
   return (
     <span className="inline-flex items-center gap-2">
-      <span className="text-caption font-semibold">{designated ? "Check instructor" : "Not designated"}</span>
+      {showState && <span className="text-caption font-semibold">{designated ? "Check instructor" : "Not designated"}</span>}
       <button
         type="button"
         className="btn-quiet"

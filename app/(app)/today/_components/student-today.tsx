@@ -17,8 +17,9 @@ export async function StudentToday({ user }: { user: CurrentUser }) {
       </section>
     );
   }
-  const credited = await creditedMinutesFor(user.id, enrolment.courseId);
   const week = await studentWeekFor(user);
+  // the week has summed the credited minutes already (the same course); read them only without it
+  const credited = week ? week.creditedMinutes : await creditedMinutesFor(user.id, enrolment.courseId);
   const pct = Math.min(100, Math.round((credited / Math.max(1, enrolment.minGroundMinutes)) * 100));
   return (
     <section className="card" aria-labelledby="week-title">
