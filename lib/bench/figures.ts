@@ -36,5 +36,10 @@ export interface SizeRun {
   /** `/api/health`: the mean of the runs before and after the endpoints (healthRuns) */
   health: Figure;
   healthRuns: Figure[];
+  /**
+   * The sign-in page signed out: the smallest page the framework renders (no session, no database
+   * read), the floor under every page's figure. Absent in runs made before it was measured.
+   */
+  floor?: Figure;
   figures: Figure[];
 }

@@ -30,6 +30,13 @@ function table(run: SizeRun): string[] {
         : `/api/health ${i === 0 ? "before" : "after"}: ERROR ${x.error}`,
     ),
     "(ratios are to the mean of the two)",
+    ...(run.floor
+      ? [
+          run.floor.load && !run.floor.error && h
+            ? `the smallest page (/sign-in signed out: no session, no database read, ${fmt(run.floor.bytes / 1e3, 0)} kB): p50 ${run.floor.load.p50} ms, p97.5 ${run.floor.load.p97_5} ms (${fmt(ratio(run.floor.load.p97_5, h.p97_5))}x health), ${fmt(run.floor.load.rps)} req/s`
+            : `the smallest page (/sign-in signed out): ERROR ${run.floor.error ?? "no health figure"}`,
+        ]
+      : []),
     ...run.signInErrors.map((e) => `sign-in error: ${e}`),
     "",
     "| endpoint | path | one request | size | p50 ms (×health) | p97.5 ms (×health) | p99 ms (×health) | req/s (×health) |",
@@ -55,7 +62,13 @@ function healthTarget(run: SizeRun): string[] {
   if (!h) return [`- ${run.students} students: no /api/health figure, target not judged`];
   const miss = run.figures.filter((f) => !f.load || f.error || ratio(f.load.p97_5, h.p97_5) > HEALTH_TARGET);
   const at32 = run.connections === 32 ? "" : ` (measured at ${run.connections} connections, the target names 32)`;
+  const floor = run.floor?.load && !run.floor.error ? ratio(run.floor.load.p97_5, h.p97_5) : null;
   return [
+    ...(floor !== null
+      ? [
+          `- the floor at ${run.students} students: the smallest page the framework renders (/sign-in, signed out, no database read) is ${fmt(floor)}x /api/health`,
+        ]
+      : []),
     `- p97.5 within ${HEALTH_TARGET}x /api/health at ${run.students} students${at32}: ${miss.length === 0 ? "MET" : `NOT MET for ${miss.length} of ${run.figures.length}`}` +
       (miss.length
         ? `: ${miss.map((f) => `${f.name} ${f.load && !f.error ? `${fmt(ratio(f.load.p97_5, h.p97_5))}x` : "error"}`).join(", ")}`

@@ -158,6 +158,9 @@ async function main() {
   const loadBefore = loadavg()[0]!;
   const health = await measure("/api/health", null, base, "/api/health", null, seconds, connections);
   log(health);
+  // the floor under every page: the smallest page the framework renders, signed out, no database read
+  const floor = await measure("sign-in page, signed out (the smallest page)", null, base, "/sign-in", null, seconds, connections);
+  log(floor);
   const figures: Figure[] = [];
   for (const e of ENDPOINTS) {
     const cookie = cookies.get(e.role);
@@ -181,6 +184,7 @@ async function main() {
     signInErrors,
     health: averageHealth(health, healthAfter),
     healthRuns: [health, healthAfter],
+    floor,
     figures,
   };
   writeFileSync(out, JSON.stringify(run, null, 2));
