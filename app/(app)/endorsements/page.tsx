@@ -32,7 +32,7 @@ export default async function EndorsementsPage({ searchParams }: { searchParams:
           {can(user, "endorsements.settings") && (
             <>
               {" · "}
-              <Link href="/endorsements/settings">Authority settings</Link>
+              <Link href="/endorsements/settings">Endorsement settings</Link>
             </>
           )}
         </p>
