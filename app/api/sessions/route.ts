@@ -31,6 +31,7 @@ export const GET = route("timetable.view", async ({ req, user }) => {
       toInstant: q.to ? new Date(zonedInstant(q.to, "00:00", school.timeZone).getTime() + 24 * 3600_000) : undefined,
     },
     { sort: q.sort, dir: q.dir, page: q.page, pageSize: q.pageSize },
+    school,
   );
   return NextResponse.json({ rows, total, page: q.page, pageSize: q.pageSize, pages: Math.max(1, Math.ceil(total / q.pageSize)) });
 });

@@ -57,10 +57,12 @@ export async function listSessions(
   user: CurrentUser,
   filter: SessionFilter,
   paging: { sort?: SessionsQuery["sort"]; dir?: "asc" | "desc"; page?: number; pageSize?: number } = {},
+  /** the school's time zone when the caller has read it already (a route handler: React `cache` keeps nothing there) */
+  known?: { timeZone: string },
 ): Promise<{ rows: SessionRow[]; total: number }> {
   if (!can(user, "timetable.view")) return { rows: [], total: 0 };
   const staff = can(user, "timetable.schedule");
-  const school = await getSchool(user.schoolId);
+  const tz = known?.timeZone ?? (await getSchool(user.schoolId)).timeZone;
   const where = [`s.school_id = :school`];
   const rep: Record<string, unknown> = { school: user.schoolId, uid: user.id };
   if (!staff) {
@@ -118,7 +120,6 @@ export async function listSessions(
        ${from} ORDER BY ${order} LIMIT :limit OFFSET :offset`,
     { replacements: { ...rep, limit: pageSize, offset: (page - 1) * pageSize }, type: QueryTypes.SELECT },
   );
-  const tz = school.timeZone;
   const rows = raw.map((r) => {
     const a = new Date(r.startsAt);
     const e = new Date(r.endsAt);

@@ -13,7 +13,9 @@ import { todayFocusList } from "@/db/access/today/focus-list";
 import { teachingWeek, CHECKS_DUE_SHOWN } from "@/db/access/today/teaching-week";
 import { listSessions } from "@/db/access/timetable/list-sessions";
 import { schedulingChoices } from "@/db/access/timetable/scheduling-choices";
-import { makeSchool, closeDb } from "@/tests/helpers/factories";
+import { makeSchool, closeDb, actAs } from "@/tests/helpers/factories";
+import { NextRequest } from "next/server";
+import { GET as sessionsGET } from "@/app/api/sessions/route";
 import { studentWeekFor } from "@/db/access/today/student-week";
 import { sequelize } from "@/db/index";
 import { countQueries } from "@/tests/helpers/query-count";
@@ -182,4 +184,20 @@ it("reads nothing twice for one Progress map (staff, student, sponsor) or one st
   for (const who of [s.as.chief, s.as.instructor, s.as.student, s.as.sponsor])
     expect(await repeatedStatements(() => progressFor(who, student))).toEqual([]);
   expect(await repeatedStatements(() => studentWeekFor(s.as.student))).toEqual([]);
+});
+
+it("GET /api/sessions reads the school once (React `cache` keeps nothing in a route handler, so the route hands it down)", async () => {
+  actAs(s.as.instructor);
+  const spy = jest.spyOn(sequelize, "query");
+  try {
+    const res = await sessionsGET(new NextRequest("http://127.0.0.1/api/sessions?from=2026-09-01&to=2026-09-30"), {
+      params: Promise.resolve({}),
+    });
+    expect(res.status).toBe(200);
+    const schoolReads = spy.mock.calls.filter(([sql]) => typeof sql === "string" && /FROM "schools"/.test(sql));
+    expect(schoolReads).toHaveLength(1);
+  } finally {
+    spy.mockRestore();
+    actAs(null);
+  }
 });
