@@ -1,7 +1,8 @@
 import "server-only";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../index";
-import { verifyChain, chainHead } from "../records/audit-chain";
+import { verifyChain, chainHead, type VerifyRow } from "../records/audit-chain";
+import type { PackInput } from "@/lib/inspection/content";
 
 // The audit chain's verification printed in an inspection pack. A walk of the whole chain takes
 // seconds per 100,000 events (11 s at 250,000), so the pack builds on the latest full walk that
@@ -10,25 +11,8 @@ import { verifyChain, chainHead } from "../records/audit-chain";
 // there. With no such walk, a later walk that found a break, or a changed row at the walk's last
 // position, the whole chain is walked here. The pack says which it was.
 
-export interface PackChain {
-  ok: boolean;
-  /** events that link up (from position 1) */
-  checked: number;
-  headHash: string;
-  headPosition: number;
-  lastGoodHash: string;
-  broken: { position: number; problem: string } | null;
-  /** positions 1..through verified by a full walk that ended at finishedAt; null when the whole chain was walked for this pack */
-  basis: { through: number; finishedAt: Date; requestedBy: string | null } | null;
-}
-
-interface RangeRow {
-  ok: boolean;
-  checked: string;
-  head_hash: string;
-  broken_pos: string | null;
-  problem: string | null;
-}
+/** The chain as the pack prints it (its shape is the pack content's, lib/inspection/content.ts). */
+export type PackChain = PackInput["chain"];
 
 export async function chainForPack(schoolId: string): Promise<PackChain> {
   // the head first, then the walk (which may reach rows written in between)
@@ -48,7 +32,7 @@ export async function chainForPack(schoolId: string): Promise<PackChain> {
       { replacements: { schoolId, through }, type: QueryTypes.SELECT },
     );
     if (atThrough.length === 1 && atThrough[0]!.intact && atThrough[0]!.hash === walk.checked_hash) {
-      const [r] = await sequelize.query<RangeRow>(`SELECT * FROM audit_verify_from(:schoolId, :through, :hash)`, {
+      const [r] = await sequelize.query<VerifyRow>(`SELECT * FROM audit_verify_from(:schoolId, :through, :hash)`, {
         replacements: { schoolId, through, hash: walk.checked_hash },
         type: QueryTypes.SELECT,
       });

@@ -54,24 +54,30 @@ export interface ChainVerification {
   broken: { position: number; seq: number; id: string; problem: string } | null;
 }
 
+/** A row of audit_verify, audit_verify_from and audit_verify_range (they answer the same columns). */
+export interface VerifyRow {
+  ok: boolean;
+  checked: string;
+  head_hash: string;
+  broken_pos: string | null;
+  broken_seq: string | null;
+  broken_id: string | null;
+  problem: string | null;
+}
+
+/** The first broken link a verification row names (null when the chain linked up). */
+export function brokenOf(r: VerifyRow): ChainVerification["broken"] {
+  return r.ok ? null : { position: Number(r.broken_pos), seq: Number(r.broken_seq), id: r.broken_id ?? "", problem: r.problem ?? "" };
+}
+
 /** Walks the school's chain in the database and reports the first broken link. */
 export async function verifyChain(schoolId: string): Promise<ChainVerification> {
-  const [r] = await sequelize.query<{
-    ok: boolean;
-    checked: string;
-    head_hash: string;
-    broken_pos: string | null;
-    broken_seq: string | null;
-    broken_id: string | null;
-    problem: string | null;
-  }>(`SELECT * FROM audit_verify(:schoolId)`, { replacements: { schoolId }, type: QueryTypes.SELECT });
+  const [r] = await sequelize.query<VerifyRow>(`SELECT * FROM audit_verify(:schoolId)`, {
+    replacements: { schoolId },
+    type: QueryTypes.SELECT,
+  });
   if (!r) throw new Error("audit_verify returned nothing");
-  return {
-    ok: r.ok,
-    checked: Number(r.checked),
-    headHash: r.head_hash,
-    broken: r.ok ? null : { position: Number(r.broken_pos), seq: Number(r.broken_seq), id: r.broken_id ?? "", problem: r.problem ?? "" },
-  };
+  return { ok: r.ok, checked: Number(r.checked), headHash: r.head_hash, broken: brokenOf(r) };
 }
 
 /** The newest row's hash and position: printed on every export. */
@@ -157,16 +163,7 @@ export async function verifyChainSinceCheckpoint(
         busy: true,
       };
     }
-    const [r] = await sequelize.query<{
-      ok: boolean;
-      checked: string;
-      head_hash: string;
-      broken_pos: string | null;
-      broken_seq: string | null;
-      broken_id: string | null;
-      problem: string | null;
-      head_pos: string | null;
-    }>(
+    const [r] = await sequelize.query<VerifyRow & { head_pos: string | null }>(
       bounded
         ? `SELECT r.*, (SELECT max(chain_pos) FROM audit_events WHERE school_id = :schoolId) AS head_pos
              FROM audit_verify_range(:schoolId, :since, :hash, :to) r`
@@ -189,7 +186,7 @@ export async function verifyChainSinceCheckpoint(
       since,
       sinceVerifiedAt: cp ? cp.verified_at : null,
       unchecked: r.ok && r.head_pos !== null ? Math.max(0, Number(r.head_pos) - checked) : 0,
-      broken: r.ok ? null : { position: Number(r.broken_pos), seq: Number(r.broken_seq), id: r.broken_id ?? "", problem: r.problem ?? "" },
+      broken: brokenOf(r),
       busy: false,
     };
   });

@@ -3,6 +3,7 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../index";
 import { now } from "@/lib/clock";
 import type { CurrentUser } from "@/lib/auth/session";
+import type { VerifyRow } from "./audit-chain";
 
 // The full walk of a school's audit chain (migration 0720): asked for on the chain page, handed
 // to the pg-boss queue `audit.walk` by the background worker (lib/mail/worker.ts), walked there in
@@ -127,16 +128,6 @@ export async function handOverWalks(
   });
 }
 
-interface RangeResult {
-  ok: boolean;
-  checked: string;
-  head_hash: string;
-  broken_pos: string | null;
-  broken_seq: string | null;
-  broken_id: string | null;
-  problem: string | null;
-}
-
 export interface WalkOptions {
   /** positions per batch (one call of audit_verify_range) */
   batchSize: number;
@@ -179,7 +170,7 @@ export async function runWalk(walkId: string, opts: WalkOptions): Promise<AuditW
   while (checked < total) {
     let to = Math.min(checked + opts.batchSize, total);
     if (cpPos !== null && checked < cpPos) to = Math.min(to, cpPos);
-    const [r] = await sequelize.query<RangeResult>(`SELECT * FROM audit_verify_range(:schoolId, :from, :hash, :to)`, {
+    const [r] = await sequelize.query<VerifyRow>(`SELECT * FROM audit_verify_range(:schoolId, :from, :hash, :to)`, {
       replacements: { schoolId: w.school_id, from: checked, hash, to },
       type: QueryTypes.SELECT,
     });
