@@ -113,7 +113,7 @@ async function readEndorsementChoices(user: CurrentUser, kind: EndorsementPicker
         ORDER BY e.endorsed_on DESC, e.created_at DESC, e.id DESC LIMIT :limit`,
       { replacements: { ...where.replacements, pattern, limit }, type: QueryTypes.SELECT },
     );
-    return rows.map((r) => ({ id: r.id, name: r.studentName, detail: `endorsed ${formatDay(r.endorsedOn)}` }));
+    return rows.map((r) => ({ id: r.id, name: r.studentName, detail: formatDay(r.endorsedOn) }));
   }
   const scope = studentScopeSql(user, "records", "m.student_id");
   const rows = await sequelize.query<{ id: string; studentName: string; area: string; takenOn: string }>(

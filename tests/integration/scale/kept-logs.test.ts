@@ -155,7 +155,7 @@ describe("the endorsement log, a page at a time", () => {
     const found = await searchEndorsementChoices(s.as.chief, "awaiting", part.toUpperCase());
     expect(found.rows.map((r) => r.id)).toEqual(expected.slice(0, PICKER_RESULTS).map((w) => w.id));
     expect(found.more).toBe(expected.length > PICKER_RESULTS);
-    for (const r of found.rows) expect(r.detail).toMatch(/^endorsed [A-Z][a-z]{2} \d{1,2} [A-Z][a-z]{2} \d{4}$/);
+    for (const r of found.rows) expect(r.detail).toMatch(/^[A-Z][a-z]{2} \d{1,2} [A-Z][a-z]{2} \d{4}$/);
     // no text: the newest PICKER_RESULTS, with more to come
     const newest = await searchEndorsementChoices(s.as.chief, "awaiting", "");
     expect(newest.rows.map((r) => r.id)).toEqual(waiting.slice(0, PICKER_RESULTS).map((w) => w.id));
